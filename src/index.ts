@@ -1,0 +1,29 @@
+/**
+ * fluxstate: time-domain simulation of magnetic networks coupled to electric
+ * circuits, with flux as a state variable.
+ *
+ * @packageDocumentation
+ */
+export { FluxstateError, InputError, TopologyError } from './errors.js';
+export { MU0 } from './constants.js';
+export type {
+  DaeProblem,
+  DaeEvent,
+  DaeProgress,
+  DaeSolution,
+  DaeStatus,
+  DaeFailure,
+  DaeEventRecord,
+  SolveDaeOptions,
+  SolverStats,
+  RhsFunction,
+  JacobianFunction,
+  MassMatrixInput,
+} from './solver/types.js';
+export type { MaterialLaw } from './materials/material-law.js';
+export { linearMaterial, type LinearMaterialSpec } from './materials/linear.js';
+export { compileMaterial, type MaterialSpec } from './materials/material-spec.js';
+export type { Waveform } from './waveforms/waveform.js';
+export { constant, constantWaveform, type ConstantSpec } from './waveforms/constant.js';
+export { sine, sineWaveform, type SineSpec } from './waveforms/sine.js';
+export { compileWaveform, type WaveformSpec } from './waveforms/waveform-spec.js';

@@ -1,0 +1,204 @@
+/**
+ * Public types of the generic DAE solver. The solver knows nothing about
+ * magnetics: it integrates M y' = f(t, y) with a constant, possibly singular
+ * mass matrix M.
+ *
+ * Matrices are dense, row-major Float64Array of length n*n:
+ * entry (i, j) is at index i*n + j.
+ */
+
+/**
+ * Right-hand side f(t, y) of M y' = f(t, y), written into `out` (length n).
+ * The function must not keep references to `y` or `out`; it may throw, in
+ * which case the solver stops with status `'rhs-error'` and keeps all data.
+ */
+export type RhsFunction = (t: number, y: Float64Array, out: Float64Array) => void;
+
+/**
+ * Analytic Jacobian df/dy at (t, y), written into `out` (row-major n*n).
+ * `out` is zero-filled by the caller before each call, so a sparse stamp may
+ * write only its non-zero entries.
+ */
+export type JacobianFunction = (t: number, y: Float64Array, out: Float64Array) => void;
+
+/**
+ * A mass matrix given either as row-major Float64Array (n*n) or as an array
+ * of n rows of n numbers.
+ */
+export type MassMatrixInput = Float64Array | readonly (readonly number[])[];
+
+/** An event function g(t, y) whose zero crossings the solver locates on its dense output. */
+export interface DaeEvent {
+  /** Name used in the result and in messages. */
+  readonly name?: string;
+  /** The event function; a sign change between two accepted points is a crossing. */
+  readonly fn: (t: number, y: Float64Array) => number;
+  /** +1: only rising crossings (g goes from negative to positive); -1: only falling; 0 or absent: both. */
+  readonly direction?: -1 | 0 | 1;
+  /** Stop the integration at this event (status `'terminal-event'`). */
+  readonly terminal?: boolean;
+}
+
+/** The initial value problem M y' = f(t, y), y(t0) = y0, on [t0, tEnd]. Pure data. */
+export interface DaeProblem {
+  /** Number of unknowns n. */
+  readonly size: number;
+  /** Right-hand side f. */
+  readonly rhs: RhsFunction;
+  /** Analytic Jacobian df/dy. Without it the solver builds one by finite differences. */
+  readonly jacobian?: JacobianFunction;
+  /** Constant mass matrix M (n*n); absent means the identity (an ODE). May be singular. */
+  readonly mass?: MassMatrixInput;
+  /** Initial state (length n). Algebraic components are made consistent at t0 unless disabled. */
+  readonly y0: ArrayLike<number>;
+  /** Start time. */
+  readonly t0: number;
+  /** End time (> t0). */
+  readonly tEnd: number;
+  /**
+   * Times in (t0, tEnd) where f or one of its derivatives is discontinuous
+   * (a source switching on, a switch opening). The solver lands exactly on
+   * each and restarts there.
+   */
+  readonly breakpoints?: readonly number[];
+  /** Event functions located on the dense output. */
+  readonly events?: readonly DaeEvent[];
+  /**
+   * Indices of index-2 components (for example the voltage across a winding
+   * whose current is forced by a current source). Their error estimate is
+   * scaled by the step size, as in Hairer and Wanner, Solving ODEs II,
+   * sect. VI.6 and the radau5 code.
+   */
+  readonly index2?: readonly number[];
+}
+
+/** Progress report passed to {@link SolveDaeOptions.onProgress}. */
+export interface DaeProgress {
+  /** Time reached by the last accepted step. */
+  readonly t: number;
+  readonly t0: number;
+  readonly tEnd: number;
+  /** Fraction done, (t - t0)/(tEnd - t0). */
+  readonly fraction: number;
+  readonly acceptedSteps: number;
+}
+
+/** Options of {@link solveDae}. All optional. */
+export interface SolveDaeOptions {
+  /** Relative tolerance, scalar or per component. Default 1e-6. */
+  readonly rtol?: number | ArrayLike<number>;
+  /** Absolute tolerance, scalar or per component. Default 1e-9. */
+  readonly atol?: number | ArrayLike<number>;
+  /** First step size to try; default chosen from the problem. */
+  readonly initialStep?: number;
+  /** Largest step size allowed. Default tEnd - t0. */
+  readonly maxStep?: number;
+  /** Budget of accepted + rejected steps; status `'step-budget'` when exceeded. Default 1e6. */
+  readonly maxSteps?: number;
+  /** Wall-time budget in milliseconds; status `'time-budget'` when exceeded. */
+  readonly maxWallTimeMs?: number;
+  /** Cancellation; status `'aborted'` when signalled. */
+  readonly signal?: AbortSignal;
+  /** Called after accepted steps, at most every {@link progressIntervalMs}. */
+  readonly onProgress?: (progress: DaeProgress) => void;
+  /** Minimum wall time between two progress calls, ms. Default 200. */
+  readonly progressIntervalMs?: number;
+  /** Time tolerance for locating events. Default 1e-12 * max(1, |t|). */
+  readonly eventTolerance?: number;
+  /** Make algebraic components consistent at t0 by Newton's method. Default true. */
+  readonly consistentInit?: boolean;
+  /** Keep every step's interpolant so that `solution.at(t)` works anywhere in [t0, tReached]. Default true. */
+  readonly denseOutput?: boolean;
+  /** Extra output times, filled from the dense output (any order; returned sorted). */
+  readonly outputTimes?: ArrayLike<number>;
+}
+
+/**
+ * Outcome of a run.
+ * - `'success'`: reached tEnd.
+ * - `'terminal-event'`: a terminal event fired; `events` tells which.
+ * - `'step-size-underflow'`: the step size fell below the round-off limit
+ *   (common reasons: a singularity in f, an inconsistent or higher-index
+ *   model, tolerances too tight for double precision).
+ * - `'newton-failure'`: the collocation Newton iteration failed repeatedly
+ *   even with a fresh Jacobian and smaller steps.
+ * - `'singular-matrix'`: the iteration matrix (gamma/h M - J) is singular
+ *   (common reasons: a floating part of the model, an unconstrained unknown).
+ * - `'non-finite'`: f returned NaN or Infinity at the first evaluation of a step.
+ * - `'rhs-error'`: f or the Jacobian threw.
+ * - `'inconsistent-init'`: the algebraic equations could not be satisfied at t0.
+ * - `'step-budget'`, `'time-budget'`, `'aborted'`: stopped by the caller's limits.
+ */
+export type DaeStatus =
+  | 'success'
+  | 'terminal-event'
+  | 'step-size-underflow'
+  | 'newton-failure'
+  | 'singular-matrix'
+  | 'non-finite'
+  | 'rhs-error'
+  | 'inconsistent-init'
+  | 'step-budget'
+  | 'time-budget'
+  | 'aborted';
+
+/** Counts of the work done; every evaluation is counted. */
+export interface SolverStats {
+  acceptedSteps: number;
+  rejectedSteps: number;
+  /** Evaluations of f (including those for finite-difference Jacobians and consistent initialisation). */
+  rhsEvaluations: number;
+  /** Jacobian evaluations (analytic or finite-difference). */
+  jacobianEvaluations: number;
+  /** Factorisations of the iteration matrices (one real and one complex system count as one). */
+  luFactorizations: number;
+  /** Newton iterations on the collocation system. */
+  newtonIterations: number;
+  /** Newton iterations that failed to converge (each leads to a retry). */
+  newtonFailures: number;
+}
+
+/** A located event. */
+export interface DaeEventRecord {
+  /** Index in `problem.events`. */
+  readonly index: number;
+  readonly name: string;
+  readonly t: number;
+  readonly y: Float64Array;
+}
+
+/** Where and why a run stopped early. */
+export interface DaeFailure {
+  /** Time of the last accepted step (data up to here is valid). */
+  readonly t: number;
+  /** Step size being attempted when the run stopped. */
+  readonly h: number;
+  /** Components involved: largest in the error estimate, non-finite in f, or at a zero pivot. */
+  readonly components: readonly number[];
+  /** The error thrown by f, when status is `'rhs-error'`. */
+  readonly cause?: unknown;
+}
+
+/** Result of {@link solveDae}. Returned for every status: nothing computed is lost. */
+export interface DaeSolution {
+  readonly status: DaeStatus;
+  /** One line a person can act on. */
+  readonly message: string;
+  /** Accepted times, starting with t0 (after consistent initialisation). */
+  readonly t: Float64Array;
+  /** States at `t`: y[k] is the state at t[k]. */
+  readonly y: readonly Float64Array[];
+  /** Last accepted time. */
+  readonly tReached: number;
+  /** Dense output: the state at any time in [t0, tReached]. Throws outside that range. */
+  at(t: number): Float64Array;
+  /** Time history of one component at the accepted times. */
+  component(index: number): Float64Array;
+  /** Located events in time order. */
+  readonly events: readonly DaeEventRecord[];
+  /** Requested `outputTimes` (sorted) and the states there, up to tReached. */
+  readonly output: { readonly t: Float64Array; readonly y: readonly Float64Array[] };
+  readonly stats: SolverStats;
+  /** Present when status is neither `'success'` nor `'terminal-event'`. */
+  readonly failure?: DaeFailure;
+}

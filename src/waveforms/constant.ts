@@ -1,0 +1,30 @@
+import { InputError } from '../errors.js';
+import type { Waveform } from './waveform.js';
+
+/** Plain-data description of a constant (DC) waveform. */
+export interface ConstantSpec {
+  readonly kind: 'constant';
+  /** The value, V or A. */
+  readonly value: number;
+}
+
+/**
+ * A constant (DC) waveform spec.
+ *
+ * @example
+ * ```ts
+ * net.voltageSource('battery', plus, net.ground, constant(12));
+ * ```
+ */
+export function constant(value: number): ConstantSpec {
+  return { kind: 'constant', value };
+}
+
+/** Compile a {@link ConstantSpec}; `owner` names the element in errors. */
+export function constantWaveform(spec: ConstantSpec, owner = 'waveform'): Waveform {
+  if (!Number.isFinite(spec.value)) {
+    throw new InputError('bad-waveform', `${owner}: constant value ${spec.value} is not finite; give a finite number`, [owner]);
+  }
+  const v = spec.value;
+  return { value: () => v, breakpoints: () => [] };
+}

@@ -1,0 +1,16 @@
+/**
+ * A source waveform: its value at any time and the times where it (or its
+ * slope) jumps, so that the solver can land on them exactly.
+ *
+ * @example
+ * ```ts
+ * const w = compileWaveform(sine({ amplitude: 325, frequency: 50 }));
+ * w.value(0.005); // 325
+ * ```
+ */
+export interface Waveform {
+  /** Value at time t (V for a voltage source, A for a current source). */
+  value(t: number): number;
+  /** Sorted times in [t0, t1] where the value or its slope is discontinuous. */
+  breakpoints(t0: number, t1: number): number[];
+}
