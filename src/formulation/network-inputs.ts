@@ -1,0 +1,108 @@
+import type { NetworkDescription } from '../network/description.js';
+import { compileWaveform } from '../waveforms/waveform-spec.js';
+import type { Waveform } from '../waveforms/waveform.js';
+
+/** The float next above x (x finite). */
+export function nextUp(x: number): number {
+  if (x === 0) return Number.MIN_VALUE;
+  const buf = new Float64Array([x]);
+  const bits = new BigInt64Array(buf.buffer);
+  bits[0] = bits[0]! + (x > 0 ? 1n : -1n);
+  return buf[0]!;
+}
+
+/** The float next below x (x finite). */
+export function nextDown(x: number): number {
+  return -nextUp(-x);
+}
+
+/**
+ * Time-dependent inputs of a compiled network: source waveforms and switch
+ * states, plus overrides set by embedding code between advances.
+ *
+ * Inputs are piecewise smooth; at a breakpoint the value depends on the side
+ * we come from. The driver integrates one interval [a, b] between
+ * consecutive breakpoints at a time and tells the inputs which interval is
+ * active: at t <= a they give the right limit, at t >= b the left limit. So
+ * a step that ends on a switching instant sees the old state, and the
+ * restart there sees the new one.
+ */
+export class NetworkInputs {
+  private readonly waveforms: (Waveform | undefined)[];
+  private readonly sourceOverride: (number | undefined)[];
+  private readonly switchOverride: (boolean | undefined)[];
+  private readonly switchInitial: boolean[];
+  private readonly switchToggles: (readonly number[])[];
+  private intervalStart = -Infinity;
+  private intervalEnd = Infinity;
+
+  constructor(private readonly description: NetworkDescription) {
+    const els = description.elements;
+    this.waveforms = els.map((e) =>
+      e.kind === 'voltage-source' || e.kind === 'current-source'
+        ? compileWaveform(e.waveform, `${e.kind.replace('-', ' ')} "${e.name}"`)
+        : undefined,
+    );
+    this.sourceOverride = els.map(() => undefined);
+    this.switchOverride = els.map(() => undefined);
+    this.switchInitial = els.map((e) => (e.kind === 'switch' ? e.initiallyClosed : false));
+    this.switchToggles = els.map((e) => (e.kind === 'switch' ? e.toggleTimes : []));
+  }
+
+  /** Declare the interval being integrated (see the class comment). */
+  setInterval(a: number, b: number): void {
+    this.intervalStart = a;
+    this.intervalEnd = b;
+  }
+
+  /** Time at which to evaluate piecewise inputs for a call at t. */
+  private sided(t: number): number {
+    if (t >= this.intervalEnd) return nextDown(this.intervalEnd);
+    if (t <= this.intervalStart) return nextUp(this.intervalStart);
+    return t;
+  }
+
+  /** Value of source element e at time t (V or A). */
+  sourceValue(e: number, t: number): number {
+    const o = this.sourceOverride[e];
+    if (o !== undefined) return o;
+    return this.waveforms[e]!.value(this.sided(t));
+  }
+
+  /** Whether switch element e is closed at time t. */
+  switchClosed(e: number, t: number): boolean {
+    const o = this.switchOverride[e];
+    if (o !== undefined) return o;
+    const ts = this.sided(t);
+    const toggles = this.switchToggles[e]!;
+    let count = 0;
+    while (count < toggles.length && toggles[count]! <= ts) count++;
+    return this.switchInitial[e]! !== (count % 2 === 1);
+  }
+
+  /** Hold a source at a fixed value (embedding), or undefined to follow its waveform again. */
+  overrideSource(e: number, value: number | undefined): void {
+    this.sourceOverride[e] = value;
+  }
+
+  /** Hold a switch open/closed (embedding), or undefined to follow its schedule again. */
+  overrideSwitch(e: number, closed: boolean | undefined): void {
+    this.switchOverride[e] = closed;
+  }
+
+  /** Sorted, distinct times in (t0, t1) where an input jumps or kinks. */
+  breakpoints(t0: number, t1: number): number[] {
+    const all: number[] = [];
+    this.description.elements.forEach((el, e) => {
+      const w = this.waveforms[e];
+      if (w && this.sourceOverride[e] === undefined) all.push(...w.breakpoints(t0, t1));
+      if (el.kind === 'switch' && this.switchOverride[e] === undefined) all.push(...this.switchToggles[e]!);
+    });
+    all.sort((x, y) => x - y);
+    const out: number[] = [];
+    for (const t of all) {
+      if (t > t0 && t < t1 && (out.length === 0 || t > out[out.length - 1]!)) out.push(t);
+    }
+    return out;
+  }
+}

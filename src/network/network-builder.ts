@@ -1,0 +1,554 @@
+import { InputError } from '../errors.js';
+import { compileMaterial, type MaterialSpec } from '../materials/material-spec.js';
+import type { MaterialLaw } from '../materials/material-law.js';
+import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
+import { requireFinite, requireName, requireNonNegative, requirePositive } from './argument-checks.js';
+import { clonePlain, freezePlain } from './clone-plain.js';
+import type {
+  ElementDescription,
+  NetworkDescription,
+  TubeDescription,
+  TubeLaw,
+} from './description.js';
+import type {
+  AnyHandle,
+  Capacitor,
+  CurrentSource,
+  ElectricNode,
+  FluxTube,
+  Inductor,
+  MagneticNode,
+  Resistor,
+  Switch,
+  VoltageSource,
+  Winding,
+} from './handles.js';
+
+/** Initial condition of a flux tube: give at most one of the two. */
+export interface TubeInitialCondition {
+  /** Initial flux in Wb. */
+  readonly initialFlux?: number;
+  /** Initial flux density in T (for example remanence); the tube needs an area. */
+  readonly initialFluxDensity?: number;
+}
+
+/** Options of {@link NetworkBuilder.fluxTube}. */
+export interface FluxTubeOptions extends TubeInitialCondition {
+  /** Magnetic node where positive flux enters the tube. */
+  readonly from: MagneticNode;
+  /** Magnetic node where positive flux leaves the tube. */
+  readonly to: MagneticNode;
+  /** Mean magnetic path length, m. */
+  readonly length: number;
+  /** Cross-section area, m^2. */
+  readonly area: number;
+  /** Material law as a plain-data spec (serialisable) or a live law object. */
+  readonly material: MaterialSpec | MaterialLaw;
+  /**
+   * Eddy-current resistance R_e in ohm, seen as one shorted turn around the
+   * tube: adds R_e dphi/dt to the tube's MMF drop and dissipates
+   * R_e (dphi/dt)^2. Omit for no eddy loss.
+   */
+  readonly eddyResistance?: number;
+}
+
+/** Options of {@link NetworkBuilder.airGap}. */
+export interface AirGapOptions extends TubeInitialCondition {
+  readonly from: MagneticNode;
+  readonly to: MagneticNode;
+  /** Gap length, m. */
+  readonly length: number;
+  /** Gap cross-section area, m^2. */
+  readonly area: number;
+  /**
+   * Fringing factor F >= 1: the effective area is F * area, so the
+   * reluctance is length/(mu0 F area). Default 1 (no fringing). See the
+   * geometry helpers for published fringing formulas.
+   */
+  readonly fringingFactor?: number;
+}
+
+/** Options of {@link NetworkBuilder.reluctance}. */
+export interface ReluctanceOptions extends TubeInitialCondition {
+  readonly from: MagneticNode;
+  readonly to: MagneticNode;
+  /** Constant reluctance, A/Wb (= 1/H). */
+  readonly reluctance: number;
+  /** Optional cross-section area, m^2, so that a flux density can be reported. */
+  readonly area?: number;
+}
+
+/** Options of {@link NetworkBuilder.winding}. */
+export interface WindingOptions {
+  /** The flux tube the winding encircles. */
+  readonly tube: FluxTube;
+  /** Number of turns (> 0; need not be an integer, e.g. for a scaled model). */
+  readonly turns: number;
+  /** DC resistance of the winding, ohm. Default 0 (ideal). */
+  readonly resistance?: number;
+  /** Terminal where positive current enters. */
+  readonly plus: ElectricNode;
+  /** Terminal where positive current leaves. */
+  readonly minus: ElectricNode;
+  /**
+   * +1 (default): positive current drives flux in the tube's positive
+   * direction (from its `from` node to its `to` node); -1: against it.
+   */
+  readonly orientation?: 1 | -1;
+}
+
+/** Options of {@link NetworkBuilder.switch}. */
+export interface SwitchOptions {
+  /** Resistance when closed, ohm. Default 1e-3. */
+  readonly onResistance?: number;
+  /** Resistance when open, ohm. Default 1e6. */
+  readonly offResistance?: number;
+  /** State at the start. Default false (open). */
+  readonly closed?: boolean;
+  /** State changes: at each time the switch takes the given state. Times strictly increasing. */
+  readonly schedule?: readonly { readonly time: number; readonly closed: boolean }[];
+}
+
+let nextNetworkId = 1;
+
+/**
+ * Builds one network: electric and magnetic nodes, flux tubes and windings,
+ * and electric elements. Each call validates its arguments and returns a
+ * typed handle; results are read through the handles.
+ *
+ * @example
+ * ```ts
+ * const net = createNetwork('choke');
+ * const top = net.magneticNode('top');
+ * const bottom = net.magneticNode('bottom');
+ * const core = net.fluxTube('core', { from: top, to: bottom, length: 0.2, area: 1e-4,
+ *   material: { kind: 'linear', relativePermeability: 2000 } });
+ * net.airGap('gap', { from: bottom, to: top, length: 1e-3, area: 1e-4 });
+ * const a = net.node('a');
+ * net.voltageSource('supply', a, net.ground, sine({ amplitude: 10, frequency: 50 }));
+ * net.winding('coil', { tube: core, turns: 100, resistance: 0.5, plus: a, minus: net.ground });
+ * ```
+ */
+export class NetworkBuilder {
+  /** Identity of this network; handles carry it so that handles of another network are refused. */
+  readonly id: number;
+  /** The network's name, used in messages and reports. */
+  readonly name: string;
+  /** The reference electric node (potential 0). */
+  readonly ground: ElectricNode;
+
+  private readonly electricNodes: { name: string }[] = [];
+  private readonly magneticNodes: { name: string }[] = [];
+  private readonly tubes: TubeDescription[] = [];
+  private readonly elements: ElementDescription[] = [];
+  private readonly electricNames = new Map<string, number>();
+  private readonly magneticNames = new Map<string, number>();
+  private readonly tubeNames = new Map<string, number>();
+  private readonly elementNames = new Map<string, number>();
+
+  /** Use {@link createNetwork}. */
+  constructor(name = 'network') {
+    this.id = nextNetworkId++;
+    this.name = requireName(name, 'network');
+    this.electricNodes.push({ name: 'ground' });
+    this.electricNames.set('ground', 0);
+    this.ground = this.handle('electric-node', 'ground', 0);
+  }
+
+  /**
+   * Add an electric node.
+   *
+   * @example
+   * ```ts
+   * const a = net.node('a');
+   * ```
+   */
+  node(name: string): ElectricNode {
+    this.claim(this.electricNames, requireName(name, 'electric node'), 'electric node', this.electricNodes.length);
+    this.electricNodes.push({ name });
+    return this.handle('electric-node', name, this.electricNodes.length - 1);
+  }
+
+  /**
+   * Add a magnetic node (a junction of flux tubes).
+   *
+   * @example
+   * ```ts
+   * const top = net.magneticNode('top yoke');
+   * ```
+   */
+  magneticNode(name: string): MagneticNode {
+    this.claim(this.magneticNames, requireName(name, 'magnetic node'), 'magnetic node', this.magneticNodes.length);
+    this.magneticNodes.push({ name });
+    return this.handle('magnetic-node', name, this.magneticNodes.length - 1);
+  }
+
+  /**
+   * Add a flux tube of material: its MMF drop is length * H(phi / area).
+   *
+   * @example
+   * ```ts
+   * const leg = net.fluxTube('leg', { from: top, to: bottom, length: 0.12, area: 9e-4,
+   *   material: { kind: 'linear', relativePermeability: 5000 }, initialFluxDensity: 0.4 });
+   * ```
+   */
+  fluxTube(name: string, options: FluxTubeOptions): FluxTube {
+    requireName(name, 'flux tube');
+    const owner = `tube "${name}"`;
+    const length = requirePositive(options.length, `${owner} length`, name, 'm');
+    const area = requirePositive(options.area, `${owner} area`, name, 'm^2');
+    compileMaterial(options.material); // surfaces a bad material here, at the call that gave it
+    const eddy = options.eddyResistance;
+    if (eddy !== undefined) requirePositive(eddy, `${owner} eddy resistance`, name, 'ohm');
+    const law: TubeLaw = { kind: 'material', length, area, material: clonePlain(options.material) };
+    return this.addTube(name, options, law, eddy);
+  }
+
+  /**
+   * Add an air gap: reluctance length / (mu0 * fringingFactor * area).
+   *
+   * @example
+   * ```ts
+   * net.airGap('centre gap', { from: a, to: b, length: 0.5e-3, area: 9e-4, fringingFactor: 1.15 });
+   * ```
+   */
+  airGap(name: string, options: AirGapOptions): FluxTube {
+    requireName(name, 'air gap');
+    const owner = `air gap "${name}"`;
+    const length = requirePositive(options.length, `${owner} length`, name, 'm');
+    const area = requirePositive(options.area, `${owner} area`, name, 'm^2');
+    const fringingFactor = options.fringingFactor ?? 1;
+    requirePositive(fringingFactor, `${owner} fringing factor`, name, '');
+    if (fringingFactor < 1) {
+      throw new InputError(
+        'bad-fringing-factor',
+        `${owner} fringing factor ${fringingFactor} is below 1; fringing only widens the effective area (use 1 for none)`,
+        [name],
+      );
+    }
+    return this.addTube(name, options, { kind: 'air-gap', length, area, fringingFactor }, undefined);
+  }
+
+  /**
+   * Add a constant reluctance (A/Wb) between two magnetic nodes, for example
+   * a leakage path computed from the window geometry.
+   *
+   * @example
+   * ```ts
+   * net.reluctance('leakage', { from: top, to: bottom, reluctance: 2e7 });
+   * ```
+   */
+  reluctance(name: string, options: ReluctanceOptions): FluxTube {
+    requireName(name, 'reluctance');
+    const owner = `reluctance "${name}"`;
+    const reluctance = requirePositive(options.reluctance, `${owner} value`, name, 'A/Wb');
+    const law: TubeLaw =
+      options.area === undefined
+        ? { kind: 'reluctance', reluctance }
+        : { kind: 'reluctance', reluctance, area: requirePositive(options.area, `${owner} area`, name, 'm^2') };
+    return this.addTube(name, options, law, undefined);
+  }
+
+  /**
+   * Add a winding of `turns` turns around a flux tube. Its terminal voltage is
+   * v_plus - v_minus = R i + orientation * N dphi/dt.
+   *
+   * @example
+   * ```ts
+   * const primary = net.winding('primary', { tube: leg, turns: 240, resistance: 1.2, plus: a, minus: net.ground });
+   * ```
+   */
+  winding(name: string, options: WindingOptions): Winding {
+    this.checkElementName(name, 'winding');
+    const owner = `winding "${name}"`;
+    const tube = this.own(options.tube, 'flux-tube', `${owner} tube`, name);
+    const turns = requirePositive(options.turns, `${owner} turns`, name, '');
+    const resistance = requireNonNegative(options.resistance ?? 0, `${owner} resistance`, name, 'ohm');
+    const orientation = options.orientation ?? 1;
+    if (orientation !== 1 && orientation !== -1) {
+      throw new InputError('bad-orientation', `${owner} orientation ${String(orientation)} must be +1 or -1`, [name]);
+    }
+    const [plus, minus] = this.terminals(options.plus, options.minus, owner, name);
+    return this.addElement('winding', {
+      kind: 'winding', name, plus, minus, tube: tube.index, turns, resistance, orientation,
+    });
+  }
+
+  /**
+   * Add a linear resistor.
+   *
+   * @example
+   * ```ts
+   * net.resistor('load', a, net.ground, 12);
+   * ```
+   */
+  resistor(name: string, plus: ElectricNode, minus: ElectricNode, resistance: number): Resistor {
+    this.checkElementName(name, 'resistor');
+    const owner = `resistor "${name}"`;
+    const [p, m] = this.terminals(plus, minus, owner, name);
+    const r = requirePositive(resistance, `${owner} resistance`, name, 'ohm');
+    return this.addElement('resistor', { kind: 'resistor', name, plus: p, minus: m, resistance: r });
+  }
+
+  /**
+   * Add a linear capacitor with an optional initial voltage v_plus - v_minus.
+   *
+   * @example
+   * ```ts
+   * net.capacitor('dc link', a, net.ground, 470e-6, { initialVoltage: 325 });
+   * ```
+   */
+  capacitor(name: string, plus: ElectricNode, minus: ElectricNode, capacitance: number, options: { readonly initialVoltage?: number } = {}): Capacitor {
+    this.checkElementName(name, 'capacitor');
+    const owner = `capacitor "${name}"`;
+    const [p, m] = this.terminals(plus, minus, owner, name);
+    const c = requirePositive(capacitance, `${owner} capacitance`, name, 'F');
+    const v0 = requireFinite(options.initialVoltage ?? 0, `${owner} initial voltage`, name, 'V');
+    return this.addElement('capacitor', { kind: 'capacitor', name, plus: p, minus: m, capacitance: c, initialVoltage: v0 });
+  }
+
+  /**
+   * Add a linear inductor with an optional initial current (plus to minus).
+   *
+   * @example
+   * ```ts
+   * net.inductor('line', a, b, 2e-3, { initialCurrent: 0 });
+   * ```
+   */
+  inductor(name: string, plus: ElectricNode, minus: ElectricNode, inductance: number, options: { readonly initialCurrent?: number } = {}): Inductor {
+    this.checkElementName(name, 'inductor');
+    const owner = `inductor "${name}"`;
+    const [p, m] = this.terminals(plus, minus, owner, name);
+    const l = requirePositive(inductance, `${owner} inductance`, name, 'H');
+    const i0 = requireFinite(options.initialCurrent ?? 0, `${owner} initial current`, name, 'A');
+    return this.addElement('inductor', { kind: 'inductor', name, plus: p, minus: m, inductance: l, initialCurrent: i0 });
+  }
+
+  /**
+   * Add an ideal voltage source: v_plus - v_minus = waveform(t). Its current
+   * is reported as the current it delivers out of its plus terminal.
+   *
+   * @example
+   * ```ts
+   * net.voltageSource('mains', a, net.ground, sine({ amplitude: 325, frequency: 50 }));
+   * ```
+   */
+  voltageSource(name: string, plus: ElectricNode, minus: ElectricNode, waveform: WaveformSpec): VoltageSource {
+    this.checkElementName(name, 'voltage source');
+    const [p, m] = this.terminals(plus, minus, `voltage source "${name}"`, name);
+    compileWaveform(waveform, `voltage source "${name}"`);
+    return this.addElement('voltage-source', { kind: 'voltage-source', name, plus: p, minus: m, waveform: clonePlain(waveform) });
+  }
+
+  /**
+   * Add an ideal current source driving waveform(t) out of its plus terminal
+   * into the circuit.
+   *
+   * @example
+   * ```ts
+   * net.currentSource('bias', a, net.ground, constant(1.5));
+   * ```
+   */
+  currentSource(name: string, plus: ElectricNode, minus: ElectricNode, waveform: WaveformSpec): CurrentSource {
+    this.checkElementName(name, 'current source');
+    const [p, m] = this.terminals(plus, minus, `current source "${name}"`, name);
+    compileWaveform(waveform, `current source "${name}"`);
+    return this.addElement('current-source', { kind: 'current-source', name, plus: p, minus: m, waveform: clonePlain(waveform) });
+  }
+
+  /**
+   * Add a switch: a resistance that takes `onResistance` when closed and
+   * `offResistance` when open, changing state at scheduled times.
+   *
+   * @example
+   * ```ts
+   * net.switch('breaker', a, b, { closed: false, schedule: [{ time: 0.005, closed: true }] });
+   * ```
+   */
+  switch(name: string, plus: ElectricNode, minus: ElectricNode, options: SwitchOptions = {}): Switch {
+    this.checkElementName(name, 'switch');
+    const owner = `switch "${name}"`;
+    const [p, m] = this.terminals(plus, minus, owner, name);
+    const onResistance = requirePositive(options.onResistance ?? 1e-3, `${owner} on-resistance`, name, 'ohm');
+    const offResistance = requirePositive(options.offResistance ?? 1e6, `${owner} off-resistance`, name, 'ohm');
+    if (offResistance <= onResistance) {
+      throw new InputError(
+        'bad-switch-resistance',
+        `${owner} off-resistance ${offResistance} ohm is not above its on-resistance ${onResistance} ohm; swap them`,
+        [name],
+      );
+    }
+    const initiallyClosed = options.closed ?? false;
+    const toggleTimes: number[] = [];
+    let state = initiallyClosed;
+    let last = -Infinity;
+    for (const [k, entry] of (options.schedule ?? []).entries()) {
+      const time = requireFinite(entry.time, `${owner} schedule entry ${k} time`, name, 's');
+      if (time <= last) {
+        throw new InputError(
+          'unsorted-schedule',
+          `${owner} schedule entry ${k} at t = ${time} s does not come after the previous entry (${last} s); sort the schedule by time`,
+          [name],
+        );
+      }
+      last = time;
+      if (entry.closed !== state) {
+        toggleTimes.push(time);
+        state = entry.closed;
+      }
+    }
+    return this.addElement('switch', {
+      kind: 'switch', name, plus: p, minus: m, onResistance, offResistance, initiallyClosed, toggleTimes,
+    });
+  }
+
+  /**
+   * The network as plain data (a deep, frozen copy): what the formulation
+   * compiles, what a worker receives, what a report lists.
+   *
+   * @example
+   * ```ts
+   * const json = JSON.stringify(net.describe());
+   * ```
+   */
+  describe(): NetworkDescription {
+    return freezePlain(clonePlain<NetworkDescription>({
+      name: this.name,
+      electricNodes: this.electricNodes,
+      magneticNodes: this.magneticNodes,
+      tubes: this.tubes,
+      elements: this.elements,
+    }));
+  }
+
+  /**
+   * Check that a handle belongs to this network and has the expected kind;
+   * returns it. Used by the result accessors and by helper modules.
+   *
+   * @example
+   * ```ts
+   * net.own(leg, 'flux-tube', 'argument "tube"', 'my script');
+   * ```
+   */
+  own<K extends AnyHandle['kind']>(handle: AnyHandle, kind: K, what: string, owner: string): Extract<AnyHandle, { kind: K }> {
+    if (handle === null || typeof handle !== 'object' || handle.kind !== kind) {
+      throw new InputError(
+        'wrong-handle-kind',
+        `${what} must be a ${kind} handle from this network, got ${describeValue(handle)}`,
+        [owner],
+      );
+    }
+    if (handle.network !== this.id) {
+      throw new InputError(
+        'foreign-handle',
+        `${what} "${handle.name}" belongs to another network; use handles created by network "${this.name}"`,
+        [owner, handle.name],
+      );
+    }
+    return handle as Extract<AnyHandle, { kind: K }>;
+  }
+
+  private addTube(name: string, ic: TubeInitialCondition, law: TubeLaw, eddyResistance: number | undefined): FluxTube {
+    const owner = `tube "${name}"`;
+    this.claim(this.tubeNames, name, 'flux tube', this.tubes.length);
+    const from = this.own((ic as FluxTubeOptions).from, 'magnetic-node', `${owner} "from" node`, name);
+    const to = this.own((ic as FluxTubeOptions).to, 'magnetic-node', `${owner} "to" node`, name);
+    if (from.index === to.index) {
+      this.tubeNames.delete(name);
+      throw new InputError(
+        'tube-self-loop',
+        `${owner} starts and ends at magnetic node "${from.name}"; a tube must join two different nodes`,
+        [name, from.name],
+      );
+    }
+    if (ic.initialFlux !== undefined && ic.initialFluxDensity !== undefined) {
+      this.tubeNames.delete(name);
+      throw new InputError('conflicting-initial-flux', `${owner} has both initialFlux and initialFluxDensity; give one`, [name]);
+    }
+    if (ic.initialFlux !== undefined) requireFinite(ic.initialFlux, `${owner} initial flux`, name, 'Wb');
+    if (ic.initialFluxDensity !== undefined) {
+      requireFinite(ic.initialFluxDensity, `${owner} initial flux density`, name, 'T');
+      if (law.kind === 'reluctance' && law.area === undefined) {
+        this.tubeNames.delete(name);
+        throw new InputError(
+          'missing-area',
+          `${owner} has an initial flux density but no area; give the reluctance an area or use initialFlux`,
+          [name],
+        );
+      }
+    }
+    const tube: TubeDescription = {
+      name, from: from.index, to: to.index, law,
+      ...(eddyResistance !== undefined ? { eddyResistance } : {}),
+      ...(ic.initialFlux !== undefined ? { initialFlux: ic.initialFlux } : {}),
+      ...(ic.initialFluxDensity !== undefined ? { initialFluxDensity: ic.initialFluxDensity } : {}),
+    };
+    this.tubes.push(tube);
+    return this.handle('flux-tube', name, this.tubes.length - 1);
+  }
+
+  private addElement<K extends ElementDescription['kind']>(kind: K, element: Extract<ElementDescription, { kind: K }>): Extract<AnyHandle, { kind: K }> {
+    this.elementNames.set(element.name, this.elements.length);
+    this.elements.push(element);
+    return this.handle(kind, element.name, this.elements.length - 1) as Extract<AnyHandle, { kind: K }>;
+  }
+
+  private checkElementName(name: string, kind: string): void {
+    requireName(name, kind);
+    if (this.elementNames.has(name)) {
+      throw new InputError(
+        'duplicate-name',
+        `${kind} name "${name}" is already used by another element of network "${this.name}"; names must be unique`,
+        [name],
+      );
+    }
+  }
+
+  private claim(map: Map<string, number>, name: string, kind: string, index: number): void {
+    if (map.has(name)) {
+      throw new InputError(
+        'duplicate-name',
+        `${kind} name "${name}" is already used in network "${this.name}"; names must be unique`,
+        [name],
+      );
+    }
+    map.set(name, index);
+  }
+
+  private terminals(plus: ElectricNode, minus: ElectricNode, owner: string, name: string): [number, number] {
+    const p = this.own(plus, 'electric-node', `${owner} plus terminal`, name);
+    const m = this.own(minus, 'electric-node', `${owner} minus terminal`, name);
+    if (p.index === m.index) {
+      throw new InputError(
+        'shorted-element',
+        `${owner} has both terminals on node "${p.name}"; connect it between two different nodes`,
+        [name, p.name],
+      );
+    }
+    return [p.index, m.index];
+  }
+
+  private handle<K extends AnyHandle['kind']>(kind: K, name: string, index: number): Extract<AnyHandle, { kind: K }> {
+    return Object.freeze({ kind, name, index, network: this.id }) as unknown as Extract<AnyHandle, { kind: K }>;
+  }
+}
+
+/**
+ * Start a new network.
+ *
+ * @example
+ * ```ts
+ * const net = createNetwork('mains transformer');
+ * ```
+ */
+export function createNetwork(name = 'network'): NetworkBuilder {
+  return new NetworkBuilder(name);
+}
+
+function describeValue(value: unknown): string {
+  if (value !== null && typeof value === 'object' && 'kind' in value) {
+    const v = value as { kind: unknown; name?: unknown };
+    return `a ${String(v.kind)}${typeof v.name === 'string' ? ` ("${v.name}")` : ''}`;
+  }
+  return value === undefined ? 'nothing' : typeof value;
+}

@@ -1,0 +1,511 @@
+import { InputError } from '../errors.js';
+import type { CompiledNetwork } from '../formulation/compile-network.js';
+import { derivativeFunctional } from '../formulation/derivative-functional.js';
+import type { ElementDescription, NetworkDescription } from '../network/description.js';
+import type {
+  AnyHandle,
+  ElectricNode,
+  FluxTube,
+  MagneticNode,
+  TwoTerminal,
+  Winding,
+} from '../network/handles.js';
+import type { DaeFailure, DaeSolution, DaeStatus, SolverStats } from '../solver/types.js';
+import { computeEnergyAudit, type EnergyAudit } from './energy-audit.js';
+import { resultToCsv, resultToJson, type CsvOptions, type ResultJson } from './export.js';
+
+/** One interval between breakpoints, as the solver returned it. */
+export interface SolutionPiece {
+  readonly solution: DaeSolution;
+  /** Start of the interval between breakpoints, s. */
+  readonly start: number;
+  /** End of the interval (the next breakpoint or the stop time), s; the solver may have stopped earlier. */
+  readonly end: number;
+}
+
+/** What the run stopped on, with the unknowns named by element. */
+export interface SimulationFailure {
+  /** Last accepted time, s: all data up to here is valid. */
+  readonly time: number;
+  /** The unknowns involved (largest in the error estimate, non-finite, or at a singular pivot). */
+  readonly unknowns: readonly { readonly index: number; readonly label: string; readonly elements: readonly string[] }[];
+  /** What f threw, for status `'rhs-error'` (for example a user waveform returning NaN). */
+  readonly cause?: unknown;
+}
+
+/** Construction data of a {@link SimulationResult} (internal). */
+export interface SimulationResultInit {
+  readonly compiled: CompiledNetwork;
+  readonly networkId: number | undefined;
+  readonly pieces: readonly SolutionPiece[];
+  readonly stats: SolverStats;
+  readonly status: DaeStatus;
+  readonly message: string;
+  readonly failure: DaeFailure | undefined;
+  readonly includeSteps: boolean;
+}
+
+/**
+ * Time series of a simulated network, read through the builder's handles.
+ * All series are Float64Array aligned with {@link SimulationResult.time}, in
+ * SI units. At a switching instant the time vector holds the instant twice:
+ * first the state just before, then just after.
+ *
+ * Sign conventions: a tube's flux is positive from its `from` node to its
+ * `to` node; a passive element's or winding's current enters its plus
+ * terminal and its power is the power it absorbs; a source's current leaves
+ * its plus terminal and its power is the power it delivers.
+ *
+ * @example
+ * ```ts
+ * const r = simulate(net, { stopTime: 0.2 });
+ * const peakB = Math.max(...r.fluxDensity(leg).map(Math.abs));
+ * const iPrimary = r.current(primary);
+ * ```
+ */
+export class SimulationResult {
+  /** `'success'` when the run reached the stop time; otherwise why it stopped (see {@link DaeStatus}). */
+  readonly status: DaeStatus;
+  /** One line on the outcome, naming elements where it can. */
+  readonly message: string;
+  /** Sample times, s. */
+  readonly time: Float64Array;
+  /** Solver work, summed over the run. */
+  readonly stats: Readonly<SolverStats>;
+  /** Present when the run stopped early. */
+  readonly failure?: SimulationFailure;
+  /** The simulated network as plain data. */
+  readonly network: NetworkDescription;
+
+  private readonly compiled: CompiledNetwork;
+  private readonly networkId: number | undefined;
+  private readonly states: readonly Float64Array[];
+  /** Piece index of every sample, so inputs are evaluated on the right side of breakpoints. */
+  private readonly sampleInterval: Int32Array;
+  private readonly pieces: readonly SolutionPiece[];
+  private readonly cache = new Map<string, Float64Array>();
+  private audit: EnergyAudit | undefined;
+  private readonly functionals = new Map<string, Float64Array | undefined>();
+
+  /** Built by `simulate`. */
+  constructor(init: SimulationResultInit) {
+    this.compiled = init.compiled;
+    this.networkId = init.networkId;
+    this.network = init.compiled.description;
+    this.pieces = init.pieces;
+    this.status = init.status;
+    this.message = init.message;
+    this.stats = Object.freeze({ ...init.stats });
+    const samples = collectSamples(init.pieces, init.includeSteps);
+    this.time = samples.time;
+    this.states = samples.states;
+    this.sampleInterval = samples.piece;
+    if (init.failure) {
+      const layout = init.compiled.layout;
+      this.failure = {
+        time: init.pieces.length > 0 ? init.pieces[init.pieces.length - 1]!.solution.tReached : NaN,
+        unknowns: init.failure.components.map((i) => ({
+          index: i,
+          label: layout.labels[i] ?? `unknown ${i}`,
+          elements: layout.owners[i] ?? [],
+        })),
+        ...(init.failure.cause !== undefined ? { cause: init.failure.cause } : {}),
+      };
+      const named = this.failure.unknowns.map((u) => u.label).join('; ');
+      if (named) this.message = `${init.message} (involved: ${named})`;
+    }
+  }
+
+  /** Number of samples. @example `r.length === r.time.length` */
+  get length(): number {
+    return this.time.length;
+  }
+
+  /**
+   * Flux of a tube, Wb, positive from its `from` node to its `to` node.
+   *
+   * @example
+   * ```ts
+   * const phi = r.flux(leg);
+   * ```
+   */
+  flux(tube: FluxTube): Float64Array {
+    const b = this.tubeIndex(tube);
+    return this.series(`flux:${b}`, (y) => this.compiled.tubeFlux(y, b));
+  }
+
+  /**
+   * Flux density of a tube, T (flux / area). Throws for a reluctance given
+   * without an area.
+   *
+   * @example
+   * ```ts
+   * const b = r.fluxDensity(leg);
+   * ```
+   */
+  fluxDensity(tube: FluxTube): Float64Array {
+    const b = this.tubeIndex(tube);
+    const area = this.compiled.tubes[b]!.area;
+    if (!Number.isFinite(area)) {
+      throw new InputError('no-area', `tube "${tube.name}" has no area, so it has no flux density; give the reluctance an area or read its flux`, [tube.name]);
+    }
+    return this.series(`B:${b}`, (y) => this.compiled.tubeFlux(y, b) / area);
+  }
+
+  /**
+   * Magnetic field strength in a tube of material or an air gap, A/m.
+   *
+   * @example
+   * ```ts
+   * const h = r.fieldStrength(leg);
+   * ```
+   */
+  fieldStrength(tube: FluxTube): Float64Array {
+    const b = this.tubeIndex(tube);
+    const t = this.compiled.tubes[b]!;
+    if (!Number.isFinite(t.length)) {
+      throw new InputError('no-length', `tube "${tube.name}" is a reluctance without a length, so it has no field strength; read its mmf instead`, [tube.name]);
+    }
+    return this.series(`H:${b}`, (y) => this.compiled.tubeMmf(b, this.compiled.tubeFlux(y, b)) / t.length);
+  }
+
+  /**
+   * MMF drop across a tube, A (ampere-turns): F(phi) from its law plus the
+   * eddy-current term R_e dphi/dt when the tube has one.
+   *
+   * @example
+   * ```ts
+   * const f = r.mmf(gap);
+   * ```
+   */
+  mmf(tube: FluxTube): Float64Array {
+    const b = this.tubeIndex(tube);
+    return this.series(`mmf:${b}`, (y, t, piece) => this.tubeDrop(b, y, t, piece));
+  }
+
+  /**
+   * Eddy-current power of a tube, W: R_e (dphi/dt)^2 (zero without eddy resistance).
+   *
+   * @example
+   * ```ts
+   * const p = r.eddyPower(leg);
+   * ```
+   */
+  eddyPower(tube: FluxTube): Float64Array {
+    const b = this.tubeIndex(tube);
+    const re = this.compiled.tubes[b]!.eddyResistance;
+    return this.series(`eddy:${b}`, (y, t, piece) => {
+      if (re === 0) return 0;
+      const d = this.fluxDerivative(b, y, t, piece);
+      return re * d * d;
+    });
+  }
+
+  /**
+   * Magnetic scalar potential (MMF) of a magnetic node, A, relative to the
+   * first node of its magnetic circuit.
+   *
+   * @example
+   * ```ts
+   * const u = r.magneticPotential(topYoke);
+   * ```
+   */
+  magneticPotential(node: MagneticNode): Float64Array {
+    const k = this.checkHandle(node, 'magnetic-node').index;
+    const loops = this.compiled.loops;
+    return this.series(`U:${k}`, (y, t, piece) => {
+      // Walk up the tree to the root, adding the net drop (tube drop - winding MMF) of each tube.
+      let u = 0;
+      for (let at = k; loops.parentTube[at]! >= 0; ) {
+        const b = loops.parentTube[at]!;
+        const tube = this.network.tubes[b]!;
+        const drop = this.tubeDrop(b, y, t, piece) - this.windingMmf(b, y);
+        // u(from) - u(to) = drop. If `at` is the tube's `to` end, u(at) = u(parent) - drop.
+        u += loops.parentIsTo[at] ? -drop : drop;
+        at = loops.parentIsTo[at] ? tube.from : tube.to;
+      }
+      return u;
+    });
+  }
+
+  /**
+   * Potential of an electric node, V (ground is 0).
+   *
+   * @example
+   * ```ts
+   * const va = r.potential(a);
+   * ```
+   */
+  potential(node: ElectricNode): Float64Array {
+    const k = this.checkHandle(node, 'electric-node').index;
+    const i = this.compiled.layout.potential[k]!;
+    return this.series(`v:${k}`, (y) => (i < 0 ? 0 : y[i]!));
+  }
+
+  /**
+   * Voltage v_plus - v_minus across a two-terminal element or winding, V.
+   *
+   * @example
+   * ```ts
+   * const vLoad = r.voltage(load);
+   * ```
+   */
+  voltage(element: TwoTerminal): Float64Array {
+    const e = this.elementIndex(element);
+    return this.series(`u:${e}`, (y) => this.elementVoltage(e, y));
+  }
+
+  /**
+   * Current of an element, A: entering the plus terminal for passive
+   * elements and windings; leaving the plus terminal for sources.
+   *
+   * @example
+   * ```ts
+   * const i = r.current(primary);
+   * ```
+   */
+  current(element: TwoTerminal): Float64Array {
+    const e = this.elementIndex(element);
+    return this.series(`i:${e}`, (y, t, piece) => this.elementCurrent(e, y, t, piece));
+  }
+
+  /**
+   * Power, W: absorbed by passive elements and windings, delivered by sources.
+   *
+   * @example
+   * ```ts
+   * const p = r.power(load);
+   * ```
+   */
+  power(element: TwoTerminal): Float64Array {
+    const e = this.elementIndex(element);
+    return this.series(`p:${e}`, (y, t, piece) => this.elementVoltage(e, y) * this.elementCurrent(e, y, t, piece));
+  }
+
+  /**
+   * Induced voltage of a winding, V: orientation * N dphi/dt = v - R i.
+   *
+   * @example
+   * ```ts
+   * const e = r.emf(secondary);
+   * ```
+   */
+  emf(winding: Winding): Float64Array {
+    const e = this.checkHandle(winding, 'winding').index;
+    const w = this.network.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
+    return this.series(`emf:${e}`, (y) => this.elementVoltage(e, y) - w.resistance * y[this.compiled.layout.branchCurrent[e]!]!);
+  }
+
+  /**
+   * Flux linkage of a winding, Wb-turns: orientation * N * phi of its tube.
+   *
+   * @example
+   * ```ts
+   * const lambda = r.fluxLinkage(primary);
+   * ```
+   */
+  fluxLinkage(winding: Winding): Float64Array {
+    const e = this.checkHandle(winding, 'winding').index;
+    const w = this.network.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
+    return this.series(`link:${e}`, (y) => w.orientation * w.turns * this.compiled.tubeFlux(y, w.tube));
+  }
+
+  /**
+   * The energy audit of the run: energy delivered by the sources against
+   * energy dissipated plus the change of stored energy, integrated over the
+   * solver's steps on its dense output (4-point Gauss-Legendre per step).
+   *
+   * @example
+   * ```ts
+   * const audit = r.energy();
+   * console.log(audit.relativeError);
+   * ```
+   */
+  energy(): EnergyAudit {
+    this.audit ??= computeEnergyAudit(this.compiled, this.pieces, (b, y, t) => this.fluxDerivative(b, y, t, -1));
+    return this.audit;
+  }
+
+  /**
+   * The raw state vector at sample k (for debugging and advanced use).
+   *
+   * @example
+   * ```ts
+   * const y = r.state(r.length - 1);
+   * ```
+   */
+  state(k: number): Float64Array {
+    const y = this.states[k];
+    if (!y) throw new InputError('bad-sample', `sample ${k} is outside 0..${this.length - 1}`, []);
+    return y.slice();
+  }
+
+  /**
+   * CSV text: a time column and one column per requested quantity (default:
+   * flux density of every tube, current and voltage of every element).
+   *
+   * @example
+   * ```ts
+   * writeFileSync('out/run.csv', r.toCSV());
+   * ```
+   */
+  toCSV(options: CsvOptions = {}): string {
+    return resultToCsv(this, options);
+  }
+
+  /**
+   * Plain-data summary: network, status, statistics, energy audit and the
+   * default series, ready for JSON.stringify.
+   *
+   * @example
+   * ```ts
+   * writeFileSync('out/run.json', JSON.stringify(r.toJSON()));
+   * ```
+   */
+  toJSON(): ResultJson {
+    return resultToJson(this);
+  }
+
+  private series(key: string, fn: (y: Float64Array, t: number, piece: number) => number): Float64Array {
+    let s = this.cache.get(key);
+    if (!s) {
+      s = new Float64Array(this.time.length);
+      for (let k = 0; k < s.length; k++) {
+        const piece = this.sampleInterval[k]!;
+        const p = this.pieces[piece];
+        if (p) this.compiled.inputs.setInterval(p.start, p.end);
+        s[k] = fn(this.states[k]!, this.time[k]!, piece);
+      }
+      this.cache.set(key, s);
+    }
+    return s;
+  }
+
+  private elementVoltage(e: number, y: Float64Array): number {
+    const el = this.network.elements[e]!;
+    const ip = this.compiled.layout.potential[el.plus]!;
+    const im = this.compiled.layout.potential[el.minus]!;
+    return (ip < 0 ? 0 : y[ip]!) - (im < 0 ? 0 : y[im]!);
+  }
+
+  private elementCurrent(e: number, y: Float64Array, t: number, piece: number): number {
+    const el = this.network.elements[e]!;
+    switch (el.kind) {
+      case 'resistor':
+        return this.elementVoltage(e, y) / el.resistance;
+      case 'switch':
+        return this.elementVoltage(e, y) / (this.compiled.inputs.switchClosed(e, t) ? el.onResistance : el.offResistance);
+      case 'current-source':
+        return this.compiled.inputs.sourceValue(e, t);
+      case 'capacitor': {
+        const n = this.compiled.layout.size;
+        const u = new Float64Array(n);
+        const ip = this.compiled.layout.potential[el.plus]!;
+        const im = this.compiled.layout.potential[el.minus]!;
+        if (ip >= 0) u[ip] = el.capacitance;
+        if (im >= 0) u[im] = -el.capacitance;
+        return this.applyFunctional(`cap:${e}`, u, y, t, piece);
+      }
+      case 'voltage-source':
+      case 'inductor':
+      case 'winding':
+        return y[this.compiled.layout.branchCurrent[e]!]!;
+    }
+  }
+
+  /** MMF of the windings on tube b (orientation * N * i summed), A. */
+  private windingMmf(b: number, y: Float64Array): number {
+    let s = 0;
+    this.network.elements.forEach((el, e) => {
+      if (el.kind === 'winding' && el.tube === b) s += el.orientation * el.turns * y[this.compiled.layout.branchCurrent[e]!]!;
+    });
+    return s;
+  }
+
+  private tubeDrop(b: number, y: Float64Array, t: number, piece: number): number {
+    const phi = this.compiled.tubeFlux(y, b);
+    const re = this.compiled.tubes[b]!.eddyResistance;
+    return this.compiled.tubeMmf(b, phi) + (re === 0 ? 0 : re * this.fluxDerivative(b, y, t, piece));
+  }
+
+  /** dphi_b/dt from the state, for tubes whose flux derivative M y' = f determines (wound or eddy tubes). */
+  private fluxDerivative(b: number, y: Float64Array, t: number, piece: number): number {
+    const n = this.compiled.layout.size;
+    const u = new Float64Array(n);
+    for (const en of this.compiled.loops.tubeLoops[b]!) u[this.compiled.layout.loopOffset + en.loop] = en.sign;
+    return this.applyFunctional(`dphi:${b}`, u, y, t, piece);
+  }
+
+  private applyFunctional(key: string, u: Float64Array, y: Float64Array, t: number, _piece: number): number {
+    if (!this.functionals.has(key)) {
+      this.functionals.set(key, derivativeFunctional(this.compiled.mass, this.compiled.layout.size, u));
+    }
+    const w = this.functionals.get(key);
+    if (!w) return NaN;
+    const f = new Float64Array(this.compiled.layout.size);
+    this.compiled.rhs(t, y, f);
+    let s = 0;
+    for (let i = 0; i < f.length; i++) s += w[i]! * f[i]!;
+    return s;
+  }
+
+  private tubeIndex(tube: FluxTube): number {
+    return this.checkHandle(tube, 'flux-tube').index;
+  }
+
+  private elementIndex(element: TwoTerminal): number {
+    const kinds = ['resistor', 'capacitor', 'inductor', 'voltage-source', 'current-source', 'switch', 'winding'];
+    if (!element || typeof element !== 'object' || !kinds.includes(element.kind)) {
+      throw new InputError('wrong-handle-kind', `expected a two-terminal element or winding handle, got ${describe(element)}`, []);
+    }
+    return this.checkHandle(element, element.kind).index;
+  }
+
+  private checkHandle<K extends AnyHandle['kind']>(handle: AnyHandle, kind: K): Extract<AnyHandle, { kind: K }> {
+    if (!handle || typeof handle !== 'object' || handle.kind !== kind) {
+      throw new InputError('wrong-handle-kind', `expected a ${kind} handle, got ${describe(handle)}`, []);
+    }
+    const list = kind === 'electric-node' ? this.network.electricNodes
+      : kind === 'magnetic-node' ? this.network.magneticNodes
+      : kind === 'flux-tube' ? this.network.tubes
+      : this.network.elements;
+    const entry = list[handle.index];
+    const sameNetwork = this.networkId === undefined || handle.network === this.networkId;
+    if (!entry || entry.name !== handle.name || !sameNetwork) {
+      throw new InputError(
+        'foreign-handle',
+        `${kind} "${handle.name}" is not part of the simulated network "${this.network.name}"; read results with handles of the network you simulated`,
+        [handle.name],
+      );
+    }
+    return handle as Extract<AnyHandle, { kind: K }>;
+  }
+}
+
+function describe(v: unknown): string {
+  if (v && typeof v === 'object' && 'kind' in v) return `a ${String((v as { kind: unknown }).kind)}`;
+  return v === undefined ? 'nothing' : typeof v;
+}
+
+/** Merge the pieces' accepted steps and/or output samples into one series. */
+function collectSamples(pieces: readonly SolutionPiece[], includeSteps: boolean): { time: Float64Array; states: Float64Array[]; piece: Int32Array } {
+  const time: number[] = [];
+  const states: Float64Array[] = [];
+  const piece: number[] = [];
+  pieces.forEach((p, k) => {
+    const sol = p.solution;
+    const samples: { t: number; y: Float64Array }[] = [];
+    if (includeSteps) sol.t.forEach((t, j) => samples.push({ t, y: sol.y[j]! }));
+    sol.output.t.forEach((t, j) => samples.push({ t, y: sol.output.y[j]! }));
+    samples.sort((a, b) => a.t - b.t);
+    let last = -Infinity;
+    for (const s of samples) {
+      if (s.t === last) continue; // a grid time that is also a step
+      last = s.t;
+      time.push(s.t);
+      states.push(s.y);
+      piece.push(k);
+    }
+  });
+  return { time: Float64Array.from(time), states, piece: Int32Array.from(piece) };
+}
