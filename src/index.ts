@@ -23,7 +23,18 @@ export type {
 export type { MaterialLaw } from './materials/material-law.js';
 export { linearMaterial, type LinearMaterialSpec } from './materials/linear.js';
 export { compileMaterial, type MaterialSpec } from './materials/material-spec.js';
+// Waveforms (source waveforms with their breakpoints)
 export type { Waveform } from './waveforms/waveform.js';
 export { constant, constantWaveform, type ConstantSpec } from './waveforms/constant.js';
 export { sine, sineWaveform, type SineSpec } from './waveforms/sine.js';
+export { pulse, pulseWaveform, type PulseSpec } from './waveforms/pulse.js';
+export {
+  bipolarSquare,
+  bipolarSquareWaveform,
+  bipolarSquareOnTimes,
+  type BipolarSquareSpec,
+} from './waveforms/bipolar-square.js';
+export { piecewiseLinear, piecewiseLinearWaveform, type PiecewiseLinearSpec } from './waveforms/piecewise-linear.js';
+export { userFunction, userFunctionWaveform, type UserFunctionSpec } from './waveforms/user-function.js';
+export { resolveFunctionWaveform, type ResolveFunctionOptions } from './waveforms/resolve-function-waveform.js';
 export { compileWaveform, type WaveformSpec } from './waveforms/waveform-spec.js';

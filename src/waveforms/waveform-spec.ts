@@ -1,13 +1,22 @@
 import type { Waveform } from './waveform.js';
 import { constantWaveform, type ConstantSpec } from './constant.js';
 import { sineWaveform, type SineSpec } from './sine.js';
+import { pulseWaveform, type PulseSpec } from './pulse.js';
+import { bipolarSquareWaveform, type BipolarSquareSpec } from './bipolar-square.js';
+import { piecewiseLinearWaveform, type PiecewiseLinearSpec } from './piecewise-linear.js';
+import { userFunctionWaveform, type UserFunctionSpec } from './user-function.js';
 
-/** Plain-data (JSON-serialisable) description of a source waveform. */
-export type WaveformSpec = ConstantSpec | SineSpec;
+/**
+ * Plain-data description of a source waveform. Every kind is
+ * JSON-serialisable except a {@link UserFunctionSpec} that carries its `fn`
+ * (use its `module` + `export` form to cross a process boundary).
+ */
+export type WaveformSpec = ConstantSpec | SineSpec | PulseSpec | BipolarSquareSpec | PiecewiseLinearSpec | UserFunctionSpec;
 
 /**
  * Turn a waveform spec into an executable {@link Waveform}, validating it.
- * `owner` (the source's name) is used in error messages.
+ * `owner` (the source's name) is used in error messages. A by-reference
+ * function spec must be resolved first ({@link resolveFunctionWaveform}).
  *
  * @example
  * ```ts
@@ -20,5 +29,13 @@ export function compileWaveform(spec: WaveformSpec, owner = 'waveform'): Wavefor
       return constantWaveform(spec, owner);
     case 'sine':
       return sineWaveform(spec, owner);
+    case 'pulse':
+      return pulseWaveform(spec, owner);
+    case 'bipolar-square':
+      return bipolarSquareWaveform(spec, owner);
+    case 'piecewise-linear':
+      return piecewiseLinearWaveform(spec, owner);
+    case 'function':
+      return userFunctionWaveform(spec, owner);
   }
 }

@@ -1,0 +1,110 @@
+import type { Waveform } from './waveform.js';
+
+/**
+ * Vertices of a piecewise-linear waveform, the common engine of the pulse
+ * train, the bipolar square and the piecewise-linear table.
+ *
+ * - `times` are absolute times of the first period (or of the whole table when
+ *   not repeating), non-decreasing. Two vertices at the same time make a jump;
+ *   the waveform is right-continuous (at a jump it takes the later vertex's
+ *   value).
+ * - `period`: when given, the pattern repeats with this period from `times[0]`;
+ *   `times[last]` must then equal `times[0] + period` (the closing vertex).
+ * - before `times[0]` the value is `before`; after the last vertex of a
+ *   non-repeating table it holds the last value.
+ *
+ * @internal
+ */
+export interface VertexTable {
+  readonly times: Float64Array;
+  readonly values: Float64Array;
+  readonly period?: number;
+  readonly before: number;
+}
+
+/**
+ * Compile a {@link VertexTable} into a {@link Waveform}.
+ *
+ * Edge k of vertex j is at `times[j] + k * period`, computed from k directly
+ * (never by accumulating periods), in one place ({@link edgeTime}) used by both
+ * `value` and `breakpoints`, so the value at a reported breakpoint is always
+ * the value after that edge, even after millions of periods.
+ *
+ * @internal
+ */
+export function vertexWaveform(table: VertexTable): Waveform {
+  const times = Float64Array.from(table.times);
+  const values = Float64Array.from(table.values);
+  const last = times.length - 1;
+  const period = table.period;
+  const before = table.before;
+  const first = times[0] ?? 0;
+
+  // Breakpoint vertices: distinct times, and for a repeating table none at (or
+  // within rounding of) the closing vertex: that edge is the next period's first.
+  const closing = times[last] ?? first;
+  const eps = 8 * Number.EPSILON * Math.max(Math.abs(first), Math.abs(closing), period ?? 0);
+  const edgeVertices: number[] = [];
+  const limit = period === undefined ? last : last - 1;
+  for (let j = 0; j <= limit; j++) {
+    const tj = times[j] ?? 0;
+    if (j > 0 && tj === times[j - 1]) continue;
+    if (period !== undefined && j > 0 && closing - tj <= eps) continue;
+    edgeVertices.push(j);
+  }
+
+  const edgeTime = (j: number, k: number): number => (times[j] ?? 0) + k * (period ?? 0);
+
+  /** Largest j with edgeTime(j, k) <= t (t >= edgeTime(0, k) assumed). */
+  const findVertex = (t: number, k: number): number => {
+    let lo = 0;
+    let hi = last;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (edgeTime(mid, k) <= t) lo = mid;
+      else hi = mid - 1;
+    }
+    return lo;
+  };
+
+  const value = (t: number): number => {
+    if (Number.isNaN(t)) return Number.NaN;
+    if (t < first) return before;
+    let k = 0;
+    if (period !== undefined) {
+      k = Math.floor((t - first) / period);
+      // Rounding in the division can put k one off; settle it against the edge formula.
+      while (k > 0 && edgeTime(0, k) > t) k--;
+      while (edgeTime(0, k + 1) <= t) k++;
+    }
+    const j = findVertex(t, k);
+    const vj = values[j] ?? 0;
+    if (j >= last) return vj;
+    const tj = edgeTime(j, k);
+    const tn = edgeTime(j + 1, k);
+    const vn = values[j + 1] ?? vj;
+    if (vn === vj || !(tn > tj)) return vj;
+    return vj + ((vn - vj) * (t - tj)) / (tn - tj);
+  };
+
+  const breakpoints = (t0: number, t1: number): number[] => {
+    const out: number[] = [];
+    if (!(t1 >= t0) || edgeVertices.length === 0) return out;
+    const push = (b: number): void => {
+      if (b >= t0 && b <= t1 && (out.length === 0 || b > (out[out.length - 1] ?? -Infinity))) out.push(b);
+    };
+    if (period === undefined) {
+      for (const j of edgeVertices) push(edgeTime(j, 0));
+      return out;
+    }
+    // First period whose edges can reach t0, computed (not scanned); one period of slack for rounding.
+    let k = Math.max(0, Math.ceil((t0 - closing) / period) - 1);
+    while (edgeTime(0, k) <= t1) {
+      for (const j of edgeVertices) push(edgeTime(j, k));
+      k++;
+    }
+    return out;
+  };
+
+  return { value, breakpoints };
+}
