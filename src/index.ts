@@ -38,3 +38,49 @@ export { piecewiseLinear, piecewiseLinearWaveform, type PiecewiseLinearSpec } fr
 export { userFunction, userFunctionWaveform, type UserFunctionSpec } from './waveforms/user-function.js';
 export { resolveFunctionWaveform, type ResolveFunctionOptions } from './waveforms/resolve-function-waveform.js';
 export { compileWaveform, type WaveformSpec } from './waveforms/waveform-spec.js';
+
+// Network builder, simulation and results
+export { createNetwork, NetworkBuilder } from './network/network-builder.js';
+export type {
+  FluxTubeOptions,
+  AirGapOptions,
+  ReluctanceOptions,
+  WindingOptions,
+  SwitchOptions,
+  TubeInitialCondition,
+} from './network/network-builder.js';
+export type {
+  HandleBase,
+  ElectricNode,
+  MagneticNode,
+  FluxTube,
+  Winding,
+  Resistor,
+  Capacitor,
+  Inductor,
+  VoltageSource,
+  CurrentSource,
+  Switch,
+  TwoTerminal,
+  Source,
+  AnyHandle,
+} from './network/handles.js';
+export type {
+  NetworkDescription,
+  TubeDescription,
+  TubeLaw,
+  ElementDescription,
+  ResistorDescription,
+  CapacitorDescription,
+  InductorDescription,
+  VoltageSourceDescription,
+  CurrentSourceDescription,
+  SwitchDescription,
+  WindingDescription,
+} from './network/description.js';
+export { simulate } from './simulate.js';
+export type { SimulateOptions, AbsoluteTolerances, Sampling, SimulationProgress } from './simulate.js';
+export { SimulationResult } from './result/simulation-result.js';
+export type { SimulationFailure, SolutionPiece, SimulationResultInit } from './result/simulation-result.js';
+export type { EnergyAudit } from './result/energy-audit.js';
+export type { ExportColumn, CsvOptions, ResultJson } from './result/export.js';
