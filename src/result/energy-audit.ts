@@ -25,7 +25,13 @@ export interface EnergyAudit {
   readonly storedEnd: number;
   /** sourceEnergy - dissipated.total - (storedEnd - storedStart). */
   readonly imbalance: number;
-  /** |imbalance| / max(|sourceEnergy|, dissipated.total, |storedEnd - storedStart|). */
+  /**
+   * Energy exchanged with the sources: integral of |source power| dt. The
+   * scale of the audit when the net source energy is near zero (a lossless
+   * run over whole cycles).
+   */
+  readonly throughput: number;
+  /** |imbalance| / max(throughput, dissipated.total, storedStart, storedEnd). */
   readonly relativeError: number;
 }
 
@@ -60,20 +66,27 @@ export function computeEnergyAudit(
   };
   const eddyTubes = c.tubes.flatMap((t, b) => (t.eddyResistance > 0 ? [b] : []));
 
-  const powers = (t: number, y: Float64Array): [number, number, number, number] => {
+  const powers = (t: number, y: Float64Array): [number, number, number, number, number] => {
     let source = 0;
+    let gross = 0;
     let resistive = 0;
     let copper = 0;
     let eddy = 0;
     d.elements.forEach((e, k) => {
       const u = volt(y, e.plus) - volt(y, e.minus);
       switch (e.kind) {
-        case 'voltage-source':
-          source += u * y[L.branchCurrent[k]!]!;
+        case 'voltage-source': {
+          const p = u * y[L.branchCurrent[k]!]!;
+          source += p;
+          gross += Math.abs(p);
           break;
-        case 'current-source':
-          source += u * c.inputs.sourceValue(k, t);
+        }
+        case 'current-source': {
+          const p = u * c.inputs.sourceValue(k, t);
+          source += p;
+          gross += Math.abs(p);
           break;
+        }
         case 'resistor':
           resistive += (u * u) / e.resistance;
           break;
@@ -93,7 +106,7 @@ export function computeEnergyAudit(
       const dphi = fluxDerivative(b, y, t);
       eddy += c.tubes[b]!.eddyResistance * dphi * dphi;
     }
-    return [source, resistive, copper, eddy];
+    return [source, resistive, copper, eddy, gross];
   };
 
   const stored = (y: Float64Array): number => {
@@ -111,7 +124,7 @@ export function computeEnergyAudit(
     return w;
   };
 
-  const sum = [0, 0, 0, 0];
+  const sum = [0, 0, 0, 0, 0];
   for (const p of pieces) {
     c.inputs.setInterval(p.start, p.end);
     const ts = p.solution.t;
@@ -122,7 +135,7 @@ export function computeEnergyAudit(
       for (let g = 0; g < 4; g++) {
         const t = ta + NODES[g]! * h;
         const pw = powers(t, p.solution.at(t));
-        for (let q = 0; q < 4; q++) sum[q]! += WEIGHTS[g]! * h * pw[q]!;
+        for (let q = 0; q < 5; q++) sum[q]! += WEIGHTS[g]! * h * pw[q]!;
       }
     }
   }
@@ -131,16 +144,17 @@ export function computeEnergyAudit(
   const last = lastPiece?.solution.y[lastPiece.solution.y.length - 1];
   const storedStart = first ? stored(first) : 0;
   const storedEnd = last ? stored(last) : 0;
-  const [sourceEnergy, resistors, windings, eddy] = sum as [number, number, number, number];
+  const [sourceEnergy, resistors, windings, eddy, throughput] = sum as [number, number, number, number, number];
   const total = resistors + windings + eddy;
   const imbalance = sourceEnergy - total - (storedEnd - storedStart);
-  const scale = Math.max(Math.abs(sourceEnergy), total, Math.abs(storedEnd - storedStart), Number.MIN_VALUE);
+  const scale = Math.max(throughput, total, Math.abs(storedStart), Math.abs(storedEnd), Number.MIN_VALUE);
   return {
     sourceEnergy,
     dissipated: { total, resistors, windings, eddy },
     storedStart,
     storedEnd,
     imbalance,
+    throughput,
     relativeError: Math.abs(imbalance) / scale,
   };
 }
