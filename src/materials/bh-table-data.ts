@@ -1,6 +1,13 @@
 import { InputError } from '../errors.js';
 
-/** Measured or tabulated B-H points (first magnetisation curve, B >= 0). */
+/**
+ * Measured or tabulated B-H points (first magnetisation curve, B >= 0).
+ *
+ * @example
+ * ```ts
+ * const data: BhTableData = { fluxDensity: [0.5, 1.0, 1.5], fieldStrength: [40, 90, 700], name: 'sample' };
+ * ```
+ */
 export interface BhTableData {
   /** Flux densities B in T, strictly increasing, >= 0. */
   readonly fluxDensity: readonly number[];
@@ -10,7 +17,15 @@ export interface BhTableData {
   readonly name?: string;
 }
 
-/** Validated table, always starting at the origin (0, 0). */
+/**
+ * Validated table, always starting at the origin (0, 0).
+ *
+ * @example
+ * ```ts
+ * const t: CheckedBhTable = checkBhTable({ fluxDensity: [0.5, 1, 1.5], fieldStrength: [40, 90, 700] });
+ * t.originAdded; // true
+ * ```
+ */
 export interface CheckedBhTable {
   readonly name: string;
   /** B in T, b[0] = 0, strictly increasing. */

@@ -8,6 +8,14 @@ import { xMinusLog1p } from './log-differences.js';
 /**
  * Plain-data description of a tabulated material: points of the first
  * magnetisation curve (B >= 0), see {@link BhTableData} for the rules.
+ *
+ * @example
+ * ```ts
+ * const spec: BhTableSpec = {
+ *   kind: 'table', name: 'sample', saturationFluxDensity: 1.6,
+ *   fluxDensity: [0.5, 1.0, 1.5], fieldStrength: [40, 90, 700],
+ * };
+ * ```
  */
 export interface BhTableSpec extends BhTableData {
   readonly kind: 'table';

@@ -12,6 +12,11 @@ import { checkSaturationFluxDensity, oddMaterialLaw } from './odd-law.js';
  *
  * where B_t is the flux density at which the Brauer slope dH/dB reaches
  * 1/mu0 (computed once, when the law is compiled).
+ *
+ * @example
+ * ```ts
+ * const spec: BrauerSpec = { kind: 'brauer', k1: 8e-9, k2: 7, k3: 19, name: 'steel' };
+ * ```
  */
 export interface BrauerSpec {
   readonly kind: 'brauer';
@@ -27,7 +32,14 @@ export interface BrauerSpec {
   readonly saturationFluxDensity?: number;
 }
 
-/** Where a Brauer law joins the air line, see {@link brauerAirLineJoin}. */
+/**
+ * Where a Brauer law joins the air line, see {@link brauerAirLineJoin}.
+ *
+ * @example
+ * ```ts
+ * const join: BrauerJoin = brauerAirLineJoin({ kind: 'brauer', k1: 8e-9, k2: 7, k3: 19 });
+ * ```
+ */
 export interface BrauerJoin {
   /** Join flux density B_t in T: the Brauer slope equals 1/mu0 there. */
   readonly fluxDensity: number;

@@ -2,7 +2,15 @@ import type { FrohlichKennellySpec } from './frohlich-kennelly.js';
 import type { BrauerSpec } from './brauer.js';
 import type { BhTableSpec } from './bh-table.js';
 
-/** The demo materials, see {@link demoMaterials}. */
+/**
+ * The demo materials, see {@link demoMaterials}.
+ *
+ * @example
+ * ```ts
+ * const specs: DemoMaterials = demoMaterials;
+ * compileMaterial(specs.grainOrientedSteel);
+ * ```
+ */
 export interface DemoMaterials {
   /** MnZn-type power ferrite: Frohlich-Kennelly law. */
   readonly ferrite: FrohlichKennellySpec;

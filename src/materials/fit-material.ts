@@ -6,12 +6,33 @@ import { frohlichKennellyMaterial, type FrohlichKennellySpec } from './frohlich-
 import { brauerMaterial, type BrauerSpec } from './brauer.js';
 import { levenbergMarquardt, type LevenbergMarquardtStatus } from './levenberg-marquardt.js';
 
-/** Starting values for a Frohlich-Kennelly fit. */
+/**
+ * Starting values for a Frohlich-Kennelly fit.
+ *
+ * @example
+ * ```ts
+ * const start: FrohlichKennellyParameters = { initialRelativePermeability: 3000, saturationPolarisation: 1.5 };
+ * ```
+ */
 export type FrohlichKennellyParameters = Pick<FrohlichKennellySpec, 'initialRelativePermeability' | 'saturationPolarisation'>;
-/** Starting values for a Brauer fit. */
+/**
+ * Starting values for a Brauer fit.
+ *
+ * @example
+ * ```ts
+ * const start: BrauerParameters = { k1: 1e-8, k2: 6, k3: 20 };
+ * ```
+ */
 export type BrauerParameters = Pick<BrauerSpec, 'k1' | 'k2' | 'k3'>;
 
-/** Options of {@link fitMaterial}. */
+/**
+ * Options of {@link fitMaterial}.
+ *
+ * @example
+ * ```ts
+ * const options: FitMaterialOptions = { model: 'brauer', initial: { k1: 1e-8, k2: 6, k3: 20 }, maxIterations: 200 };
+ * ```
+ */
 export type FitMaterialOptions =
   | { readonly model: 'frohlich-kennelly'; readonly initial?: FrohlichKennellyParameters; readonly maxIterations?: number }
   | { readonly model: 'brauer'; readonly initial?: BrauerParameters; readonly maxIterations?: number };
@@ -20,6 +41,12 @@ export type FitMaterialOptions =
  * How far the fitted law is from the data. All four numbers compare the
  * law's field strength H_fit(B_i) with the data H_i at the data's flux
  * densities B_i (the origin excluded).
+ *
+ * @example
+ * ```ts
+ * const e: FitError = fitMaterial(demoMaterials.amorphous, { model: 'brauer' }).error;
+ * console.log(`${(100 * e.rmsRelative).toFixed(1)} % rms in H`);
+ * ```
  */
 export interface FitError {
   /** Root mean square of H_fit(B_i) - H_i, A/m. */
@@ -32,7 +59,15 @@ export interface FitError {
   readonly maxRelative: number;
 }
 
-/** A fitted material: its spec, the fit error and the solver's account. */
+/**
+ * A fitted material: its spec, the fit error and the solver's account.
+ *
+ * @example
+ * ```ts
+ * const fit: MaterialFit<BrauerSpec> = fitMaterial(demoMaterials.amorphous, { model: 'brauer' });
+ * const law = compileMaterial(fit.spec);
+ * ```
+ */
 export interface MaterialFit<S> {
   /** The fitted law as a plain-data spec (compile it with compileMaterial). */
   readonly spec: S;

@@ -11,6 +11,13 @@ import { log1pMinusRatio } from './log-differences.js';
  *
  * The polarisation J = B - mu0 H follows the rational law of Frohlich and
  * Kennelly and tends to J_s; the slope dB/dH at H = 0 is mu0 mu_ri.
+ *
+ * @example
+ * ```ts
+ * const spec: FrohlichKennellySpec = {
+ *   kind: 'frohlich-kennelly', initialRelativePermeability: 3000, saturationPolarisation: 0.48, name: 'ferrite',
+ * };
+ * ```
  */
 export interface FrohlichKennellySpec {
   readonly kind: 'frohlich-kennelly';

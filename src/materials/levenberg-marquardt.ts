@@ -3,6 +3,17 @@ import { InputError } from '../errors.js';
 
 /**
  * A nonlinear least-squares problem: minimise cost(p) = 1/2 sum r_i(p)^2.
+ *
+ * @example
+ * ```ts
+ * // fit y = a exp(b x) to three points
+ * const xs = [0, 1, 2];
+ * const ys = [1, 2.7, 7.4];
+ * const problem: LeastSquaresProblem = {
+ *   residuals: (p) => Float64Array.from(xs, (x, i) => p[0]! * Math.exp(p[1]! * x) - ys[i]!),
+ *   initial: [1, 1],
+ * };
+ * ```
  */
 export interface LeastSquaresProblem {
   /**
@@ -14,7 +25,14 @@ export interface LeastSquaresProblem {
   readonly initial: readonly number[];
 }
 
-/** Options of {@link levenbergMarquardt}; every field has a default. */
+/**
+ * Options of {@link levenbergMarquardt}; every field has a default.
+ *
+ * @example
+ * ```ts
+ * const options: LevenbergMarquardtOptions = { maxIterations: 100, stepTolerance: 1e-10 };
+ * ```
+ */
 export interface LevenbergMarquardtOptions {
   /** Iteration budget (accepted or rejected steps). Default 500. */
   readonly maxIterations?: number;
@@ -31,10 +49,25 @@ export interface LevenbergMarquardtOptions {
   readonly differenceStep?: number;
 }
 
-/** Why {@link levenbergMarquardt} stopped. */
+/**
+ * Why {@link levenbergMarquardt} stopped.
+ *
+ * @example
+ * ```ts
+ * const ok = (s: LevenbergMarquardtStatus): boolean => s === 'gradient' || s === 'step';
+ * ```
+ */
 export type LevenbergMarquardtStatus = 'gradient' | 'step' | 'no-descent' | 'max-iterations';
 
-/** Outcome of {@link levenbergMarquardt}. */
+/**
+ * Outcome of {@link levenbergMarquardt}.
+ *
+ * @example
+ * ```ts
+ * const r: LevenbergMarquardtResult = levenbergMarquardt({ residuals: (p) => Float64Array.of(p[0]! - 3), initial: [0] });
+ * r.parameters[0]; // 3
+ * ```
+ */
 export interface LevenbergMarquardtResult {
   /** Best parameters found. */
   readonly parameters: Float64Array;

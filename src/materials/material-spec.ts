@@ -13,6 +13,12 @@ import { bhTableMaterial, type BhTableSpec } from './bh-table.js';
  * - `frohlich-kennelly`: saturating rational law with the air line.
  * - `brauer`: exponential reluctivity, continued on the air line.
  * - `table`: measured B-H points, monotone cubic interpolation.
+ *
+ * @example
+ * ```ts
+ * const spec: MaterialSpec = { kind: 'frohlich-kennelly', initialRelativePermeability: 3000, saturationPolarisation: 0.48 };
+ * const json = JSON.stringify(spec); // specs are plain data
+ * ```
  */
 export type MaterialSpec = LinearMaterialSpec | FrohlichKennellySpec | BrauerSpec | BhTableSpec;
 

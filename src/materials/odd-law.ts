@@ -4,6 +4,11 @@ import type { MaterialLaw } from './material-law.js';
 /**
  * The branch of a material law for B >= 0: field strength, its slope and
  * the energy density. {@link oddMaterialLaw} extends it to negative B.
+ *
+ * @example
+ * ```ts
+ * const linearBranch: PositiveBranch = { field: (b) => 800 * b, slope: () => 800, energy: (b) => 400 * b * b };
+ * ```
  */
 export interface PositiveBranch {
   /** H(b) in A/m for b >= 0, with H(0) = 0. */

@@ -18,6 +18,11 @@ import { integrate } from '../helpers/quadrature.js';
  * strictly positive, slope tending to 1/mu0 far beyond saturation, and an
  * energy density equal to the integral of H (checked against independent
  * adaptive quadrature) whose derivative is H.
+ *
+ * Oracles: adaptive 5-point Gauss-Legendre quadrature (nodes and weights from
+ * Abramowitz and Stegun, Table 25.4; test/helpers/quadrature.ts) and
+ * Richardson-extrapolated central differences (common practice); fast-check
+ * for the monotonicity property.
  */
 interface Case {
   readonly law: MaterialLaw;
