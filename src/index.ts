@@ -24,6 +24,27 @@ export type { MaterialLaw } from './materials/material-law.js';
 export { linearMaterial, type LinearMaterialSpec } from './materials/linear.js';
 export { compileMaterial, type MaterialSpec } from './materials/material-spec.js';
 // Waveforms (source waveforms with their breakpoints)
+// Nonlinear materials: analytic laws, B-H tables, fitting, demo materials.
+export { frohlichKennellyMaterial, type FrohlichKennellySpec } from './materials/frohlich-kennelly.js';
+export { brauerMaterial, brauerAirLineJoin, type BrauerSpec, type BrauerJoin } from './materials/brauer.js';
+export { bhTableMaterial, type BhTableSpec } from './materials/bh-table.js';
+export type { BhTableData } from './materials/bh-table-data.js';
+export {
+  fitMaterial,
+  type FitMaterialOptions,
+  type FitError,
+  type MaterialFit,
+  type FrohlichKennellyParameters,
+  type BrauerParameters,
+} from './materials/fit-material.js';
+export {
+  levenbergMarquardt,
+  type LeastSquaresProblem,
+  type LevenbergMarquardtOptions,
+  type LevenbergMarquardtResult,
+  type LevenbergMarquardtStatus,
+} from './materials/levenberg-marquardt.js';
+export { demoMaterials, type DemoMaterials } from './materials/demo-materials.js';
 export type { Waveform } from './waveforms/waveform.js';
 export { constant, constantWaveform, type ConstantSpec } from './waveforms/constant.js';
 export { sine, sineWaveform, type SineSpec } from './waveforms/sine.js';
