@@ -105,3 +105,43 @@ export { SimulationResult } from './result/simulation-result.js';
 export type { SimulationFailure, SolutionPiece, SimulationResultInit } from './result/simulation-result.js';
 export type { EnergyAudit } from './result/energy-audit.js';
 export type { ExportColumn, CsvOptions, ResultJson } from './result/export.js';
+// Analysis: metrics on sampled time series
+export type { WindowOptions, CycleOptions } from './analysis/metrics/series-options.js';
+export { seriesIntegral } from './analysis/metrics/series-integral.js';
+export { seriesMean } from './analysis/metrics/series-mean.js';
+export { seriesRms } from './analysis/metrics/series-rms.js';
+export { seriesPeak, type SeriesPeak } from './analysis/metrics/series-peak.js';
+export { cumulativeIntegral, type CumulativeOptions } from './analysis/metrics/cumulative-integral.js';
+export { energyIntegral, type EnergyIntegral } from './analysis/metrics/energy-integral.js';
+export { lossTotals, type LossTotals, type LossTotalsOptions } from './analysis/metrics/loss-totals.js';
+export { cycleMeans, type CycleMeans } from './analysis/metrics/cycle-means.js';
+export {
+  fitExponentialDecay,
+  type ExponentialFit,
+  type ExponentialFitOptions,
+} from './analysis/metrics/fit-exponential-decay.js';
+export { dcOffsetDecay, type DcOffsetDecay, type DcOffsetDecayOptions } from './analysis/metrics/dc-offset-decay.js';
+export { voltSecondsPerHalfCycle, type VoltSeconds } from './analysis/metrics/volt-seconds.js';
+export {
+  fluxDensityMargin,
+  fluxDensityMargins,
+  type FluxDensityMargin,
+  type FluxDensityMarginOptions,
+  type FluxDensitySeries,
+} from './analysis/metrics/flux-density-margin.js';
+export { inrushRatio, type InrushRatio, type InrushRatioOptions } from './analysis/metrics/inrush-ratio.js';
+
+// Analysis: core loss post-processing (Steinmetz, iGSE)
+export type { SteinmetzCoefficients } from './analysis/core-loss/steinmetz-coefficients.js';
+export { gammaFunction } from './analysis/core-loss/gamma-function.js';
+export { cosinePowerIntegral } from './analysis/core-loss/cosine-power-integral.js';
+export { steinmetzLossDensity } from './analysis/core-loss/steinmetz.js';
+export { igseCoefficient } from './analysis/core-loss/igse-coefficient.js';
+export { igseLossDensity, type IgseOptions } from './analysis/core-loss/igse-loss-density.js';
+export {
+  coreLoss,
+  type CoreLoss,
+  type CoreLossOptions,
+  type CoreLossTube,
+  type TubeCoreLoss,
+} from './analysis/core-loss/core-loss.js';

@@ -31,6 +31,11 @@ import { vertexWaveform } from './vertex-waveform.js';
  *
  * Constraints: `period > 0`, `0 <= deadTime < T/2`, and both on-times within
  * `[0, T/2]`, i.e. `|mismatch| / 2 <= deadTime` and `|mismatch| / 2 <= T/2 - deadTime`.
+ *
+ * @example
+ * ```ts
+ * const drive: BipolarSquareSpec = { kind: 'bipolar-square', amplitude: 48, period: 10e-6, deadTime: 200e-9 };
+ * ```
  */
 export interface BipolarSquareSpec {
   readonly kind: 'bipolar-square';

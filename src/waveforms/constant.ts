@@ -1,7 +1,14 @@
 import { InputError } from '../errors.js';
 import type { Waveform } from './waveform.js';
 
-/** Plain-data description of a constant (DC) waveform. */
+/**
+ * Plain-data description of a constant (DC) waveform.
+ *
+ * @example
+ * ```ts
+ * const dc: ConstantSpec = { kind: 'constant', value: 12 };
+ * ```
+ */
 export interface ConstantSpec {
   readonly kind: 'constant';
   /** The value, V or A. */
@@ -20,7 +27,14 @@ export function constant(value: number): ConstantSpec {
   return { kind: 'constant', value };
 }
 
-/** Compile a {@link ConstantSpec}; `owner` names the element in errors. */
+/**
+ * Compile a {@link ConstantSpec}; `owner` names the element in errors.
+ *
+ * @example
+ * ```ts
+ * constantWaveform(constant(12), 'battery').value(3); // 12
+ * ```
+ */
 export function constantWaveform(spec: ConstantSpec, owner = 'waveform'): Waveform {
   if (!Number.isFinite(spec.value)) {
     throw new InputError('bad-waveform', `${owner}: constant value ${spec.value} is not finite; give a finite number`, [owner]);

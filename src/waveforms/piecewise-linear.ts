@@ -24,6 +24,11 @@ import { vertexWaveform } from './vertex-waveform.js';
  *   to `values[0]` (add a closing vertex yourself for a ramp back).
  *   Before `times[0]` the value is still `values[0]`.
  * - times must be strictly increasing (a step needs two close vertices).
+ *
+ * @example
+ * ```ts
+ * const ramp: PiecewiseLinearSpec = { kind: 'piecewise-linear', times: [0, 1e-3], values: [0, 10] };
+ * ```
  */
 export interface PiecewiseLinearSpec {
   readonly kind: 'piecewise-linear';

@@ -27,6 +27,11 @@ import { vertexWaveform } from './vertex-waveform.js';
  *
  * Constraints: `period > 0`, `0 <= duty <= 1`, `rise, fall >= 0`,
  * `rise <= duty*period`, `duty*period + fall <= period`.
+ *
+ * @example
+ * ```ts
+ * const gate: PulseSpec = { kind: 'pulse', low: 0, high: 15, period: 50e-6, duty: 0.3 };
+ * ```
  */
 export interface PulseSpec {
   readonly kind: 'pulse';

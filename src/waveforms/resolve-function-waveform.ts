@@ -1,7 +1,14 @@
 import type { UserFunctionSpec } from './user-function.js';
 import { waveformError } from './waveform-error.js';
 
-/** Options of {@link resolveFunctionWaveform}. */
+/**
+ * Options of {@link resolveFunctionWaveform}.
+ *
+ * @example
+ * ```ts
+ * await resolveFunctionWaveform(spec, 'Vin', { baseUrl: new URL('./', import.meta.url) });
+ * ```
+ */
 export interface ResolveFunctionOptions {
   /**
    * Base for relative module paths (`./x.js`, `../x.js`): a file or directory

@@ -5,6 +5,11 @@ import type { Waveform } from './waveform.js';
  * Plain-data description of a sine wave switched on at `start`:
  * v(t) = offset + amplitude * sin(2 pi frequency (t - start) + phase) for
  * t >= start, and 0 before (the source is not yet connected).
+ *
+ * @example
+ * ```ts
+ * const mains: SineSpec = { kind: 'sine', amplitude: 325, frequency: 50, phase: Math.PI / 2 };
+ * ```
  */
 export interface SineSpec {
   readonly kind: 'sine';
@@ -33,7 +38,14 @@ export function sine(params: Omit<SineSpec, 'kind'>): SineSpec {
   return { kind: 'sine', ...params };
 }
 
-/** Compile a {@link SineSpec}; `owner` names the element in errors. */
+/**
+ * Compile a {@link SineSpec}; `owner` names the element in errors.
+ *
+ * @example
+ * ```ts
+ * sineWaveform(sine({ amplitude: 10, frequency: 50 }), 'V1').value(0.005); // 10
+ * ```
+ */
 export function sineWaveform(spec: SineSpec, owner = 'waveform'): Waveform {
   const { amplitude, frequency } = spec;
   const phase = spec.phase ?? 0;

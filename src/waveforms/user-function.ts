@@ -16,6 +16,11 @@ import { requireFinite, waveformError } from './waveform-error.js';
  * It should be smooth between the times listed in `breakpoints` (absolute
  * times, strictly increasing): the solver lands on those exactly, and
  * anywhere else a jump or kink costs many small steps.
+ *
+ * @example
+ * ```ts
+ * const byRef: UserFunctionSpec = { kind: 'function', module: './drives.js', export: 'softStart', breakpoints: [0] };
+ * ```
  */
 export interface UserFunctionSpec {
   readonly kind: 'function';

@@ -10,6 +10,12 @@ import { userFunctionWaveform, type UserFunctionSpec } from './user-function.js'
  * Plain-data description of a source waveform. Every kind is
  * JSON-serialisable except a {@link UserFunctionSpec} that carries its `fn`
  * (use its `module` + `export` form to cross a process boundary).
+ *
+ * @example
+ * ```ts
+ * const specs: WaveformSpec[] = [constant(5), sine({ amplitude: 1, frequency: 50 }), pulse({ high: 1, period: 1e-3, duty: 0.5 })];
+ * const json = JSON.stringify(specs[2]); // plain data: save it, send it to a worker
+ * ```
  */
 export type WaveformSpec = ConstantSpec | SineSpec | PulseSpec | BipolarSquareSpec | PiecewiseLinearSpec | UserFunctionSpec;
 
