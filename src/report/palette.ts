@@ -1,6 +1,7 @@
 // Series colours: the colour-blind-safe palette of M. Okabe and K. Ito,
 // "Color Universal Design (CUD): how to make figures and presentations that
-// are friendly to colorblind people", J*FLY, 2002 (2008 revision). Yellow
+// are friendly to colorblind people", J*FLY, 2002 (2008 revision); hex values
+// from memory. Yellow
 // (#F0E442) is left out: it is unreadable on white. Order chosen so the first
 // two colours (blue, vermillion) differ for every common colour-vision type.
 

@@ -4,6 +4,7 @@ import { escapeMarkup, jsonForScript } from '../../src/report/escape.js';
 // Rules: HTML Living Standard, sect. 13.1.2.6 (restrictions on the contents of
 // script elements: no "</script" and no "<!--"); XML 1.0 (5th ed.), sect. 2.2
 // (allowed characters) and 2.4 (character data: '<' and '&' escaped).
+// Section numbers from memory.
 
 describe('escapeMarkup', () => {
   it('escapes the five markup characters', () => {

@@ -4,7 +4,8 @@ import { formatTicks, roundSignificant } from '../../src/report/format-number.js
 import { REPORT_SCRIPT } from '../../src/report/html-report-script.js';
 
 // Expected strings are significant-digit rounding as defined by ECMAScript's
-// Number.prototype.toPrecision (ECMA-262, sect. 21.1.3.5), written by hand.
+// Number.prototype.toPrecision (ECMA-262, sect. 21.1.3.5, section number from
+// memory), written out by hand.
 const CASES: [number, number, string][] = [
   [41.234, 3, '41.2'],
   [41.25, 4, '41.25'],

@@ -7,7 +7,9 @@ import { niceNumber, niceTicks } from '../../src/report/index.js';
 // "Nice numbers for graph labels", Graphics Gems (A. S. Glassner, ed.),
 // Academic Press, 1990, pp. 61-63. The paper's text: data 105..543 is plotted
 // from 100 to 600 with ticks every 100; data 2.03..2.17 from 2.00 to 2.20 with
-// a spacing of 0.05 (both with its default of 5 ticks, loose labelling).
+// a spacing of 0.05 (both with its default of 5 ticks, loose labelling). The
+// examples are taken from the paper's introduction as quoted in the docs of a
+// published port of the algorithm; pages 61-63 from that citation.
 
 describe('niceNumber', () => {
   it('rounds to 1, 2, 5 or 10 times a power of ten with the thresholds 1.5, 3, 7 (Heckbert 1990, nicenum)', () => {

@@ -54,7 +54,8 @@ describe('renderHtmlReport', () => {
     expect(html).not.toMatch(/\s(?:src|href)\s*=\s*["']?(?:https?:)?\/\//i);
     const csp = /http-equiv="Content-Security-Policy" content="([^"]*)"/.exec(html)![1]!;
     expect(csp).toContain("default-src 'none'");
-    // each inline script is allowed by its SHA-256 hash (CSP Level 2, sect. 4.2.4 hash-source)
+    // each inline script is allowed by its SHA-256 hash (W3C Content Security Policy Level 2,
+    // hash-source; section number from memory: 4.2.4)
     for (const body of scripts(html)) {
       const hash = createHash('sha256').update(body, 'utf8').digest('base64');
       expect(csp).toContain(`'sha256-${hash}'`);

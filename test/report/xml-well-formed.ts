@@ -5,7 +5,8 @@
 // 2.4 (no literal '<' or unescaped '&' in character data), 3.1 (start/end/
 // empty-element tags, quoted attribute values without '<', unique attribute
 // names), 4.1 and 4.6 (character references and the predefined entities).
-// DTDs and processing instructions other than the XML declaration are not
+// Section numbers from memory. DTDs and processing instructions other than the
+// XML declaration are not
 // accepted: our SVG never uses them.
 
 const NAME = '[A-Za-z_:][-A-Za-z0-9_:.]*';
