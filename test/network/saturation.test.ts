@@ -71,8 +71,8 @@ describe('simulate: saturating single-winding inductor', () => {
       worstPhi = Math.max(worstPhi, Math.abs(phi[k]! - ref[k]!));
       worstI = Math.max(worstI, Math.abs(i[k]! - current(ref[k]!)));
     }
-    // The core is deep in saturation: the peak flux density is well past J_s.
-    expect(phiScale / p.area).toBeGreaterThan(2);
+    // The core is driven past saturation: the peak flux density exceeds J_s.
+    expect(phiScale / p.area).toBeGreaterThan(p.js);
     expect(worstPhi / phiScale).toBeLessThan(1e-7);
     expect(worstI / iScale).toBeLessThan(1e-6);
     expect(r.energy().relativeError).toBeLessThan(1e-6);
@@ -104,19 +104,25 @@ describe('simulate: inrush peak on energisation at voltage zero with remanence',
     expect(Math.abs(peak / exact - 1)).toBeLessThan(2e-3);
   });
 
-  it('is within 15 % of the published approximate formula with winding resistance (ratio printed)', () => {
+  it('stays just below the published approximate formula with winding resistance (ratio printed)', () => {
     // Y. Wang, S. G. Abdulsalam, W. Xu, "Analytical formula to estimate the maximum inrush current",
     // IEEE Trans. Power Delivery 23(2), 2008, pp. 1266-1268 (form FROM MEMORY, REFERENCES.md section 2):
     //   i_peak = sqrt(2) U / sqrt((w L_air)^2 + R^2) * (2 B_N + B_R - B_S) / B_N.
-    // The formula is an engineering estimate; the 15 % band is ours, not the authors'.
-    for (const resistance of [0.2, 0.5, 1]) {
+    // It scales the lossless peak by the impedance of the saturated circuit and neglects the flux the
+    // resistance takes away during the saturated interval, so it over-estimates increasingly with
+    // R / (w L_air). We check R / (w L_air) = 0.025 .. 0.1 (a range we take as typical of power
+    // transformers, from memory) and assert 0.85 <= simulated / formula <= 1: our stated band, not
+    // the authors'. Measured when the test was written: 0.977, 0.955, 0.916.
+    for (const ratioToReactance of [0.025, 0.05, 0.1]) {
+      const resistance = ratioToReactance * w * lAir;
       const { net, coil } = saturatingInductor({ ...base, resistance, amplitude: Math.SQRT2 * uRms });
       const r = simulate(net, { stopTime: 1 / base.frequency, rtol: 1e-8, sampling: { interval: 1e-5, includeSteps: true } });
       expect(r.status).toBe('success');
       const peak = Math.max(...r.current(coil));
       const formula = ((Math.SQRT2 * uRms) / Math.hypot(w * lAir, resistance)) * ((2 * bN + base.remanence - base.js) / bN);
-      console.info(`inrush R = ${resistance} ohm: simulated ${peak.toFixed(1)} A, formula ${formula.toFixed(1)} A, ratio ${(peak / formula).toFixed(4)}`);
-      expect(Math.abs(peak / formula - 1)).toBeLessThan(0.15);
+      console.info(`inrush R = ${resistance.toFixed(4)} ohm (R/wL_air = ${ratioToReactance}): simulated ${peak.toFixed(1)} A, formula ${formula.toFixed(1)} A, ratio ${(peak / formula).toFixed(4)}`);
+      expect(peak / formula).toBeLessThanOrEqual(1);
+      expect(peak / formula).toBeGreaterThanOrEqual(0.85);
     }
   });
 });
@@ -127,7 +133,9 @@ describe('simulate: eddy-current element', () => {
     // resistance (Fitzgerald, Kingsley and Umans, Electric Machinery, sect. 2.4). Here the magnetic
     // loop reads R_m phi + R_e dphi/dt = N i, which is that circuit with L_m = N^2/R_m, R_c = N^2/R_e
     // behind the winding resistance R (DERIVED). Test data of our own.
-    const [V, f, N, R, Re] = [100, 50, 150, 0.5, 0.08];
+    // R_c = N^2/R_e = 100 ohm is comparable with w L_m = 59 ohm, and R || R_c makes the DC offset decay
+    // with tau = L_m / (R || R_c) = 11 ms, so after 12 cycles the transient is below 1e-9.
+    const [V, f, N, R, Re] = [100, 50, 150, 20, 225];
     const w = 2 * Math.PI * f;
     const area = 1e-3;
     const mur = 2000;
