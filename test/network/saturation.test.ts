@@ -162,7 +162,8 @@ describe('simulate: eddy-current element', () => {
     const d = zRe * zRe + zpIm * zpIm;
     const [iRe, iIm] = [(V * zRe) / d, (-V * zpIm) / d];
     const last = r.time.map((t) => iRe * Math.sin(w * t) + iIm * Math.cos(w * t));
-    const k0 = r.time.findIndex((t) => t >= (cycles - 1) / f);
+    // The grid has 400 intervals per period, so the last 401 samples span exactly the last cycle.
+    const k0 = r.time.length - 401;
     let worst = 0;
     let scale = 0;
     const i = r.current(coil);
