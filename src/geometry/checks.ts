@@ -4,7 +4,15 @@ import { InputError } from '../errors.js';
 // InputError whose `elements` name the dimension, so a script can tell which
 // number to change.
 
-/** Throw `invalid-dimension` unless `value` is a finite number > 0 (metres, m^2...). */
+/**
+ * Throw `invalid-dimension` unless `value` is a finite number > 0 (metres, m^2...).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * requirePositive(input.depth, 'depth', 'uCoreLayout'); // throws invalid-dimension naming 'depth'
+ * ```
+ */
 export function requirePositive(value: number, name: string, owner: string, unit = 'm'): number {
   if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) {
     throw new InputError(
@@ -16,7 +24,15 @@ export function requirePositive(value: number, name: string, owner: string, unit
   return value;
 }
 
-/** Throw `invalid-dimension` unless `value` is a finite number >= 0. */
+/**
+ * Throw `invalid-dimension` unless `value` is a finite number >= 0.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * requireNonNegative(w.spacing, 'windings.centre.spacing', 'eCoreLayout');
+ * ```
+ */
 export function requireNonNegative(value: number, name: string, owner: string, unit = 'm'): number {
   if (typeof value !== 'number' || !Number.isFinite(value) || value < 0) {
     throw new InputError(
@@ -28,7 +44,15 @@ export function requireNonNegative(value: number, name: string, owner: string, u
   return value;
 }
 
-/** Stacking (lamination fill) factor in (0, 1]; default 1. */
+/**
+ * Stacking (lamination fill) factor in (0, 1]; default 1.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const k = stackingFactorOf(input.stackingFactor, 'threeLimbLayout'); // 1 when absent
+ * ```
+ */
 export function stackingFactorOf(value: number | undefined, owner: string): number {
   if (value === undefined) return 1;
   if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0 || value > 1) {
@@ -41,7 +65,15 @@ export function stackingFactorOf(value: number | undefined, owner: string): numb
   return value;
 }
 
-/** Freeze a plain-data value and everything it holds. */
+/**
+ * Freeze a plain-data value and everything it holds.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const layout = deepFreeze({ nodes: ['n1'], paths: [] }); // nested arrays frozen too
+ * ```
+ */
 export function deepFreeze<T>(value: T): T {
   if (value !== null && typeof value === 'object' && !Object.isFrozen(value)) {
     for (const key of Object.keys(value)) deepFreeze((value as Record<string, unknown>)[key]);
@@ -54,6 +86,12 @@ export function deepFreeze<T>(value: T): T {
  * Neumaier's compensated sum (an improved Kahan summation: A. Neumaier,
  * ZAMM 54 (1974) 39-51). Keeps C1 and C2 exact to rounding when a core is
  * described by many thin sections of very different size.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * compensatedSum([1e16, 1, -1e16]); // 1 (a naive sum gives 0)
+ * ```
  */
 export function compensatedSum(terms: Iterable<number>): number {
   let sum = 0;

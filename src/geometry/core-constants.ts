@@ -1,7 +1,14 @@
 import { InputError } from '../errors.js';
 import { compensatedSum } from './checks.js';
 
-/** One piece of a magnetic path: a length along the flux and a uniform cross-section. */
+/**
+ * One piece of a magnetic path: a length along the flux and a uniform cross-section.
+ *
+ * @example
+ * ```ts
+ * const corner: CoreSection = { length: mm(3.9), area: mm2(58.5), label: 'corner' };
+ * ```
+ */
 export interface CoreSection {
   /** Length along the flux, m (> 0). */
   readonly length: number;
@@ -14,6 +21,11 @@ export interface CoreSection {
 /**
  * Core constants and effective parameters by the method of IEC 60205, with the
  * definitions of IEC 60050-221 (IEV 221-04-31). All in SI units.
+ *
+ * @example
+ * ```ts
+ * const { effectiveLength, effectiveArea } = coreConstants([{ length: mm(40), area: mm2(25) }]);
+ * ```
  */
 export interface CoreConstants {
   /** Core constant C1 = sum(l/A), 1/m. The reluctance of a linear core is C1/(mu0 mu_r). */
@@ -28,7 +40,14 @@ export interface CoreConstants {
   readonly effectiveVolume: number;
 }
 
-/** Options of {@link coreConstants}. */
+/**
+ * Options of {@link coreConstants}.
+ *
+ * @example
+ * ```ts
+ * coreConstants(sections, { rounding: 'iec-60205' }); // as printed in tables
+ * ```
+ */
 export interface CoreConstantsOptions {
   /**
    * `'none'` (default): full double precision.
@@ -111,7 +130,15 @@ export function coreConstants(sections: readonly CoreSection[], options: CoreCon
   return constantsFromC1C2(c1, c2);
 }
 
-/** Effective parameters from the two core constants (no checks; internal). */
+/**
+ * Effective parameters from the two core constants (no checks; internal).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * constantsFromC1C2(2e3, 1.5e8).effectiveArea; // 1.333e-5 m^2
+ * ```
+ */
 export function constantsFromC1C2(c1: number, c2: number): CoreConstants {
   const effectiveArea = c1 / c2;
   const effectiveLength = c1 * effectiveArea;

@@ -1,7 +1,14 @@
 import type { CoreConstants, CoreSection } from './core-constants.js';
 import type { FringingModel } from './fringing-factor.js';
 
-/** The shapes the layout builders produce. */
+/**
+ * The shapes the layout builders produce.
+ *
+ * @example
+ * ```ts
+ * if (layout.shape === 'e-core') console.log(layout.constants?.effectiveArea);
+ * ```
+ */
 export type CoreShape = 'toroid' | 'u-core' | 'e-core' | 'three-limb' | 'five-limb';
 
 /**
@@ -12,10 +19,22 @@ export type CoreShape = 'toroid' | 'u-core' | 'e-core' | 'three-limb' | 'five-li
  * - `'centre-line'`: sharp corners; legs run between yoke centre-lines and
  *   yokes between leg centre-lines;
  * - `'ring'`: the toroid's exact ring integral.
+ *
+ * @example
+ * ```ts
+ * eCoreLayout({ ...dimensions, meanPath: 'centre-line' }).meanPath; // 'centre-line'
+ * ```
  */
 export type MeanPathConvention = 'iec-60205' | 'centre-line' | 'ring';
 
-/** The leg, yoke or ring a path belongs to. */
+/**
+ * The leg, yoke or ring a path belongs to.
+ *
+ * @example
+ * ```ts
+ * const centreLegPaths = layout.paths.filter((p) => p.member.kind === 'leg' && p.member.name === 'centre');
+ * ```
+ */
 export interface LayoutMember {
   readonly kind: 'leg' | 'yoke' | 'ring';
   /** Leg name ('left', 'centre', 'a'...), yoke name ('top', 'bottom') or 'ring'. */
@@ -33,7 +52,14 @@ interface LayoutPathBase {
   readonly member: LayoutMember;
 }
 
-/** A piece of core material: give it to `net.fluxTube` with the core's material. */
+/**
+ * A piece of core material: give it to `net.fluxTube` with the core's material.
+ *
+ * @example
+ * ```ts
+ * for (const p of layout.paths) if (p.kind === 'core') console.log(p.name, p.length, p.area);
+ * ```
+ */
 export interface LayoutCorePath extends LayoutPathBase {
   readonly kind: 'core';
   /**
@@ -48,7 +74,15 @@ export interface LayoutCorePath extends LayoutPathBase {
   readonly sections: readonly CoreSection[];
 }
 
-/** An air gap: give it to `net.airGap` (reluctance length / (mu0 area)). */
+/**
+ * An air gap: give it to `net.airGap` (reluctance length / (mu0 area)).
+ *
+ * @example
+ * ```ts
+ * const gap = layout.paths.find((p): p is LayoutGapPath => p.kind === 'gap');
+ * gap?.fringingFactor; // e.g. 1.22
+ * ```
+ */
 export interface LayoutGapPath extends LayoutPathBase {
   readonly kind: 'gap';
   /** Gap length l_g, m. */
@@ -63,17 +97,39 @@ export interface LayoutGapPath extends LayoutPathBase {
   readonly fringing: FringingModel['kind'];
 }
 
-/** A leakage path of constant reluctance: give it to `net.reluctance`. */
+/**
+ * A leakage path of constant reluctance: give it to `net.reluctance`.
+ *
+ * @example
+ * ```ts
+ * const leak = layout.paths.find((p): p is LayoutLeakagePath => p.kind === 'leakage');
+ * const leakageInductance = leak ? 40 ** 2 / leak.reluctance : 0; // H, 40 turns
+ * ```
+ */
 export interface LayoutLeakagePath extends LayoutPathBase {
   readonly kind: 'leakage';
   /** Reluctance, A/Wb (1/H); see {@link concentricLeakageReluctance}. */
   readonly reluctance: number;
 }
 
-/** One path of a layout: core material, air gap, or leakage. */
+/**
+ * One path of a layout: core material, air gap, or leakage.
+ *
+ * @example
+ * ```ts
+ * const r = layout.paths.map((p) => pathReluctance(p, 2000)); // A/Wb, linear estimate
+ * ```
+ */
 export type LayoutPath = LayoutCorePath | LayoutGapPath | LayoutLeakagePath;
 
-/** The windings geometry a leg was given, with defaults resolved. */
+/**
+ * The windings geometry a leg was given, with defaults resolved.
+ *
+ * @example
+ * ```ts
+ * layout.legs.find((l) => l.name === 'centre')?.windings?.meanTurnLength; // m
+ * ```
+ */
 export interface LayoutWindings {
   readonly innerBuild: number;
   readonly outerBuild: number;
@@ -84,7 +140,15 @@ export interface LayoutWindings {
   readonly meanTurnLength: number;
 }
 
-/** A leg (or the ring of a toroid): where windings sit and which paths make it up. */
+/**
+ * A leg (or the ring of a toroid): where windings sit and which paths make it up.
+ *
+ * @example
+ * ```ts
+ * const centre = layout.legs.find((l) => l.name === 'centre');
+ * // primary on centre?.windingPath, secondary on centre?.outerWindingPath
+ * ```
+ */
 export interface LayoutLeg {
   readonly name: string;
   /** The leg's paths in order from its bottom junction to its top junction (leakage path last). */
@@ -105,7 +169,14 @@ export interface LayoutLeg {
   readonly area: number;
 }
 
-/** A winding window. */
+/**
+ * A winding window.
+ *
+ * @example
+ * ```ts
+ * const fill = copperArea / (layout.windows[0]?.area ?? 1); // window fill factor
+ * ```
+ */
 export interface LayoutWindow {
   readonly name: string;
   /** Width between the legs, m (toroid: inner diameter). */

@@ -1,7 +1,17 @@
 import type { CoreLayout } from './core-layout.js';
 import { rowLayout, type LegGap, type LegWindings, type RectangularCoreDimensions } from './row-layout.js';
 
-/** Input of {@link eCoreLayout}: a three-leg shell core (E-E or E-I pair), SI units. */
+/**
+ * Input of {@link eCoreLayout}: a three-leg shell core (E-E or E-I pair), SI units.
+ *
+ * @example
+ * ```ts
+ * const input: ECoreInput = {
+ *   centreLegWidth: mm(10), outerLegWidth: mm(5), yokeHeight: mm(5), depth: mm(10),
+ *   windowWidth: mm(7.5), windowHeight: mm(20), gaps: { centre: { length: mm(0.3), fringing: 'none' } },
+ * };
+ * ```
+ */
 export interface ECoreInput extends RectangularCoreDimensions {
   /** Width of the centre leg in the drawing plane, m. */
   readonly centreLegWidth: number;

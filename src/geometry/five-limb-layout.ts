@@ -2,7 +2,17 @@ import type { CoreLayout } from './core-layout.js';
 import { rowLayout, type LegGap, type LegWindings, type RectangularCoreDimensions } from './row-layout.js';
 import type { PhaseLimb } from './three-limb-layout.js';
 
-/** Input of {@link fiveLimbLayout}: a three-phase, five-limb core-type core, SI units. */
+/**
+ * Input of {@link fiveLimbLayout}: a three-phase, five-limb core-type core, SI units.
+ *
+ * @example
+ * ```ts
+ * const input: FiveLimbInput = {
+ *   limbWidth: mm(80), returnLimbWidth: mm(45), yokeHeight: mm(45), depth: mm(80),
+ *   windowWidth: mm(90), windowHeight: mm(250),
+ * };
+ * ```
+ */
 export interface FiveLimbInput extends RectangularCoreDimensions {
   /** Width of each phase limb in the drawing plane, m. */
   readonly limbWidth: number;

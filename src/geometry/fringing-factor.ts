@@ -8,6 +8,11 @@ import { requirePositive } from './checks.js';
  * bound, so this limit is OUR choice, not the sources'. Beyond it, turn
  * fringing off (`'none'`), give a factor from a field solution (`'factor'`),
  * or model the fringing paths explicitly.
+ *
+ * @example
+ * ```ts
+ * const longestGap = SHORT_GAP_LIMIT * Math.sqrt(poleArea); // accepted by 'mclyman'
+ * ```
  */
 export const SHORT_GAP_LIMIT = 0.25;
 
@@ -29,6 +34,12 @@ export const SHORT_GAP_LIMIT = 0.25;
  *
  * Validity: short gaps. We accept l_g <= {@link SHORT_GAP_LIMIT} times
  * sqrt(A_c) and G (mclyman) or each face side (matsch).
+ *
+ * @example
+ * ```ts
+ * const f: FringingModel = { kind: 'mclyman', windowHeight: mm(20) };
+ * gapReluctance({ length: mm(0.5), area: mm2(100), fringing: f });
+ * ```
  */
 export type FringingModel =
   | { readonly kind: 'none' }
@@ -90,7 +101,15 @@ export function matschFringingFactor(p: { gapLength: number; width: number; dept
   return ((a + lg) * (b + lg)) / (a * b);
 }
 
-/** Evaluate a fringing model for a gap of the given length and face area (internal dispatch). */
+/**
+ * Evaluate a fringing model for a gap of the given length and face area (internal dispatch).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * evaluateFringing({ kind: 'matsch', width: mm(10), depth: mm(20) }, mm(1), mm2(200), 'gap'); // 1.155
+ * ```
+ */
 export function evaluateFringing(model: FringingModel, gapLength: number, gapArea: number, owner: string): number {
   switch (model.kind) {
     case 'none':

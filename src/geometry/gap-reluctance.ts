@@ -2,7 +2,14 @@ import { MU0 } from '../constants.js';
 import { requirePositive } from './checks.js';
 import { evaluateFringing, type FringingModel } from './fringing-factor.js';
 
-/** Input of {@link gapReluctance}. */
+/**
+ * Input of {@link gapReluctance}.
+ *
+ * @example
+ * ```ts
+ * const input: GapReluctanceInput = { length: mm(0.5), area: mm2(100), fringing: { kind: 'none' } };
+ * ```
+ */
 export interface GapReluctanceInput {
   /** Gap length l_g along the flux, m (> 0). */
   readonly length: number;
@@ -12,7 +19,14 @@ export interface GapReluctanceInput {
   readonly fringing?: FringingModel;
 }
 
-/** Result of {@link gapReluctance}. */
+/**
+ * Result of {@link gapReluctance}.
+ *
+ * @example
+ * ```ts
+ * const { reluctance, fringingFactor } = gapReluctance({ length: mm(0.5), area: mm2(100) });
+ * ```
+ */
 export interface GapReluctance {
   /** R_g = l_g / (mu0 A_g F), A/Wb (1/H). */
   readonly reluctance: number;

@@ -1,7 +1,16 @@
 import { MU0 } from '../constants.js';
 import { requireNonNegative, requirePositive } from './checks.js';
 
-/** Two concentric windings of equal height on one leg (radial dimensions in m). */
+/**
+ * Two concentric windings of equal height on one leg (radial dimensions in m).
+ *
+ * @example
+ * ```ts
+ * const w: ConcentricWindingsGeometry = {
+ *   innerBuild: mm(3), outerBuild: mm(4), spacing: mm(1), height: mm(40), meanTurnLength: mm(120),
+ * };
+ * ```
+ */
 export interface ConcentricWindingsGeometry {
   /** Radial build a1 of the inner winding (next to the leg), m (> 0). */
   readonly innerBuild: number;

@@ -23,10 +23,22 @@ import { concentricLeakageReluctance } from './leakage-reluctance.js';
  * Fringing of a leg's gap: `'mclyman'` (default; G = window height, A_c = the
  * leg's face area), `'matsch'` (face = leg width x depth), `'none'`, or a
  * factor F >= 1 of your own.
+ *
+ * @example
+ * ```ts
+ * eCoreLayout({ ...dimensions, gaps: { centre: { length: mm(0.5), fringing: 1.15 } } });
+ * ```
  */
 export type LegGapFringing = 'none' | 'mclyman' | 'matsch' | number;
 
-/** An air gap cut across a leg. */
+/**
+ * An air gap cut across a leg.
+ *
+ * @example
+ * ```ts
+ * const gap: LegGap = { length: mm(0.5), fringing: 'matsch' };
+ * ```
+ */
 export interface LegGap {
   /** Gap length, m (> 0, shorter than the window height). */
   readonly length: number;
@@ -38,6 +50,11 @@ export interface LegGap {
  * Two concentric windings on a leg (inner next to the leg). Giving them makes
  * the builder split the leg and add a leakage path between the windings
  * ({@link concentricLeakageReluctance}).
+ *
+ * @example
+ * ```ts
+ * const lvInsideHv: LegWindings = { innerBuild: mm(15), outerBuild: mm(20), spacing: mm(8), clearance: mm(4) };
+ * ```
  */
 export interface LegWindings {
   /** Radial build a1 of the inner winding, m (> 0). */
@@ -58,7 +75,16 @@ export interface LegWindings {
   readonly meanTurnLength?: number;
 }
 
-/** Dimensions shared by the rectangular cores (SI units). */
+/**
+ * Dimensions shared by the rectangular cores (SI units).
+ *
+ * @example
+ * ```ts
+ * const d: RectangularCoreDimensions = {
+ *   windowWidth: mm(14), windowHeight: mm(30), yokeHeight: mm(9), depth: mm(15), meanPath: 'centre-line',
+ * };
+ * ```
+ */
 export interface RectangularCoreDimensions {
   /** Clear width of each window between legs, m. */
   readonly windowWidth: number;
@@ -74,7 +100,15 @@ export interface RectangularCoreDimensions {
   readonly meanPath?: 'iec-60205' | 'centre-line';
 }
 
-/** Internal description of a row of legs. */
+/**
+ * Internal description of a row of legs.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * rowLayout({ shape: 'u-core', owner: 'uCoreLayout', legs, windows, dimensions, constants: 'loop' });
+ * ```
+ */
 export interface RowSpec {
   readonly shape: Exclude<CoreShape, 'toroid'>;
   readonly owner: string;
@@ -142,6 +176,12 @@ function check(spec: RowSpec): void {
 /**
  * Build the layout of a row of legs. Exported for the shape functions only
  * (not part of the public API).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * rowLayout({ shape: 'u-core', owner: 'uCoreLayout', legs, windows, dimensions, constants: 'loop' });
+ * ```
  */
 export function rowLayout(spec: RowSpec): CoreLayout {
   check(spec);

@@ -1,10 +1,27 @@
 import type { CoreLayout } from './core-layout.js';
 import { rowLayout, type LegGap, type LegWindings, type RectangularCoreDimensions } from './row-layout.js';
 
-/** Phase limbs of a three-phase core. */
+/**
+ * Phase limbs of a three-phase core.
+ *
+ * @example
+ * ```ts
+ * const limb: PhaseLimb = 'b';
+ * layout.legs.find((l) => l.name === limb)?.windingPath; // 'leg-b'
+ * ```
+ */
 export type PhaseLimb = 'a' | 'b' | 'c';
 
-/** Input of {@link threeLimbLayout}: a three-phase, three-limb core-type core, SI units. */
+/**
+ * Input of {@link threeLimbLayout}: a three-phase, three-limb core-type core, SI units.
+ *
+ * @example
+ * ```ts
+ * const input: ThreeLimbInput = {
+ *   limbWidth: mm(80), yokeHeight: mm(80), depth: mm(80), windowWidth: mm(90), windowHeight: mm(250),
+ * };
+ * ```
+ */
 export interface ThreeLimbInput extends RectangularCoreDimensions {
   /** Width of each limb in the drawing plane, m. */
   readonly limbWidth: number;

@@ -2,7 +2,14 @@ import { InputError } from '../errors.js';
 import { requirePositive, stackingFactorOf } from './checks.js';
 import { constantsFromC1C2, type CoreConstants } from './core-constants.js';
 
-/** Dimensions of a ring core (toroid) of rectangular cross-section, in m. */
+/**
+ * Dimensions of a ring core (toroid) of rectangular cross-section, in m.
+ *
+ * @example
+ * ```ts
+ * const ring: ToroidDimensions = { innerRadius: mm(10), outerRadius: mm(20), height: mm(10) };
+ * ```
+ */
 export interface ToroidDimensions {
   /** Inner radius r1, m (> 0). */
   readonly innerRadius: number;
@@ -14,7 +21,15 @@ export interface ToroidDimensions {
   readonly stackingFactor?: number;
 }
 
-/** Check ring dimensions; returns them with the stacking factor resolved. */
+/**
+ * Check ring dimensions; returns them with the stacking factor resolved.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const d = checkToroid({ innerRadius: mm(10), outerRadius: mm(20), height: mm(10) }, 'toroidLayout');
+ * ```
+ */
 export function checkToroid(d: ToroidDimensions, owner: string): Required<ToroidDimensions> {
   requirePositive(d.innerRadius, 'innerRadius', owner);
   requirePositive(d.outerRadius, 'outerRadius', owner);
@@ -44,6 +59,12 @@ export function checkToroid(d: ToroidDimensions, owner: string): Required<Toroid
  * C2 = 2 pi (1/r1 - 1/r2)/(h^2 ln^3(r2/r1)) (DERIVED here; the slotted-ring
  * form is our extension, exact for a slot with parallel faces up to the
  * chord-versus-arc term gap^3/(24 r^2)).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * ringConstants(d, mm(1)).effectiveLength; // iron of a ring slotted 1 mm wide
+ * ```
  */
 export function ringConstants(d: Required<ToroidDimensions>, gap: number): CoreConstants {
   const u1 = 2 * Math.PI * d.innerRadius - gap;

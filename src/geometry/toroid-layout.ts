@@ -5,7 +5,16 @@ import type { FringingModel } from './fringing-factor.js';
 import { gapReluctance } from './gap-reluctance.js';
 import { checkToroid, ringConstants, type ToroidDimensions } from './toroid-constants.js';
 
-/** Input of {@link toroidLayout}: ring dimensions plus an optional radial gap. */
+/**
+ * Input of {@link toroidLayout}: ring dimensions plus an optional radial gap.
+ *
+ * @example
+ * ```ts
+ * const input: ToroidInput = {
+ *   innerRadius: mm(10), outerRadius: mm(20), height: mm(10), gap: { length: mm(0.5), fringing: 'matsch' },
+ * };
+ * ```
+ */
 export interface ToroidInput extends ToroidDimensions {
   /**
    * A radial slot with parallel faces, `length` wide (m, at most the inner

@@ -1,7 +1,16 @@
 import type { CoreLayout } from './core-layout.js';
 import { rowLayout, type LegGap, type LegWindings, type RectangularCoreDimensions } from './row-layout.js';
 
-/** Input of {@link uCoreLayout}: a two-leg core (U-U, U-I pair or C core), SI units. */
+/**
+ * Input of {@link uCoreLayout}: a two-leg core (U-U, U-I pair or C core), SI units.
+ *
+ * @example
+ * ```ts
+ * const input: UCoreInput = {
+ *   legWidth: mm(12), yokeHeight: mm(12), depth: mm(15), windowWidth: mm(14), windowHeight: mm(30),
+ * };
+ * ```
+ */
 export interface UCoreInput extends RectangularCoreDimensions {
   /** Width of each leg in the drawing plane, m. */
   readonly legWidth: number;
