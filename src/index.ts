@@ -145,3 +145,30 @@ export {
   type CoreLossTube,
   type TubeCoreLoss,
 } from './analysis/core-loss/core-loss.js';
+// geometry: core constants, gaps, leakage, shape layouts
+export { mm, mm2 } from './geometry/units.js';
+export { coreConstants, type CoreSection, type CoreConstants, type CoreConstantsOptions } from './geometry/core-constants.js';
+export { toroidConstants, type ToroidDimensions } from './geometry/toroid-constants.js';
+export { mclymanFringingFactor, matschFringingFactor, SHORT_GAP_LIMIT, type FringingModel } from './geometry/fringing-factor.js';
+export { gapReluctance, type GapReluctanceInput, type GapReluctance } from './geometry/gap-reluctance.js';
+export { concentricLeakageReluctance, type ConcentricWindingsGeometry } from './geometry/leakage-reluctance.js';
+export type {
+  CoreLayout,
+  CoreShape,
+  MeanPathConvention,
+  LayoutMember,
+  LayoutPath,
+  LayoutCorePath,
+  LayoutGapPath,
+  LayoutLeakagePath,
+  LayoutLeg,
+  LayoutWindings,
+  LayoutWindow,
+} from './geometry/core-layout.js';
+export { pathReluctance } from './geometry/path-reluctance.js';
+export type { LegGap, LegGapFringing, LegWindings, RectangularCoreDimensions } from './geometry/row-layout.js';
+export { toroidLayout, type ToroidInput } from './geometry/toroid-layout.js';
+export { uCoreLayout, type UCoreInput } from './geometry/u-core-layout.js';
+export { eCoreLayout, type ECoreInput } from './geometry/e-core-layout.js';
+export { threeLimbLayout, type ThreeLimbInput, type PhaseLimb } from './geometry/three-limb-layout.js';
+export { fiveLimbLayout, type FiveLimbInput } from './geometry/five-limb-layout.js';
