@@ -172,3 +172,4 @@ export { uCoreLayout, type UCoreInput } from './geometry/u-core-layout.js';
 export { eCoreLayout, type ECoreInput } from './geometry/e-core-layout.js';
 export { threeLimbLayout, type ThreeLimbInput, type PhaseLimb } from './geometry/three-limb-layout.js';
 export { fiveLimbLayout, type FiveLimbInput } from './geometry/five-limb-layout.js';
+export { addCoreLayout, type AddCoreLayoutOptions, type CoreHandles } from './network/add-core-layout.js';

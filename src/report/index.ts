@@ -36,3 +36,4 @@ export { decimateMinMax } from './decimate.js';
 export { niceTicks, niceNumber, type NiceTicks } from './nice-ticks.js';
 export { formatNumber } from './format-number.js';
 export { SERIES_PALETTE } from './palette.js';
+export { resultReport, type ResultReportOptions, type ResultPlot } from './result-report.js';

@@ -110,7 +110,6 @@ export function resultToJson(r: SimulationResult): ResultJson {
   };
 }
 
-/** The network id the result accepts handles from (internal). */
 function resultNetworkId(r: SimulationResult): number {
-  return (r as unknown as { networkId: number | undefined }).networkId ?? -1;
+  return r.networkId ?? -1;
 }

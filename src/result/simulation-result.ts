@@ -77,8 +77,10 @@ export class SimulationResult {
   /** The simulated network as plain data. */
   readonly network: NetworkDescription;
 
+  /** Identity of the builder whose handles this result accepts (undefined when simulated from a description). */
+  readonly networkId: number | undefined;
+
   private readonly compiled: CompiledNetwork;
-  private readonly networkId: number | undefined;
   private readonly states: readonly Float64Array[];
   /** Piece index of every sample, so inputs are evaluated on the right side of breakpoints. */
   private readonly sampleInterval: Int32Array;

@@ -1,0 +1,257 @@
+import { compileMaterial } from '../materials/material-spec.js';
+import type { NetworkDescription, TubeDescription } from '../network/description.js';
+import type { ExportColumn } from '../result/export.js';
+import type { SimulationResult } from '../result/simulation-result.js';
+import type { MetricRow, MetricTable, NetworkRow, PlotGroup, PlotSeries, ReportData, ReportInfoItem, ReportSection } from './report-data.js';
+
+/** A plot of a result: a title and the quantities to draw (see {@link ExportColumn}). */
+export interface ResultPlot {
+  readonly title: string;
+  readonly description?: string;
+  readonly series: readonly ExportColumn[];
+  /** Draw +-saturation flux density lines for the flux-density series whose material has one. Default true. */
+  readonly saturationLines?: boolean;
+}
+
+/** Options of {@link resultReport}. */
+export interface ResultReportOptions {
+  readonly title: string;
+  readonly subtitle?: string;
+  /** Plots; default: flux density of every tube, then every winding current. */
+  readonly plots?: readonly ResultPlot[];
+  /** Extra metric tables placed before the standard ones. */
+  readonly metrics?: readonly MetricTable[];
+  /** Extra info lines. */
+  readonly info?: readonly ReportInfoItem[];
+  /** Free text under the first section's heading. */
+  readonly description?: string;
+  /** Replaces the default caution wording (it cannot be removed). */
+  readonly caution?: string;
+}
+
+const LABEL: Record<ExportColumn['quantity'], [string, string]> = {
+  flux: ['Flux', 'Wb'], fluxDensity: ['Flux density', 'T'], fieldStrength: ['Field strength', 'A/m'], mmf: ['MMF drop', 'A'],
+  eddyPower: ['Eddy power', 'W'], current: ['Current', 'A'], voltage: ['Voltage', 'V'], power: ['Power', 'W'], emf: ['EMF', 'V'],
+  fluxLinkage: ['Flux linkage', 'Wb'], potential: ['Potential', 'V'], magneticPotential: ['Magnetic potential', 'A'],
+};
+
+/**
+ * Turn a simulation result into report data: waveform plots (with the
+ * saturation flux density drawn on flux-density plots), a table of peak flux
+ * density and margin to saturation per tube, peak currents, the energy audit
+ * and the solver's statistics, and the network listing with units.
+ *
+ * @example
+ * ```ts
+ * const result = simulate(net, { stopTime: 0.2 });
+ * writeReport('out/energisation.html', resultReport(result, { title: 'Energisation at voltage zero' }));
+ * ```
+ */
+export function resultReport(result: SimulationResult, options: ResultReportOptions): ReportData {
+  const d = result.network;
+  const handle = <K extends ExportColumn['handle']['kind']>(kind: K, name: string, index: number) =>
+    ({ kind, name, index, network: result.networkId ?? -1 }) as unknown as Extract<ExportColumn['handle'], { kind: K }>;
+  const plots = options.plots ?? defaultPlots(d, handle);
+  const plotGroups = plots.map((p) => plotGroup(result, p));
+  const sections: ReportSection[] = [
+    { title: 'Waveforms', ...(options.description ? { description: options.description } : {}), plots: plotGroups },
+    { title: 'Figures', metrics: [...(options.metrics ?? []), ...standardMetrics(result, handle)] },
+    { title: 'Network', network: { title: `Network "${d.name}" (SI units)`, rows: networkRows(d) } },
+  ];
+  const info: ReportInfoItem[] = [
+    { label: 'Status', value: result.status === 'success' ? 'completed' : `${result.status}: ${result.message}` },
+    { label: 'Simulated time', value: `${result.time[0] ?? 0} s to ${result.time[result.time.length - 1] ?? 0} s` },
+    { label: 'Solver', value: `Radau IIA (order 5); ${result.stats.acceptedSteps} steps, ${result.stats.rejectedSteps} rejected` },
+    ...(options.info ?? []),
+  ];
+  return {
+    title: options.title,
+    ...(options.subtitle ? { subtitle: options.subtitle } : {}),
+    info,
+    ...(options.caution ? { caution: options.caution } : {}),
+    sections,
+  };
+}
+
+function defaultPlots(
+  d: NetworkDescription,
+  handle: <K extends ExportColumn['handle']['kind']>(kind: K, name: string, index: number) => Extract<ExportColumn['handle'], { kind: K }>,
+): ResultPlot[] {
+  const plots: ResultPlot[] = [];
+  const tubes = d.tubes.flatMap((t, b) => (t.law.kind === 'material' ? [{ quantity: 'fluxDensity' as const, handle: handle('flux-tube', t.name, b) }] : []));
+  if (tubes.length > 0) plots.push({ title: 'Flux density per tube', series: tubes });
+  const windings = d.elements.flatMap((e, k) => (e.kind === 'winding' ? [{ quantity: 'current' as const, handle: handle('winding', e.name, k) }] : []));
+  if (windings.length > 0) plots.push({ title: 'Winding currents', series: windings });
+  return plots;
+}
+
+function values(r: SimulationResult, c: ExportColumn): Float64Array {
+  switch (c.quantity) {
+    case 'flux': return r.flux(c.handle);
+    case 'fluxDensity': return r.fluxDensity(c.handle);
+    case 'fieldStrength': return r.fieldStrength(c.handle);
+    case 'mmf': return r.mmf(c.handle);
+    case 'eddyPower': return r.eddyPower(c.handle);
+    case 'current': return r.current(c.handle);
+    case 'voltage': return r.voltage(c.handle);
+    case 'power': return r.power(c.handle);
+    case 'emf': return r.emf(c.handle);
+    case 'fluxLinkage': return r.fluxLinkage(c.handle);
+    case 'potential': return r.potential(c.handle);
+    case 'magneticPotential': return r.magneticPotential(c.handle);
+  }
+}
+
+function plotGroup(r: SimulationResult, p: ResultPlot): PlotGroup {
+  const series: PlotSeries[] = p.series.map((c) => {
+    const [quantity, unit] = LABEL[c.quantity];
+    return { label: c.label ?? c.handle.name, unit, quantity, t: r.time, values: values(r, c) };
+  });
+  const saturation = new Set<number>();
+  if (p.saturationLines ?? true) {
+    for (const c of p.series) {
+      if (c.quantity !== 'fluxDensity') continue;
+      const bs = saturationOf(r.network.tubes[c.handle.index]!);
+      if (bs !== undefined) saturation.add(bs);
+    }
+  }
+  const references = [...saturation].flatMap((bs) => [
+    { label: `+B_sat ${bs} T`, value: bs, unit: 'T' },
+    { label: `-B_sat ${bs} T`, value: -bs, unit: 'T' },
+  ]);
+  return { title: p.title, ...(p.description ? { description: p.description } : {}), series, ...(references.length ? { references } : {}) };
+}
+
+function saturationOf(t: TubeDescription): number | undefined {
+  if (t.law.kind !== 'material') return undefined;
+  return compileMaterial(t.law.material).saturationFluxDensity;
+}
+
+function standardMetrics(
+  r: SimulationResult,
+  handle: <K extends ExportColumn['handle']['kind']>(kind: K, name: string, index: number) => Extract<ExportColumn['handle'], { kind: K }>,
+): MetricTable[] {
+  const d = r.network;
+  const peakAbs = (x: Float64Array): number => x.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
+  const bRows: MetricRow[] = d.tubes.flatMap((t, b) => {
+    if (t.law.kind !== 'material') return [];
+    const peak = peakAbs(r.fluxDensity(handle('flux-tube', t.name, b)));
+    const bs = saturationOf(t);
+    const rows: MetricRow[] = [{ name: `peak |B| ${t.name}`, value: peak, unit: 'T' }];
+    if (bs !== undefined) {
+      const margin = bs - peak;
+      rows.push({
+        name: `margin to B_sat ${t.name}`, value: margin, unit: 'T', note: `B_sat = ${bs} T`,
+        status: margin < 0 ? 'alert' : margin < 0.1 * bs ? 'warning' : 'ok',
+      });
+    }
+    return rows;
+  });
+  const iRows: MetricRow[] = d.elements.flatMap((e, k) =>
+    e.kind === 'winding' || e.kind === 'voltage-source'
+      ? [{ name: `peak |i| ${e.name}`, value: peakAbs(r.current(handle(e.kind, e.name, k))), unit: 'A' }]
+      : [],
+  );
+  const audit = r.energy();
+  const energyRows: MetricRow[] = [
+    { name: 'energy from sources', value: audit.sourceEnergy, unit: 'J' },
+    { name: 'dissipated (resistors, switches)', value: audit.dissipated.resistors, unit: 'J' },
+    { name: 'dissipated (winding copper)', value: audit.dissipated.windings, unit: 'J' },
+    { name: 'dissipated (eddy currents)', value: audit.dissipated.eddy, unit: 'J' },
+    { name: 'stored energy change', value: audit.storedEnd - audit.storedStart, unit: 'J' },
+    {
+      name: 'energy audit relative error', value: audit.relativeError, digits: 2,
+      status: audit.relativeError < 1e-4 ? 'ok' : audit.relativeError < 1e-2 ? 'warning' : 'alert',
+      note: 'sources - losses - change of stored energy, over the energy exchanged',
+    },
+  ];
+  const s = r.stats;
+  const solverRows: MetricRow[] = [
+    { name: 'accepted steps', value: s.acceptedSteps, digits: 15 },
+    { name: 'rejected steps', value: s.rejectedSteps, digits: 15 },
+    { name: 'f evaluations', value: s.rhsEvaluations, digits: 15 },
+    { name: 'Jacobians', value: s.jacobianEvaluations, digits: 15 },
+    { name: 'LU factorisations', value: s.luFactorizations, digits: 15 },
+  ];
+  return [
+    ...(bRows.length ? [{ title: 'Flux density', rows: bRows }] : []),
+    ...(iRows.length ? [{ title: 'Currents', rows: iRows }] : []),
+    { title: 'Energy audit', rows: energyRows },
+    { title: 'Solver', rows: solverRows },
+  ];
+}
+
+function networkRows(d: NetworkDescription): NetworkRow[] {
+  const node = (k: number): string => d.electricNodes[k]!.name;
+  const mnode = (k: number): string => d.magneticNodes[k]!.name;
+  const rows: NetworkRow[] = d.tubes.map((t) => {
+    const law = t.law;
+    const parameters =
+      law.kind === 'material'
+        ? [
+            { name: 'length', value: law.length, unit: 'm' },
+            { name: 'area', value: law.area, unit: 'm^2' },
+            { name: 'material', value: compileMaterial(law.material).name },
+          ]
+        : law.kind === 'air-gap'
+          ? [
+              { name: 'length', value: law.length, unit: 'm' },
+              { name: 'area', value: law.area, unit: 'm^2' },
+              { name: 'fringing factor', value: law.fringingFactor },
+            ]
+          : [{ name: 'reluctance', value: law.reluctance, unit: 'A/Wb' }];
+    if (t.eddyResistance !== undefined) parameters.push({ name: 'eddy resistance', value: t.eddyResistance, unit: 'ohm' });
+    if (t.initialFluxDensity !== undefined) parameters.push({ name: 'initial B', value: t.initialFluxDensity, unit: 'T' });
+    if (t.initialFlux !== undefined) parameters.push({ name: 'initial flux', value: t.initialFlux, unit: 'Wb' });
+    const kind = law.kind === 'material' ? 'flux tube' : law.kind === 'air-gap' ? 'air gap' : 'reluctance';
+    return { element: t.name, kind, connections: `${mnode(t.from)} -> ${mnode(t.to)}`, parameters };
+  });
+  for (const e of d.elements) {
+    const connections = `${node(e.plus)} -> ${node(e.minus)}`;
+    switch (e.kind) {
+      case 'winding':
+        rows.push({
+          element: e.name, kind: 'winding', connections,
+          parameters: [
+            { name: 'tube', value: d.tubes[e.tube]!.name },
+            { name: 'turns', value: e.turns, digits: 6 },
+            { name: 'resistance', value: e.resistance, unit: 'ohm' },
+            { name: 'orientation', value: e.orientation > 0 ? 'along tube' : 'against tube' },
+          ],
+        });
+        break;
+      case 'resistor':
+        rows.push({ element: e.name, kind: 'resistor', connections, parameters: [{ name: 'resistance', value: e.resistance, unit: 'ohm' }] });
+        break;
+      case 'capacitor':
+        rows.push({ element: e.name, kind: 'capacitor', connections, parameters: [{ name: 'capacitance', value: e.capacitance, unit: 'F' }, { name: 'initial voltage', value: e.initialVoltage, unit: 'V' }] });
+        break;
+      case 'inductor':
+        rows.push({ element: e.name, kind: 'inductor', connections, parameters: [{ name: 'inductance', value: e.inductance, unit: 'H' }, { name: 'initial current', value: e.initialCurrent, unit: 'A' }] });
+        break;
+      case 'voltage-source':
+      case 'current-source':
+        rows.push({ element: e.name, kind: e.kind.replace('-', ' '), connections, parameters: [{ name: 'waveform', value: describeWaveform(e.waveform) }] });
+        break;
+      case 'switch':
+        rows.push({
+          element: e.name, kind: 'switch', connections,
+          parameters: [
+            { name: 'on resistance', value: e.onResistance, unit: 'ohm' },
+            { name: 'off resistance', value: e.offResistance, unit: 'ohm' },
+            { name: 'initially', value: e.initiallyClosed ? 'closed' : 'open' },
+            { name: 'toggles at', value: e.toggleTimes.length ? e.toggleTimes.join(', ') + ' s' : 'never' },
+          ],
+        });
+        break;
+    }
+  }
+  return rows;
+}
+
+function describeWaveform(w: { readonly kind: string }): string {
+  const parts = Object.entries(w as Record<string, unknown>)
+    .filter(([k, v]) => k !== 'kind' && (typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean'))
+    .map(([k, v]) => `${k} ${String(v)}`);
+  return `${w.kind}${parts.length ? ` (${parts.join(', ')})` : ''}`;
+}
