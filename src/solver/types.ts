@@ -111,6 +111,15 @@ export interface SolveDaeOptions {
   readonly denseOutput?: boolean;
   /** Extra output times, filled from the dense output (any order; returned sorted). */
   readonly outputTimes?: ArrayLike<number>;
+  /**
+   * Kernel behind the solver's linear-algebra interface: `'flat'` (default)
+   * uses the allocation-free LU kernels on flat Float64Arrays (a real one and
+   * a complex one); `'ml-matrix'` uses ml-matrix's LuDecomposition for the
+   * real system and for the complex system embedded as a real 2n x 2n one.
+   * Both give the same results to round-off; `npm run bench` compares them.
+   * (Added field.)
+   */
+  readonly linearAlgebra?: 'flat' | 'ml-matrix';
 }
 
 /**
