@@ -28,7 +28,8 @@ export function createComplexLu(n: number): ComplexLinearSolver {
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function factor(re: Float64Array, im: Float64Array): number {
-    equilibrationScales(n, (i, j) => Math.abs(re[i * n + j]!) + Math.abs(im[i * n + j]!), rowScale, colScale);
+    const nonFinite = equilibrationScales(n, (i, j) => Math.abs(re[i * n + j]!) + Math.abs(im[i * n + j]!), rowScale, colScale);
+    if (nonFinite >= 0) return nonFinite;
     for (let i = 0; i < n; i++) {
       perm[i] = i;
       const row = i * n;

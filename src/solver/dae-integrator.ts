@@ -819,7 +819,7 @@ class RadauIntegrator implements DaeIntegrator {
           this.hCur = h;
           return this.fail(
             'newton-failure',
-            `the Newton iteration failed ${newtonFailCount} times in a row at t = ${t} with a fresh Jacobian, last h = ${h.toExponential(3)} (components ${newton.components.join(', ')}); check the Jacobian against finiteDifferenceJacobian and the model's smoothness`,
+            `the Newton iteration failed ${newtonFailCount} times in a row at t = ${t} with a fresh Jacobian, last h = ${h.toExponential(3)} (components ${newton.components.join(', ')}); check the Jacobian against finiteDifferenceJacobian, the model's smoothness, or tolerances too tight for round-off`,
             newton.components,
           );
         }

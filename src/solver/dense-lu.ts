@@ -25,7 +25,8 @@ export function createDenseLu(n: number): RealLinearSolver {
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function factor(a: Float64Array): number {
-    equilibrationScales(n, (i, j) => Math.abs(a[i * n + j]!), rowScale, colScale);
+    const nonFinite = equilibrationScales(n, (i, j) => Math.abs(a[i * n + j]!), rowScale, colScale);
+    if (nonFinite >= 0) return nonFinite;
     for (let i = 0; i < n; i++) {
       perm[i] = i;
       const row = i * n;

@@ -66,6 +66,7 @@ export const PIVOT_RELATIVE_TOLERANCE = 64 * Number.EPSILON;
  * Row and column equilibration factors (powers of two) of the n x n matrix
  * with entry magnitudes abs(i, j): rowScale_i ~ 1/max_j |a_ij|, then
  * colScale_j ~ 1/max_i |rowScale_i a_ij|. A zero row or column gets 1.
+ * Returns the column of the first non-finite entry, or -1.
  *
  * @internal
  */
@@ -74,10 +75,14 @@ export function equilibrationScales(
   abs: (i: number, j: number) => number,
   rowScale: Float64Array,
   colScale: Float64Array,
-): void {
+): number {
   for (let i = 0; i < n; i++) {
     let m = 0;
-    for (let j = 0; j < n; j++) m = Math.max(m, abs(i, j));
+    for (let j = 0; j < n; j++) {
+      const v = abs(i, j);
+      if (!Number.isFinite(v)) return j;
+      if (v > m) m = v;
+    }
     rowScale[i] = powerOfTwoInverse(m);
   }
   for (let j = 0; j < n; j++) {
@@ -85,6 +90,7 @@ export function equilibrationScales(
     for (let i = 0; i < n; i++) m = Math.max(m, rowScale[i]! * abs(i, j));
     colScale[j] = powerOfTwoInverse(m);
   }
+  return -1;
 }
 
 /** 2^-round(log2 m), or 1 for a zero or non-finite m. */

@@ -24,7 +24,8 @@ export function createMlMatrixLu(n: number): RealLinearSolver {
 
   function factor(a: Float64Array): number {
     // Same equilibration and pivot test as the flat kernel.
-    equilibrationScales(n, (i, j) => Math.abs(a[i * n + j]!), rowScale, colScale);
+    const nonFinite = equilibrationScales(n, (i, j) => Math.abs(a[i * n + j]!), rowScale, colScale);
+    if (nonFinite >= 0) return nonFinite;
     const m = new Matrix(n, n);
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, rowScale[i]! * a[i * n + j]! * colScale[j]!);
     dec = new LuDecomposition(m);
