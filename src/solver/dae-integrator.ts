@@ -797,7 +797,10 @@ class RadauIntegrator implements DaeIntegrator {
         z.fill(0);
       }
 
-      const newton = this.newton(t, h);
+      // The last stage sits at tNew; on a breakpoint it takes the left limit of f (one ulp before),
+      // because f(breakpoint) is the value after the switch (the project's waveform convention).
+      const tLastStage = landed && isBreakpoint && tNew === tTarget ? nextDown(tNew) : tNew;
+      const newton = this.newton(t, h, tLastStage);
       if (!newton.converged) {
         this.statsCur.newtonFailures++;
         this.luH = NaN;
@@ -947,7 +950,7 @@ class RadauIntegrator implements DaeIntegrator {
    * z (3n, stage increments Z_i = Y_i - y) holds the start values on entry
    * and the solution on success.
    */
-  private newton(t: number, h: number): {
+  private newton(t: number, h: number, tLastStage: number): {
     converged: boolean;
     iterations: number;
     theta: number;
@@ -986,11 +989,10 @@ class RadauIntegrator implements DaeIntegrator {
     for (let newt = 1; newt <= nit; newt++) {
       // Stage values f(t + c_i h, y + z_i).
       for (let s = 0; s < 3; s++) {
-        const c = s === 0 ? C1 : s === 1 ? C2 : 1;
         const off = s * n;
         for (let i = 0; i < n; i++) ys[i] = y[i]! + z[off + i]!;
         const out = fz.subarray(off, off + n);
-        this.callRhs(t + c * h, ys, out);
+        this.callRhs(s === 0 ? t + C1 * h : s === 1 ? t + C2 * h : tLastStage, ys, out);
       }
       this.statsCur.newtonIterations++;
       let finite = true;
@@ -1132,6 +1134,17 @@ class RadauIntegrator implements DaeIntegrator {
     }
     return { events: records, terminal };
   }
+}
+
+const ulpBuffer = new Float64Array(1);
+const ulpBits = new BigInt64Array(ulpBuffer.buffer);
+
+/** The largest double below x (x finite). */
+function nextDown(x: number): number {
+  if (x === 0) return -Number.MIN_VALUE;
+  ulpBuffer[0] = x;
+  ulpBits[0] = x > 0 ? ulpBits[0]! - 1n : ulpBits[0]! + 1n;
+  return ulpBuffer[0]!;
 }
 
 /** u(tOld + s h) = yOld + sum_k Q_k s^(k+1) (SciPy's RadauDenseOutput form). */
