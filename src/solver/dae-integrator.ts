@@ -560,8 +560,10 @@ class RadauIntegrator implements DaeIntegrator {
           jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
           scale,
         };
+        const yBefore = Float64Array.from(this.yCur);
         const res = makeConsistent(ctx, this.tCur, this.yCur);
         if (!res.ok) {
+          this.yCur.set(yBefore); // report the state as given, not a failed Newton iterate
           if (res.reason === 'non-finite') {
             this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${res.components.join(', ')} (initial state)`, res.components);
           } else {
@@ -742,10 +744,12 @@ class RadauIntegrator implements DaeIntegrator {
         if (lastNonFinite) {
           return this.fail('non-finite', `f returned NaN or Infinity near t = ${t} in components ${lastNonFinite.join(', ')} for every step tried; check the model near this time`, lastNonFinite);
         } else {
-          const comps = lastErrorComponents.length ? lastErrorComponents : lastNewtonComponents;
+          let comps = lastErrorComponents.length ? lastErrorComponents : lastNewtonComponents;
+          // Without an error estimate, name the components that change fastest.
+          if (!comps.length) comps = largestScaled(this.fCur, errorScale(y, this.rtolT, this.atolT, scale));
           return this.fail(
             'step-size-underflow',
-            `step size ${h.toExponential(3)} fell below the round-off limit at t = ${t} (largest error in components ${comps.join(', ')}); look for a singularity in f, an inconsistent or higher-index model, or tolerances too tight`,
+            `step size ${h.toExponential(3)} fell below the round-off limit at t = ${t} (components ${comps.join(', ')}); look for a singularity in f (a solution that blows up), an inconsistent or higher-index model, or tolerances too tight`,
             comps,
           );
         }
