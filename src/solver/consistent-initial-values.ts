@@ -4,7 +4,16 @@ import { normalizeDae } from './normalize-problem.js';
 import type { DaeProblem, SolveDaeOptions } from './types.js';
 import { errorScale } from './weighted-norm.js';
 
-/** Result of {@link consistentInitialValues}. */
+/**
+ * Result of {@link consistentInitialValues}.
+ *
+ * @example
+ * ```ts
+ * const init = consistentInitialValues(problem);
+ * if (!init.ok) throw new Error(init.message);
+ * console.log(init.y0, init.yp0);
+ * ```
+ */
 export interface ConsistentInitialValues {
   /** True when y0 was made (or found) consistent. */
   readonly ok: boolean;

@@ -47,10 +47,24 @@ const LANDING_STRETCH = 1.1;
  * Outcome of one call to {@link DaeIntegrator.step}: `'accepted'` (one step
  * taken), `'terminal-event'` (a step taken and cut at a terminal event),
  * `'success'` (already at tEnd, nothing to do) or a failure status.
+ *
+ * @example
+ * ```ts
+ * const r = integ.step();
+ * if (r.status !== 'accepted' && r.status !== 'terminal-event') console.error(integ.message);
+ * ```
  */
 export type DaeStepStatus = 'accepted' | DaeStatus;
 
-/** What one {@link DaeIntegrator.step} (or {@link DaeIntegrator.advanceTo}) did. */
+/**
+ * What one {@link DaeIntegrator.step} (or {@link DaeIntegrator.advanceTo}) did.
+ *
+ * @example
+ * ```ts
+ * const { status, events } = integ.advanceTo(0.02);
+ * for (const e of events) console.log(e.name, e.t);
+ * ```
+ */
 export interface DaeStepResult {
   readonly status: DaeStepStatus;
   /** Events located in the step(s), in time order. */
@@ -61,6 +75,13 @@ export interface DaeStepResult {
  * The collocation polynomial of the last accepted step (Hairer and Wanner II,
  * sect. IV.8, dense output): u(tOld + s h) = yOld + sum_k q[k*n .. k*n+n) s^(k+1),
  * valid for t in [tOld, t].
+ *
+ * @example
+ * ```ts
+ * integ.step();
+ * const p = integ.interpolant!; // coefficients of the last step
+ * const yMid = integ.interpolate(0.5 * (p.tOld + p.t));
+ * ```
  */
 export interface DaeStepInterpolant {
   readonly tOld: number;
@@ -77,6 +98,13 @@ export interface DaeStepInterpolant {
  * A copy of the integrator's whole state, plain data (structuredClone-able),
  * for what-if runs and sweeps: {@link DaeIntegrator.restore} continues
  * exactly from here. The LU factors are not stored; they are rebuilt.
+ *
+ * @example
+ * ```ts
+ * const snap = integ.snapshot();       // before a switching decision
+ * integ.advanceTo(0.01);               // try one way
+ * integ.restore(snap);                 // and start again from the same state
+ * ```
  */
 export interface DaeIntegratorSnapshot {
   readonly t: number;
@@ -100,6 +128,17 @@ export interface DaeIntegratorSnapshot {
  * step history, cached Jacobian and LU factors, and statistics. Drive it step
  * by step (embedding, stop times, changing inputs between advances) or let
  * {@link solveDae} run it to the end.
+ *
+ * @example
+ * ```ts
+ * let u = 1; // an input that f reads
+ * const integ = createDaeIntegrator({ size: 1, y0: [0], t0: 0, tEnd: 1, rhs: (t, y, out) => { out[0] = u - y[0]!; } });
+ * integ.advanceTo(0.5);   // lands exactly on 0.5
+ * u = -1;                 // change the input...
+ * integ.restart();        // ...and tell the integrator
+ * integ.advanceTo(1);
+ * console.log(integ.t, integ.y, integ.stats);
+ * ```
  */
 export interface DaeIntegrator {
   /** Present time (last accepted point). */
@@ -145,6 +184,16 @@ export interface DaeIntegrator {
   restore(snapshot: DaeIntegratorSnapshot): void;
   /** State at time t within the last step [tOld, t] from the collocation polynomial. */
   interpolate(t: number, out?: Float64Array): Float64Array;
+}
+
+/** Thrown when the Jacobian has NaN or Infinity entries; maps to status 'non-finite'. */
+class NonFiniteJacobian extends Error {
+  constructor(
+    readonly rows: number[],
+    readonly tAt: number,
+  ) {
+    super('non-finite Jacobian');
+  }
 }
 
 /** Thrown around user code so that its errors map to status 'rhs-error'. */
@@ -363,11 +412,7 @@ class RadauIntegrator implements DaeIntegrator {
     try {
       return this.attemptStep(tStop ?? this.p.tEnd);
     } catch (e) {
-      if (e instanceof UserCodeError) {
-        const msg = e.cause instanceof Error ? e.cause.message : String(e.cause);
-        return this.fail('rhs-error', `${e.what} threw at t = ${e.tAt}: ${msg}`, [], e.cause);
-      }
-      throw e;
+      return this.failFromError(e);
     }
   }
 
@@ -518,6 +563,26 @@ class RadauIntegrator implements DaeIntegrator {
         throw new UserCodeError(e, 'f (finite-difference Jacobian)', t);
       }
     }
+    const n = this.n;
+    for (let k = 0; k < n * n; k++) {
+      if (!Number.isFinite(out[k]!)) {
+        const rows = new Set<number>();
+        for (let m = k; m < n * n; m++) if (!Number.isFinite(out[m]!)) rows.add(Math.floor(m / n));
+        throw new NonFiniteJacobian([...rows], t);
+      }
+    }
+  }
+
+  /** Map errors from user code to a status; rethrow anything else (a bug). */
+  private failFromError(e: unknown): DaeStepResult {
+    if (e instanceof UserCodeError) {
+      const msg = e.cause instanceof Error ? e.cause.message : String(e.cause);
+      return this.fail('rhs-error', `${e.what} threw at t = ${e.tAt}: ${msg}`, [], e.cause);
+    }
+    if (e instanceof NonFiniteJacobian) {
+      return this.fail('non-finite', `the Jacobian has NaN or Infinity entries at t = ${e.tAt} in rows ${e.rows.join(', ')}`, e.rows);
+    }
+    throw e;
   }
 
   /** out = M v (v when M is the identity). */
@@ -586,12 +651,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.evaluateEventsAt(this.tCur, this.yCur, this.eventValues);
       if (this.tCur >= p.tEnd) this.statusCur = 'success';
     } catch (e) {
-      if (e instanceof UserCodeError) {
-        const msg = e.cause instanceof Error ? e.cause.message : String(e.cause);
-        this.fail('rhs-error', `${e.what} threw at t = ${e.tAt}: ${msg}`, [], e.cause);
-        return;
-      }
-      throw e;
+      this.failFromError(e);
     }
   }
 
@@ -757,7 +817,7 @@ class RadauIntegrator implements DaeIntegrator {
       // Land exactly on the target (stretching the step a little rather than leaving a sliver).
       let tNew = t + h;
       let landed = false;
-      if (tNew >= tTarget || tTarget - t <= LANDING_STRETCH * h) {
+      if (tNew >= tTarget || tTarget - t <= Math.min(LANDING_STRETCH * h, p.maxStep)) {
         tNew = tTarget;
         h = tTarget - t;
         landed = true;

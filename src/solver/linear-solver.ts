@@ -22,7 +22,7 @@ export interface RealLinearSolver {
   /**
    * Factor A (not modified). Returns -1 when every pivot is acceptable,
    * otherwise the column (unknown index) of the first pivot that is zero or
-   * negligible against its row (see {@link PIVOT_RELATIVE_TOLERANCE}); the
+   * negligible in the equilibrated matrix (below 64 n eps); the
    * factorisation must not be used then.
    */
   factor(a: Float64Array): number;

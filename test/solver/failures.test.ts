@@ -191,3 +191,25 @@ describe('solveDae failure statuses', () => {
     expectDecayDataKept(sol, 1e-8);
   });
 });
+
+describe('solveDae non-finite Jacobian', () => {
+  it("'non-finite' when the analytic Jacobian has a NaN entry, naming its row", () => {
+    const sol = solveDae({
+      size: 2,
+      y0: [1, 1],
+      t0: 0,
+      tEnd: 1,
+      rhs: (_t, y, out) => {
+        out[0] = -y[0]!;
+        out[1] = -y[1]!;
+      },
+      jacobian: (_t, _y, J) => {
+        J[0] = -1;
+        J[3] = NaN;
+      },
+    });
+    expect(sol.status).toBe('non-finite');
+    expect(sol.failure!.components).toEqual([1]);
+    expect(sol.message).toMatch(/Jacobian/);
+  });
+});
