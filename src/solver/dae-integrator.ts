@@ -1,6 +1,6 @@
 import { InputError } from '../errors.js';
 import { createComplexLu } from './complex-lu.js';
-import { consistentDerivative, makeConsistent, massSpaces, type MassSpaces } from './consistent-initialization.js';
+import { consistentDerivative, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from './consistent-initialization.js';
 import { createDenseLu } from './dense-lu.js';
 import { locateSignChange } from './event-locator.js';
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
@@ -69,6 +69,13 @@ export interface DaeStepResult {
   readonly status: DaeStepStatus;
   /** Events located in the step(s), in time order. */
   readonly events: readonly DaeEventRecord[];
+  /**
+   * Present when the step landed on a breakpoint where the algebraic
+   * unknowns were re-initialised (a source or switch changed them): the
+   * state just before (left limit, the end of the step's interpolant).
+   * The integrator's `y` is the state after. (Added field.)
+   */
+  readonly jumpFrom?: Float64Array;
 }
 
 /**
@@ -290,6 +297,7 @@ class RadauIntegrator implements DaeIntegrator {
   private messageCur = '';
   private failureCur: DaeFailure | undefined;
   private pendingError: UserCodeError | undefined;
+  private pendingFailure: { status: DaeStatus; message: string; components: number[] } | undefined;
 
   // Work buffers (allocated once).
   private readonly z: Float64Array;
@@ -447,6 +455,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.messageCur = '';
     this.failureCur = undefined;
     this.pendingError = undefined;
+    this.pendingFailure = undefined;
     this.interp = undefined;
     this.initialise(false);
     return this.statusCur;
@@ -499,6 +508,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.eventValues = Float64Array.from(s.eventValues);
     this.statsCur = { ...s.stats };
     this.pendingError = undefined;
+    this.pendingFailure = undefined;
     this.failureCur = undefined;
     this.messageCur = '';
     this.statusCur = this.tCur >= this.p.tEnd ? 'success' : 'running';
@@ -617,14 +627,7 @@ class RadauIntegrator implements DaeIntegrator {
     try {
       let yp: Float64Array | undefined;
       if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
-        const scale = errorScale(this.yCur, p.rtol, p.atol, new Float64Array(n));
-        const ctx = {
-          n,
-          spaces: this.spaces,
-          rhs: (t: number, y: Float64Array, out: Float64Array) => this.callRhs(t, y, out),
-          jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
-          scale,
-        };
+        const ctx = this.consistencyContext();
         const yBefore = Float64Array.from(this.yCur);
         const res = makeConsistent(ctx, this.tCur, this.yCur);
         if (!res.ok) {
@@ -653,6 +656,16 @@ class RadauIntegrator implements DaeIntegrator {
     } catch (e) {
       this.failFromError(e);
     }
+  }
+
+  private consistencyContext(): ConsistencyContext {
+    return {
+      n: this.n,
+      spaces: this.spaces!,
+      rhs: (t: number, y: Float64Array, out: Float64Array) => this.callRhs(t, y, out),
+      jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
+      scale: errorScale(this.yCur, this.p.rtol, this.p.atol, new Float64Array(this.n)),
+    };
   }
 
   /**
@@ -753,6 +766,11 @@ class RadauIntegrator implements DaeIntegrator {
     const p = this.p;
     const n = this.n;
     if (this.pendingError) throw this.pendingError;
+    if (this.pendingFailure) {
+      const pf = this.pendingFailure;
+      this.pendingFailure = undefined;
+      return this.fail(pf.status, pf.message, pf.components);
+    }
     if (p.signal?.aborted) {
       return this.fail('aborted', `aborted by the caller's signal at t = ${this.tCur}`, []);
     }
@@ -916,7 +934,6 @@ class RadauIntegrator implements DaeIntegrator {
         if (!Number.isFinite(err)) err = 1e10;
       }
       if (!Number.isFinite(err)) err = 1e10;
-
       // Step-size proposal (radau5): fac = min(safe, cfac/(newt + 2 nit)).
       const cfac = SAFETY * (1 + 2 * NEWTON_MAX_ITERATIONS);
       const fac = Math.min(SAFETY, cfac / (newton.iterations + 2 * NEWTON_MAX_ITERATIONS));
@@ -975,7 +992,27 @@ class RadauIntegrator implements DaeIntegrator {
       } else {
         this.hCur = hNew;
       }
-      if (landed && isBreakpoint && tNew === tTarget) this.restartHistory();
+      let jumpFrom: Float64Array | undefined;
+      if (landed && isBreakpoint && tNew === tTarget) {
+        this.restartHistory();
+        // A switch may move the algebraic unknowns: start the next step from a consistent state
+        // (radau5's error estimate copes with an inconsistent start only with an exact Jacobian).
+        if (this.spaces && this.spaces.k > 0 && p.consistentInit && !this.pendingError) {
+          const before = Float64Array.from(y);
+          const res = makeConsistent(this.consistencyContext(), tNew, y);
+          if (!res.ok) {
+            y.set(before);
+            this.pendingFailure = {
+              status: res.reason === 'non-finite' ? 'non-finite' : 'inconsistent-init',
+              message: `no consistent state after the breakpoint at t = ${tNew}: ${res.message}`,
+              components: res.components,
+            };
+          } else if (y.some((v, i) => v !== before[i])) {
+            jumpFrom = before;
+            this.callRhs(tNew, y, this.fCur);
+          }
+        }
+      }
       if (tNew >= p.tEnd) this.statusCur = 'success';
 
       // Events on the dense output.
@@ -989,9 +1026,9 @@ class RadauIntegrator implements DaeIntegrator {
       if (terminal) {
         this.statusCur = 'terminal-event';
         this.messageCur = `terminal event "${events[events.length - 1]!.name}" at t = ${this.tCur}`;
-        return { status: 'terminal-event', events };
+        return jumpFrom ? { status: 'terminal-event', events, jumpFrom } : { status: 'terminal-event', events };
       }
-      return { status: 'accepted', events };
+      return jumpFrom ? { status: 'accepted', events, jumpFrom } : { status: 'accepted', events };
     }
   }
 

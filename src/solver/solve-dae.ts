@@ -57,9 +57,16 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     const r = integ.step();
     if (r.status !== 'accepted' && r.status !== 'terminal-event') break;
     const it = integ.interpolant!;
+    if (r.jumpFrom) {
+      // Re-initialised at a breakpoint: keep the left limit, then the right limit, at the same time.
+      ts.push(integ.t);
+      ys.push(r.jumpFrom);
+      if (p.denseOutput) pieces.push(it, { tOld: integ.t, t: integ.t, h: 1, yOld: integ.y, q: new Float64Array(3 * p.n) });
+    } else if (p.denseOutput) {
+      pieces.push(it);
+    }
     ts.push(integ.t);
     ys.push(integ.y);
-    if (p.denseOutput) pieces.push(it);
     for (const e of r.events) events.push(e);
     while (outK < outT.length && outT[outK]! <= integ.t) {
       const y = new Float64Array(p.n);

@@ -230,7 +230,11 @@ export interface DaeSolution {
   readonly status: DaeStatus;
   /** One line a person can act on. */
   readonly message: string;
-  /** Accepted times, starting with t0 (after consistent initialisation). */
+  /**
+   * Accepted times, starting with t0 (after consistent initialisation). A
+   * breakpoint where the algebraic unknowns jump (a source steps) appears
+   * twice: the left limit, then the consistent right limit.
+   */
   readonly t: Float64Array;
   /** States at `t`: y[k] is the state at t[k]. */
   readonly y: readonly Float64Array[];

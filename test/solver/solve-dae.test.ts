@@ -112,6 +112,38 @@ describe('solveDae', () => {
     expect(sol.stats.acceptedSteps).toBeLessThan(blind.stats.acceptedSteps);
   });
 
+  it('re-initialises the algebraic unknowns at a breakpoint: a 5 V step into an RC (DAE form) matches its closed form', () => {
+    // C v1' = (v2 - v1)/R, 0 = v2 - u(t), u = 5 V from t = 1 ms (R C = 1 ms). DERIVED:
+    // v1 = 0 before, 5 (1 - exp(-(t - 1 ms)/RC)) after; v2 jumps from 0 to 5 at the breakpoint.
+    const R = 1e3;
+    const C = 1e-6;
+    const tb = 1e-3;
+    const exact = (t: number): number => (t < tb ? 0 : 5 * (1 - Math.exp(-(t - tb) / (R * C))));
+    const step: DaeProblem = {
+      size: 2,
+      y0: [0, 0],
+      t0: 0,
+      tEnd: 5e-3,
+      mass: [[C, 0], [0, 0]],
+      breakpoints: [tb],
+      rhs: (t, y, out) => {
+        out[0] = (y[1]! - y[0]!) / R;
+        out[1] = y[1]! - (t >= tb ? 5 : 0);
+      },
+    };
+    const sol = solveDae(step, { rtol: 1e-8, atol: 1e-10 });
+    expect(sol.status).toBe('success');
+    const k = Array.from(sol.t).indexOf(tb);
+    expect(sol.t[k + 1]).toBe(tb); // left and right limits
+    expect(sol.y[k]![1]).toBe(0);
+    expect(sol.y[k + 1]![1]!).toBeCloseTo(5, 12);
+    expect(sol.at(tb)[1]!).toBeCloseTo(5, 12);
+    let worst = 0;
+    sol.t.forEach((t, i) => (worst = Math.max(worst, Math.abs(sol.y[i]![0]! - exact(t)))));
+    expect(worst).toBeLessThan(1e-7); // measured 7.2e-9
+    expect(sol.stats.rejectedSteps).toBeLessThan(10); // measured 3 (28 without the breakpoint)
+  });
+
   it('locates events on the dense output: y1 = sin t crosses 0.5 at pi/6 + 2k pi (rising) and 5pi/6 + 2k pi (falling)', () => {
     // Harmonic oscillator y1' = y2, y2' = -y1, y(0) = (0, 1): y1 = sin t exactly (DERIVED).
     const problem: DaeProblem = {
