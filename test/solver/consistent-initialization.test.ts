@@ -100,3 +100,31 @@ describe('consistentInitialValues', () => {
     expect(init.message).toMatch(/converge/);
   });
 });
+
+describe('solveDae with consistentInit: false', () => {
+  it('keeps the given y0 as the first point and still reaches the closed form (first step absorbs the inconsistency)', () => {
+    // y1' = -y1, 0 = y2 - 2 y1 (DERIVED: y1 = exp(-t), y2 = 2 exp(-t)); y2(0) given as 5.
+    const sol = solveDae(
+      {
+        size: 2,
+        y0: [1, 5],
+        t0: 0,
+        tEnd: 2,
+        mass: [[1, 0], [0, 0]],
+        rhs: (_t, y, out) => {
+          out[0] = -y[0]!;
+          out[1] = y[1]! - 2 * y[0]!;
+        },
+        jacobian: (_t, _y, J) => {
+          J.set([-1, 0, -2, 1]);
+        },
+      },
+      { rtol: 1e-8, atol: 1e-10, consistentInit: false },
+    );
+    expect(sol.status).toBe('success');
+    expect(Array.from(sol.y[0]!)).toEqual([1, 5]);
+    const y = sol.y[sol.y.length - 1]!;
+    expect(y[0]!).toBeCloseTo(Math.exp(-2), 7);
+    expect(y[1]!).toBeCloseTo(2 * Math.exp(-2), 7);
+  });
+});
