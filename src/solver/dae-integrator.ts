@@ -782,15 +782,17 @@ class RadauIntegrator implements DaeIntegrator {
     let tTarget = tStopIn;
     let isBreakpoint = false;
     const bps = p.breakpoints;
-    for (let i = 0; i < bps.length; i++) {
-      const b = bps[i]!;
-      if (b > this.tCur) {
-        if (b <= tTarget) {
-          tTarget = b;
-          isBreakpoint = true;
-        }
-        break;
-      }
+    // Binary search for the first breakpoint > t (PWM sources announce thousands).
+    let lo = 0;
+    let hi = bps.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (bps[mid]! > this.tCur) hi = mid;
+      else lo = mid + 1;
+    }
+    if (lo < bps.length && bps[lo]! <= tTarget) {
+      tTarget = bps[lo]!;
+      isBreakpoint = true;
     }
     if (tTarget >= p.tEnd) {
       tTarget = p.tEnd;

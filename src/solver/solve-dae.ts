@@ -56,7 +56,9 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
   while (integ.status === 'running') {
     const r = integ.step();
     if (r.status !== 'accepted' && r.status !== 'terminal-event') break;
-    const it = integ.interpolant!;
+    const step = integ.interpolant!;
+    // Share the previous point's array as the piece's yOld (same values): saves n numbers per step.
+    const it: DaeStepInterpolant = { tOld: step.tOld, t: step.t, h: step.h, yOld: ys[ys.length - 1]!, q: step.q };
     if (r.jumpFrom) {
       // Re-initialised at a breakpoint: keep the left limit, then the right limit, at the same time.
       ts.push(integ.t);
