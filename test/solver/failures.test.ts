@@ -87,12 +87,18 @@ describe('solveDae failure statuses', () => {
     expect(sol.t.length).toBe(1);
   });
 
-  it("'newton-failure' when the Jacobian is wrong (J = +1e10 for f = -1e4 y) even with fresh Jacobians", () => {
-    const sol = solveDae({ ...decay((_t, y, out) => (out[0] = -1e4 * y[0]!)), jacobian: (_t, _y, J) => (J[0] = 1e10) });
+  it("'newton-failure' when the Jacobian turns wrong at a breakpoint (J = +1e10 for f = -y from t = 0.5), data before kept", () => {
+    // The Jacobian is re-evaluated at every breakpoint, so the wrong one is used from 0.5 on.
+    const sol = solveDae(
+      { ...decay(), breakpoints: [0.5], jacobian: (t, _y, J) => (J[0] = t >= 0.5 ? 1e10 : -1) },
+      { rtol: 1e-8 },
+    );
     expect(sol.status).toBe('newton-failure');
     expect(sol.failure!.components).toEqual([0]);
     expect(sol.message).toMatch(/finiteDifferenceJacobian/);
     expect(sol.stats.newtonFailures).toBeGreaterThanOrEqual(10);
+    expect(sol.tReached).toBe(0.5);
+    expectDecayDataKept(sol, 1e-8);
   });
 
   it("'singular-matrix' for an unknown that no equation constrains (M = diag(1, 0), f2 = 0), naming it", () => {
@@ -110,6 +116,39 @@ describe('solveDae failure statuses', () => {
     expect(sol.status).toBe('singular-matrix');
     expect(sol.failure!.components).toEqual([1]);
     expect(sol.message).toMatch(/component 1/);
+  });
+
+  it("'singular-matrix' when an unknown loses its equation at a breakpoint (a switch opening at t = 0.5), data before kept", () => {
+    // y1' = -y1, 0 = y2 - y1 until 0.5, then 0 = 0: y2 is no longer constrained.
+    const sol = solveDae(
+      {
+        size: 2,
+        y0: [1, 1],
+        t0: 0,
+        tEnd: 1,
+        mass: [[1, 0], [0, 0]],
+        breakpoints: [0.5],
+        rhs: (t, y, out) => {
+          out[0] = -y[0]!;
+          out[1] = t >= 0.5 ? 0 : y[1]! - y[0]!;
+        },
+        jacobian: (t, _y, J) => {
+          J[0] = -1;
+          if (t < 0.5) {
+            J[2] = -1;
+            J[3] = 1;
+          }
+        },
+      },
+      { rtol: 1e-8 },
+    );
+    expect(sol.status).toBe('singular-matrix');
+    expect(sol.failure!.components).toEqual([1]);
+    expect(sol.tReached).toBe(0.5);
+    sol.t.forEach((t, k) => {
+      expect(Math.abs(sol.y[k]![0]! - Math.exp(-t))).toBeLessThan(1e-6);
+      expect(Math.abs(sol.y[k]![1]! - Math.exp(-t))).toBeLessThan(1e-6);
+    });
   });
 
   it("'singular-matrix' for a floating pair of nodes (rows summing to zero at round-off level)", () => {
