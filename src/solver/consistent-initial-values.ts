@@ -37,7 +37,8 @@ export interface ConsistentInitialValues {
  * with W, V spanning the left and right null spaces of M (valid for
  * non-diagonal singular M), then y'(t0) from M y' = f together with the
  * algebraic equations differentiated once (Brenan, Campbell and Petzold,
- * Numerical Solution of IVPs in DAEs, sect. 5.3). Uses the problem's
+ * Numerical Solution of IVPs in DAEs, sect. 5.3); df/dt by a forward
+ * difference with step sqrt(uround) max(|t0|, tEnd - t0). Uses the problem's
  * Jacobian, or finite differences. The tolerances (`rtol`, `atol`) set the
  * convergence test.
  *
