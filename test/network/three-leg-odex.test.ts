@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { Solver } from 'odex';
+import { Solver } from '../support/odex.js';
 import { createNetwork, simulate, sine, MU0 } from '../../src/index.js';
 import { maxFluxImbalance } from '../helpers/conservation.js';
 

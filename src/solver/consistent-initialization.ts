@@ -1,0 +1,291 @@
+import { Matrix, SVD } from 'ml-matrix';
+import { createDenseLu } from './dense-lu.js';
+import { largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
+
+/**
+ * Null spaces of a constant mass matrix M = U S V^T (singular value
+ * decomposition): the right null space V0 (directions in which y can move
+ * without changing M y: the algebraic unknowns, for a non-diagonal M too),
+ * the left null space W0 (combinations of rows that are algebraic equations,
+ * W0^T M = 0) and the range U1 of M.
+ *
+ * @internal
+ */
+export interface MassSpaces {
+  readonly n: number;
+  /** rank of M */
+  readonly rank: number;
+  /** n - rank */
+  readonly k: number;
+  /** Right null space, n x k row-major (column j is a null vector). */
+  readonly v0: Float64Array;
+  /** Left null space, n x k row-major. */
+  readonly w0: Float64Array;
+  /** Range of M (left singular vectors of the non-zero singular values), n x rank row-major. */
+  readonly u1: Float64Array;
+}
+
+/**
+ * Singular value decomposition of M with ml-matrix; singular values below
+ * n * eps * 16 * sigma_max count as zero (common practice for numerical rank,
+ * Golub and Van Loan, sect. 5.4.1).
+ *
+ * @internal
+ */
+export function massSpaces(mass: Float64Array, n: number): MassSpaces {
+  const m = new Matrix(n, n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, mass[i * n + j]!);
+  const svd = new SVD(m, { computeLeftSingularVectors: true, computeRightSingularVectors: true, autoTranspose: false });
+  const sigma = svd.diagonal;
+  const smax = Math.max(0, ...sigma);
+  const tol = smax * n * Number.EPSILON * 16;
+  const zero: number[] = [];
+  const nonzero: number[] = [];
+  sigma.forEach((s, i) => (s > tol && smax > 0 ? nonzero : zero).push(i));
+  const U = svd.leftSingularVectors;
+  const V = svd.rightSingularVectors;
+  const k = zero.length;
+  const rank = nonzero.length;
+  const v0 = new Float64Array(n * k);
+  const w0 = new Float64Array(n * k);
+  const u1 = new Float64Array(n * rank);
+  for (let i = 0; i < n; i++) {
+    zero.forEach((c, j) => {
+      v0[i * k + j] = V.get(i, c);
+      w0[i * k + j] = U.get(i, c);
+    });
+    nonzero.forEach((c, j) => {
+      u1[i * rank + j] = U.get(i, c);
+    });
+  }
+  return { n, rank, k, v0, w0, u1 };
+}
+
+/** What {@link makeConsistent} needs from its caller (evaluations are counted there). */
+export interface ConsistencyContext {
+  readonly n: number;
+  readonly spaces: MassSpaces;
+  /** f(t, y) -> out. May throw (the caller maps it to a status). */
+  readonly rhs: (t: number, y: Float64Array, out: Float64Array) => void;
+  /** df/dy at (t, y) with f = f(t, y) -> out (n*n). */
+  readonly jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => void;
+  /** Error scale atol + rtol |y| for the convergence test. */
+  readonly scale: Float64Array;
+}
+
+/** Outcome of {@link makeConsistent}. */
+export type ConsistencyOutcome =
+  | { readonly ok: true; readonly iterations: number }
+  | { readonly ok: false; readonly reason: 'non-finite' | 'singular' | 'no-convergence'; readonly components: number[]; readonly message: string };
+
+/** Newton iterations allowed for consistent initialisation. */
+const MAX_ITERATIONS = 40;
+/** Converged when the Newton update is this small in the weighted norm (a millionth of the tolerance). */
+const UPDATE_TOLERANCE = 1e-6;
+
+/**
+ * Make the algebraic part of y consistent at time t, in place: Newton's
+ * method on W0^T f(t, y + V0 z) = 0 for z (k unknowns), with the
+ * monotonicity test of Deuflhard's damped Newton (P. Deuflhard, Newton
+ * Methods for Nonlinear Problems, Springer 2004, sect. 3.3) on the simplified
+ * correction. Only directions in the null space of M move, so M y (the
+ * differential content of y) is kept exactly. Valid for non-diagonal M
+ * (Brenan, Campbell and Petzold, Numerical Solution of Initial-Value Problems
+ * in DAEs, SIAM 1996, sect. 5.3 on consistent initial conditions, in the
+ * projected form used here).
+ *
+ * When W0^T J V0 is singular the algebraic part does not determine the
+ * unknowns by itself (an index-2 structure): y is then only checked: it is
+ * accepted when each algebraic residual would be removed by moving y by
+ * less than one tolerance, otherwise reported inconsistent.
+ *
+ * @internal
+ */
+export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Array): ConsistencyOutcome {
+  const { n, spaces, scale } = ctx;
+  const { k, v0, w0 } = spaces;
+  if (k === 0) return { ok: true, iterations: 0 };
+  const f = new Float64Array(n);
+  const jac = new Float64Array(n * n);
+  const jv = new Float64Array(n * k);
+  const jr = new Float64Array(k * k);
+  const r = new Float64Array(k);
+  const dz = new Float64Array(k);
+  const dy = new Float64Array(n);
+  const ytrial = new Float64Array(n);
+  const lu = createDenseLu(k);
+  let lastNorm = Infinity;
+
+  const residual = (at: Float64Array, out: Float64Array): number[] => {
+    ctx.rhs(t, at, f);
+    const bad = nonFiniteIndices(f);
+    if (bad.length) return bad;
+    for (let j = 0; j < k; j++) {
+      let s = 0;
+      for (let i = 0; i < n; i++) s += w0[i * k + j]! * f[i]!;
+      out[j] = s;
+    }
+    return [];
+  };
+  const toY = (z: Float64Array, out: Float64Array): void => {
+    for (let i = 0; i < n; i++) {
+      let s = 0;
+      for (let j = 0; j < k; j++) s += v0[i * k + j]! * z[j]!;
+      out[i] = s;
+    }
+  };
+
+  for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
+    const badF = residual(y, r);
+    if (badF.length) {
+      return { ok: false, reason: 'non-finite', components: badF, message: `f is not finite at the initial state (components ${badF.join(', ')})` };
+    }
+    ctx.jacobian(t, y, f, jac);
+    // jr = W0^T J V0
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < k; j++) {
+        let s = 0;
+        for (let l = 0; l < n; l++) s += jac[i * n + l]! * v0[l * k + j]!;
+        jv[i * k + j] = s;
+      }
+    }
+    for (let a = 0; a < k; a++) {
+      for (let b = 0; b < k; b++) {
+        let s = 0;
+        for (let i = 0; i < n; i++) s += w0[i * k + a]! * jv[i * k + b]!;
+        jr[a * k + b] = s;
+      }
+    }
+    const badPivot = lu.factor(jr);
+    if (badPivot >= 0) return checkOnly(ctx, jac, r, iter === 1);
+    for (let j = 0; j < k; j++) dz[j] = -r[j]!;
+    lu.solve(dz);
+    toY(dz, dy);
+    const norm = weightedRmsNorm(dy, scale);
+    if (!Number.isFinite(norm)) {
+      return { ok: false, reason: 'no-convergence', components: nonFiniteIndices(dy), message: 'the Newton update for the algebraic unknowns is not finite' };
+    }
+    if (norm <= UPDATE_TOLERANCE) {
+      for (let i = 0; i < n; i++) y[i] = y[i]! + dy[i]!;
+      return { ok: true, iterations: iter };
+    }
+    // Stagnation at round-off level: the update no longer shrinks.
+    if (norm < 1e-2 && norm >= lastNorm) return { ok: true, iterations: iter };
+    lastNorm = norm;
+    // Damped step with the natural monotonicity test.
+    let lambda = 1;
+    const zbar = new Float64Array(k);
+    const dybar = new Float64Array(n);
+    for (;;) {
+      for (let i = 0; i < n; i++) ytrial[i] = y[i]! + lambda * dy[i]!;
+      const badT = residual(ytrial, zbar);
+      if (!badT.length) {
+        for (let j = 0; j < k; j++) zbar[j] = -zbar[j]!;
+        lu.solve(zbar);
+        toY(zbar, dybar);
+        const nbar = weightedRmsNorm(dybar, scale);
+        if (nbar <= (1 - lambda / 4) * norm) break;
+      }
+      lambda /= 2;
+      if (lambda < 1 / 1024) {
+        return {
+          ok: false,
+          reason: 'no-convergence',
+          components: largestScaled(dy, scale),
+          message: `Newton's method on the algebraic equations does not converge (last update ${norm.toExponential(2)} tolerances)`,
+        };
+      }
+    }
+    y.set(ytrial);
+  }
+  return {
+    ok: false,
+    reason: 'no-convergence',
+    components: largestScaled(dy, scale),
+    message: `Newton's method on the algebraic equations did not converge in ${MAX_ITERATIONS} iterations`,
+  };
+}
+
+/**
+ * Structurally singular algebraic part: accept y when every algebraic
+ * residual r_j is smaller than the change a one-tolerance move of y could
+ * make, sum_i |(W0^T J)_ji| scale_i.
+ */
+function checkOnly(ctx: ConsistencyContext, jac: Float64Array, r: Float64Array, _first: boolean): ConsistencyOutcome {
+  const { n, spaces, scale } = ctx;
+  const { k, w0 } = spaces;
+  const worst: number[] = [];
+  for (let j = 0; j < k; j++) {
+    let sens = 0;
+    for (let l = 0; l < n; l++) {
+      let wj = 0;
+      for (let i = 0; i < n; i++) wj += w0[i * k + j]! * jac[i * n + l]!;
+      sens += Math.abs(wj) * scale[l]!;
+    }
+    if (Math.abs(r[j]!) > sens) {
+      // Name the unknowns this algebraic equation involves most.
+      for (let i = 0; i < n; i++) if (Math.abs(w0[i * k + j]!) > 1e-8) worst.push(i);
+    }
+  }
+  if (!worst.length) return { ok: true, iterations: 0 };
+  const comps = [...new Set(worst)].sort((a, b) => a - b);
+  return {
+    ok: false,
+    reason: 'singular',
+    components: comps,
+    message:
+      'the algebraic equations do not determine the algebraic unknowns by themselves (index 2 or an unconstrained unknown) and y0 does not satisfy them; give a consistent y0',
+  };
+}
+
+/**
+ * The consistent derivative y'(t) of an index-1 DAE at a consistent y:
+ * U1^T M y' = U1^T f (the differential rows) and W0^T (J y' + df/dt) = 0 (the
+ * algebraic rows differentiated once). df/dt by a forward difference.
+ * Returns undefined when that system is singular (index > 1).
+ *
+ * @internal
+ */
+export function consistentDerivative(
+  ctx: ConsistencyContext,
+  mass: Float64Array,
+  t: number,
+  dt: number,
+  y: Float64Array,
+): Float64Array | undefined {
+  const { n, spaces } = ctx;
+  const { k, rank, w0, u1 } = spaces;
+  const f = new Float64Array(n);
+  const ft = new Float64Array(n);
+  const jac = new Float64Array(n * n);
+  ctx.rhs(t, y, f);
+  ctx.jacobian(t, y, f, jac);
+  ctx.rhs(t + dt, y, ft);
+  const a = new Float64Array(n * n);
+  const b = new Float64Array(n);
+  for (let r = 0; r < rank; r++) {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += u1[i * rank + r]! * f[i]!;
+    b[r] = s;
+    for (let j = 0; j < n; j++) {
+      let m = 0;
+      for (let i = 0; i < n; i++) m += u1[i * rank + r]! * mass[i * n + j]!;
+      a[r * n + j] = m;
+    }
+  }
+  for (let c = 0; c < k; c++) {
+    const row = rank + c;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += w0[i * k + c]! * (ft[i]! - f[i]!) / (dt);
+    b[row] = -s;
+    for (let j = 0; j < n; j++) {
+      let m = 0;
+      for (let i = 0; i < n; i++) m += w0[i * k + c]! * jac[i * n + j]!;
+      a[row * n + j] = m;
+    }
+  }
+  const lu = createDenseLu(n);
+  if (lu.factor(a) >= 0) return undefined;
+  lu.solve(b);
+  return b;
+}

@@ -1,0 +1,1259 @@
+import { InputError } from '../errors.js';
+import { createComplexLu } from './complex-lu.js';
+import { consistentDerivative, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from './consistent-initialization.js';
+import { createDenseLu } from './dense-lu.js';
+import { locateSignChange } from './event-locator.js';
+import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
+import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
+import { createEmbeddedComplexLu, createMlMatrixLu } from './ml-matrix-lu.js';
+import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
+import {
+  C1,
+  C2,
+  DIVERGENT_RATE,
+  E1,
+  E2,
+  E3,
+  JACOBIAN_RATE_THRESHOLD,
+  KEEP_STEP_HIGH,
+  KEEP_STEP_LOW,
+  MAX_SINGULAR_RETRIES,
+  MAX_STEP_RATIO,
+  MIN_STEP_RATIO,
+  MU_COMPLEX_IM,
+  MU_COMPLEX_RE,
+  MU_REAL,
+  NEWTON_MAX_ITERATIONS,
+  P,
+  SAFETY,
+  T,
+  TI,
+} from './radau-tableau.js';
+import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
+import { errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
+
+/** Unit round-off (radau5's UROUND). */
+const UROUND = Number.EPSILON / 2;
+/** Consecutive Newton failures with a fresh Jacobian before status 'newton-failure' (our choice; radau5 only halves h). */
+const MAX_NEWTON_FAILURES = 10;
+/** Shrink factor after a Newton failure without a rate estimate, or with non-finite stage values (radau5: 0.5). */
+const NEWTON_FAILURE_SHRINK = 0.5;
+/** Shrink factor after a rejected first step (radau5: 0.1). */
+const FIRST_STEP_REJECT_SHRINK = 0.1;
+/** Stretch the step by up to this factor to land on a stop time instead of leaving a sliver (common practice). */
+const LANDING_STRETCH = 1.1;
+
+/**
+ * Outcome of one call to {@link DaeIntegrator.step}: `'accepted'` (one step
+ * taken), `'terminal-event'` (a step taken and cut at a terminal event),
+ * `'success'` (already at tEnd, nothing to do) or a failure status.
+ *
+ * @example
+ * ```ts
+ * const r = integ.step();
+ * if (r.status !== 'accepted' && r.status !== 'terminal-event') console.error(integ.message);
+ * ```
+ */
+export type DaeStepStatus = 'accepted' | DaeStatus;
+
+/**
+ * What one {@link DaeIntegrator.step} (or {@link DaeIntegrator.advanceTo}) did.
+ *
+ * @example
+ * ```ts
+ * const { status, events } = integ.advanceTo(0.02);
+ * for (const e of events) console.log(e.name, e.t);
+ * ```
+ */
+export interface DaeStepResult {
+  readonly status: DaeStepStatus;
+  /** Events located in the step(s), in time order. */
+  readonly events: readonly DaeEventRecord[];
+  /**
+   * Present when the step landed on a breakpoint where the algebraic
+   * unknowns were re-initialised (a source or switch changed them): the
+   * state just before (left limit, the end of the step's interpolant).
+   * The integrator's `y` is the state after. (Added field.)
+   */
+  readonly jumpFrom?: Float64Array;
+}
+
+/**
+ * The collocation polynomial of the last accepted step (Hairer and Wanner II,
+ * sect. IV.8, dense output): u(tOld + s h) = yOld + sum_k q[k*n .. k*n+n) s^(k+1),
+ * valid for t in [tOld, t].
+ *
+ * @example
+ * ```ts
+ * integ.step();
+ * const p = integ.interpolant!; // coefficients of the last step
+ * const yMid = integ.interpolate(0.5 * (p.tOld + p.t));
+ * ```
+ */
+export interface DaeStepInterpolant {
+  readonly tOld: number;
+  /** Right end of validity (the step's end, or an event time that cut it). */
+  readonly t: number;
+  /** Step size the polynomial was built with (may exceed t - tOld after an event cut). */
+  readonly h: number;
+  readonly yOld: Float64Array;
+  /** 3n coefficients. */
+  readonly q: Float64Array;
+}
+
+/**
+ * A copy of the integrator's whole state, plain data (structuredClone-able),
+ * for what-if runs and sweeps: {@link DaeIntegrator.restore} continues
+ * exactly from here. The LU factors are not stored; they are rebuilt.
+ *
+ * @example
+ * ```ts
+ * const snap = integ.snapshot();       // before a switching decision
+ * integ.advanceTo(0.01);               // try one way
+ * integ.restore(snap);                 // and start again from the same state
+ * ```
+ */
+export interface DaeIntegratorSnapshot {
+  readonly t: number;
+  readonly y: Float64Array;
+  readonly f: Float64Array;
+  readonly h: number;
+  readonly hAcc: number;
+  readonly errAcc: number;
+  readonly faccon: number;
+  readonly first: boolean;
+  readonly extrapolate: boolean;
+  readonly jacobian: Float64Array | undefined;
+  readonly jacobianCurrent: boolean;
+  readonly interpolant: DaeStepInterpolant | undefined;
+  readonly eventValues: Float64Array;
+  readonly stats: SolverStats;
+}
+
+/**
+ * An incremental Radau IIA integrator for M y' = f(t, y): owns the state,
+ * step history, cached Jacobian and LU factors, and statistics. Drive it step
+ * by step (embedding, stop times, changing inputs between advances) or let
+ * {@link solveDae} run it to the end.
+ *
+ * @example
+ * ```ts
+ * let u = 1; // an input that f reads
+ * const integ = createDaeIntegrator({ size: 1, y0: [0], t0: 0, tEnd: 1, rhs: (t, y, out) => { out[0] = u - y[0]!; } });
+ * integ.advanceTo(0.5);   // lands exactly on 0.5
+ * u = -1;                 // change the input...
+ * integ.restart();        // ...and tell the integrator
+ * integ.advanceTo(1);
+ * console.log(integ.t, integ.y, integ.stats);
+ * ```
+ */
+export interface DaeIntegrator {
+  /** Present time (last accepted point). */
+  readonly t: number;
+  /** Present state (a copy). */
+  readonly y: Float64Array;
+  /** Step size the next step will try. */
+  readonly h: number;
+  /** Start and end of the problem's span. */
+  readonly t0: number;
+  readonly tEnd: number;
+  /** Counts so far (a copy). */
+  readonly stats: SolverStats;
+  /** `'running'` while more steps can be taken, else the final status. */
+  readonly status: 'running' | DaeStatus;
+  /** One line on the status (empty while running). */
+  readonly message: string;
+  /** Where and why a failure happened. */
+  readonly failure: DaeFailure | undefined;
+  /** The last step's interpolant, or undefined before the first step (and after restart). */
+  readonly interpolant: DaeStepInterpolant | undefined;
+  /**
+   * Take one accepted step (retrying internally after rejections), never
+   * passing `tStop` (landing on it exactly), the next breakpoint or tEnd.
+   */
+  step(tStop?: number): DaeStepResult;
+  /**
+   * Step until t reaches `tStop` exactly (a stop time, for instance a
+   * switching instant), a terminal event, or a failure. `onStep` is called
+   * after each accepted step.
+   */
+  advanceTo(tStop: number, onStep?: (integrator: DaeIntegrator, result: DaeStepResult) => void): DaeStepResult;
+  /**
+   * Forget the Jacobian, LU factors and step history and re-initialise
+   * consistently at the present time: call this after changing anything f
+   * depends on (switch states, set-points). `y`, when given, replaces the
+   * state first. Clears a failure. Returns the new status.
+   */
+  restart(y?: ArrayLike<number>): 'running' | DaeStatus;
+  /** Copy of the whole state, see {@link DaeIntegratorSnapshot}. */
+  snapshot(): DaeIntegratorSnapshot;
+  /** Continue from a snapshot of this integrator (or of one built from the same problem). */
+  restore(snapshot: DaeIntegratorSnapshot): void;
+  /** State at time t within the last step [tOld, t] from the collocation polynomial. */
+  interpolate(t: number, out?: Float64Array): Float64Array;
+}
+
+/** Thrown when the Jacobian has NaN or Infinity entries; maps to status 'non-finite'. */
+class NonFiniteJacobian extends Error {
+  constructor(
+    readonly rows: number[],
+    readonly tAt: number,
+  ) {
+    super('non-finite Jacobian');
+  }
+}
+
+/** Thrown around user code so that its errors map to status 'rhs-error'. */
+class UserCodeError extends Error {
+  constructor(
+    override readonly cause: unknown,
+    readonly what: string,
+    readonly tAt: number,
+  ) {
+    super(what);
+  }
+}
+
+function emptyStats(): SolverStats {
+  return {
+    acceptedSteps: 0,
+    rejectedSteps: 0,
+    rhsEvaluations: 0,
+    jacobianEvaluations: 0,
+    luFactorizations: 0,
+    newtonIterations: 0,
+    newtonFailures: 0,
+  };
+}
+
+/**
+ * Create an incremental Radau IIA (order 5) integrator for the problem
+ * M y' = f(t, y) (Hairer and Wanner, Solving ODEs II, sect. IV.8 and VI.6).
+ * Validates the problem (throws {@link InputError} for a bad call) and makes
+ * the initial state consistent unless `options.consistentInit` is false; if
+ * that fails, `status` is `'inconsistent-init'` and `step()` returns it.
+ *
+ * Options used: rtol, atol, initialStep, maxStep, maxSteps (counted over the
+ * integrator's life), maxWallTimeMs (from creation), signal, eventTolerance,
+ * consistentInit, linearAlgebra.
+ *
+ * @example
+ * ```ts
+ * // y' = -1000 (y - cos t): stiff, follows cos t closely
+ * const integ = createDaeIntegrator(
+ *   { size: 1, y0: [0], t0: 0, tEnd: 1, rhs: (t, y, out) => { out[0] = -1000 * (y[0]! - Math.cos(t)); } },
+ *   { rtol: 1e-8, atol: 1e-10 },
+ * );
+ * integ.advanceTo(0.5);          // lands exactly on t = 0.5
+ * console.log(integ.t, integ.y[0]);
+ * while (integ.status === 'running') integ.step();
+ * ```
+ */
+export function createDaeIntegrator(problem: DaeProblem, options: SolveDaeOptions = {}): DaeIntegrator {
+  const P_ = normalizeDae(problem, options);
+  return new RadauIntegrator(P_);
+}
+
+/** @internal */
+export function createDaeIntegratorFromNormalized(p: NormalizedDae): DaeIntegrator {
+  return new RadauIntegrator(p);
+}
+
+class RadauIntegrator implements DaeIntegrator {
+  private readonly p: NormalizedDae;
+  private readonly n: number;
+  /** Sparse copy of M (CSR), or undefined for the identity. */
+  private readonly mRowPtr: Int32Array | undefined;
+  private readonly mCol: Int32Array | undefined;
+  private readonly mVal: Float64Array | undefined;
+  private readonly spaces: MassSpaces | undefined;
+  /** radau5's transformed tolerances. */
+  private readonly rtolT: Float64Array;
+  private readonly atolT: Float64Array;
+  /** Newton stopping tolerance FNEWT. */
+  private readonly fnewt: number;
+  private readonly luReal: RealLinearSolver;
+  private readonly luComplex: ComplexLinearSolver;
+  private readonly startTime: number;
+
+  private tCur: number;
+  private yCur: Float64Array;
+  private fCur: Float64Array;
+  private hCur = 0;
+  private hAcc = NaN;
+  private errAcc = NaN;
+  private faccon = 1;
+  private theta = JACOBIAN_RATE_THRESHOLD;
+  private first = true;
+  private extrapolate = false;
+  private jac: Float64Array;
+  private jacValid = false;
+  private jacCurrent = false;
+  private luH = NaN;
+  private interp: DaeStepInterpolant | undefined;
+  private eventValues: Float64Array;
+  private statsCur: SolverStats = emptyStats();
+  private statusCur: 'running' | DaeStatus = 'running';
+  private messageCur = '';
+  private failureCur: DaeFailure | undefined;
+  private pendingError: UserCodeError | undefined;
+  private pendingFailure: { status: DaeStatus; message: string; components: number[] } | undefined;
+
+  // Work buffers (allocated once).
+  private readonly z: Float64Array;
+  private readonly w: Float64Array;
+  private readonly fz: Float64Array;
+  private readonly dw: Float64Array;
+  private readonly ys: Float64Array;
+  private readonly scale: Float64Array;
+  private readonly e1: Float64Array;
+  private readonly e2r: Float64Array;
+  private readonly e2i: Float64Array;
+  private readonly v1: Float64Array;
+  private readonly v2: Float64Array;
+  private readonly v3: Float64Array;
+  private readonly err: Float64Array;
+  private readonly fdWork: Float64Array;
+
+  constructor(p: NormalizedDae) {
+    this.p = p;
+    const n = p.n;
+    this.n = n;
+    if (p.mass) {
+      const rows = new Int32Array(n + 1);
+      const cols: number[] = [];
+      const vals: number[] = [];
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) {
+          const v = p.mass[i * n + j]!;
+          if (v !== 0) {
+            cols.push(j);
+            vals.push(v);
+          }
+        }
+        rows[i + 1] = cols.length;
+      }
+      this.mRowPtr = rows;
+      this.mCol = Int32Array.from(cols);
+      this.mVal = Float64Array.from(vals);
+      this.spaces = massSpaces(p.mass, n);
+    }
+    // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol.
+    this.rtolT = new Float64Array(n);
+    this.atolT = new Float64Array(n);
+    let rmin = Infinity;
+    for (let i = 0; i < n; i++) {
+      const r = p.rtol[i]!;
+      const rt = 0.1 * r ** (2 / 3);
+      this.rtolT[i] = rt;
+      this.atolT[i] = (rt * p.atol[i]!) / r;
+      rmin = Math.min(rmin, rt);
+    }
+    // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
+    this.fnewt = Math.max((10 * UROUND) / rmin, Math.min(0.03, Math.sqrt(rmin)));
+    this.luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n);
+    this.luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n);
+    this.z = new Float64Array(3 * n);
+    this.w = new Float64Array(3 * n);
+    this.fz = new Float64Array(3 * n);
+    this.dw = new Float64Array(3 * n);
+    this.ys = new Float64Array(n);
+    this.scale = new Float64Array(n);
+    this.e1 = new Float64Array(n * n);
+    this.e2r = new Float64Array(n * n);
+    this.e2i = new Float64Array(n * n);
+    this.v1 = new Float64Array(n);
+    this.v2 = new Float64Array(n);
+    this.v3 = new Float64Array(n);
+    this.err = new Float64Array(n);
+    this.fdWork = new Float64Array(n);
+    this.jac = new Float64Array(n * n);
+    this.eventValues = new Float64Array(p.events.length);
+    this.startTime = performance.now();
+
+    this.tCur = p.t0;
+    this.yCur = Float64Array.from(p.y0);
+    this.fCur = new Float64Array(n);
+    this.initialise(true);
+  }
+
+  // ---- public surface -------------------------------------------------------
+
+  get t(): number {
+    return this.tCur;
+  }
+  get y(): Float64Array {
+    return Float64Array.from(this.yCur);
+  }
+  get h(): number {
+    return this.hCur;
+  }
+  get t0(): number {
+    return this.p.t0;
+  }
+  get tEnd(): number {
+    return this.p.tEnd;
+  }
+  get stats(): SolverStats {
+    return { ...this.statsCur };
+  }
+  get status(): 'running' | DaeStatus {
+    return this.statusCur;
+  }
+  get message(): string {
+    return this.messageCur;
+  }
+  get failure(): DaeFailure | undefined {
+    return this.failureCur;
+  }
+  get interpolant(): DaeStepInterpolant | undefined {
+    return this.interp;
+  }
+
+  step(tStop?: number): DaeStepResult {
+    if (tStop !== undefined && (!Number.isFinite(tStop) || tStop > this.p.tEnd)) {
+      throw new InputError('bad-stop-time', `stop time ${tStop} must be a finite time <= tEnd = ${this.p.tEnd}`, ['tStop']);
+    }
+    if (this.statusCur === 'terminal-event') this.statusCur = this.tCur >= this.p.tEnd ? 'success' : 'running';
+    if (this.statusCur !== 'running') return { status: this.statusCur, events: [] } as DaeStepResult;
+    if (tStop !== undefined && tStop <= this.tCur) return { status: 'success', events: [] };
+    try {
+      return this.attemptStep(tStop ?? this.p.tEnd);
+    } catch (e) {
+      return this.failFromError(e);
+    }
+  }
+
+  advanceTo(tStop: number, onStep?: (integrator: DaeIntegrator, result: DaeStepResult) => void): DaeStepResult {
+    if (!Number.isFinite(tStop) || tStop > this.p.tEnd || tStop < this.tCur) {
+      throw new InputError(
+        'bad-stop-time',
+        `advanceTo(${tStop}): the time must lie in [t, tEnd] = [${this.tCur}, ${this.p.tEnd}]`,
+        ['tStop'],
+      );
+    }
+    const events: DaeEventRecord[] = [];
+    while (this.tCur < tStop) {
+      const r = this.step(tStop);
+      events.push(...r.events);
+      if (r.status !== 'accepted' && r.status !== 'terminal-event') return { status: r.status, events };
+      onStep?.(this, r);
+      if (r.status === 'terminal-event') return { status: 'terminal-event', events };
+    }
+    return { status: 'success', events };
+  }
+
+  restart(y?: ArrayLike<number>): 'running' | DaeStatus {
+    if (y !== undefined) {
+      if (y.length !== this.n) throw new InputError('bad-initial-state', `restart: y has ${y.length} entries, expected ${this.n}`, ['y']);
+      for (let i = 0; i < this.n; i++) {
+        if (!Number.isFinite(y[i]!)) throw new InputError('bad-initial-state', `restart: y[${i}] = ${y[i]} is not finite`, ['y']);
+      }
+      this.yCur.set(Array.from(y));
+    }
+    this.statusCur = 'running';
+    this.messageCur = '';
+    this.failureCur = undefined;
+    this.pendingError = undefined;
+    this.pendingFailure = undefined;
+    this.interp = undefined;
+    this.initialise(false);
+    return this.statusCur;
+  }
+
+  snapshot(): DaeIntegratorSnapshot {
+    const it = this.interp;
+    return {
+      t: this.tCur,
+      y: Float64Array.from(this.yCur),
+      f: Float64Array.from(this.fCur),
+      h: this.hCur,
+      hAcc: this.hAcc,
+      errAcc: this.errAcc,
+      faccon: this.faccon,
+      first: this.first,
+      extrapolate: this.extrapolate,
+      jacobian: this.jacValid ? Float64Array.from(this.jac) : undefined,
+      jacobianCurrent: this.jacCurrent,
+      interpolant: it && { tOld: it.tOld, t: it.t, h: it.h, yOld: Float64Array.from(it.yOld), q: Float64Array.from(it.q) },
+      eventValues: Float64Array.from(this.eventValues),
+      stats: { ...this.statsCur },
+    };
+  }
+
+  restore(s: DaeIntegratorSnapshot): void {
+    if (s.y.length !== this.n || s.f.length !== this.n) {
+      throw new InputError('bad-snapshot', `snapshot has ${s.y.length} unknowns; this integrator has ${this.n}`, ['snapshot']);
+    }
+    this.tCur = s.t;
+    this.yCur.set(s.y);
+    this.fCur.set(s.f);
+    this.hCur = s.h;
+    this.hAcc = s.hAcc;
+    this.errAcc = s.errAcc;
+    this.faccon = s.faccon;
+    this.first = s.first;
+    this.extrapolate = s.extrapolate;
+    if (s.jacobian) {
+      this.jac.set(s.jacobian);
+      this.jacValid = true;
+      this.jacCurrent = s.jacobianCurrent;
+    } else {
+      this.jacValid = false;
+      this.jacCurrent = false;
+    }
+    this.luH = NaN;
+    const it = s.interpolant;
+    this.interp = it && { tOld: it.tOld, t: it.t, h: it.h, yOld: Float64Array.from(it.yOld), q: Float64Array.from(it.q) };
+    this.eventValues = Float64Array.from(s.eventValues);
+    this.statsCur = { ...s.stats };
+    this.pendingError = undefined;
+    this.pendingFailure = undefined;
+    this.failureCur = undefined;
+    this.messageCur = '';
+    this.statusCur = this.tCur >= this.p.tEnd ? 'success' : 'running';
+  }
+
+  interpolate(t: number, out?: Float64Array): Float64Array {
+    const res = out ?? new Float64Array(this.n);
+    const it = this.interp;
+    if (!it) {
+      if (t === this.tCur) {
+        res.set(this.yCur);
+        return res;
+      }
+      throw new InputError('outside-last-step', `interpolate(${t}): no step taken yet; only t = ${this.tCur} is known`, ['t']);
+    }
+    if (!(t >= it.tOld && t <= it.t)) {
+      throw new InputError('outside-last-step', `interpolate(${t}): the last step covers [${it.tOld}, ${it.t}]`, ['t']);
+    }
+    evaluateInterpolant(it, t, res);
+    return res;
+  }
+
+  // ---- internals -------------------------------------------------------------
+
+  private fail(status: DaeStatus, message: string, components: number[], cause?: unknown): DaeStepResult {
+    this.statusCur = status;
+    this.messageCur = message;
+    const failure: { t: number; h: number; components: readonly number[]; cause?: unknown } = {
+      t: this.tCur,
+      h: this.hCur,
+      components,
+    };
+    if (cause !== undefined) failure.cause = cause;
+    this.failureCur = failure;
+    return { status, events: [] };
+  }
+
+  private callRhs(t: number, y: Float64Array, out: Float64Array): void {
+    this.statsCur.rhsEvaluations++;
+    try {
+      this.p.rhs(t, y, out);
+    } catch (e) {
+      throw new UserCodeError(e, 'f', t);
+    }
+  }
+
+  /** Evaluate J at (t, y) with f = f(t, y), analytic or finite-difference. */
+  private callJacobian(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
+    this.statsCur.jacobianEvaluations++;
+    const jf = this.p.jacobian;
+    if (jf) {
+      out.fill(0);
+      try {
+        jf(t, y, out);
+      } catch (e) {
+        throw new UserCodeError(e, 'the Jacobian', t);
+      }
+    } else {
+      try {
+        this.statsCur.rhsEvaluations += finiteDifferenceJacobian(this.p.rhs, t, y, f, out, this.fdWork);
+      } catch (e) {
+        throw new UserCodeError(e, 'f (finite-difference Jacobian)', t);
+      }
+    }
+    const n = this.n;
+    for (let k = 0; k < n * n; k++) {
+      if (!Number.isFinite(out[k]!)) {
+        const rows = new Set<number>();
+        for (let m = k; m < n * n; m++) if (!Number.isFinite(out[m]!)) rows.add(Math.floor(m / n));
+        throw new NonFiniteJacobian([...rows], t);
+      }
+    }
+  }
+
+  /** Map errors from user code to a status; rethrow anything else (a bug). */
+  private failFromError(e: unknown): DaeStepResult {
+    if (e instanceof UserCodeError) {
+      const msg = e.cause instanceof Error ? e.cause.message : String(e.cause);
+      return this.fail('rhs-error', `${e.what} threw at t = ${e.tAt}: ${msg}`, [], e.cause);
+    }
+    if (e instanceof NonFiniteJacobian) {
+      return this.fail('non-finite', `the Jacobian has NaN or Infinity entries at t = ${e.tAt} in rows ${e.rows.join(', ')}`, e.rows);
+    }
+    throw e;
+  }
+
+  /** out = M v (v when M is the identity). */
+  private mulMass(v: Float64Array, vOff: number, out: Float64Array): void {
+    const rp = this.mRowPtr;
+    if (!rp) {
+      for (let i = 0; i < this.n; i++) out[i] = v[vOff + i]!;
+      return;
+    }
+    const col = this.mCol!;
+    const val = this.mVal!;
+    for (let i = 0; i < this.n; i++) {
+      let s = 0;
+      for (let k = rp[i]!; k < rp[i + 1]!; k++) s += val[k]! * v[vOff + col[k]!]!;
+      out[i] = s;
+    }
+  }
+
+  /** Consistent initialisation, f, first h, event values at the present time. */
+  private initialise(fresh: boolean): void {
+    const p = this.p;
+    const n = this.n;
+    this.first = true;
+    this.extrapolate = false;
+    this.hAcc = NaN;
+    this.errAcc = NaN;
+    this.faccon = 1;
+    this.theta = JACOBIAN_RATE_THRESHOLD;
+    this.jacValid = false;
+    this.jacCurrent = false;
+    this.luH = NaN;
+    try {
+      let yp: Float64Array | undefined;
+      if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
+        const ctx = this.consistencyContext();
+        const yBefore = Float64Array.from(this.yCur);
+        const res = makeConsistent(ctx, this.tCur, this.yCur);
+        if (!res.ok) {
+          this.yCur.set(yBefore); // report the state as given, not a failed Newton iterate
+          if (res.reason === 'non-finite') {
+            this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${res.components.join(', ')} (initial state)`, res.components);
+          } else {
+            this.fail('inconsistent-init', `no consistent initial state at t = ${this.tCur}: ${res.message}`, res.components);
+          }
+          return;
+        }
+        if (fresh) {
+          const dt = Math.sqrt(UROUND) * Math.max(Math.abs(this.tCur), p.tEnd - p.t0);
+          yp = consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
+        }
+      }
+      this.callRhs(this.tCur, this.yCur, this.fCur);
+      const bad = nonFiniteIndices(this.fCur);
+      if (bad.length) {
+        this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${bad.join(', ')}`, bad);
+        return;
+      }
+      if (fresh) this.hCur = this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur));
+      this.evaluateEventsAt(this.tCur, this.yCur, this.eventValues);
+      if (this.tCur >= p.tEnd) this.statusCur = 'success';
+    } catch (e) {
+      this.failFromError(e);
+    }
+  }
+
+  private consistencyContext(): ConsistencyContext {
+    return {
+      n: this.n,
+      spaces: this.spaces!,
+      rhs: (t: number, y: Float64Array, out: Float64Array) => this.callRhs(t, y, out),
+      jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
+      scale: errorScale(this.yCur, this.p.rtol, this.p.atol, new Float64Array(this.n)),
+    };
+  }
+
+  /**
+   * Initial step (Hairer, Norsett and Wanner, Solving ODEs I, sect. II.4,
+   * "starting step size"; the form used by SciPy's select_initial_step) from
+   * y' at t0: f for an ODE, the consistent derivative for a DAE.
+   */
+  private initialStepSize(yp: Float64Array | undefined): number {
+    const p = this.p;
+    const span = p.tEnd - p.t0;
+    const cap = Math.min(p.maxStep, span);
+    if (p.initialStep !== undefined) return Math.min(p.initialStep, cap);
+    if (!yp) return Math.min(1e-6 * span, cap);
+    const n = this.n;
+    const scale = errorScale(this.yCur, p.rtol, p.atol, new Float64Array(n));
+    const d0 = weightedRmsNorm(this.yCur, scale);
+    const d1 = weightedRmsNorm(yp, scale);
+    let h0 = d0 < 1e-5 || d1 < 1e-5 ? 1e-6 * span : (0.01 * d0) / d1;
+    h0 = Math.min(h0, cap);
+    const y1 = new Float64Array(n);
+    for (let i = 0; i < n; i++) y1[i] = this.yCur[i]! + h0 * yp[i]!;
+    const f1 = new Float64Array(n);
+    this.callRhs(this.tCur + h0, y1, f1);
+    for (let i = 0; i < n; i++) f1[i] = f1[i]! - this.fCur[i]!;
+    const d2 = weightedRmsNorm(f1, scale) / h0;
+    let h1: number;
+    if (!Number.isFinite(d2)) h1 = h0 * 1e-3;
+    else if (d1 <= 1e-15 && d2 <= 1e-15) h1 = Math.max(1e-6 * span, h0 * 1e-3);
+    else h1 = (0.01 / Math.max(d1, d2)) ** (1 / 6);
+    const h = Math.min(100 * h0, h1, cap);
+    return h > 0 && Number.isFinite(h) ? h : Math.min(1e-6 * span, cap);
+  }
+
+  private evaluateEventsAt(t: number, y: Float64Array, out: Float64Array): void {
+    const evs = this.p.events;
+    for (let e = 0; e < evs.length; e++) {
+      try {
+        out[e] = evs[e]!.fn(t, y);
+      } catch (err) {
+        throw new UserCodeError(err, `event "${this.p.eventNames[e]}"`, t);
+      }
+    }
+  }
+
+  /** Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J. Returns the bad pivot or -1. */
+  private factorIterationMatrices(h: number): { real: number; complex: number } {
+    const n = this.n;
+    const fac1 = MU_REAL / h;
+    const alphn = MU_COMPLEX_RE / h;
+    const betan = MU_COMPLEX_IM / h;
+    const J = this.jac;
+    const e1 = this.e1;
+    const e2r = this.e2r;
+    const e2i = this.e2i;
+    for (let k = 0; k < n * n; k++) {
+      const v = -J[k]!;
+      e1[k] = v;
+      e2r[k] = v;
+    }
+    e2i.fill(0);
+    const rp = this.mRowPtr;
+    if (!rp) {
+      for (let i = 0; i < n; i++) {
+        e1[i * n + i] = e1[i * n + i]! + fac1;
+        e2r[i * n + i] = e2r[i * n + i]! + alphn;
+        e2i[i * n + i] = betan;
+      }
+    } else {
+      const col = this.mCol!;
+      const val = this.mVal!;
+      for (let i = 0; i < n; i++) {
+        for (let k = rp[i]!; k < rp[i + 1]!; k++) {
+          const idx = i * n + col[k]!;
+          const m = val[k]!;
+          e1[idx] = e1[idx]! + fac1 * m;
+          e2r[idx] = e2r[idx]! + alphn * m;
+          e2i[idx] = betan * m;
+        }
+      }
+    }
+    this.statsCur.luFactorizations++;
+    const real = this.luReal.factor(e1);
+    const complex = real >= 0 ? -1 : this.luComplex.factor(e2r, e2i);
+    return { real, complex };
+  }
+
+  private ensureJacobian(): void {
+    if (!this.jacValid || !this.jacCurrent) {
+      this.callJacobian(this.tCur, this.yCur, this.fCur, this.jac);
+      this.jacValid = true;
+      this.jacCurrent = true;
+      this.luH = NaN;
+    }
+  }
+
+  /** The attempt loop of radau5 (Hairer and Wanner II, sect. IV.8), returning after one accepted step or a failure. */
+  private attemptStep(tStopIn: number): DaeStepResult {
+    const p = this.p;
+    const n = this.n;
+    if (this.pendingError) throw this.pendingError;
+    if (this.pendingFailure) {
+      const pf = this.pendingFailure;
+      this.pendingFailure = undefined;
+      return this.fail(pf.status, pf.message, pf.components);
+    }
+    if (p.signal?.aborted) {
+      return this.fail('aborted', `aborted by the caller's signal at t = ${this.tCur}`, []);
+    }
+    const badF = nonFiniteIndices(this.fCur);
+    if (badF.length) {
+      return this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${badF.join(', ')}; check the model near this time`, badF);
+    }
+    // Next breakpoint strictly after t.
+    let tTarget = tStopIn;
+    let isBreakpoint = false;
+    const bps = p.breakpoints;
+    // Binary search for the first breakpoint > t (PWM sources announce thousands).
+    let lo = 0;
+    let hi = bps.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (bps[mid]! > this.tCur) hi = mid;
+      else lo = mid + 1;
+    }
+    if (lo < bps.length && bps[lo]! <= tTarget) {
+      tTarget = bps[lo]!;
+      isBreakpoint = true;
+    }
+    if (tTarget >= p.tEnd) {
+      tTarget = p.tEnd;
+    }
+
+    const z = this.z;
+    const w = this.w;
+    const scale = this.scale;
+    const y = this.yCur;
+    const t = this.tCur;
+    let rejected = false;
+    let singularCount = 0;
+    let newtonFailCount = 0;
+    let lastNonFinite: number[] | undefined;
+    let lastNewtonComponents: number[] = [];
+    let lastErrorComponents: number[] = [];
+    const hMin = 10 * UROUND * Math.max(Math.abs(t), 1e-10 * (p.tEnd - p.t0));
+
+    for (;;) {
+      const st = this.statsCur;
+      if (st.acceptedSteps + st.rejectedSteps >= p.maxSteps) {
+        return this.fail('step-budget', `stopped after maxSteps = ${p.maxSteps} steps at t = ${t}; raise maxSteps or loosen the tolerances`, []);
+      }
+      if (performance.now() - this.startTime > p.maxWallTimeMs) {
+        return this.fail('time-budget', `stopped after the wall-time budget of ${p.maxWallTimeMs} ms at t = ${t}`, []);
+      }
+      let h = Math.min(this.hCur, p.maxStep);
+      if (!(h >= hMin)) {
+        if (lastNonFinite) {
+          return this.fail('non-finite', `f returned NaN or Infinity near t = ${t} in components ${lastNonFinite.join(', ')} for every step tried; check the model near this time`, lastNonFinite);
+        } else {
+          let comps = lastErrorComponents.length ? lastErrorComponents : lastNewtonComponents;
+          // Without an error estimate, name the components that change fastest.
+          if (!comps.length) comps = largestScaled(this.fCur, errorScale(y, this.rtolT, this.atolT, scale));
+          return this.fail(
+            'step-size-underflow',
+            `step size ${h.toExponential(3)} fell below the round-off limit at t = ${t} (components ${comps.join(', ')}); look for a singularity in f (a solution that blows up), an inconsistent or higher-index model, or tolerances too tight`,
+            comps,
+          );
+        }
+      }
+      // Land exactly on the target (stretching the step a little rather than leaving a sliver).
+      let tNew = t + h;
+      let landed = false;
+      if (tNew >= tTarget || tTarget - t <= Math.min(LANDING_STRETCH * h, p.maxStep)) {
+        tNew = tTarget;
+        h = tTarget - t;
+        landed = true;
+      }
+      if (h !== this.luH) {
+        // The LU is rebuilt for a new h; the Jacobian is refreshed only when it is missing.
+        if (!this.jacValid) this.ensureJacobian();
+        const bad = this.factorIterationMatrices(h);
+        const pivot = bad.real >= 0 ? bad.real : bad.complex;
+        if (pivot >= 0) {
+          singularCount++;
+          if (singularCount >= MAX_SINGULAR_RETRIES) {
+            this.hCur = h;
+            return this.fail(
+              'singular-matrix',
+              `the iteration matrix (gamma/h M - J) is singular at t = ${t}, h = ${h.toExponential(3)}, pivot at component ${pivot}; look for an unknown that no equation constrains or a floating part of the model`,
+              [pivot],
+            );
+          }
+          this.luH = NaN;
+          this.hCur = h * NEWTON_FAILURE_SHRINK;
+          if (!this.jacCurrent) this.ensureJacobian();
+          continue;
+        }
+        this.luH = h;
+      }
+
+      // Scale for Newton and error (radau5's SCAL; index-2 components divided by h).
+      errorScale(y, this.rtolT, this.atolT, scale);
+      if (p.hasIndex2) for (let i = 0; i < n; i++) if (p.index2[i] === 1) scale[i] = scale[i]! / h;
+
+      // Starting values: extrapolated collocation polynomial, or zero (radau5 STARTN).
+      if (this.extrapolate && this.interp) {
+        const it = this.interp;
+        for (let s = 0; s < 3; s++) {
+          const c = s === 0 ? C1 : s === 1 ? C2 : 1;
+          evaluateInterpolant(it, t + c * h, this.v1);
+          for (let i = 0; i < n; i++) z[s * n + i] = this.v1[i]! - y[i]!;
+        }
+      } else {
+        z.fill(0);
+      }
+
+      // The last stage sits at tNew; on a breakpoint it takes the left limit of f (one ulp before),
+      // because f(breakpoint) is the value after the switch (the project's waveform convention).
+      const tLastStage = landed && isBreakpoint && tNew === tTarget ? nextDown(tNew) : tNew;
+      const newton = this.newton(t, h, tLastStage);
+      if (!newton.converged) {
+        this.statsCur.newtonFailures++;
+        this.luH = NaN;
+        if (newton.nonFinite) {
+          lastNonFinite = newton.nonFinite;
+          this.hCur = h * NEWTON_FAILURE_SHRINK;
+          continue;
+        }
+        lastNonFinite = undefined;
+        lastNewtonComponents = newton.components;
+        if (!this.jacCurrent) {
+          // Refresh the Jacobian first, keep h.
+          this.ensureJacobian();
+          this.hCur = h;
+          continue;
+        }
+        newtonFailCount++;
+        if (newtonFailCount >= MAX_NEWTON_FAILURES) {
+          this.hCur = h;
+          return this.fail(
+            'newton-failure',
+            `the Newton iteration failed ${newtonFailCount} times in a row at t = ${t} with a fresh Jacobian, last h = ${h.toExponential(3)} (components ${newton.components.join(', ')}); check the Jacobian against finiteDifferenceJacobian, the model's smoothness, or tolerances too tight for round-off`,
+            newton.components,
+          );
+        }
+        this.hCur = h * newton.shrink;
+        continue;
+      }
+      lastNonFinite = undefined;
+
+      // Error estimate (radau5 ESTRAD; book eq. IV.8.19-8.20 with M).
+      const v1 = this.v1;
+      const v2 = this.v2;
+      const errv = this.err;
+      const hee1 = E1 / h;
+      const hee2 = E2 / h;
+      const hee3 = E3 / h;
+      for (let i = 0; i < n; i++) v1[i] = hee1 * z[i]! + hee2 * z[n + i]! + hee3 * z[2 * n + i]!;
+      this.mulMass(v1, 0, v2); // v2 = M (e.z)/h
+      for (let i = 0; i < n; i++) errv[i] = this.fCur[i]! + v2[i]!;
+      this.luReal.solve(errv);
+      let err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
+      if (err >= 1 && (this.first || rejected)) {
+        for (let i = 0; i < n; i++) this.ys[i] = y[i]! + errv[i]!;
+        this.callRhs(t, this.ys, this.v3);
+        for (let i = 0; i < n; i++) errv[i] = this.v3[i]! + v2[i]!;
+        this.luReal.solve(errv);
+        err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
+        if (!Number.isFinite(err)) err = 1e10;
+      }
+      if (!Number.isFinite(err)) err = 1e10;
+      // Step-size proposal (radau5): fac = min(safe, cfac/(newt + 2 nit)).
+      const cfac = SAFETY * (1 + 2 * NEWTON_MAX_ITERATIONS);
+      const fac = Math.min(SAFETY, cfac / (newton.iterations + 2 * NEWTON_MAX_ITERATIONS));
+      let quot = Math.max(1 / MAX_STEP_RATIO, Math.min(1 / MIN_STEP_RATIO, err ** 0.25 / fac));
+      let hNew = h / quot;
+
+      if (err >= 1) {
+        // Rejected.
+        this.statsCur.rejectedSteps++;
+        lastErrorComponents = largestScaled(errv, scale);
+        rejected = true;
+        this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : hNew;
+        this.luH = NaN;
+        if (!this.jacCurrent) this.ensureJacobian();
+        continue;
+      }
+
+      // Accepted. Gustafsson's predictive controller (book sect. IV.8, eq. 8.25).
+      if (!Number.isNaN(this.hAcc)) {
+        let facgus = ((this.hAcc / h) * (err * err / this.errAcc) ** 0.25) / SAFETY;
+        facgus = Math.max(1 / MAX_STEP_RATIO, Math.min(1 / MIN_STEP_RATIO, facgus));
+        quot = Math.max(quot, facgus);
+        hNew = h / quot;
+      }
+      this.hAcc = h;
+      this.errAcc = Math.max(1e-2, err);
+      this.statsCur.acceptedSteps++;
+
+      // Dense output coefficients Q = Z^T P, before z is reused.
+      const q = new Float64Array(3 * n);
+      for (let k = 0; k < 3; k++) {
+        for (let i = 0; i < n; i++) q[k * n + i] = z[i]! * P[k]! + z[n + i]! * P[3 + k]! + z[2 * n + i]! * P[6 + k]!;
+      }
+      const yOld = Float64Array.from(y);
+      for (let i = 0; i < n; i++) y[i] = y[i]! + z[2 * n + i]!;
+      this.interp = { tOld: t, t: tNew, h, yOld, q };
+      this.tCur = tNew;
+      this.first = false;
+      this.extrapolate = true;
+      try {
+        this.callRhs(tNew, y, this.fCur);
+      } catch (e) {
+        // The step itself is good: keep it; the next step() reports the error.
+        if (e instanceof UserCodeError) this.pendingError = e;
+        else throw e;
+      }
+
+      hNew = Math.min(hNew, p.maxStep);
+      if (rejected) hNew = Math.min(hNew, h);
+      const recomputeJac = newton.iterations > 2 && newton.theta > JACOBIAN_RATE_THRESHOLD;
+      this.jacCurrent = false;
+      if (recomputeJac) this.jacValid = false;
+      const qt = hNew / h;
+      if (!recomputeJac && qt >= KEEP_STEP_LOW && qt <= KEEP_STEP_HIGH) {
+        this.hCur = h; // keep h: the LU factors survive
+      } else {
+        this.hCur = hNew;
+      }
+      let jumpFrom: Float64Array | undefined;
+      if (landed && isBreakpoint && tNew === tTarget) {
+        this.restartHistory();
+        // A switch may move the algebraic unknowns: start the next step from a consistent state
+        // (radau5's error estimate copes with an inconsistent start only with an exact Jacobian).
+        if (this.spaces && this.spaces.k > 0 && p.consistentInit && !this.pendingError) {
+          const before = Float64Array.from(y);
+          const res = makeConsistent(this.consistencyContext(), tNew, y);
+          if (!res.ok) {
+            y.set(before);
+            this.pendingFailure = {
+              status: res.reason === 'non-finite' ? 'non-finite' : 'inconsistent-init',
+              message: `no consistent state after the breakpoint at t = ${tNew}: ${res.message}`,
+              components: res.components,
+            };
+          } else if (y.some((v, i) => v !== before[i])) {
+            jumpFrom = before;
+            this.callRhs(tNew, y, this.fCur);
+          }
+        }
+      }
+      if (tNew >= p.tEnd) this.statusCur = 'success';
+
+      // Events on the dense output.
+      let events: DaeEventRecord[] = [];
+      let terminal = false;
+      if (p.events.length) {
+        const r = this.findEvents(t, tNew);
+        events = r.events;
+        terminal = r.terminal;
+      }
+      if (terminal) {
+        this.statusCur = 'terminal-event';
+        this.messageCur = `terminal event "${events[events.length - 1]!.name}" at t = ${this.tCur}`;
+        return jumpFrom ? { status: 'terminal-event', events, jumpFrom } : { status: 'terminal-event', events };
+      }
+      return jumpFrom ? { status: 'accepted', events, jumpFrom } : { status: 'accepted', events };
+    }
+  }
+
+  /** After landing on a breakpoint: forget the step history (radau5 restarted there). */
+  private restartHistory(): void {
+    this.first = true;
+    this.extrapolate = false;
+    this.hAcc = NaN;
+    this.errAcc = NaN;
+    this.faccon = 1;
+    this.jacValid = false;
+    this.jacCurrent = false;
+    this.luH = NaN;
+  }
+
+  /**
+   * Simplified Newton iteration on the transformed collocation system (book
+   * sect. IV.8, eq. 8.9-8.16; radau5): per iteration one real system with
+   * (gamma/h) M - J and one complex system with ((alpha - i beta)/h) M - J.
+   * z (3n, stage increments Z_i = Y_i - y) holds the start values on entry
+   * and the solution on success.
+   */
+  private newton(t: number, h: number, tLastStage: number): {
+    converged: boolean;
+    iterations: number;
+    theta: number;
+    shrink: number;
+    nonFinite?: number[];
+    components: number[];
+  } {
+    const n = this.n;
+    const z = this.z;
+    const w = this.w;
+    const fz = this.fz;
+    const dw = this.dw;
+    const ys = this.ys;
+    const scale = this.scale;
+    const y = this.yCur;
+    const fac1 = MU_REAL / h;
+    const alphn = MU_COMPLEX_RE / h;
+    const betan = MU_COMPLEX_IM / h;
+    const m1 = this.v1;
+    const m2 = this.v2;
+    const m3 = this.v3;
+    // w = T^-1 z
+    for (let i = 0; i < n; i++) {
+      const z1 = z[i]!;
+      const z2 = z[n + i]!;
+      const z3 = z[2 * n + i]!;
+      w[i] = TI[0]! * z1 + TI[1]! * z2 + TI[2]! * z3;
+      w[n + i] = TI[3]! * z1 + TI[4]! * z2 + TI[5]! * z3;
+      w[2 * n + i] = TI[6]! * z1 + TI[7]! * z2 + TI[8]! * z3;
+    }
+    this.faccon = Math.max(this.faccon, UROUND) ** 0.8;
+    let theta = Math.abs(JACOBIAN_RATE_THRESHOLD);
+    let dynold = 0;
+    let thqold = 0;
+    const nit = NEWTON_MAX_ITERATIONS;
+    for (let newt = 1; newt <= nit; newt++) {
+      // Stage values f(t + c_i h, y + z_i).
+      for (let s = 0; s < 3; s++) {
+        const off = s * n;
+        for (let i = 0; i < n; i++) ys[i] = y[i]! + z[off + i]!;
+        const out = fz.subarray(off, off + n);
+        this.callRhs(s === 0 ? t + C1 * h : s === 1 ? t + C2 * h : tLastStage, ys, out);
+      }
+      this.statsCur.newtonIterations++;
+      let finite = true;
+      for (let k = 0; k < 3 * n; k++) {
+        if (!Number.isFinite(fz[k]!)) {
+          finite = false;
+          break;
+        }
+      }
+      if (!finite) {
+        const bad = new Set<number>();
+        for (let k = 0; k < 3 * n; k++) if (!Number.isFinite(fz[k]!)) bad.add(k % n);
+        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, nonFinite: [...bad].sort((a, b) => a - b), components: [] };
+      }
+      // Right-hand sides of the transformed system.
+      this.mulMass(w, 0, m1);
+      this.mulMass(w, n, m2);
+      this.mulMass(w, 2 * n, m3);
+      for (let i = 0; i < n; i++) {
+        const f1 = fz[i]!;
+        const f2 = fz[n + i]!;
+        const f3 = fz[2 * n + i]!;
+        dw[i] = TI[0]! * f1 + TI[1]! * f2 + TI[2]! * f3 - fac1 * m1[i]!;
+        const cr = TI[3]! * f1 + TI[4]! * f2 + TI[5]! * f3;
+        const ci = TI[6]! * f1 + TI[7]! * f2 + TI[8]! * f3;
+        dw[n + i] = cr - (alphn * m2[i]! - betan * m3[i]!);
+        dw[2 * n + i] = ci - (alphn * m3[i]! + betan * m2[i]!);
+      }
+      this.luReal.solve(dw.subarray(0, n));
+      this.luComplex.solve(dw.subarray(n, 2 * n), dw.subarray(2 * n, 3 * n));
+      // dyno: weighted RMS of the increment over all 3n entries.
+      let s = 0;
+      for (let k = 0; k < 3; k++) {
+        for (let i = 0; i < n; i++) {
+          const r = dw[k * n + i]! / scale[i]!;
+          s += r * r;
+        }
+      }
+      const dyno = Math.sqrt(s / (3 * n));
+      if (!Number.isFinite(dyno)) {
+        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: [] };
+      }
+      if (newt > 1 && newt < nit) {
+        const thq = dyno / dynold;
+        theta = newt === 2 ? thq : Math.sqrt(thq * thqold);
+        thqold = thq;
+        if (theta < DIVERGENT_RATE) {
+          this.faccon = theta / (1 - theta);
+          const dyth = (this.faccon * dyno * theta ** (nit - 1 - newt)) / this.fnewt;
+          if (dyth >= 1) {
+            // Cannot converge within nit iterations: shrink h by radau5's estimate.
+            const qnewt = Math.max(1e-4, Math.min(20, dyth));
+            const shrink = 0.8 * qnewt ** (-1 / (4 + nit - 1 - newt));
+            return { converged: false, iterations: newt, theta, shrink, components: this.worstIncrement() };
+          }
+        } else {
+          return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.worstIncrement() };
+        }
+      }
+      dynold = Math.max(dyno, UROUND);
+      for (let k = 0; k < 3 * n; k++) w[k] = w[k]! + dw[k]!;
+      // z = T w
+      for (let i = 0; i < n; i++) {
+        const w1 = w[i]!;
+        const w2 = w[n + i]!;
+        const w3 = w[2 * n + i]!;
+        z[i] = T[0]! * w1 + T[1]! * w2 + T[2]! * w3;
+        z[n + i] = T[3]! * w1 + T[4]! * w2 + T[5]! * w3;
+        z[2 * n + i] = T[6]! * w1 + T[7]! * w2 + T[8]! * w3;
+      }
+      if (this.faccon * dyno <= this.fnewt) return { converged: true, iterations: newt, theta, shrink: 1, components: [] };
+    }
+    return { converged: false, iterations: nit, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.worstIncrement() };
+  }
+
+  private worstIncrement(): number[] {
+    const n = this.n;
+    const m = new Float64Array(n);
+    for (let i = 0; i < n; i++) m[i] = Math.max(Math.abs(this.dw[i]!), Math.abs(this.dw[n + i]!), Math.abs(this.dw[2 * n + i]!));
+    return largestScaled(m, this.scale);
+  }
+
+  /** Sign changes of the event functions over [tOld, tNew]; cuts the step at the first terminal one. */
+  private findEvents(tOld: number, tNew: number): { events: DaeEventRecord[]; terminal: boolean } {
+    const p = this.p;
+    const evs = p.events;
+    const gNew = new Float64Array(evs.length);
+    this.evaluateEventsAt(tNew, this.yCur, gNew);
+    const it = this.interp!;
+    const yb = new Float64Array(this.n);
+    const found: { index: number; t: number }[] = [];
+    for (let e = 0; e < evs.length; e++) {
+      const ga = this.eventValues[e]!;
+      const gb = gNew[e]!;
+      const dir = evs[e]!.direction ?? 0;
+      const rising = ga < 0 && gb >= 0;
+      const falling = ga > 0 && gb <= 0;
+      if (!((rising && dir >= 0) || (falling && dir <= 0))) continue;
+      const fn = evs[e]!.fn;
+      const name = p.eventNames[e]!;
+      const g = (tt: number): number => {
+        evaluateInterpolant(it, tt, yb);
+        try {
+          return fn(tt, yb);
+        } catch (err) {
+          throw new UserCodeError(err, `event "${name}"`, tt);
+        }
+      };
+      const tol = p.eventTolerance ?? 1e-12 * Math.max(1, Math.abs(tNew));
+      found.push({ index: e, t: locateSignChange(g, tOld, tNew, ga, gb, tol) });
+    }
+    found.sort((a, b) => a.t - b.t);
+    const records: DaeEventRecord[] = [];
+    let terminal = false;
+    for (const f of found) {
+      const yE = new Float64Array(this.n);
+      if (f.t === tNew) yE.set(this.yCur);
+      else evaluateInterpolant(it, f.t, yE);
+      records.push({ index: f.index, name: p.eventNames[f.index]!, t: f.t, y: yE });
+      if (evs[f.index]!.terminal) {
+        terminal = true;
+        break;
+      }
+    }
+    if (terminal) {
+      const last = records[records.length - 1]!;
+      if (last.t < tNew) {
+        this.tCur = last.t;
+        this.yCur.set(last.y);
+        this.interp = { ...it, t: last.t };
+        this.callRhs(this.tCur, this.yCur, this.fCur);
+        this.jacCurrent = false;
+        if (this.statusCur === 'success') this.statusCur = 'running';
+      }
+      this.evaluateEventsAt(this.tCur, this.yCur, this.eventValues);
+      // The located event's function already has its new sign at the cut (right end of the final bracket).
+    } else {
+      this.eventValues = gNew;
+    }
+    return { events: records, terminal };
+  }
+}
+
+const ulpBuffer = new Float64Array(1);
+const ulpBits = new BigInt64Array(ulpBuffer.buffer);
+
+/** The largest double below x (x finite). */
+function nextDown(x: number): number {
+  if (x === 0) return -Number.MIN_VALUE;
+  ulpBuffer[0] = x;
+  ulpBits[0] = x > 0 ? ulpBits[0]! - 1n : ulpBits[0]! + 1n;
+  return ulpBuffer[0]!;
+}
+
+/** u(tOld + s h) = yOld + sum_k Q_k s^(k+1) (SciPy's RadauDenseOutput form). */
+export function evaluateInterpolant(it: DaeStepInterpolant, t: number, out: Float64Array): void {
+  const n = it.yOld.length;
+  const s = (t - it.tOld) / it.h;
+  const q = it.q;
+  for (let i = 0; i < n; i++) out[i] = it.yOld[i]! + s * (q[i]! + s * (q[n + i]! + s * q[2 * n + i]!));
+}

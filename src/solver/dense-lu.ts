@@ -1,0 +1,96 @@
+import { equilibrationScales, PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
+
+/**
+ * Real LU factorisation with partial pivoting on a flat row-major
+ * Float64Array (Doolittle, row-oriented k-i-j loop; Golub and Van Loan,
+ * Matrix Computations, Algorithm 3.4.1). Buffers are allocated once; factor
+ * and solve allocate nothing. Checked against ml-matrix's LuDecomposition in
+ * test/solver/dense-lu.test.ts; `npm run bench` measures both.
+ *
+ * @example
+ * ```ts
+ * const lu = createDenseLu(2);
+ * if (lu.factor(Float64Array.of(2, 1, 1, 3)) === -1) {
+ *   const b = Float64Array.of(3, 5);
+ *   lu.solve(b); // b = [0.8, 1.4]
+ * }
+ * ```
+ */
+export function createDenseLu(n: number): RealLinearSolver {
+  const lu = new Float64Array(n * n);
+  const perm = new Int32Array(n);
+  const rowScale = new Float64Array(n);
+  const colScale = new Float64Array(n);
+  const tmp = new Float64Array(n);
+  const tol = PIVOT_RELATIVE_TOLERANCE * n;
+
+  function factor(a: Float64Array): number {
+    const nonFinite = equilibrationScales(n, (i, j) => Math.abs(a[i * n + j]!), rowScale, colScale);
+    if (nonFinite >= 0) return nonFinite;
+    for (let i = 0; i < n; i++) {
+      perm[i] = i;
+      const row = i * n;
+      const r = rowScale[i]!;
+      for (let j = 0; j < n; j++) lu[row + j] = r * a[row + j]! * colScale[j]!;
+    }
+    for (let k = 0; k < n; k++) {
+      let p = k;
+      let pmax = Math.abs(lu[k * n + k]!);
+      for (let i = k + 1; i < n; i++) {
+        const v = Math.abs(lu[i * n + k]!);
+        if (v > pmax) {
+          pmax = v;
+          p = i;
+        }
+      }
+      if (p !== k) {
+        const rp = p * n;
+        const rk = k * n;
+        for (let j = 0; j < n; j++) {
+          const t = lu[rp + j]!;
+          lu[rp + j] = lu[rk + j]!;
+          lu[rk + j] = t;
+        }
+        const tp = perm[p]!;
+        perm[p] = perm[k]!;
+        perm[k] = tp;
+      }
+      // Not finite (NaN entries) or negligible in the equilibrated matrix: singular.
+      if (!(pmax > tol) || !Number.isFinite(pmax)) return k;
+      const rk = k * n;
+      const pivot = lu[rk + k]!;
+      for (let i = k + 1; i < n; i++) {
+        const ri = i * n;
+        const l = lu[ri + k]! / pivot;
+        lu[ri + k] = l;
+        if (l !== 0) {
+          for (let j = k + 1; j < n; j++) lu[ri + j] = lu[ri + j]! - l * lu[rk + j]!;
+        }
+      }
+    }
+    return -1;
+  }
+
+  function solve(b: Float64Array): void {
+    for (let i = 0; i < n; i++) {
+      const p = perm[i]!;
+      tmp[i] = rowScale[p]! * b[p]!;
+    }
+    // Forward: L has a unit diagonal.
+    for (let i = 1; i < n; i++) {
+      const ri = i * n;
+      let s = tmp[i]!;
+      for (let j = 0; j < i; j++) s -= lu[ri + j]! * tmp[j]!;
+      tmp[i] = s;
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      const ri = i * n;
+      let s = tmp[i]!;
+      for (let j = i + 1; j < n; j++) s -= lu[ri + j]! * tmp[j]!;
+      tmp[i] = s / lu[ri + i]!;
+    }
+    for (let i = 0; i < n; i++) b[i] = colScale[i]! * tmp[i]!;
+  }
+
+  return { size: n, factor, solve };
+}

@@ -1,0 +1,100 @@
+/**
+ * The solver's own tiny linear-algebra interface: factor once, solve many
+ * right-hand sides, report a near-singular pivot. The integrator talks only
+ * to these interfaces, so the kernel behind them (flat typed-array LU,
+ * ml-matrix, later a sparse LU) is chosen once at construction.
+ */
+
+/**
+ * Factor-and-solve for a real dense system A x = b, A row-major n*n.
+ *
+ * @example
+ * ```ts
+ * const lu = createDenseLu(2);
+ * const bad = lu.factor(Float64Array.of(4, 1, 2, 3)); // -1: well conditioned
+ * const b = Float64Array.of(1, 2);
+ * lu.solve(b); // b now holds x
+ * ```
+ */
+export interface RealLinearSolver {
+  /** Order n of the system. */
+  readonly size: number;
+  /**
+   * Factor A (not modified). Returns -1 when every pivot is acceptable,
+   * otherwise the column (unknown index) of the first pivot that is zero or
+   * negligible in the equilibrated matrix (below 64 n eps); the
+   * factorisation must not be used then.
+   */
+  factor(a: Float64Array): number;
+  /** Solve A x = b with the last good factorisation; b is overwritten with x. */
+  solve(b: Float64Array): void;
+}
+
+/**
+ * Factor-and-solve for a complex dense system A x = b with A = re + i im
+ * (row-major n*n each).
+ *
+ * @example
+ * ```ts
+ * const lu = createComplexLu(1);
+ * lu.factor(Float64Array.of(1), Float64Array.of(1)); // A = 1 + i
+ * const re = Float64Array.of(2), im = Float64Array.of(0);
+ * lu.solve(re, im); // x = 1 - i
+ * ```
+ */
+export interface ComplexLinearSolver {
+  readonly size: number;
+  /** Factor A = re + i im. Returns -1 or the column of the first bad pivot, as {@link RealLinearSolver.factor}. */
+  factor(re: Float64Array, im: Float64Array): number;
+  /** Solve in place: (bRe, bIm) is overwritten with x. */
+  solve(bRe: Float64Array, bIm: Float64Array): void;
+}
+
+/**
+ * The kernels factor the equilibrated matrix D_r A D_c (rows, then columns,
+ * scaled by powers of two to a largest entry of about 1, as LAPACK's
+ * xGEEQU; Golub and Van Loan, Matrix Computations, sect. 3.5.2), which keeps
+ * badly scaled circuits (farads next to siemens next to webers) accurate. A
+ * pivot |u_kk| <= PIVOT_RELATIVE_TOLERANCE * n of the equilibrated matrix is
+ * treated as singular: exact zero pivots are only the extreme case; a
+ * floating sub-network or an unconstrained unknown leaves a pivot at
+ * round-off level, which this catches.
+ */
+export const PIVOT_RELATIVE_TOLERANCE = 64 * Number.EPSILON;
+
+/**
+ * Row and column equilibration factors (powers of two) of the n x n matrix
+ * with entry magnitudes abs(i, j): rowScale_i ~ 1/max_j |a_ij|, then
+ * colScale_j ~ 1/max_i |rowScale_i a_ij|. A zero row or column gets 1.
+ * Returns the column of the first non-finite entry, or -1.
+ *
+ * @internal
+ */
+export function equilibrationScales(
+  n: number,
+  abs: (i: number, j: number) => number,
+  rowScale: Float64Array,
+  colScale: Float64Array,
+): number {
+  for (let i = 0; i < n; i++) {
+    let m = 0;
+    for (let j = 0; j < n; j++) {
+      const v = abs(i, j);
+      if (!Number.isFinite(v)) return j;
+      if (v > m) m = v;
+    }
+    rowScale[i] = powerOfTwoInverse(m);
+  }
+  for (let j = 0; j < n; j++) {
+    let m = 0;
+    for (let i = 0; i < n; i++) m = Math.max(m, rowScale[i]! * abs(i, j));
+    colScale[j] = powerOfTwoInverse(m);
+  }
+  return -1;
+}
+
+/** 2^-round(log2 m), or 1 for a zero or non-finite m. */
+function powerOfTwoInverse(m: number): number {
+  if (!(m > 0) || !Number.isFinite(m)) return 1;
+  return 2 ** -Math.round(Math.log2(m));
+}

@@ -1,0 +1,203 @@
+import { InputError } from '../errors.js';
+import type { DaeEvent, DaeProblem, JacobianFunction, RhsFunction, SolveDaeOptions, DaeProgress } from './types.js';
+
+/**
+ * A validated copy of a {@link DaeProblem} and its options, in the shapes
+ * the integrator works with. User inputs are never mutated.
+ *
+ * @internal
+ */
+export interface NormalizedDae {
+  readonly n: number;
+  readonly rhs: RhsFunction;
+  readonly jacobian: JacobianFunction | undefined;
+  /** Row-major n*n, or undefined for the identity. */
+  readonly mass: Float64Array | undefined;
+  readonly y0: Float64Array;
+  readonly t0: number;
+  readonly tEnd: number;
+  /** Sorted, unique, strictly inside (t0, tEnd). */
+  readonly breakpoints: Float64Array;
+  readonly events: readonly DaeEvent[];
+  readonly eventNames: readonly string[];
+  /** 1 for index-2 components. */
+  readonly index2: Uint8Array;
+  readonly hasIndex2: boolean;
+  readonly rtol: Float64Array;
+  readonly atol: Float64Array;
+  readonly initialStep: number | undefined;
+  readonly maxStep: number;
+  readonly maxSteps: number;
+  readonly maxWallTimeMs: number;
+  readonly signal: AbortSignal | undefined;
+  readonly onProgress: ((p: DaeProgress) => void) | undefined;
+  readonly progressIntervalMs: number;
+  readonly eventTolerance: number | undefined;
+  readonly consistentInit: boolean;
+  readonly denseOutput: boolean;
+  readonly outputTimes: Float64Array;
+  readonly linearAlgebra: 'flat' | 'ml-matrix';
+}
+
+function bad(code: string, message: string, elements: string[] = []): never {
+  throw new InputError(code, message, elements);
+}
+
+function finite(x: unknown): x is number {
+  return typeof x === 'number' && Number.isFinite(x);
+}
+
+function tolerance(value: number | ArrayLike<number> | undefined, dflt: number, n: number, label: 'rtol' | 'atol'): Float64Array {
+  const out = new Float64Array(n);
+  if (value === undefined) return out.fill(dflt);
+  if (typeof value === 'number') {
+    if (!finite(value) || value < 0) bad('bad-tolerance', `${label} = ${value} must be a finite number >= 0`, [label]);
+    return out.fill(value);
+  }
+  if (value.length !== n) bad('bad-tolerance', `${label} has ${value.length} entries but the problem has ${n} unknowns; give one per unknown or a scalar`, [label]);
+  for (let i = 0; i < n; i++) {
+    const v = value[i]!;
+    if (!finite(v) || v < 0) bad('bad-tolerance', `${label}[${i}] = ${v} must be a finite number >= 0`, [label]);
+    out[i] = v;
+  }
+  return out;
+}
+
+/**
+ * Validate a problem and its options; throws {@link InputError} with a stable
+ * code for every bad call.
+ *
+ * @internal
+ */
+export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {}): NormalizedDae {
+  if (problem === null || typeof problem !== 'object') bad('bad-problem', 'the problem must be an object { size, rhs, y0, t0, tEnd, ... }');
+  const n = problem.size;
+  if (!Number.isInteger(n) || n < 1) bad('bad-problem-size', `problem.size = ${n} must be a positive integer`, ['size']);
+  if (typeof problem.rhs !== 'function') bad('bad-rhs', 'problem.rhs must be a function (t, y, out) => void', ['rhs']);
+  if (problem.jacobian !== undefined && typeof problem.jacobian !== 'function') {
+    bad('bad-jacobian', 'problem.jacobian must be a function (t, y, out) => void or absent', ['jacobian']);
+  }
+  const { t0, tEnd } = problem;
+  if (!finite(t0) || !finite(tEnd)) bad('bad-time-span', `t0 = ${t0} and tEnd = ${tEnd} must be finite numbers`, ['t0', 'tEnd']);
+  if (!(tEnd > t0)) bad('bad-time-span', `tEnd = ${tEnd} must be greater than t0 = ${t0}`, ['t0', 'tEnd']);
+  const y0In = problem.y0;
+  if (!y0In || y0In.length !== n) bad('bad-initial-state', `y0 has ${y0In?.length} entries but problem.size is ${n}`, ['y0']);
+  const y0 = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const v = y0In[i]!;
+    if (!finite(v)) bad('bad-initial-state', `y0[${i}] = ${v} is not finite; give a finite initial value`, ['y0']);
+    y0[i] = v;
+  }
+
+  let mass: Float64Array | undefined;
+  if (problem.mass !== undefined) {
+    const m = problem.mass;
+    mass = new Float64Array(n * n);
+    if (m instanceof Float64Array) {
+      if (m.length !== n * n) bad('bad-mass-matrix', `mass has ${m.length} entries; a row-major ${n}x${n} matrix needs ${n * n}`, ['mass']);
+      mass.set(m);
+    } else if (Array.isArray(m)) {
+      if (m.length !== n) bad('bad-mass-matrix', `mass has ${m.length} rows; it must be ${n}x${n}`, ['mass']);
+      for (let i = 0; i < n; i++) {
+        const row = m[i];
+        if (!row || row.length !== n) bad('bad-mass-matrix', `mass row ${i} has ${row?.length} entries; it must have ${n}`, ['mass']);
+        for (let j = 0; j < n; j++) mass[i * n + j] = row[j]!;
+      }
+    } else {
+      bad('bad-mass-matrix', 'mass must be a row-major Float64Array (n*n) or an array of n rows of n numbers', ['mass']);
+    }
+    for (let k = 0; k < n * n; k++) {
+      if (!finite(mass[k])) bad('bad-mass-matrix', `mass entry (${Math.floor(k / n)}, ${k % n}) = ${mass[k]} is not finite`, ['mass']);
+    }
+    // An exact identity is an ODE: drop the matrix so the hot loop skips M products.
+    let identity = true;
+    for (let i = 0; i < n && identity; i++) for (let j = 0; j < n; j++) if (mass[i * n + j] !== (i === j ? 1 : 0)) { identity = false; break; }
+    if (identity) mass = undefined;
+  }
+
+  const bps: number[] = [];
+  for (const b of problem.breakpoints ?? []) {
+    if (!finite(b)) bad('bad-breakpoint', `breakpoint ${b} is not finite`, ['breakpoints']);
+    if (b < t0 || b > tEnd) bad('bad-breakpoint', `breakpoint ${b} lies outside [t0, tEnd] = [${t0}, ${tEnd}]; drop it or widen the span`, ['breakpoints']);
+    if (b > t0 && b < tEnd) bps.push(b);
+  }
+  bps.sort((a, b) => a - b);
+  const breakpoints = Float64Array.from(bps.filter((b, i) => i === 0 || b !== bps[i - 1]));
+
+  const events = problem.events ?? [];
+  const eventNames: string[] = [];
+  events.forEach((e, i) => {
+    const name = e?.name ?? `event ${i}`;
+    if (!e || typeof e.fn !== 'function') bad('bad-event', `${name}: fn must be a function (t, y) => number`, [name]);
+    if (e.direction !== undefined && e.direction !== -1 && e.direction !== 0 && e.direction !== 1) {
+      bad('bad-event', `${name}: direction ${String(e.direction)} must be -1, 0 or 1`, [name]);
+    }
+    eventNames.push(name);
+  });
+
+  const index2 = new Uint8Array(n);
+  for (const k of problem.index2 ?? []) {
+    if (!Number.isInteger(k) || k < 0 || k >= n) bad('bad-index2', `index2 entry ${k} is not a component index in 0..${n - 1}`, ['index2']);
+    index2[k] = 1;
+  }
+
+  const rtol = tolerance(options.rtol, 1e-6, n, 'rtol');
+  const atol = tolerance(options.atol, 1e-9, n, 'atol');
+  for (let i = 0; i < n; i++) {
+    // radau5 requires rtol > 10 uround; its tolerance map rtol -> 0.1 rtol^(2/3) needs rtol > 0.
+    if (rtol[i]! < 1e-15) bad('bad-tolerance', `rtol[${i}] = ${rtol[i]} is below 1e-15, the limit of double precision; raise it`, ['rtol']);
+  }
+
+  const positive = (v: number | undefined, label: string): number | undefined => {
+    if (v === undefined) return undefined;
+    if (!finite(v) || v <= 0) bad('bad-option', `${label} = ${v} must be a finite number > 0`, [label]);
+    return v;
+  };
+  const initialStep = positive(options.initialStep, 'initialStep');
+  const maxStep = positive(options.maxStep, 'maxStep') ?? tEnd - t0;
+  const maxSteps = options.maxSteps ?? 1e6;
+  if (!Number.isInteger(maxSteps) || maxSteps < 1) bad('bad-option', `maxSteps = ${maxSteps} must be a positive integer`, ['maxSteps']);
+  const maxWallTimeMs = positive(options.maxWallTimeMs, 'maxWallTimeMs') ?? Infinity;
+  const progressIntervalMs = options.progressIntervalMs ?? 200;
+  if (!(progressIntervalMs >= 0) || !finite(progressIntervalMs)) bad('bad-option', `progressIntervalMs = ${progressIntervalMs} must be a finite number >= 0`, ['progressIntervalMs']);
+  const eventTolerance = positive(options.eventTolerance, 'eventTolerance');
+  if (options.onProgress !== undefined && typeof options.onProgress !== 'function') bad('bad-option', 'onProgress must be a function', ['onProgress']);
+  const la = options.linearAlgebra ?? 'flat';
+  if (la !== 'flat' && la !== 'ml-matrix') bad('bad-option', `linearAlgebra = ${String(la)} must be 'flat' or 'ml-matrix'`, ['linearAlgebra']);
+
+  const ot: number[] = [];
+  for (const v of Array.from(options.outputTimes ?? [])) {
+    if (!finite(v) || v < t0 || v > tEnd) bad('bad-output-time', `output time ${v} must be a finite number in [t0, tEnd] = [${t0}, ${tEnd}]`, ['outputTimes']);
+    ot.push(v);
+  }
+  ot.sort((a, b) => a - b);
+
+  return {
+    n,
+    rhs: problem.rhs,
+    jacobian: problem.jacobian,
+    mass,
+    y0,
+    t0,
+    tEnd,
+    breakpoints,
+    events,
+    eventNames,
+    index2,
+    hasIndex2: index2.some((v) => v === 1),
+    rtol,
+    atol,
+    initialStep,
+    maxStep,
+    maxSteps,
+    maxWallTimeMs,
+    signal: options.signal,
+    onProgress: options.onProgress,
+    progressIntervalMs,
+    eventTolerance,
+    consistentInit: options.consistentInit ?? true,
+    denseOutput: options.denseOutput ?? true,
+    outputTimes: Float64Array.from(ot),
+    linearAlgebra: la,
+  };
+}

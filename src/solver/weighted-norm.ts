@@ -1,0 +1,52 @@
+/**
+ * The one weighted RMS norm used everywhere in the solver (Hairer and
+ * Wanner, Solving ODEs I, sect. II.4, eq. 4.11; radau5):
+ * ||v|| = sqrt((1/n) sum_i (v_i / scale_i)^2), scale_i = atol_i + rtol_i |y_i|.
+ *
+ * @internal
+ */
+export function weightedRmsNorm(v: Float64Array, scale: Float64Array): number {
+  const n = v.length;
+  let s = 0;
+  for (let i = 0; i < n; i++) {
+    const r = v[i]! / scale[i]!;
+    s += r * r;
+  }
+  return Math.sqrt(s / n);
+}
+
+/**
+ * Writes scale_i = atol_i + rtol_i |y_i| into `out`.
+ *
+ * @internal
+ */
+export function errorScale(y: Float64Array, rtol: Float64Array, atol: Float64Array, out: Float64Array): Float64Array {
+  for (let i = 0; i < y.length; i++) out[i] = atol[i]! + rtol[i]! * Math.abs(y[i]!);
+  return out;
+}
+
+/**
+ * Indices of the `count` entries of |v_i / scale_i| that are largest, largest first.
+ *
+ * @internal
+ */
+export function largestScaled(v: Float64Array, scale: Float64Array | undefined, count = 3): number[] {
+  const idx: number[] = [];
+  for (let i = 0; i < v.length; i++) {
+    const a = Math.abs(v[i]! / (scale ? scale[i]! : 1));
+    if (!Number.isNaN(a) && a > 0) idx.push(i);
+  }
+  idx.sort((a, b) => Math.abs(v[b]! / (scale ? scale[b]! : 1)) - Math.abs(v[a]! / (scale ? scale[a]! : 1)));
+  return idx.slice(0, count);
+}
+
+/**
+ * Indices of the non-finite entries of `v`.
+ *
+ * @internal
+ */
+export function nonFiniteIndices(v: Float64Array): number[] {
+  const idx: number[] = [];
+  for (let i = 0; i < v.length; i++) if (!Number.isFinite(v[i]!)) idx.push(i);
+  return idx;
+}
