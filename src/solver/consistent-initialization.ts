@@ -1,4 +1,4 @@
-import { Matrix, SVD } from 'ml-matrix';
+import { Matrix, SVD, pseudoInverse } from 'ml-matrix';
 import { createDenseLu } from './dense-lu.js';
 import { largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
 
@@ -75,7 +75,15 @@ export interface ConsistencyContext {
 
 /** Outcome of {@link makeConsistent}. */
 export type ConsistencyOutcome =
-  | { readonly ok: true; readonly iterations: number }
+  | {
+      readonly ok: true;
+      readonly iterations: number;
+      /**
+       * Differential unknowns that had to move (by more than their tolerance)
+       * to satisfy a hidden constraint of an index-2 structure.
+       */
+      readonly adjusted?: readonly number[];
+    }
   | { readonly ok: false; readonly reason: 'non-finite' | 'singular' | 'no-convergence'; readonly components: number[]; readonly message: string };
 
 /** Newton iterations allowed for consistent initialisation. */
@@ -95,9 +103,8 @@ const UPDATE_TOLERANCE = 1e-6;
  * projected form used here).
  *
  * When W0^T J V0 is singular the algebraic part does not determine the
- * unknowns by itself (an index-2 structure): y is then only checked: it is
- * accepted when each algebraic residual would be removed by moving y by
- * less than one tolerance, otherwise reported inconsistent.
+ * unknowns by itself (an index-2 structure, or an unknown no equation
+ * constrains): see {@link leastChangeConsistent}.
  *
  * @internal
  */
@@ -157,7 +164,7 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
       }
     }
     const badPivot = lu.factor(jr);
-    if (badPivot >= 0) return checkOnly(ctx, jac, r, iter === 1);
+    if (badPivot >= 0) return leastChangeConsistent(ctx, t, y);
     for (let j = 0; j < k; j++) dz[j] = -r[j]!;
     lu.solve(dz);
     toY(dz, dy);
@@ -207,34 +214,121 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
 }
 
 /**
- * Structurally singular algebraic part: accept y when every algebraic
- * residual r_j is smaller than the change a one-tolerance move of y could
- * make, sum_i |(W0^T J)_ji| scale_i.
+ * Consistent initialisation when W0^T J V0 is singular, by least change:
+ *
+ * 1. Gauss-Newton on the algebraic residual W0^T f(t, y + V0 z) with
+ *    minimum-norm steps (pseudo-inverse of W0^T J V0): the algebraic
+ *    unknowns the equations determine are set, those they do not determine
+ *    (index-2 unknowns such as the voltage of a current-driven winding) keep
+ *    their value, and M y is kept.
+ * 2. If a residual remains, the algebraic equations constrain the
+ *    differential unknowns too (a hidden constraint of index 2: the flux of
+ *    a winding whose current a current source forces). Gauss-Newton then
+ *    moves all unknowns, with the step of least weighted norm
+ *    ||diag(scale)^-1 dy|| (the least change in tolerance units); the
+ *    differential unknowns that moved are reported as `adjusted`.
+ *
+ * Both phases are the classical minimum-norm Gauss-Newton method for
+ * underdetermined systems (e.g. Deuflhard, Newton Methods for Nonlinear
+ * Problems, Springer 2004, sect. 4.4 on underdetermined problems; from
+ * memory). Converged when each algebraic residual is below what a move of
+ * one tolerance could change (sum_i |(W0^T J)_ji| scale_i).
+ *
+ * @internal
  */
-function checkOnly(ctx: ConsistencyContext, jac: Float64Array, r: Float64Array, _first: boolean): ConsistencyOutcome {
+function leastChangeConsistent(ctx: ConsistencyContext, t: number, y: Float64Array): ConsistencyOutcome {
   const { n, spaces, scale } = ctx;
-  const { k, w0 } = spaces;
-  const worst: number[] = [];
-  for (let j = 0; j < k; j++) {
-    let sens = 0;
-    for (let l = 0; l < n; l++) {
-      let wj = 0;
-      for (let i = 0; i < n; i++) wj += w0[i * k + j]! * jac[i * n + l]!;
-      sens += Math.abs(wj) * scale[l]!;
+  const { k, v0, w0 } = spaces;
+  const f = new Float64Array(n);
+  const jac = new Float64Array(n * n);
+  const start = Float64Array.from(y);
+  const residual = (at: Float64Array): { r: Float64Array; bad: number[] } => {
+    ctx.rhs(t, at, f);
+    const bad = nonFiniteIndices(f);
+    const r = new Float64Array(k);
+    for (let j = 0; j < k; j++) {
+      let s = 0;
+      for (let i = 0; i < n; i++) s += w0[i * k + j]! * f[i]!;
+      r[j] = s;
     }
-    if (Math.abs(r[j]!) > sens) {
-      // Name the unknowns this algebraic equation involves most.
-      for (let i = 0; i < n; i++) if (Math.abs(w0[i * k + j]!) > 1e-8) worst.push(i);
+    return { r, bad };
+  };
+  /** G = W0^T J (k x n) at y, and whether each residual is within one tolerance move. */
+  const linearise = (at: Float64Array, r: Float64Array): { g: Matrix; small: boolean; worst: number[] } => {
+    ctx.rhs(t, at, f);
+    ctx.jacobian(t, at, f, jac);
+    const g = new Matrix(k, n);
+    const worst: number[] = [];
+    for (let j = 0; j < k; j++) {
+      let sens = 0;
+      for (let l = 0; l < n; l++) {
+        let wj = 0;
+        for (let i = 0; i < n; i++) wj += w0[i * k + j]! * jac[i * n + l]!;
+        g.set(j, l, wj);
+        sens += Math.abs(wj) * scale[l]!;
+      }
+      if (!(Math.abs(r[j]!) <= sens)) for (let i = 0; i < n; i++) if (Math.abs(w0[i * k + j]!) > 1e-8) worst.push(i);
+    }
+    return { g, small: worst.length === 0, worst };
+  };
+  const v0m = new Matrix(n, k);
+  for (let i = 0; i < n; i++) for (let j = 0; j < k; j++) v0m.set(i, j, v0[i * k + j]!);
+
+  let iterations = 0;
+  for (const phase of [1, 2] as const) {
+    for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
+      iterations++;
+      const { r, bad } = residual(y);
+      if (bad.length) {
+        return { ok: false, reason: 'non-finite', components: bad, message: `f is not finite at the initial state (components ${bad.join(', ')})` };
+      }
+      const { g, small, worst } = linearise(y, r);
+      if (small) {
+        const adjusted: number[] = [];
+        for (let i = 0; i < n; i++) {
+          let inNull = 0;
+          for (let j = 0; j < k; j++) inNull += v0[i * k + j]! ** 2;
+          if (inNull < 0.999 && Math.abs(y[i]! - start[i]!) > scale[i]!) adjusted.push(i);
+        }
+        return adjusted.length ? { ok: true, iterations, adjusted } : { ok: true, iterations };
+      }
+      const rm = Matrix.columnVector(Array.from(r));
+      let dy: Matrix;
+      if (phase === 1) {
+        dy = v0m.mmul(pseudoInverse(g.mmul(v0m)).mmul(rm)).neg();
+      } else {
+        const sg = g.clone();
+        for (let l = 0; l < n; l++) for (let j = 0; j < k; j++) sg.set(j, l, g.get(j, l) * scale[l]!);
+        dy = pseudoInverse(sg).mmul(rm).neg();
+        for (let l = 0; l < n; l++) dy.set(l, 0, dy.get(l, 0) * scale[l]!);
+      }
+      const step = Float64Array.from(dy.to1DArray());
+      const norm = weightedRmsNorm(step, scale);
+      if (!Number.isFinite(norm)) {
+        return { ok: false, reason: 'no-convergence', components: nonFiniteIndices(step), message: 'the least-change update of the initial state is not finite' };
+      }
+      const before = Float64Array.from(y);
+      for (let i = 0; i < n; i++) y[i] = y[i]! + step[i]!;
+      if (norm <= UPDATE_TOLERANCE) {
+        // The step no longer moves y: this phase cannot reduce the residual further.
+        const after = residual(y);
+        if (!after.bad.length && linearise(y, after.r).small) continue;
+        y.set(before);
+        if (phase === 2) {
+          return {
+            ok: false, reason: 'singular', components: [...new Set(worst)].sort((a, b) => a - b),
+            message: 'the algebraic equations cannot be satisfied near y0, even moving the differential unknowns; check the model and y0',
+          };
+        }
+        break;
+      }
     }
   }
-  if (!worst.length) return { ok: true, iterations: 0 };
-  const comps = [...new Set(worst)].sort((a, b) => a - b);
+  const { r } = residual(y);
+  const { worst } = linearise(y, r);
   return {
-    ok: false,
-    reason: 'singular',
-    components: comps,
-    message:
-      'the algebraic equations do not determine the algebraic unknowns by themselves (index 2 or an unconstrained unknown) and y0 does not satisfy them; give a consistent y0',
+    ok: false, reason: 'no-convergence', components: [...new Set(worst)].sort((a, b) => a - b),
+    message: `the least-change initialisation did not converge in ${MAX_ITERATIONS} iterations per phase`,
   };
 }
 

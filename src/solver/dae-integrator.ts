@@ -165,6 +165,12 @@ export interface DaeIntegrator {
   readonly message: string;
   /** Where and why a failure happened. */
   readonly failure: DaeFailure | undefined;
+  /**
+   * Differential unknowns the last (re)initialisation had to move to meet a
+   * hidden constraint of an index-2 structure (for example the flux of a
+   * winding whose current a current source forces); empty otherwise.
+   */
+  readonly adjustedAtStart: readonly number[];
   /** The last step's interpolant, or undefined before the first step (and after restart). */
   readonly interpolant: DaeStepInterpolant | undefined;
   /**
@@ -294,6 +300,7 @@ class RadauIntegrator implements DaeIntegrator {
   private eventValues: Float64Array;
   private statsCur: SolverStats = emptyStats();
   private statusCur: 'running' | DaeStatus = 'running';
+  private adjustedCur: readonly number[] = [];
   private messageCur = '';
   private failureCur: DaeFailure | undefined;
   private pendingError: UserCodeError | undefined;
@@ -405,6 +412,9 @@ class RadauIntegrator implements DaeIntegrator {
   }
   get failure(): DaeFailure | undefined {
     return this.failureCur;
+  }
+  get adjustedAtStart(): readonly number[] {
+    return this.adjustedCur;
   }
   get interpolant(): DaeStepInterpolant | undefined {
     return this.interp;
@@ -639,6 +649,7 @@ class RadauIntegrator implements DaeIntegrator {
           }
           return;
         }
+        this.adjustedCur = res.adjusted ?? [];
         if (fresh) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(this.tCur), p.tEnd - p.t0);
           yp = consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);

@@ -138,6 +138,7 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     output: { t: outT.slice(0, outY.length), y: outY },
     stats: integ.stats,
     ...(failure ? { failure } : {}),
+    ...(integ.adjustedAtStart.length ? { adjustedAtStart: integ.adjustedAtStart } : {}),
   };
   return solution;
 }

@@ -251,4 +251,10 @@ export interface DaeSolution {
   readonly stats: SolverStats;
   /** Present when status is neither `'success'` nor `'terminal-event'`. */
   readonly failure?: DaeFailure;
+  /**
+   * Differential components that consistent initialisation had to move
+   * (beyond their tolerance) to meet a hidden constraint of an index-2
+   * structure; absent when none moved.
+   */
+  readonly adjustedAtStart?: readonly number[];
 }
