@@ -2,9 +2,8 @@ import { InputError } from './errors.js';
 import { compileNetwork, type CompiledNetwork } from './formulation/compile-network.js';
 import type { NetworkBuilder } from './network/network-builder.js';
 import type { NetworkDescription } from './network/description.js';
-import { solveDae } from './solver/solve-dae.js';
-import type { DaeSolution, DaeStatus, SolverStats } from './solver/types.js';
-import { SimulationResult, type SolutionPiece } from './result/simulation-result.js';
+import { NetworkRun } from './simulation/network-run.js';
+import { SimulationResult } from './result/simulation-result.js';
 
 /** Absolute tolerances per kind of unknown. */
 export interface AbsoluteTolerances {
@@ -19,14 +18,20 @@ export interface AbsoluteTolerances {
   readonly fluxDensity?: number;
 }
 
-/** How the result is sampled in time. */
+/**
+ * How the result is sampled in time. Grid samples are evaluated on the
+ * collocation polynomial of the step that contains them (third-order
+ * interpolation between steps, cheap) unless `exact` is true, which makes
+ * the solver stop at every sample (full solver accuracy at the samples, more
+ * steps when the grid is finer than the steps the solver would take).
+ */
 export type Sampling =
-  /** The solver's accepted steps (default): exact collocation points, non-uniform. */
+  /** The solver's accepted steps (default): non-uniform, at full solver accuracy. */
   | 'steps'
-  /** A uniform grid from the dense output, optionally merged with the solver's steps. */
-  | { readonly interval: number; readonly includeSteps?: boolean }
-  /** Given times from the dense output, optionally merged with the solver's steps. */
-  | { readonly times: ArrayLike<number>; readonly includeSteps?: boolean };
+  /** A uniform grid, optionally merged with the solver's steps. */
+  | { readonly interval: number; readonly includeSteps?: boolean; readonly exact?: boolean }
+  /** Given times, optionally merged with the solver's steps. */
+  | { readonly times: ArrayLike<number>; readonly includeSteps?: boolean; readonly exact?: boolean };
 
 /** Progress of a simulation, passed to {@link SimulateOptions.onProgress}. */
 export interface SimulationProgress {
@@ -65,6 +70,12 @@ export interface SimulateOptions {
   readonly onProgress?: (progress: SimulationProgress) => void;
   /** Minimum wall time between progress calls, ms. Default 200. */
   readonly progressIntervalMs?: number;
+  /**
+   * Raw state vector to start from instead of the network's initial
+   * conditions (for example the end state of an earlier run, or a periodic
+   * steady state); its algebraic part is made consistent.
+   */
+  readonly initialState?: ArrayLike<number>;
 }
 
 /**
@@ -89,87 +100,66 @@ export function simulate(network: NetworkBuilder | NetworkDescription, options: 
   const t0 = options.startTime ?? 0;
   const tEnd = options.stopTime;
   checkOptions(options, t0, tEnd);
-  const rtol = options.rtol ?? 1e-6;
-  const atol = absoluteTolerances(compiled, options.atol);
-  const outputTimes = samplingTimes(options.sampling, t0, tEnd);
-
-  const edges = [t0, ...compiled.inputs.breakpoints(t0, tEnd), tEnd];
-  const pieces: SolutionPiece[] = [];
-  const stats: SolverStats = {
-    acceptedSteps: 0, rejectedSteps: 0, rhsEvaluations: 0, jacobianEvaluations: 0,
-    luFactorizations: 0, newtonIterations: 0, newtonFailures: 0,
-  };
-  let y = compiled.y0;
-  let status: DaeStatus = 'success';
-  let message = `reached t = ${tEnd} s`;
-  let failure: DaeSolution['failure'];
-  let lastStep = options.initialStep;
+  const sampleTimes = samplingTimes(options.sampling, t0, tEnd);
   const started = Date.now();
   let lastProgress = -Infinity;
-
-  for (let k = 0; k + 1 < edges.length; k++) {
-    const a = edges[k]!;
-    const b = edges[k + 1]!;
-    compiled.inputs.setInterval(a, b);
-    const remainingSteps = (options.maxSteps ?? 1e6) - stats.acceptedSteps - stats.rejectedSteps;
-    const remainingMs = options.maxWallTimeMs === undefined ? undefined : options.maxWallTimeMs - (Date.now() - started);
-    const pieceTimes = outputTimes.filter((t) => (k === 0 ? t >= a : t > a) && t <= b);
-    const sol = solveDae(
-      {
-        size: compiled.layout.size,
-        rhs: compiled.rhs,
-        jacobian: compiled.jacobian,
-        mass: compiled.mass,
-        y0: y,
-        t0: a,
-        tEnd: b,
-        index2: compiled.index2,
-      },
-      {
-        rtol,
-        atol,
-        ...(options.maxStep !== undefined ? { maxStep: options.maxStep } : {}),
-        ...(lastStep !== undefined ? { initialStep: Math.min(lastStep, b - a) } : {}),
-        maxSteps: Math.max(1, remainingSteps),
-        ...(remainingMs !== undefined ? { maxWallTimeMs: Math.max(1, remainingMs) } : {}),
-        ...(options.signal ? { signal: options.signal } : {}),
-        outputTimes: pieceTimes,
-        onProgress: (p) => {
-          const now = Date.now();
-          if (!options.onProgress || now - lastProgress < (options.progressIntervalMs ?? 200)) return;
-          lastProgress = now;
-          options.onProgress({
-            time: p.t, stopTime: tEnd, fraction: (p.t - t0) / (tEnd - t0), steps: stats.acceptedSteps + p.acceptedSteps,
-          });
-        },
-        progressIntervalMs: 0,
-      },
-    );
-    accumulate(stats, sol.stats);
-    pieces.push({ solution: sol, start: a, end: b });
-    if (sol.t.length >= 2) lastStep = sol.t[sol.t.length - 1]! - sol.t[sol.t.length - 2]!;
-    if (sol.status !== 'success') {
-      status = sol.status;
-      message = sol.message;
-      failure = sol.failure;
-      break;
-    }
-    y = sol.y[sol.y.length - 1]!;
-  }
+  const run = new NetworkRun(compiled, {
+    t0,
+    horizon: tEnd,
+    rtol: options.rtol ?? 1e-6,
+    atol: absoluteTolerances(compiled, options.atol),
+    ...(options.maxStep !== undefined ? { maxStep: options.maxStep } : {}),
+    ...(options.initialStep !== undefined ? { initialStep: options.initialStep } : {}),
+    maxSteps: options.maxSteps ?? 1e6,
+    ...(options.maxWallTimeMs !== undefined ? { maxWallTimeMs: options.maxWallTimeMs } : {}),
+    ...(options.signal ? { signal: options.signal } : {}),
+    ...(options.initialState ? { initialState: checkedInitialState(compiled, options.initialState) } : {}),
+  });
+  const progress = (t: number): void => {
+    if (!options.onProgress) return;
+    const now = Date.now();
+    if (now - lastProgress < (options.progressIntervalMs ?? 200)) return;
+    lastProgress = now;
+    options.onProgress({ time: t, stopTime: tEnd, fraction: (t - t0) / (tEnd - t0), steps: run.stats.acceptedSteps });
+  };
+  run.advanceTo(tEnd, {
+    steps: includeSteps(options.sampling),
+    sampleTimes,
+    exact: exactSampling(options.sampling),
+    interpolants: true,
+    onStep: progress,
+  });
   if (options.onProgress) {
-    const reached = pieces.length > 0 ? pieces[pieces.length - 1]!.solution.tReached : t0;
-    options.onProgress({ time: reached, stopTime: tEnd, fraction: (reached - t0) / (tEnd - t0), steps: stats.acceptedSteps });
+    options.onProgress({ time: run.t, stopTime: tEnd, fraction: (run.t - t0) / (tEnd - t0), steps: run.stats.acceptedSteps });
   }
+  const status = run.status === 'running' ? 'success' : run.status;
   return new SimulationResult({
     compiled,
     networkId,
-    pieces,
-    stats,
+    samples: run.samples,
+    intervals: run.intervals,
+    steps: run.steps,
+    initialState: run.initialState,
+    finalState: run.y,
+    stats: run.stats,
     status,
-    message,
-    failure,
-    includeSteps: includeSteps(options.sampling),
+    message: status === 'success' ? `reached t = ${tEnd} s in ${run.stats.acceptedSteps} steps (${Date.now() - started} ms)` : run.message,
+    failure: status === 'success' ? undefined : run.failure,
+    adjustedAtStart: run.adjustedAtStart,
   });
+}
+
+function checkedInitialState(c: CompiledNetwork, y: ArrayLike<number>): Float64Array {
+  if (y.length !== c.layout.size) {
+    throw new InputError('bad-initial-state', `simulate options: initialState has ${y.length} entries; this network has ${c.layout.size} unknowns`, ['options']);
+  }
+  const out = Float64Array.from(y);
+  out.forEach((v, i) => {
+    if (!Number.isFinite(v)) {
+      throw new InputError('bad-initial-state', `simulate options: initialState[${i}] (${c.layout.labels[i]}) is ${v}; give finite values`, ['options']);
+    }
+  });
+  return out;
 }
 
 function checkOptions(o: SimulateOptions, t0: number, tEnd: number): void {
@@ -229,12 +219,6 @@ function includeSteps(s: Sampling | undefined): boolean {
   return s.includeSteps ?? false;
 }
 
-function accumulate(total: SolverStats, add: SolverStats): void {
-  total.acceptedSteps += add.acceptedSteps;
-  total.rejectedSteps += add.rejectedSteps;
-  total.rhsEvaluations += add.rhsEvaluations;
-  total.jacobianEvaluations += add.jacobianEvaluations;
-  total.luFactorizations += add.luFactorizations;
-  total.newtonIterations += add.newtonIterations;
-  total.newtonFailures += add.newtonFailures;
+function exactSampling(s: Sampling | undefined): boolean {
+  return s !== undefined && s !== 'steps' && (s.exact ?? false);
 }

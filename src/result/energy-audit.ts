@@ -1,5 +1,13 @@
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import type { SolutionPiece } from './simulation-result.js';
+import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
+
+/** What the audit integrates: the run's steps, its input intervals and its end states. */
+export interface AuditInput {
+  readonly steps: readonly RecordedStep[];
+  readonly intervals: readonly { readonly start: number; readonly end: number }[];
+  readonly start: Float64Array | undefined;
+  readonly end: Float64Array | undefined;
+}
 
 /**
  * Energy balance of a run: what the sources delivered must equal what was
@@ -50,12 +58,12 @@ const WEIGHTS = [G4_W[1]! / 2, G4_W[0]! / 2, G4_W[0]! / 2, G4_W[1]! / 2];
  *
  * @example
  * ```ts
- * const audit = computeEnergyAudit(compiled, pieces, dphi);
+ * const audit = computeEnergyAudit(compiled, { steps, intervals, start, end }, dphi);
  * ```
  */
 export function computeEnergyAudit(
   c: CompiledNetwork,
-  pieces: readonly SolutionPiece[],
+  run: AuditInput,
   fluxDerivative: (tube: number, y: Float64Array, t: number) => number,
 ): EnergyAudit {
   const d = c.description;
@@ -125,25 +133,20 @@ export function computeEnergyAudit(
   };
 
   const sum = [0, 0, 0, 0, 0];
-  for (const p of pieces) {
-    c.inputs.setInterval(p.start, p.end);
-    const ts = p.solution.t;
-    for (let k = 0; k + 1 < ts.length; k++) {
-      const ta = ts[k]!;
-      const h = ts[k + 1]! - ta;
-      if (h <= 0) continue;
-      for (let g = 0; g < 4; g++) {
-        const t = ta + NODES[g]! * h;
-        const pw = powers(t, p.solution.at(t));
-        for (let q = 0; q < 5; q++) sum[q]! += WEIGHTS[g]! * h * pw[q]!;
-      }
+  const y = new Float64Array(L.size);
+  for (const step of run.steps) {
+    const interval = run.intervals[step.interval]!;
+    c.inputs.setInterval(interval.start, interval.end);
+    const h = step.t - step.tOld;
+    if (h <= 0) continue;
+    for (let g = 0; g < 4; g++) {
+      const t = step.tOld + NODES[g]! * h;
+      const pw = powers(t, evaluateRecordedStep(step, t, c.index2, y));
+      for (let q = 0; q < 5; q++) sum[q]! += WEIGHTS[g]! * h * pw[q]!;
     }
   }
-  const first = pieces[0]?.solution.y[0];
-  const lastPiece = pieces[pieces.length - 1];
-  const last = lastPiece?.solution.y[lastPiece.solution.y.length - 1];
-  const storedStart = first ? stored(first) : 0;
-  const storedEnd = last ? stored(last) : 0;
+  const storedStart = run.start ? stored(run.start) : 0;
+  const storedEnd = run.end ? stored(run.end) : 0;
   const [sourceEnergy, resistors, windings, eddy, throughput] = sum as [number, number, number, number, number];
   const total = resistors + windings + eddy;
   const imbalance = sourceEnergy - total - (storedEnd - storedStart);

@@ -10,18 +10,11 @@ import type {
   TwoTerminal,
   Winding,
 } from '../network/handles.js';
-import type { DaeFailure, DaeSolution, DaeStatus, SolverStats } from '../solver/types.js';
+import type { DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
+import type { RecordedStep } from '../simulation/recorded-step.js';
+import type { RunSample } from '../simulation/network-run.js';
 import { computeEnergyAudit, type EnergyAudit } from './energy-audit.js';
 import { resultToCsv, resultToJson, type CsvOptions, type ResultJson } from './export.js';
-
-/** One interval between breakpoints, as the solver returned it. */
-export interface SolutionPiece {
-  readonly solution: DaeSolution;
-  /** Start of the interval between breakpoints, s. */
-  readonly start: number;
-  /** End of the interval (the next breakpoint or the stop time), s; the solver may have stopped earlier. */
-  readonly end: number;
-}
 
 /** What the run stopped on, with the unknowns named by element. */
 export interface SimulationFailure {
@@ -33,16 +26,26 @@ export interface SimulationFailure {
   readonly cause?: unknown;
 }
 
-/** Construction data of a {@link SimulationResult} (internal). */
+/** Construction data of a {@link SimulationResult} (internal: built by `simulate`). */
 export interface SimulationResultInit {
   readonly compiled: CompiledNetwork;
   readonly networkId: number | undefined;
-  readonly pieces: readonly SolutionPiece[];
+  /** Samples in time order, each with the input interval it belongs to. */
+  readonly samples: readonly RunSample[];
+  /** Input intervals (between breakpoints of sources and switches). */
+  readonly intervals: readonly { readonly start: number; readonly end: number }[];
+  /** Every accepted step's collocation polynomial, for the energy audit. */
+  readonly steps: readonly RecordedStep[];
+  /** State at the start of the run (after consistent initialisation). */
+  readonly initialState: Float64Array | undefined;
+  /** State at the end of the run. */
+  readonly finalState: Float64Array;
   readonly stats: SolverStats;
   readonly status: DaeStatus;
   readonly message: string;
   readonly failure: DaeFailure | undefined;
-  readonly includeSteps: boolean;
+  /** Differential unknowns the initialisation moved to meet index-2 hidden constraints. */
+  readonly adjustedAtStart: readonly number[];
 }
 
 /**
@@ -76,15 +79,23 @@ export class SimulationResult {
   readonly failure?: SimulationFailure;
   /** The simulated network as plain data. */
   readonly network: NetworkDescription;
+  /**
+   * Notes on what the run had to assume, for example initial fluxes moved to
+   * agree with a current source that forces a winding's current.
+   */
+  readonly warnings: readonly string[];
 
   /** Identity of the builder whose handles this result accepts (undefined when simulated from a description). */
   readonly networkId: number | undefined;
 
   private readonly compiled: CompiledNetwork;
   private readonly states: readonly Float64Array[];
-  /** Piece index of every sample, so inputs are evaluated on the right side of breakpoints. */
+  /** Input interval of every sample, so inputs are evaluated on the right side of breakpoints. */
   private readonly sampleInterval: Int32Array;
-  private readonly pieces: readonly SolutionPiece[];
+  private readonly intervals: readonly { readonly start: number; readonly end: number }[];
+  private readonly steps: readonly RecordedStep[];
+  private readonly finalState: Float64Array;
+  private readonly initialState: Float64Array | undefined;
   private readonly cache = new Map<string, Float64Array>();
   private audit: EnergyAudit | undefined;
   private readonly functionals = new Map<string, Float64Array | undefined>();
@@ -94,18 +105,25 @@ export class SimulationResult {
     this.compiled = init.compiled;
     this.networkId = init.networkId;
     this.network = init.compiled.description;
-    this.pieces = init.pieces;
+    this.intervals = init.intervals;
+    this.steps = init.steps;
+    this.finalState = init.finalState;
+    this.initialState = init.initialState;
     this.status = init.status;
     this.message = init.message;
     this.stats = Object.freeze({ ...init.stats });
-    const samples = collectSamples(init.pieces, init.includeSteps);
-    this.time = samples.time;
-    this.states = samples.states;
-    this.sampleInterval = samples.piece;
+    this.time = Float64Array.from(init.samples, (x) => x.t);
+    this.states = init.samples.map((x) => x.y);
+    this.sampleInterval = Int32Array.from(init.samples, (x) => x.interval);
+    const layout = init.compiled.layout;
+    this.warnings = Object.freeze(
+      init.adjustedAtStart.map(
+        (i) => `initial ${layout.labels[i]} was changed to agree with the sources (an index-2 structure fixes it); set it in the model to silence this`,
+      ),
+    );
     if (init.failure) {
-      const layout = init.compiled.layout;
       this.failure = {
-        time: init.pieces.length > 0 ? init.pieces[init.pieces.length - 1]!.solution.tReached : NaN,
+        time: init.steps.length > 0 ? init.steps[init.steps.length - 1]!.t : this.time[0] ?? NaN,
         unknowns: init.failure.components.map((i) => ({
           index: i,
           label: layout.labels[i] ?? `unknown ${i}`,
@@ -324,7 +342,11 @@ export class SimulationResult {
    * ```
    */
   energy(): EnergyAudit {
-    this.audit ??= computeEnergyAudit(this.compiled, this.pieces, (b, y, t) => this.fluxDerivative(b, y, t, -1));
+    this.audit ??= computeEnergyAudit(
+      this.compiled,
+      { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState },
+      (b, y, t) => this.fluxDerivative(b, y, t, -1),
+    );
     return this.audit;
   }
 
@@ -374,7 +396,7 @@ export class SimulationResult {
       s = new Float64Array(this.time.length);
       for (let k = 0; k < s.length; k++) {
         const piece = this.sampleInterval[k]!;
-        const p = this.pieces[piece];
+        const p = this.intervals[piece];
         if (p) this.compiled.inputs.setInterval(p.start, p.end);
         s[k] = fn(this.states[k]!, this.time[k]!, piece);
       }
@@ -487,27 +509,4 @@ export class SimulationResult {
 function describe(v: unknown): string {
   if (v && typeof v === 'object' && 'kind' in v) return `a ${String((v as { kind: unknown }).kind)}`;
   return v === undefined ? 'nothing' : typeof v;
-}
-
-/** Merge the pieces' accepted steps and/or output samples into one series. */
-function collectSamples(pieces: readonly SolutionPiece[], includeSteps: boolean): { time: Float64Array; states: Float64Array[]; piece: Int32Array } {
-  const time: number[] = [];
-  const states: Float64Array[] = [];
-  const piece: number[] = [];
-  pieces.forEach((p, k) => {
-    const sol = p.solution;
-    const samples: { t: number; y: Float64Array }[] = [];
-    if (includeSteps) sol.t.forEach((t, j) => samples.push({ t, y: sol.y[j]! }));
-    sol.output.t.forEach((t, j) => samples.push({ t, y: sol.output.y[j]! }));
-    samples.sort((a, b) => a.t - b.t);
-    let last = -Infinity;
-    for (const s of samples) {
-      if (s.t === last) continue; // a grid time that is also a step
-      last = s.t;
-      time.push(s.t);
-      states.push(s.y);
-      piece.push(k);
-    }
-  });
-  return { time: Float64Array.from(time), states, piece: Int32Array.from(piece) };
 }
