@@ -118,7 +118,7 @@ export type {
 export { simulate } from './simulate.js';
 export type { SimulateOptions, AbsoluteTolerances, Sampling, SimulationProgress } from './simulate.js';
 export { SimulationResult } from './result/simulation-result.js';
-export type { SimulationFailure, SimulationResultInit } from './result/simulation-result.js';
+export type { SimulationFailure } from './result/simulation-result.js';
 export type { EnergyAudit } from './result/energy-audit.js';
 export type { ExportColumn, CsvOptions, ResultJson } from './result/export.js';
 // Analysis: metrics on sampled time series

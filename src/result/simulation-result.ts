@@ -26,7 +26,11 @@ export interface SimulationFailure {
   readonly cause?: unknown;
 }
 
-/** Construction data of a {@link SimulationResult} (internal: built by `simulate`). */
+/**
+ * Construction data of a {@link SimulationResult} (built by `simulate`).
+ *
+ * @internal
+ */
 export interface SimulationResultInit {
   readonly compiled: CompiledNetwork;
   readonly networkId: number | undefined;
@@ -100,7 +104,11 @@ export class SimulationResult {
   private audit: EnergyAudit | undefined;
   private readonly functionals = new Map<string, Float64Array | undefined>();
 
-  /** Built by `simulate`. */
+  /**
+   * Built by `simulate`.
+   *
+   * @internal
+   */
   constructor(init: SimulationResultInit) {
     this.compiled = init.compiled;
     this.networkId = init.networkId;
