@@ -189,3 +189,4 @@ export { eCoreLayout, type ECoreInput } from './geometry/e-core-layout.js';
 export { threeLimbLayout, type ThreeLimbInput, type PhaseLimb } from './geometry/three-limb-layout.js';
 export { fiveLimbLayout, type FiveLimbInput } from './geometry/five-limb-layout.js';
 export { addCoreLayout, type AddCoreLayoutOptions, type CoreHandles } from './network/add-core-layout.js';
+export { QUANTITY_UNITS, type QuantityRequest, type QuantityName } from './result/state-reader.js';

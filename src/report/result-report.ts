@@ -85,27 +85,10 @@ function defaultPlots(
   return plots;
 }
 
-function values(r: SimulationResult, c: ExportColumn): Float64Array {
-  switch (c.quantity) {
-    case 'flux': return r.flux(c.handle);
-    case 'fluxDensity': return r.fluxDensity(c.handle);
-    case 'fieldStrength': return r.fieldStrength(c.handle);
-    case 'mmf': return r.mmf(c.handle);
-    case 'eddyPower': return r.eddyPower(c.handle);
-    case 'current': return r.current(c.handle);
-    case 'voltage': return r.voltage(c.handle);
-    case 'power': return r.power(c.handle);
-    case 'emf': return r.emf(c.handle);
-    case 'fluxLinkage': return r.fluxLinkage(c.handle);
-    case 'potential': return r.potential(c.handle);
-    case 'magneticPotential': return r.magneticPotential(c.handle);
-  }
-}
-
 function plotGroup(r: SimulationResult, p: ResultPlot): PlotGroup {
   const series: PlotSeries[] = p.series.map((c) => {
     const [quantity, unit] = LABEL[c.quantity];
-    return { label: c.label ?? c.handle.name, unit, quantity, t: r.time, values: values(r, c) };
+    return { label: c.label ?? c.handle.name, unit, quantity, t: r.time, values: r.read(c) };
   });
   const saturation = new Set<number>();
   if (p.saturationLines ?? true) {

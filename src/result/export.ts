@@ -1,16 +1,12 @@
 import type { NetworkDescription } from '../network/description.js';
-import type { AnyHandle, ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from '../network/handles.js';
+import type { AnyHandle, TwoTerminal } from '../network/handles.js';
+import { QUANTITY_UNITS, type QuantityRequest } from './state-reader.js';
 import type { SolverStats, DaeStatus } from '../solver/types.js';
 import type { EnergyAudit } from './energy-audit.js';
 import type { SimulationResult } from './simulation-result.js';
 
-/** Quantities that can be exported, with the handle kinds they apply to. */
-export type ExportColumn =
-  | { readonly quantity: 'flux' | 'fluxDensity' | 'fieldStrength' | 'mmf' | 'eddyPower'; readonly handle: FluxTube; readonly label?: string }
-  | { readonly quantity: 'current' | 'voltage' | 'power'; readonly handle: TwoTerminal; readonly label?: string }
-  | { readonly quantity: 'emf' | 'fluxLinkage'; readonly handle: Winding; readonly label?: string }
-  | { readonly quantity: 'potential'; readonly handle: ElectricNode; readonly label?: string }
-  | { readonly quantity: 'magneticPotential'; readonly handle: MagneticNode; readonly label?: string };
+/** A column of an export: a quantity of a handle, with an optional label. */
+export type ExportColumn = QuantityRequest & { readonly label?: string };
 
 /** Options of {@link SimulationResult.toCSV}. */
 export interface CsvOptions {
@@ -19,11 +15,6 @@ export interface CsvOptions {
   /** Field separator. Default ','. */
   readonly separator?: string;
 }
-
-const UNITS: Record<ExportColumn['quantity'], string> = {
-  flux: 'Wb', fluxDensity: 'T', fieldStrength: 'A/m', mmf: 'A', eddyPower: 'W',
-  current: 'A', voltage: 'V', power: 'W', emf: 'V', fluxLinkage: 'Wb', potential: 'V', magneticPotential: 'A',
-};
 
 /** Default export columns of a result. */
 export function defaultColumns(network: NetworkDescription, networkId: number): ExportColumn[] {
@@ -42,24 +33,11 @@ export function defaultColumns(network: NetworkDescription, networkId: number): 
 }
 
 function columnLabel(c: ExportColumn): string {
-  return c.label ?? `${c.quantity} ${c.handle.name} [${UNITS[c.quantity]}]`;
+  return c.label ?? `${c.quantity} ${c.handle.name} [${QUANTITY_UNITS[c.quantity]}]`;
 }
 
 function columnValues(r: SimulationResult, c: ExportColumn): Float64Array {
-  switch (c.quantity) {
-    case 'flux': return r.flux(c.handle);
-    case 'fluxDensity': return r.fluxDensity(c.handle);
-    case 'fieldStrength': return r.fieldStrength(c.handle);
-    case 'mmf': return r.mmf(c.handle);
-    case 'eddyPower': return r.eddyPower(c.handle);
-    case 'current': return r.current(c.handle);
-    case 'voltage': return r.voltage(c.handle);
-    case 'power': return r.power(c.handle);
-    case 'emf': return r.emf(c.handle);
-    case 'fluxLinkage': return r.fluxLinkage(c.handle);
-    case 'potential': return r.potential(c.handle);
-    case 'magneticPotential': return r.magneticPotential(c.handle);
-  }
+  return r.read(c);
 }
 
 function csvField(text: string, sep: string): string {
@@ -104,7 +82,7 @@ export function resultToJson(r: SimulationResult): ResultJson {
       label: columnLabel(c),
       quantity: c.quantity,
       element: c.handle.name,
-      unit: UNITS[c.quantity],
+      unit: QUANTITY_UNITS[c.quantity],
       values: Array.from(columnValues(r, c)),
     })),
   };

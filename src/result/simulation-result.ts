@@ -1,15 +1,8 @@
 import { InputError } from '../errors.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import { derivativeFunctional } from '../formulation/derivative-functional.js';
-import type { ElementDescription, NetworkDescription } from '../network/description.js';
-import type {
-  AnyHandle,
-  ElectricNode,
-  FluxTube,
-  MagneticNode,
-  TwoTerminal,
-  Winding,
-} from '../network/handles.js';
+import type { NetworkDescription } from '../network/description.js';
+import type { ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from '../network/handles.js';
+import { StateReader, type QuantityRequest } from './state-reader.js';
 import type { DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import type { RecordedStep } from '../simulation/recorded-step.js';
 import type { RunSample } from '../simulation/network-run.js';
@@ -102,7 +95,7 @@ export class SimulationResult {
   private readonly initialState: Float64Array | undefined;
   private readonly cache = new Map<string, Float64Array>();
   private audit: EnergyAudit | undefined;
-  private readonly functionals = new Map<string, Float64Array | undefined>();
+  private readonly reader: StateReader;
 
   /**
    * Built by `simulate`.
@@ -112,6 +105,7 @@ export class SimulationResult {
   constructor(init: SimulationResultInit) {
     this.compiled = init.compiled;
     this.networkId = init.networkId;
+    this.reader = new StateReader(init.compiled, init.networkId);
     this.network = init.compiled.description;
     this.intervals = init.intervals;
     this.steps = init.steps;
@@ -158,8 +152,7 @@ export class SimulationResult {
    * ```
    */
   flux(tube: FluxTube): Float64Array {
-    const b = this.tubeIndex(tube);
-    return this.series(`flux:${b}`, (y) => this.compiled.tubeFlux(y, b));
+    return this.read({ quantity: 'flux', handle: tube });
   }
 
   /**
@@ -172,12 +165,7 @@ export class SimulationResult {
    * ```
    */
   fluxDensity(tube: FluxTube): Float64Array {
-    const b = this.tubeIndex(tube);
-    const area = this.compiled.tubes[b]!.area;
-    if (!Number.isFinite(area)) {
-      throw new InputError('no-area', `tube "${tube.name}" has no area, so it has no flux density; give the reluctance an area or read its flux`, [tube.name]);
-    }
-    return this.series(`B:${b}`, (y) => this.compiled.tubeFlux(y, b) / area);
+    return this.read({ quantity: 'fluxDensity', handle: tube });
   }
 
   /**
@@ -189,12 +177,7 @@ export class SimulationResult {
    * ```
    */
   fieldStrength(tube: FluxTube): Float64Array {
-    const b = this.tubeIndex(tube);
-    const t = this.compiled.tubes[b]!;
-    if (!Number.isFinite(t.length)) {
-      throw new InputError('no-length', `tube "${tube.name}" is a reluctance without a length, so it has no field strength; read its mmf instead`, [tube.name]);
-    }
-    return this.series(`H:${b}`, (y) => this.compiled.tubeMmf(b, this.compiled.tubeFlux(y, b)) / t.length);
+    return this.read({ quantity: 'fieldStrength', handle: tube });
   }
 
   /**
@@ -207,8 +190,7 @@ export class SimulationResult {
    * ```
    */
   mmf(tube: FluxTube): Float64Array {
-    const b = this.tubeIndex(tube);
-    return this.series(`mmf:${b}`, (y, t, piece) => this.tubeDrop(b, y, t, piece));
+    return this.read({ quantity: 'mmf', handle: tube });
   }
 
   /**
@@ -220,13 +202,7 @@ export class SimulationResult {
    * ```
    */
   eddyPower(tube: FluxTube): Float64Array {
-    const b = this.tubeIndex(tube);
-    const re = this.compiled.tubes[b]!.eddyResistance;
-    return this.series(`eddy:${b}`, (y, t, piece) => {
-      if (re === 0) return 0;
-      const d = this.fluxDerivative(b, y, t, piece);
-      return re * d * d;
-    });
+    return this.read({ quantity: 'eddyPower', handle: tube });
   }
 
   /**
@@ -239,21 +215,7 @@ export class SimulationResult {
    * ```
    */
   magneticPotential(node: MagneticNode): Float64Array {
-    const k = this.checkHandle(node, 'magnetic-node').index;
-    const loops = this.compiled.loops;
-    return this.series(`U:${k}`, (y, t, piece) => {
-      // Walk up the tree to the root, adding the net drop (tube drop - winding MMF) of each tube.
-      let u = 0;
-      for (let at = k; loops.parentTube[at]! >= 0; ) {
-        const b = loops.parentTube[at]!;
-        const tube = this.network.tubes[b]!;
-        const drop = this.tubeDrop(b, y, t, piece) - this.windingMmf(b, y);
-        // u(from) - u(to) = drop. If `at` is the tube's `to` end, u(at) = u(parent) - drop.
-        u += loops.parentIsTo[at] ? -drop : drop;
-        at = loops.parentIsTo[at] ? tube.from : tube.to;
-      }
-      return u;
-    });
+    return this.read({ quantity: 'magneticPotential', handle: node });
   }
 
   /**
@@ -265,9 +227,7 @@ export class SimulationResult {
    * ```
    */
   potential(node: ElectricNode): Float64Array {
-    const k = this.checkHandle(node, 'electric-node').index;
-    const i = this.compiled.layout.potential[k]!;
-    return this.series(`v:${k}`, (y) => (i < 0 ? 0 : y[i]!));
+    return this.read({ quantity: 'potential', handle: node });
   }
 
   /**
@@ -279,8 +239,7 @@ export class SimulationResult {
    * ```
    */
   voltage(element: TwoTerminal): Float64Array {
-    const e = this.elementIndex(element);
-    return this.series(`u:${e}`, (y) => this.elementVoltage(e, y));
+    return this.read({ quantity: 'voltage', handle: element });
   }
 
   /**
@@ -293,8 +252,7 @@ export class SimulationResult {
    * ```
    */
   current(element: TwoTerminal): Float64Array {
-    const e = this.elementIndex(element);
-    return this.series(`i:${e}`, (y, t, piece) => this.elementCurrent(e, y, t, piece));
+    return this.read({ quantity: 'current', handle: element });
   }
 
   /**
@@ -306,8 +264,7 @@ export class SimulationResult {
    * ```
    */
   power(element: TwoTerminal): Float64Array {
-    const e = this.elementIndex(element);
-    return this.series(`p:${e}`, (y, t, piece) => this.elementVoltage(e, y) * this.elementCurrent(e, y, t, piece));
+    return this.read({ quantity: 'power', handle: element });
   }
 
   /**
@@ -319,9 +276,7 @@ export class SimulationResult {
    * ```
    */
   emf(winding: Winding): Float64Array {
-    const e = this.checkHandle(winding, 'winding').index;
-    const w = this.network.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
-    return this.series(`emf:${e}`, (y) => this.elementVoltage(e, y) - w.resistance * y[this.compiled.layout.branchCurrent[e]!]!);
+    return this.read({ quantity: 'emf', handle: winding });
   }
 
   /**
@@ -333,9 +288,7 @@ export class SimulationResult {
    * ```
    */
   fluxLinkage(winding: Winding): Float64Array {
-    const e = this.checkHandle(winding, 'winding').index;
-    const w = this.network.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
-    return this.series(`link:${e}`, (y) => w.orientation * w.turns * this.compiled.tubeFlux(y, w.tube));
+    return this.read({ quantity: 'fluxLinkage', handle: winding });
   }
 
   /**
@@ -353,7 +306,7 @@ export class SimulationResult {
     this.audit ??= computeEnergyAudit(
       this.compiled,
       { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState },
-      (b, y, t) => this.fluxDerivative(b, y, t, -1),
+      (b, y, t) => this.reader.fluxDerivative(b, y, t),
     );
     return this.audit;
   }
@@ -398,123 +351,29 @@ export class SimulationResult {
     return resultToJson(this);
   }
 
-  private series(key: string, fn: (y: Float64Array, t: number, piece: number) => number): Float64Array {
+  /**
+   * Any quantity by request, e.g. `r.read({ quantity: 'fluxDensity', handle: leg })`.
+   *
+   * @example
+   * ```ts
+   * const cols = [{ quantity: 'current', handle: primary }] as const;
+   * const i = r.read(cols[0]);
+   * ```
+   */
+  read(request: QuantityRequest): Float64Array {
+    const key = `${request.quantity}:${request.handle.kind}:${request.handle.index}`;
     let s = this.cache.get(key);
     if (!s) {
+      const fn = this.reader.build(request);
       s = new Float64Array(this.time.length);
       for (let k = 0; k < s.length; k++) {
-        const piece = this.sampleInterval[k]!;
-        const p = this.intervals[piece];
+        const p = this.intervals[this.sampleInterval[k]!];
         if (p) this.compiled.inputs.setInterval(p.start, p.end);
-        s[k] = fn(this.states[k]!, this.time[k]!, piece);
+        s[k] = fn(this.states[k]!, this.time[k]!);
       }
       this.cache.set(key, s);
     }
     return s;
   }
 
-  private elementVoltage(e: number, y: Float64Array): number {
-    const el = this.network.elements[e]!;
-    const ip = this.compiled.layout.potential[el.plus]!;
-    const im = this.compiled.layout.potential[el.minus]!;
-    return (ip < 0 ? 0 : y[ip]!) - (im < 0 ? 0 : y[im]!);
-  }
-
-  private elementCurrent(e: number, y: Float64Array, t: number, piece: number): number {
-    const el = this.network.elements[e]!;
-    switch (el.kind) {
-      case 'resistor':
-        return this.elementVoltage(e, y) / el.resistance;
-      case 'switch':
-        return this.elementVoltage(e, y) / (this.compiled.inputs.switchClosed(e, t) ? el.onResistance : el.offResistance);
-      case 'current-source':
-        return this.compiled.inputs.sourceValue(e, t);
-      case 'capacitor': {
-        const n = this.compiled.layout.size;
-        const u = new Float64Array(n);
-        const ip = this.compiled.layout.potential[el.plus]!;
-        const im = this.compiled.layout.potential[el.minus]!;
-        if (ip >= 0) u[ip] = el.capacitance;
-        if (im >= 0) u[im] = -el.capacitance;
-        return this.applyFunctional(`cap:${e}`, u, y, t, piece);
-      }
-      case 'voltage-source':
-      case 'inductor':
-      case 'winding':
-        return y[this.compiled.layout.branchCurrent[e]!]!;
-    }
-  }
-
-  /** MMF of the windings on tube b (orientation * N * i summed), A. */
-  private windingMmf(b: number, y: Float64Array): number {
-    let s = 0;
-    this.network.elements.forEach((el, e) => {
-      if (el.kind === 'winding' && el.tube === b) s += el.orientation * el.turns * y[this.compiled.layout.branchCurrent[e]!]!;
-    });
-    return s;
-  }
-
-  private tubeDrop(b: number, y: Float64Array, t: number, piece: number): number {
-    const phi = this.compiled.tubeFlux(y, b);
-    const re = this.compiled.tubes[b]!.eddyResistance;
-    return this.compiled.tubeMmf(b, phi) + (re === 0 ? 0 : re * this.fluxDerivative(b, y, t, piece));
-  }
-
-  /** dphi_b/dt from the state, for tubes whose flux derivative M y' = f determines (wound or eddy tubes). */
-  private fluxDerivative(b: number, y: Float64Array, t: number, piece: number): number {
-    const n = this.compiled.layout.size;
-    const u = new Float64Array(n);
-    for (const en of this.compiled.loops.tubeLoops[b]!) u[this.compiled.layout.loopOffset + en.loop] = en.sign;
-    return this.applyFunctional(`dphi:${b}`, u, y, t, piece);
-  }
-
-  private applyFunctional(key: string, u: Float64Array, y: Float64Array, t: number, _piece: number): number {
-    if (!this.functionals.has(key)) {
-      this.functionals.set(key, derivativeFunctional(this.compiled.mass, this.compiled.layout.size, u));
-    }
-    const w = this.functionals.get(key);
-    if (!w) return NaN;
-    const f = new Float64Array(this.compiled.layout.size);
-    this.compiled.rhs(t, y, f);
-    let s = 0;
-    for (let i = 0; i < f.length; i++) s += w[i]! * f[i]!;
-    return s;
-  }
-
-  private tubeIndex(tube: FluxTube): number {
-    return this.checkHandle(tube, 'flux-tube').index;
-  }
-
-  private elementIndex(element: TwoTerminal): number {
-    const kinds = ['resistor', 'capacitor', 'inductor', 'voltage-source', 'current-source', 'switch', 'winding'];
-    if (!element || typeof element !== 'object' || !kinds.includes(element.kind)) {
-      throw new InputError('wrong-handle-kind', `expected a two-terminal element or winding handle, got ${describe(element)}`, []);
-    }
-    return this.checkHandle(element, element.kind).index;
-  }
-
-  private checkHandle<K extends AnyHandle['kind']>(handle: AnyHandle, kind: K): Extract<AnyHandle, { kind: K }> {
-    if (!handle || typeof handle !== 'object' || handle.kind !== kind) {
-      throw new InputError('wrong-handle-kind', `expected a ${kind} handle, got ${describe(handle)}`, []);
-    }
-    const list = kind === 'electric-node' ? this.network.electricNodes
-      : kind === 'magnetic-node' ? this.network.magneticNodes
-      : kind === 'flux-tube' ? this.network.tubes
-      : this.network.elements;
-    const entry = list[handle.index];
-    const sameNetwork = this.networkId === undefined || handle.network === this.networkId;
-    if (!entry || entry.name !== handle.name || !sameNetwork) {
-      throw new InputError(
-        'foreign-handle',
-        `${kind} "${handle.name}" is not part of the simulated network "${this.network.name}"; read results with handles of the network you simulated`,
-        [handle.name],
-      );
-    }
-    return handle as Extract<AnyHandle, { kind: K }>;
-  }
-}
-
-function describe(v: unknown): string {
-  if (v && typeof v === 'object' && 'kind' in v) return `a ${String((v as { kind: unknown }).kind)}`;
-  return v === undefined ? 'nothing' : typeof v;
 }
