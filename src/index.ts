@@ -190,3 +190,4 @@ export { threeLimbLayout, type ThreeLimbInput, type PhaseLimb } from './geometry
 export { fiveLimbLayout, type FiveLimbInput } from './geometry/five-limb-layout.js';
 export { addCoreLayout, type AddCoreLayoutOptions, type CoreHandles } from './network/add-core-layout.js';
 export { QUANTITY_UNITS, type QuantityRequest, type QuantityName } from './result/state-reader.js';
+export { createStepper, NetworkStepper, type StepperOptions, type StepperSnapshot, type Threshold } from './stepping/network-stepper.js';

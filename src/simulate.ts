@@ -179,7 +179,8 @@ function checkOptions(o: SimulateOptions, t0: number, tEnd: number): void {
   if (o.maxWallTimeMs !== undefined && !(o.maxWallTimeMs > 0)) bad('bad-option', `maxWallTimeMs ${o.maxWallTimeMs} must be > 0`);
 }
 
-function absoluteTolerances(c: CompiledNetwork, atol: SimulateOptions['atol']): Float64Array | number {
+/** Per-unknown absolute tolerances from the options (internal; shared with the stepper). */
+export function absoluteTolerances(c: CompiledNetwork, atol: SimulateOptions['atol']): Float64Array | number {
   if (typeof atol === 'number') return atol;
   const voltage = atol?.voltage ?? 1e-6;
   const current = atol?.current ?? 1e-6;

@@ -1,6 +1,13 @@
 import type { NetworkDescription } from '../network/description.js';
-import { compileWaveform } from '../waveforms/waveform-spec.js';
+import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { Waveform } from '../waveforms/waveform.js';
+
+/** What embedding code changed in a network's inputs (plain data). */
+export interface InputState {
+  readonly sourceOverride: readonly (number | undefined)[];
+  readonly switchOverride: readonly (boolean | undefined)[];
+  readonly waveforms: readonly (readonly [number, WaveformSpec])[];
+}
 
 /** The float next above x (x finite). */
 export function nextUp(x: number): number {
@@ -29,6 +36,8 @@ export function nextDown(x: number): number {
  */
 export class NetworkInputs {
   private readonly waveforms: (Waveform | undefined)[];
+  /** Waveforms given by embedding code in place of the description's (by element). */
+  private readonly replaced = new Map<number, WaveformSpec>();
   private readonly sourceOverride: (number | undefined)[];
   private readonly switchOverride: (boolean | undefined)[];
   private readonly switchInitial: boolean[];
@@ -75,9 +84,15 @@ export class NetworkInputs {
     if (o !== undefined) return o;
     const ts = this.sided(t);
     const toggles = this.switchToggles[e]!;
-    let count = 0;
-    while (count < toggles.length && toggles[count]! <= ts) count++;
-    return this.switchInitial[e]! !== (count % 2 === 1);
+    // Number of toggles at or before ts (binary search: schedules can be long).
+    let lo = 0;
+    let hi = toggles.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (toggles[mid]! <= ts) lo = mid + 1;
+      else hi = mid;
+    }
+    return this.switchInitial[e]! !== (lo % 2 === 1);
   }
 
   /** Hold a source at a fixed value (embedding), or undefined to follow its waveform again. */
@@ -90,13 +105,49 @@ export class NetworkInputs {
     this.switchOverride[e] = closed;
   }
 
+  /** Replace a source's waveform (embedding: a new duty cycle, amplitude or phase); validated here. */
+  replaceWaveform(e: number, spec: WaveformSpec): void {
+    const el = this.description.elements[e]!;
+    this.waveforms[e] = compileWaveform(spec, `${el.kind.replace('-', ' ')} "${el.name}"`);
+    this.replaced.set(e, spec);
+    this.sourceOverride[e] = undefined;
+  }
+
+  /** Plain-data copy of everything embedding code changed (overrides, replaced waveforms). */
+  state(): InputState {
+    return {
+      sourceOverride: [...this.sourceOverride],
+      switchOverride: [...this.switchOverride],
+      waveforms: [...this.replaced.entries()],
+    };
+  }
+
+  /** Go back to a state from {@link NetworkInputs.state}. */
+  setState(state: InputState): void {
+    state.sourceOverride.forEach((v, e) => (this.sourceOverride[e] = v));
+    state.switchOverride.forEach((v, e) => (this.switchOverride[e] = v));
+    for (const e of [...this.replaced.keys()]) {
+      if (!state.waveforms.some(([k]) => k === e)) {
+        const el = this.description.elements[e]!;
+        if (el.kind === 'voltage-source' || el.kind === 'current-source') {
+          this.waveforms[e] = compileWaveform(el.waveform, `${el.kind.replace('-', ' ')} "${el.name}"`);
+        }
+        this.replaced.delete(e);
+      }
+    }
+    for (const [e, spec] of state.waveforms) this.replaceWaveform(e, spec);
+    state.sourceOverride.forEach((v, e) => (this.sourceOverride[e] = v));
+  }
+
   /** Sorted, distinct times in (t0, t1) where an input jumps or kinks. */
   breakpoints(t0: number, t1: number): number[] {
     const all: number[] = [];
     this.description.elements.forEach((el, e) => {
       const w = this.waveforms[e];
       if (w && this.sourceOverride[e] === undefined) all.push(...w.breakpoints(t0, t1));
-      if (el.kind === 'switch' && this.switchOverride[e] === undefined) all.push(...this.switchToggles[e]!);
+      if (el.kind === 'switch' && this.switchOverride[e] === undefined) {
+        for (const t of this.switchToggles[e]!) if (t > t0 && t < t1) all.push(t);
+      }
     });
     all.sort((x, y) => x - y);
     const out: number[] = [];

@@ -3,6 +3,8 @@ import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } from '../solver/dae-integrator.js';
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
+import type { InputState } from '../formulation/network-inputs.js';
+import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 
 /** Solver settings of a run (already resolved from the user's options). */
 export interface RunSettings {
@@ -21,6 +23,15 @@ export interface RunSettings {
   readonly events?: readonly DaeEvent[];
   /** Initial state to use instead of the network's initial conditions (raw state vector). */
   readonly initialState?: ArrayLike<number>;
+}
+
+/** A run's restorable state (plain data). */
+export interface RunSnapshot {
+  readonly integrator: DaeIntegratorSnapshot;
+  readonly interval: { readonly start: number; readonly end: number };
+  readonly inputs: InputState;
+  readonly status: 'running' | DaeStatus;
+  readonly inputsChanged: boolean;
 }
 
 /** One stored sample. */
@@ -225,19 +236,47 @@ export class NetworkRun {
     return this.statusCur;
   }
 
-  /** Copy of the run's state for what-if runs (recorded data is not part of it). */
-  snapshot(): { integrator: DaeIntegratorSnapshot; interval: { start: number; end: number } } {
+  /** Copy of the run's state for what-if runs: integrator, input interval and input changes (plain data). */
+  snapshot(): RunSnapshot {
     const last = this.intervals[this.intervals.length - 1]!;
-    return { integrator: this.integ.snapshot(), interval: { ...last } };
+    return {
+      integrator: this.integ.snapshot(),
+      interval: { ...last },
+      inputs: this.compiled.inputs.state(),
+      status: this.statusCur,
+      inputsChanged: this.inputsChanged,
+    };
   }
 
-  /** Continue from a snapshot of this run. */
-  restore(s: { integrator: DaeIntegratorSnapshot; interval: { start: number; end: number } }): void {
+  /**
+   * Continue from a snapshot of this run. Recorded samples and steps after
+   * the snapshot's time are dropped, so the record stays one history.
+   */
+  restore(s: RunSnapshot): void {
     this.integ.restore(s.integrator);
+    this.compiled.inputs.setState(s.inputs);
+    const t = s.integrator.t;
+    while (this.samples.length > 0 && this.samples[this.samples.length - 1]!.t > t) this.samples.pop();
+    while (this.steps.length > 0 && this.steps[this.steps.length - 1]!.t > t) this.steps.pop();
+    while (this.events.length > 0 && this.events[this.events.length - 1]!.t > t) this.events.pop();
     this.intervals.push({ ...s.interval });
     this.compiled.inputs.setInterval(s.interval.start, s.interval.end);
-    this.statusCur = this.integ.status;
-    this.restartPending = true;
+    this.statusCur = s.status;
+    this.inputsChanged = s.inputsChanged;
+  }
+
+  /** After a terminal event: continue from the event time (inputs may have changed), re-initialising there. */
+  resume(record: RecordOptions): 'running' | DaeStatus {
+    if (this.statusCur !== 'terminal-event') return this.statusCur;
+    this.inputsChanged = false;
+    if (this.startInterval(this.t) === 'running') this.recordStart(record);
+    return this.statusCur;
+  }
+
+  /** Replace a source's waveform from now on. */
+  replaceWaveform(element: number, spec: WaveformSpec): void {
+    this.compiled.inputs.replaceWaveform(element, spec);
+    this.inputsChanged = true;
   }
 
   /** The first input breakpoint after t (searched in growing windows, so long periodic drives stay cheap). */
@@ -253,7 +292,7 @@ export class NetworkRun {
   }
 
   /** Begin a new input interval at time t: tell the inputs, re-initialise consistently. */
-  private startInterval(t: number): void {
+  private startInterval(t: number): 'running' | DaeStatus {
     const previous = this.intervals[this.intervals.length - 1];
     if (previous && Number.isFinite(previous.end)) this.lastIntervalLength = previous.end - previous.start;
     const next = this.nextBreakpoint(t);
@@ -262,6 +301,7 @@ export class NetworkRun {
     this.statusCur = this.integ.restart();
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     this.restartPending = true;
+    return this.statusCur;
   }
 
   /** State at the start of the run, after consistent initialisation (undefined before the first advance). */

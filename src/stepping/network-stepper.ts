@@ -1,0 +1,455 @@
+import { InputError } from '../errors.js';
+import { compileNetwork, type CompiledNetwork } from '../formulation/compile-network.js';
+import type { NetworkBuilder } from '../network/network-builder.js';
+import type { NetworkDescription } from '../network/description.js';
+import type { CurrentSource, ElectricNode, FluxTube, Switch, TwoTerminal, VoltageSource } from '../network/handles.js';
+import { SimulationResult } from '../result/simulation-result.js';
+import { StateReader, type QuantityRequest, type StateFunction } from '../result/state-reader.js';
+import { NetworkRun, type RecordOptions, type RunSnapshot } from '../simulation/network-run.js';
+import type { DaeEvent, DaeStatus, SolverStats } from '../solver/types.js';
+import type { WaveformSpec } from '../waveforms/waveform-spec.js';
+import { absoluteTolerances, type AbsoluteTolerances } from '../simulate.js';
+
+/** A level crossing watched during the run (located on the dense output). */
+export interface Threshold {
+  /** Name for messages and the callback. */
+  readonly name: string;
+  /** The quantity watched (any state quantity: flux density of a tube, current of a winding...). */
+  readonly watch: QuantityRequest;
+  /** The level, in the quantity's SI unit. */
+  readonly level: number;
+  /** Which crossings count. Default `'both'`. */
+  readonly direction?: 'rising' | 'falling' | 'both';
+  /**
+   * Called at the crossing, with the stepper standing at the crossing time;
+   * it may change inputs (they take effect from that instant).
+   */
+  readonly onCross: (stepper: NetworkStepper, crossing: { readonly name: string; readonly time: number; readonly rising: boolean }) => void;
+}
+
+/** Options of {@link createStepper}. */
+export interface StepperOptions {
+  /** Start time, s. Default 0. */
+  readonly startTime?: number;
+  /** Latest time the stepper may reach, s (the solver's span). */
+  readonly horizon: number;
+  /** Relative tolerance. Default 1e-6. */
+  readonly rtol?: number;
+  /** Absolute tolerances (see `simulate`). */
+  readonly atol?: number | AbsoluteTolerances;
+  /** Largest solver step, s. */
+  readonly maxStep?: number;
+  /** First step to try, s. */
+  readonly initialStep?: number;
+  /** Budget of solver steps over the stepper's life. Default 1e7. */
+  readonly maxSteps?: number;
+  /** Wall-time budget over the stepper's life, ms. */
+  readonly maxWallTimeMs?: number;
+  /** Cancels the run. */
+  readonly signal?: AbortSignal;
+  /** Raw state to start from instead of the network's initial conditions. */
+  readonly initialState?: ArrayLike<number>;
+  /** Keep the history (solver steps) so that {@link NetworkStepper.result} can return it. Default true. */
+  readonly record?: boolean;
+  /** Level crossings to watch. */
+  readonly thresholds?: readonly Threshold[];
+}
+
+/** A controller called at a fixed sample period. */
+interface PeriodicController {
+  readonly id: number;
+  readonly period: number;
+  next: number;
+  readonly onSample: (stepper: NetworkStepper) => void;
+}
+
+/** Restorable state of a stepper (plain data, structuredClone-able). */
+export interface StepperSnapshot {
+  readonly run: RunSnapshot;
+  readonly controllers: readonly { readonly id: number; readonly next: number }[];
+  readonly stopTimes: readonly number[];
+}
+
+/**
+ * The stepping interface for embedding a magnetic device in a larger model
+ * (a converter, a controller): advance to a time, read any handle's present
+ * value, change inputs between advances (source set-points, waveforms such as
+ * a duty cycle, switch states), add stop times, call controllers at a fixed
+ * sample period or when a quantity crosses a level, snapshot and restore.
+ *
+ * Every input change takes effect at the present time: the solver
+ * re-initialises there, so an algebraic jump (a switch closing) is exact.
+ *
+ * @example
+ * ```ts
+ * const stepper = createStepper(net, { horizon: 0.1 });
+ * stepper.every(1e-4, (s) => {
+ *   const b = s.value({ quantity: 'fluxDensity', handle: leg });
+ *   s.setSource(bias, b > 0.3 ? 0 : 2); // a crude controller
+ * });
+ * stepper.advanceTo(0.05);
+ * console.log(stepper.time, stepper.value({ quantity: 'current', handle: primary }));
+ * const history = stepper.result();
+ * ```
+ */
+export class NetworkStepper {
+  private readonly compiled: CompiledNetwork;
+  private readonly run: NetworkRun;
+  private readonly reader: StateReader;
+  private readonly networkId: number | undefined;
+  private readonly record: RecordOptions;
+  private readonly controllers: PeriodicController[] = [];
+  private stopTimes: number[] = [];
+  private nextControllerId = 1;
+  private readonly thresholds: readonly Threshold[];
+  private readonly horizon: number;
+  private inCallback = false;
+
+  /** Use {@link createStepper}. */
+  constructor(network: NetworkBuilder | NetworkDescription, options: StepperOptions) {
+    const description = 'describe' in network ? network.describe() : network;
+    this.networkId = 'describe' in network ? network.id : undefined;
+    this.compiled = compileNetwork(description);
+    this.reader = new StateReader(this.compiled, this.networkId);
+    const t0 = options.startTime ?? 0;
+    if (!Number.isFinite(t0)) throw new InputError('bad-option', `stepper options: startTime ${t0} is not finite`, ['options']);
+    if (!(Number.isFinite(options.horizon) && options.horizon > t0)) {
+      throw new InputError('bad-time-span', `stepper options: horizon ${options.horizon} s must be a finite time after startTime ${t0} s`, ['options']);
+    }
+    this.horizon = options.horizon;
+    this.thresholds = options.thresholds ?? [];
+    const events: DaeEvent[] = this.thresholds.map((th) => {
+      const fn: StateFunction = this.reader.build(th.watch);
+      if (!Number.isFinite(th.level)) throw new InputError('bad-option', `threshold "${th.name}": level ${th.level} is not finite`, [th.name]);
+      return {
+        name: th.name,
+        fn: (t, y) => fn(y, t) - th.level,
+        direction: th.direction === 'rising' ? 1 : th.direction === 'falling' ? -1 : 0,
+        terminal: true,
+      };
+    });
+    this.record = { steps: options.record ?? true, interpolants: options.record ?? true };
+    this.run = new NetworkRun(this.compiled, {
+      t0,
+      horizon: options.horizon,
+      rtol: options.rtol ?? 1e-6,
+      atol: absoluteTolerances(this.compiled, options.atol),
+      ...(options.maxStep !== undefined ? { maxStep: options.maxStep } : {}),
+      ...(options.initialStep !== undefined ? { initialStep: options.initialStep } : {}),
+      maxSteps: options.maxSteps ?? 1e7,
+      ...(options.maxWallTimeMs !== undefined ? { maxWallTimeMs: options.maxWallTimeMs } : {}),
+      ...(options.signal ? { signal: options.signal } : {}),
+      ...(options.initialState ? { initialState: options.initialState } : {}),
+      events,
+    });
+  }
+
+  /** Present time, s. @example `stepper.time` */
+  get time(): number {
+    return this.run.t;
+  }
+
+  /** `'running'` while the stepper can advance; otherwise why it stopped (see `DaeStatus`). @example `if (stepper.status !== 'running') console.warn(stepper.message);` */
+  get status(): 'running' | DaeStatus {
+    return this.run.status === 'terminal-event' ? 'running' : this.run.status;
+  }
+
+  /** One line on the status. @example `stepper.message` */
+  get message(): string {
+    return this.run.message;
+  }
+
+  /** Solver work so far. @example `stepper.stats.acceptedSteps` */
+  get stats(): SolverStats {
+    return this.run.stats;
+  }
+
+  /** The raw state vector at the present time (a copy). @example `const y = stepper.state;` */
+  get state(): Float64Array {
+    return this.run.y;
+  }
+
+  /**
+   * Present value of any quantity of a handle.
+   *
+   * @example
+   * ```ts
+   * stepper.value({ quantity: 'fluxDensity', handle: leg }); // T
+   * ```
+   */
+  value(request: QuantityRequest): number {
+    const fn = this.reader.build(request);
+    return fn(this.run.y, this.run.t);
+  }
+
+  /** Present flux density of a tube, T. @example `stepper.fluxDensity(leg)` */
+  fluxDensity(tube: FluxTube): number {
+    return this.value({ quantity: 'fluxDensity', handle: tube });
+  }
+
+  /** Present flux of a tube, Wb. @example `stepper.flux(leg)` */
+  flux(tube: FluxTube): number {
+    return this.value({ quantity: 'flux', handle: tube });
+  }
+
+  /** Present current of an element, A (sign conventions as in results). @example `stepper.current(primary)` */
+  current(element: TwoTerminal): number {
+    return this.value({ quantity: 'current', handle: element });
+  }
+
+  /** Present voltage across an element, V. @example `stepper.voltage(load)` */
+  voltage(element: TwoTerminal): number {
+    return this.value({ quantity: 'voltage', handle: element });
+  }
+
+  /** Present potential of a node, V. @example `stepper.potential(a)` */
+  potential(node: ElectricNode): number {
+    return this.value({ quantity: 'potential', handle: node });
+  }
+
+  /**
+   * Hold a source at a set-point from now on (V or A), or give `undefined` to
+   * let it follow its waveform again.
+   *
+   * @example
+   * ```ts
+   * stepper.setSource(bias, 1.2);
+   * ```
+   */
+  setSource(source: VoltageSource | CurrentSource, value: number | undefined): void {
+    const e = this.sourceIndex(source);
+    if (value !== undefined && !Number.isFinite(value)) {
+      throw new InputError('bad-set-point', `set-point ${value} for source "${source.name}" is not finite`, [source.name]);
+    }
+    this.run.overrideSource(e, value);
+  }
+
+  /**
+   * Give a source a new waveform from now on (for example a bipolar square
+   * with a trimmed on-time mismatch). Validated like the builder's.
+   *
+   * @example
+   * ```ts
+   * stepper.setWaveform(drive, bipolarSquare({ amplitude: 24, period: 2e-5, deadTime: 3e-7, mismatch: -1e-8 }));
+   * ```
+   */
+  setWaveform(source: VoltageSource | CurrentSource, spec: WaveformSpec): void {
+    const e = this.sourceIndex(source);
+    this.run.replaceWaveform(e, spec);
+  }
+
+  /**
+   * Hold a switch open or closed from now on, or give `undefined` to let it
+   * follow its schedule again.
+   *
+   * @example
+   * ```ts
+   * stepper.setSwitch(breaker, true);
+   * ```
+   */
+  setSwitch(sw: Switch, closed: boolean | undefined): void {
+    const e = this.reader.checkHandle(sw, 'switch').index;
+    this.run.overrideSwitch(e, closed);
+  }
+
+  /**
+   * Make the solver land exactly on time t when passing it (for example a
+   * known event of the surrounding model).
+   *
+   * @example
+   * ```ts
+   * stepper.addStopTime(0.0125);
+   * ```
+   */
+  addStopTime(t: number): void {
+    if (!(Number.isFinite(t) && t > this.time && t <= this.horizon)) {
+      throw new InputError('bad-stop-time', `stop time ${t} s must lie after the present time ${this.time} s and within the horizon ${this.horizon} s`, ['stopTime']);
+    }
+    this.stopTimes = [...this.stopTimes, t].sort((a, b) => a - b);
+  }
+
+  /**
+   * Call `onSample` every `period` seconds, starting at `start` (default: the
+   * present time plus one period). The callback sees the stepper at the
+   * sample instant and may change inputs. Returns a function that removes
+   * the controller.
+   *
+   * @example
+   * ```ts
+   * const stop = stepper.every(1e-5, (s) => { s.setSource(v, controller(s.fluxDensity(leg))); });
+   * ```
+   */
+  every(period: number, onSample: (stepper: NetworkStepper) => void, start?: number): () => void {
+    if (!(Number.isFinite(period) && period > 0)) throw new InputError('bad-option', `controller period ${period} s must be > 0`, ['period']);
+    const first = start ?? this.time + period;
+    if (!(Number.isFinite(first) && first >= this.time)) {
+      throw new InputError('bad-option', `controller start ${first} s must not lie before the present time ${this.time} s`, ['start']);
+    }
+    const id = this.nextControllerId++;
+    this.controllers.push({ id, period, next: first, onSample });
+    return () => {
+      const k = this.controllers.findIndex((c) => c.id === id);
+      if (k >= 0) this.controllers.splice(k, 1);
+    };
+  }
+
+  /**
+   * Advance to time t, landing on it exactly: runs controllers at their
+   * sample instants, threshold callbacks at their crossings, and stops at
+   * stop times on the way. Returns the status (`'running'` when t was
+   * reached and more can follow).
+   *
+   * @example
+   * ```ts
+   * for (let k = 1; k <= 100; k++) stepper.advanceTo(k * 1e-4);
+   * ```
+   */
+  advanceTo(t: number): 'running' | DaeStatus {
+    if (this.inCallback) throw new InputError('reentrant-advance', 'advanceTo was called from a controller or threshold callback; change inputs there and return', []);
+    if (!(Number.isFinite(t) && t >= this.time && t <= this.horizon)) {
+      throw new InputError('bad-stop-time', `cannot advance to ${t} s: the stepper is at ${this.time} s and its horizon is ${this.horizon} s`, ['t']);
+    }
+    while (this.time < t && this.status === 'running') {
+      const nextController = Math.min(...this.controllers.map((c) => c.next), Infinity);
+      const nextStop = this.stopTimes.find((s) => s > this.time) ?? Infinity;
+      const target = Math.min(t, nextController, nextStop);
+      let status = target > this.time ? this.run.advanceTo(target, this.record) : this.run.status;
+      while (status === 'terminal-event') {
+        this.handleCrossings();
+        status = this.run.resume(this.record);
+        if (status === 'running' && this.time < target) status = this.run.advanceTo(target, this.record);
+      }
+      if (status !== 'running') break;
+      this.stopTimes = this.stopTimes.filter((s) => s > this.time);
+      for (const c of [...this.controllers]) {
+        if (c.next <= this.time) {
+          this.callback(() => c.onSample(this));
+          c.next += c.period;
+          while (c.next <= this.time) c.next += c.period;
+        }
+      }
+    }
+    return this.status;
+  }
+
+  /**
+   * Advance by dt seconds.
+   *
+   * @example
+   * ```ts
+   * stepper.advanceBy(1e-3);
+   * ```
+   */
+  advanceBy(dt: number): 'running' | DaeStatus {
+    return this.advanceTo(this.time + dt);
+  }
+
+  /**
+   * Copy the stepper's state (solver, inputs, controllers' next instants,
+   * stop times) to continue from it later with {@link NetworkStepper.restore}.
+   *
+   * @example
+   * ```ts
+   * const before = stepper.snapshot();
+   * stepper.setSwitch(s1, true); stepper.advanceBy(1e-3); // try one way
+   * stepper.restore(before);                             // and go back
+   * ```
+   */
+  snapshot(): StepperSnapshot {
+    return structuredClone({
+      run: this.run.snapshot(),
+      controllers: this.controllers.map((c) => ({ id: c.id, next: c.next })),
+      stopTimes: [...this.stopTimes],
+    });
+  }
+
+  /**
+   * Continue from a snapshot of this stepper. The recorded history after the
+   * snapshot's time is dropped.
+   *
+   * @example
+   * ```ts
+   * stepper.restore(before);
+   * ```
+   */
+  restore(snapshot: StepperSnapshot): void {
+    this.run.restore(structuredClone(snapshot.run));
+    for (const c of this.controllers) {
+      const saved = snapshot.controllers.find((s) => s.id === c.id);
+      if (saved) c.next = saved.next;
+    }
+    this.stopTimes = [...snapshot.stopTimes];
+  }
+
+  /**
+   * The history recorded so far (solver steps) as a simulation result, read
+   * by the network's handles.
+   *
+   * @example
+   * ```ts
+   * const r = stepper.result();
+   * r.fluxDensity(leg);
+   * ```
+   */
+  result(): SimulationResult {
+    if (!this.record.steps) {
+      throw new InputError('no-history', 'this stepper was created with record: false; create it with record: true to get a result', []);
+    }
+    const status = this.status === 'running' ? 'success' : this.status;
+    return new SimulationResult({
+      compiled: this.compiled,
+      networkId: this.networkId,
+      samples: [...this.run.samples],
+      intervals: [...this.run.intervals],
+      steps: [...this.run.steps],
+      initialState: this.run.initialState,
+      finalState: this.run.y,
+      stats: this.run.stats,
+      status,
+      message: status === 'success' ? `stepped to t = ${this.time} s` : this.run.message,
+      failure: status === 'success' ? undefined : this.run.failure,
+      adjustedAtStart: this.run.adjustedAtStart,
+    });
+  }
+
+  private handleCrossings(): void {
+    const events = this.run.events;
+    const last = events[events.length - 1];
+    if (!last) return;
+    for (const e of events) {
+      if (e.t !== last.t) continue;
+      const th = this.thresholds[e.index];
+      if (!th) continue;
+      const fn = this.reader.build(th.watch);
+      const rising = fn(e.y, e.t) >= th.level;
+      this.callback(() => th.onCross(this, { name: th.name, time: e.t, rising }));
+    }
+  }
+
+  private callback(fn: () => void): void {
+    this.inCallback = true;
+    try {
+      fn();
+    } finally {
+      this.inCallback = false;
+    }
+  }
+
+  private sourceIndex(source: VoltageSource | CurrentSource): number {
+    if (source && typeof source === 'object' && source.kind === 'current-source') return this.reader.checkHandle(source, 'current-source').index;
+    return this.reader.checkHandle(source, 'voltage-source').index;
+  }
+}
+
+/**
+ * Create a stepping interface for a network (see {@link NetworkStepper}).
+ *
+ * @example
+ * ```ts
+ * const stepper = createStepper(net, { horizon: 0.2, rtol: 1e-6 });
+ * stepper.advanceTo(0.01);
+ * ```
+ */
+export function createStepper(network: NetworkBuilder | NetworkDescription, options: StepperOptions): NetworkStepper {
+  return new NetworkStepper(network, options);
+}
