@@ -65,7 +65,8 @@ interface PeriodicController {
 
 /** Restorable state of a stepper (plain data, structuredClone-able). */
 export interface StepperSnapshot {
-  readonly run: RunSnapshot;
+  /** The solver and input state (opaque plain data). */
+  readonly run: object;
   readonly controllers: readonly { readonly id: number; readonly next: number }[];
   readonly stopTimes: readonly number[];
 }
@@ -373,7 +374,7 @@ export class NetworkStepper {
    * ```
    */
   restore(snapshot: StepperSnapshot): void {
-    this.run.restore(structuredClone(snapshot.run));
+    this.run.restore(structuredClone(snapshot.run) as RunSnapshot);
     for (const c of this.controllers) {
       const saved = snapshot.controllers.find((s) => s.id === c.id);
       if (saved) c.next = saved.next;
