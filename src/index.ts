@@ -191,3 +191,4 @@ export { fiveLimbLayout, type FiveLimbInput } from './geometry/five-limb-layout.
 export { addCoreLayout, type AddCoreLayoutOptions, type CoreHandles } from './network/add-core-layout.js';
 export { QUANTITY_UNITS, type QuantityRequest, type QuantityName } from './result/state-reader.js';
 export { createStepper, NetworkStepper, type StepperOptions, type StepperSnapshot, type Threshold } from './stepping/network-stepper.js';
+export { periodicSteadyState, type PeriodicSteadyStateOptions, type PeriodicSteadyState } from './analysis/periodic-steady-state.js';

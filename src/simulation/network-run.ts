@@ -3,7 +3,7 @@ import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } from '../solver/dae-integrator.js';
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
-import type { InputState } from '../formulation/network-inputs.js';
+import { nextUp, type InputState } from '../formulation/network-inputs.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 
 /** Solver settings of a run (already resolved from the user's options). */
@@ -284,7 +284,8 @@ export class NetworkRun {
     let width = this.lastIntervalLength > 0 ? this.lastIntervalLength : (this.horizon - t) / 64;
     for (;;) {
       const end = Math.min(this.horizon, t + width);
-      const found = this.compiled.inputs.breakpoints(t, end);
+      // Breakpoints are searched in the open interval (t, upper): include one exactly at the horizon.
+      const found = this.compiled.inputs.breakpoints(t, end === this.horizon ? nextUp(end) : end);
       if (found.length > 0) return found[0]!;
       if (end >= this.horizon) return Infinity;
       width *= 4;
