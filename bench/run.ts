@@ -10,6 +10,7 @@ import { Solver } from '../test/support/odex.js';
 import { benchLinearAlgebra } from './linear-algebra.js';
 import { hires, maxRelativeError, rcLadder, ringModulator, robertsonDae, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
 import { benchScipy } from './scipy.js';
+import { benchPeriodicSteadyState } from './pss.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -134,4 +135,5 @@ benchLinearAlgebra();
 benchKernelsInSolver();
 benchAgainstOdex();
 benchScipy();
+benchPeriodicSteadyState();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);
