@@ -25,6 +25,16 @@ export interface RunSettings {
   readonly initialState?: ArrayLike<number>;
 }
 
+/**
+ * Two times closer than this (1e-12 relative) are the same instant for
+ * stepping purposes: a stop time computed by a sum of periods and a
+ * breakpoint computed by a product differ by round-off, and a step that
+ * short is near the solver's round-off limit.
+ */
+export function timeTolerance(t: number): number {
+  return 1e-12 * Math.max(Math.abs(t), Number.MIN_VALUE);
+}
+
 /** A run's restorable state (plain data). */
 export interface RunSnapshot {
   readonly integrator: DaeIntegratorSnapshot;
@@ -200,11 +210,13 @@ export class NetworkRun {
     if (this.restartPending) this.recordStart(record);
     const samples = (record.sampleTimes ?? []).filter((s) => s > this.t && s <= tStop);
     let nextSample = 0;
-    while (this.t < tStop && this.statusCur === 'running') {
+    while (tStop - this.t > timeTolerance(tStop) && this.statusCur === 'running') {
       const interval = this.intervals[this.intervals.length - 1]!;
-      const edge = Math.min(interval.end, tStop);
+      // A stop a few round-offs away from a breakpoint is the breakpoint: no step is that short.
+      const edge = Math.abs(interval.end - tStop) <= timeTolerance(tStop) ? interval.end : Math.min(interval.end, tStop);
       while (this.t < edge) {
-        const target = record.exact && nextSample < samples.length ? Math.min(edge, samples[nextSample]!) : edge;
+        const sample = record.exact && nextSample < samples.length ? samples[nextSample]! : Infinity;
+        const target = edge - sample <= timeTolerance(edge) ? edge : Math.min(edge, sample);
         const r = this.integ.step(target);
         if (r.status !== 'accepted' && r.status !== 'terminal-event') {
           this.statusCur = this.integ.status;

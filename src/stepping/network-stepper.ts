@@ -5,7 +5,7 @@ import type { NetworkDescription } from '../network/description.js';
 import type { CurrentSource, ElectricNode, FluxTube, Switch, TwoTerminal, VoltageSource } from '../network/handles.js';
 import { SimulationResult } from '../result/simulation-result.js';
 import { StateReader, type QuantityRequest, type StateFunction } from '../result/state-reader.js';
-import { NetworkRun, type RecordOptions, type RunSnapshot } from '../simulation/network-run.js';
+import { NetworkRun, timeTolerance, type RecordOptions, type RunSnapshot } from '../simulation/network-run.js';
 import type { DaeEvent, DaeStatus, SolverStats } from '../solver/types.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import { absoluteTolerances, type AbsoluteTolerances } from '../simulate.js';
@@ -59,6 +59,9 @@ export interface StepperOptions {
 interface PeriodicController {
   readonly id: number;
   readonly period: number;
+  readonly start: number;
+  /** Index of the next sample: it falls at start + count * period (a product, so no drift). */
+  count: number;
   next: number;
   readonly onSample: (stepper: NetworkStepper) => void;
 }
@@ -67,7 +70,7 @@ interface PeriodicController {
 export interface StepperSnapshot {
   /** The solver and input state (opaque plain data). */
   readonly run: object;
-  readonly controllers: readonly { readonly id: number; readonly next: number }[];
+  readonly controllers: readonly { readonly id: number; readonly count: number; readonly next: number }[];
   readonly stopTimes: readonly number[];
 }
 
@@ -150,7 +153,7 @@ export class NetworkStepper {
     return this.run.t;
   }
 
-  /** `'running'` while the stepper can advance; otherwise why it stopped (see `DaeStatus`). @example `if (stepper.status !== 'running') console.warn(stepper.message);` */
+  /** `'running'` while the stepper can advance, `'success'` once it reached its horizon, otherwise why it stopped (see `DaeStatus`). @example `if (stepper.status !== 'running') console.warn(stepper.message);` */
   get status(): 'running' | DaeStatus {
     return this.run.status === 'terminal-event' ? 'running' : this.run.status;
   }
@@ -287,7 +290,7 @@ export class NetworkStepper {
       throw new InputError('bad-option', `controller start ${first} s must not lie before the present time ${this.time} s`, ['start']);
     }
     const id = this.nextControllerId++;
-    this.controllers.push({ id, period, next: first, onSample });
+    this.controllers.push({ id, period, start: first, count: 0, next: first, onSample });
     return () => {
       const k = this.controllers.findIndex((c) => c.id === id);
       if (k >= 0) this.controllers.splice(k, 1);
@@ -310,23 +313,26 @@ export class NetworkStepper {
     if (!(Number.isFinite(t) && t >= this.time && t <= this.horizon)) {
       throw new InputError('bad-stop-time', `cannot advance to ${t} s: the stepper is at ${this.time} s and its horizon is ${this.horizon} s`, ['t']);
     }
-    while (this.time < t && this.status === 'running') {
+    const due = (x: number): boolean => x - this.time <= timeTolerance(x);
+    while (!due(t) && this.status === 'running') {
       const nextController = Math.min(...this.controllers.map((c) => c.next), Infinity);
-      const nextStop = this.stopTimes.find((s) => s > this.time) ?? Infinity;
+      const nextStop = this.stopTimes.find((s) => !due(s)) ?? Infinity;
       const target = Math.min(t, nextController, nextStop);
-      let status = target > this.time ? this.run.advanceTo(target, this.record) : this.run.status;
+      let status = !due(target) ? this.run.advanceTo(target, this.record) : this.run.status;
       while (status === 'terminal-event') {
         this.handleCrossings();
         status = this.run.resume(this.record);
-        if (status === 'running' && this.time < target) status = this.run.advanceTo(target, this.record);
+        if (status === 'running' && !due(target)) status = this.run.advanceTo(target, this.record);
       }
       if (status !== 'running') break;
-      this.stopTimes = this.stopTimes.filter((s) => s > this.time);
+      this.stopTimes = this.stopTimes.filter((s) => !due(s));
       for (const c of [...this.controllers]) {
-        if (c.next <= this.time) {
+        if (due(c.next)) {
           this.callback(() => c.onSample(this));
-          c.next += c.period;
-          while (c.next <= this.time) c.next += c.period;
+          do {
+            c.count++;
+            c.next = c.start + c.count * c.period;
+          } while (due(c.next));
         }
       }
     }
@@ -359,7 +365,7 @@ export class NetworkStepper {
   snapshot(): StepperSnapshot {
     return structuredClone({
       run: this.run.snapshot(),
-      controllers: this.controllers.map((c) => ({ id: c.id, next: c.next })),
+      controllers: this.controllers.map((c) => ({ id: c.id, count: c.count, next: c.next })),
       stopTimes: [...this.stopTimes],
     });
   }
@@ -377,7 +383,10 @@ export class NetworkStepper {
     this.run.restore(structuredClone(snapshot.run) as RunSnapshot);
     for (const c of this.controllers) {
       const saved = snapshot.controllers.find((s) => s.id === c.id);
-      if (saved) c.next = saved.next;
+      if (saved) {
+        c.count = saved.count;
+        c.next = saved.next;
+      }
     }
     this.stopTimes = [...snapshot.stopTimes];
   }
