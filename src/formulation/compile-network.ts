@@ -8,6 +8,8 @@ import { layoutUnknowns, type UnknownLayout } from './unknown-layout.js';
 import { checkTopology } from './topology-checks.js';
 import { findIndexTwoUnknowns } from './index-analysis.js';
 import { initialState } from './initial-state.js';
+import { massSpaces } from '../solver/consistent-initialization.js';
+import { createDenseLu } from '../solver/dense-lu.js';
 
 /** A flux tube ready for evaluation. */
 export interface CompiledTube {
@@ -230,7 +232,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   });
 
   const y0 = initialState(d, layout, loops, tubes);
-  const index2 = findIndexTwoUnknowns(d, layout);
+  const index2 = confirmIndexTwo(findIndexTwoUnknowns(d, layout), mass, n, (y, J) => jacobian(0, y, J), y0);
 
   return {
     description: d,
@@ -250,6 +252,44 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
       return tube.law ? tube.volume * tube.law.energyDensity(flux / tube.area) : 0.5 * tube.reluctance * flux * flux;
     },
   };
+}
+
+/**
+ * The structural rules mark inductive cut-sets, but magnetic coupling can
+ * make such a cut-set index 1 (a transformer secondary in series with an
+ * inductor: its current is not fixed by the flux alone). The DAE is index 1
+ * when W0^T J V0 is nonsingular (W0, V0: left and right null spaces of M;
+ * Hairer and Wanner II, sect. VII.1); then no unknown needs the index-2
+ * treatment. Checked at the initial state.
+ */
+function confirmIndexTwo(
+  structural: number[],
+  mass: Float64Array,
+  n: number,
+  jacobian: (y: Float64Array, J: Float64Array) => void,
+  y0: Float64Array,
+): number[] {
+  if (structural.length === 0) return structural;
+  const spaces = massSpaces(mass, n);
+  const k = spaces.k;
+  if (k === 0) return structural;
+  const J = new Float64Array(n * n);
+  jacobian(y0, J);
+  const jr = new Float64Array(k * k);
+  for (let a = 0; a < k; a++) {
+    for (let b = 0; b < k; b++) {
+      let s = 0;
+      for (let i = 0; i < n; i++) {
+        const w = spaces.w0[i * k + a]!;
+        if (w === 0) continue;
+        let jv = 0;
+        for (let l = 0; l < n; l++) jv += J[i * n + l]! * spaces.v0[l * k + b]!;
+        s += w * jv;
+      }
+      jr[a * k + b] = s;
+    }
+  }
+  return createDenseLu(k).factor(jr) < 0 ? [] : structural;
 }
 
 function compileTube(t: TubeDescription): CompiledTube {
