@@ -192,3 +192,4 @@ export { addCoreLayout, type AddCoreLayoutOptions, type CoreHandles } from './ne
 export { QUANTITY_UNITS, type QuantityRequest, type QuantityName } from './result/state-reader.js';
 export { createStepper, NetworkStepper, type StepperOptions, type StepperSnapshot, type Threshold } from './stepping/network-stepper.js';
 export { periodicSteadyState, type PeriodicSteadyStateOptions, type PeriodicSteadyState } from './analysis/periodic-steady-state.js';
+export { resultCoreLoss, type ResultCoreLossOptions } from './analysis/core-loss/result-core-loss.js';
