@@ -13,8 +13,11 @@ import type { UnknownLayout } from './unknown-layout.js';
  *   around a loop are an error);
  * - inductor currents as given;
  * - loop fluxes: tubes with an initial flux (or flux density) get it exactly
- *   and the other tubes carry the least flux (min sum of squares) that keeps
- *   flux conserved at every node; values that break conservation are an error.
+ *   and the other tubes carry the flux that conserves flux at every node with
+ *   the least magnetic energy, sum of R_b phi_b^2 with R_b the tube's
+ *   reluctance at zero flux (so remanent flux stays in the iron rather than
+ *   in air gaps or leakage paths); values that break conservation are an
+ *   error.
  * The solver then keeps the differential part of this state and solves the
  * algebraic part (winding and source currents, node potentials without
  * capacitors, fluxes of loops without windings).
@@ -91,19 +94,24 @@ function setLoopFluxes(d: NetworkDescription, layout: UnknownLayout, loops: Magn
       names,
     );
   }
-  // Remaining freedom: z in the null space of Bs; minimise the flux of the unspecified tubes.
+  // Remaining freedom: z in the null space of Bs; minimise sum R_b phi_b^2 over the unspecified tubes.
   const isSpecified = new Set(specified.map((s) => s.tube));
   const unspecified = d.tubes.map((_, b) => b).filter((b) => !isSpecified.has(b) && loops.tubeLoops[b]!.length > 0);
   let psi = particular;
   if (unspecified.length > 0) {
     const Z = nullSpace(Bs, nl);
     if (Z.columns > 0) {
-      const Bu = new Matrix(unspecified.map(incidence));
+      const Bu = new Matrix(unspecified.map((b) => incidence(b).map((x) => x * Math.sqrt(zeroFluxReluctance(tubes[b]!)))));
       const z = minNormSolve(Bu.mmul(Z), Bu.mmul(particular).neg());
       psi = particular.add(Z.mmul(z));
     }
   }
   for (let l = 0; l < nl; l++) y0[layout.loopOffset + l] = psi.get(l, 0);
+}
+
+/** Reluctance of a tube at zero flux, A/Wb: l/A dH/dB(0) for material, the constant otherwise. */
+function zeroFluxReluctance(t: CompiledTube): number {
+  return t.law ? (t.length / t.area) * t.law.fieldSlope(0) : t.reluctance;
 }
 
 /** Minimum-norm least-squares solution of A x = b by the SVD. */
