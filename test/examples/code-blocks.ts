@@ -30,10 +30,15 @@ export function withoutLeadingComments(source: string): string {
   return lines.slice(k).join('\n');
 }
 
-/** The `text` code blocks placed right after a `<!-- output -->` line: output a page shows. */
-export function outputBlocks(markdown: string): string[] {
+/**
+ * The `text` code blocks placed right after a `<!-- output -->` line (or
+ * `<!-- output of <what> -->` with `of` given): output a page shows.
+ */
+export function outputBlocks(markdown: string, of?: string): string[] {
+  const marker = of === undefined ? 'output' : `output of ${of}`;
+  const escaped = marker.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
+  const marked = new RegExp(`^<!-- ${escaped} -->[ \\t]*\\n\`\`\`text[^\\n]*\\n([\\s\\S]*?)^\`\`\`[ \\t]*$`, 'gm');
   const blocks: string[] = [];
-  const marked = /^<!-- output -->[ \t]*\n```text[^\n]*\n([\s\S]*?)^```[ \t]*$/gm;
   for (let m = marked.exec(markdown); m !== null; m = marked.exec(markdown)) blocks.push(m[1]!);
   return blocks;
 }

@@ -99,6 +99,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'flux-state.ts': {
     args: (dir) => [dir],
     lines: [/^flux state, phi\(0\) = B_r A +\d/m, /^current state from i\(0\) = 0 +\d/m, /dc-flux-comparison\.svg$/m],
+    check: (stdout) => expectPageOutput(readFileSync(join(ROOT, 'docs', 'guide', 'formulation.md'), 'utf8'), stdout, 'examples/flux-state.ts'),
   },
   'gapped-inductor.ts': { lines: [/simulated \/ McLyman = 0\.9\d+/, /^ +5\.0 +\d+\.\d/m, /^Caution/m] },
   'geometry.ts': { lines: [/^Inner winding, 40 turns, outer winding open: L = \d/m] },
@@ -108,7 +109,10 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   },
   'inrush-study.ts': { lines: [/^12 cases in /m, /^CAUTION: engineering estimates/m] },
   'materials.ts': { lines: [/^fit of the brauer law/m] },
-  'readme.ts': { lines: [/^success: peak B \d/m] },
+  'readme.ts': {
+    lines: [/^success: peak B \d/m],
+    check: (stdout) => expectPageOutput(readFileSync(join(ROOT, 'README.md'), 'utf8'), stdout, 'examples/readme.ts'),
+  },
   'report.ts': { lines: [/^report: .*report\.html$/m] },
   'solver-robertson.ts': { lines: [/^DAE form: success/m] },
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
@@ -181,18 +185,21 @@ describe('docs/guide: the code blocks of every page run as written', () => {
 });
 
 /**
- * The output a page shows (text blocks marked `<!-- output -->`) is what its
+ * The output a page shows (text blocks marked `<!-- output -->`, or
+ * `<!-- output of examples/x.ts -->` for an example's output) is what the
  * script prints: each block's lines appear in the output, consecutively and
  * in order. The text must agree; each number within 5 % (integers such as
  * step counts within 25 %; values below 1e-6 in magnitude, which are
  * round-off or error levels, only need to stay below 1e-6). Lines that
  * start with `report:` (absolute paths) are not compared.
  */
-function expectPageOutput(markdown: string, stdout: string): void {
+function expectPageOutput(markdown: string, stdout: string, of?: string): void {
   const number = /-?\d+(?:\.\d+)?(?:e[-+]?\d+)?/gi;
   const shape = (line: string) => line.replace(number, '#');
   const printed = stdout.trimEnd().split('\n');
-  for (const block of outputBlocks(markdown)) {
+  const blocks = outputBlocks(markdown, of);
+  if (of !== undefined) expect(blocks.length, `a block marked <!-- output of ${of} -->`).toBeGreaterThan(0);
+  for (const block of blocks) {
     const shown = block.trimEnd().split('\n');
     const first = printed.findIndex((line) => shape(line) === shape(shown[0]!));
     expect(first, `the output should contain the line "${shown[0]}"`).toBeGreaterThanOrEqual(0);
