@@ -2,8 +2,8 @@
  * Inrush study: switching angle x remanence for a single-phase transformer
  * built from a core layout. For every case it prints the peak inrush
  * current (and its ratio to the rated peak and to the steady peak), the peak
- * |B| of each leg with its margin to saturation, and how fast the DC flux
- * offset decays.
+ * |B| of each leg and of the yokes with the worst margin to saturation, and
+ * how fast the DC flux offset decays.
  *
  *     npx tsx examples/inrush-study.ts
  *
@@ -123,10 +123,10 @@ console.log(line(units));
 for (const r of rows) console.log(line(r));
 console.log(`\n${rows.length} cases in ${((Date.now() - started) / 1000).toFixed(1)} s.`);
 console.log(
-  'A negative margin means that leg is driven past the saturation flux density in the first cycles: the\n' +
-    'inrush current then rises steeply. "x steady" compares the peak with the largest current of the last two\n' +
-    'cycles simulated, when the DC offset has not yet died out (see tau): it understates the ratio to the true\n' +
-    'steady state.',
+  'A negative margin means that part of the core is driven past the saturation flux density in the first\n' +
+    'cycles: the inrush current then rises steeply. "x steady" compares the peak with the largest current of\n' +
+    'the last two cycles simulated, when the DC offset has not yet died out (see tau): it understates the ratio\n' +
+    'to the true steady state.',
 );
 console.log(
   '\nCAUTION: engineering estimates from a model and its inputs (material curve, remanence, switching instant,\n' +

@@ -84,17 +84,18 @@ if (result.status !== 'success') throw new Error(result.message);
 const last = { from: (cycles - 1) * PERIOD };
 console.log(`Three-limb core, ${(U_PHASE * Math.sqrt(3)).toFixed(0)} V / ${((U_PHASE * Math.sqrt(3) * N2) / N1).toFixed(0)} V, star-star, unbalanced star load (invented design)`);
 console.log(`design peak flux density from the EMF equation: ${bPeak.toFixed(3)} T (limb area ${(limbArea * 1e6).toFixed(0)} mm^2)\n`);
-console.log('limb   peak|B| T   margin T   I primary A rms   V load V rms   I load A rms   P load W');
+console.log('limb   tube area mm^2   peak|B| T   margin T   I primary A rms   V load V rms   I load A rms   P load W');
 for (const m of model) {
   const margin = fluxDensityMargin(result.time, result.fluxDensity(m.tube), { saturation: B_SAT, ...last });
   const power = seriesRms(result.time, result.voltage(m.load), last) ** 2 / loads[m.limb as keyof typeof loads];
   console.log(
-    `${m.limb.padStart(4)}   ${margin.peak.toFixed(3).padStart(9)}   ${margin.margin.toFixed(3).padStart(8)}` +
+    `${m.limb.padStart(4)}   ${(tubeArea(m.limb) * 1e6).toFixed(0).padStart(14)}   ${margin.peak.toFixed(3).padStart(9)}   ${margin.margin.toFixed(3).padStart(8)}` +
       `   ${seriesRms(result.time, result.current(m.primary), last).toFixed(2).padStart(15)}` +
       `   ${seriesRms(result.time, result.voltage(m.load), last).toFixed(1).padStart(12)}` +
       `   ${seriesRms(result.time, result.current(m.load), last).toFixed(2).padStart(12)}   ${power.toFixed(0).padStart(8)}`,
   );
 }
+console.log('(the middle limb\'s tube has a larger effective area, from the IEC 60205 treatment of its T junctions,\n so its flux density is lower for the same peak flux)');
 const starShift = seriesRms(result.time, result.potential(loadStar), last);
 console.log(`\nload star point to neutral: ${starShift.toFixed(1)} V rms (0 for a balanced load)`);
 
