@@ -2,7 +2,14 @@ import { InputError } from '../errors.js';
 import { MU0 } from '../constants.js';
 import type { MaterialLaw } from './material-law.js';
 
-/** Plain-data description of a linear material. */
+/**
+ * Plain-data description of a linear material.
+ *
+ * @example
+ * ```ts
+ * const spec: LinearMaterialSpec = { kind: 'linear', relativePermeability: 2000, name: 'first estimate' };
+ * ```
+ */
 export interface LinearMaterialSpec {
   readonly kind: 'linear';
   /** Relative permeability mu_r (> 0; 1 for air). */

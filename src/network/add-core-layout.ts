@@ -5,7 +5,14 @@ import type { MaterialSpec } from '../materials/material-spec.js';
 import type { FluxTube, MagneticNode } from './handles.js';
 import type { NetworkBuilder } from './network-builder.js';
 
-/** Options of {@link addCoreLayout}. */
+/**
+ * Options of {@link addCoreLayout}.
+ *
+ * @example
+ * ```ts
+ * const options: AddCoreLayoutOptions = { material: demoMaterials.grainOrientedSteel, prefix: 'T1 ', initialFluxDensity: { left: 0.8 } };
+ * ```
+ */
 export interface AddCoreLayoutOptions {
   /** Material of every core path (gaps are air, leakage paths are constant reluctances). */
   readonly material: MaterialSpec | MaterialLaw;
@@ -21,7 +28,17 @@ export interface AddCoreLayoutOptions {
   readonly eddyResistance?: Readonly<Record<string, number>>;
 }
 
-/** Handles of a core added by {@link addCoreLayout}. */
+/**
+ * Handles of a core added by {@link addCoreLayout}.
+ *
+ * @example
+ * ```ts
+ * const core: CoreHandles = addCoreLayout(net, layout, { material: demoMaterials.ferrite });
+ * const primaryTube = core.windingTube('centre');
+ * const yoke = core.tubes.get('yoke-top-left');
+ * const topNode = core.nodes.get('top-centre');
+ * ```
+ */
 export interface CoreHandles {
   /** The layout the core was built from. */
   readonly layout: CoreLayout;
@@ -45,8 +62,8 @@ export interface CoreHandles {
  *
  * @example
  * ```ts
- * const layout = uCoreLayout({ ... });
- * const core = addCoreLayout(net, layout, { material: demoMaterials.siliconSteel, initialFluxDensity: { left: 0.8 } });
+ * const layout = uCoreLayout({ legWidth: mm(40), yokeHeight: mm(40), depth: mm(50), windowWidth: mm(45), windowHeight: mm(110) });
+ * const core = addCoreLayout(net, layout, { material: demoMaterials.grainOrientedSteel, initialFluxDensity: { left: 0.8 } });
  * net.winding('primary', { tube: core.windingTube('left'), turns: 500, resistance: 1, plus: a, minus: net.ground });
  * ```
  */

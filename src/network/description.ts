@@ -7,6 +7,14 @@ import type { WaveformSpec } from '../waveforms/waveform-spec.js';
  * here is JSON-serialisable except live {@link MaterialLaw} objects and
  * in-process user functions, which a script may pass for convenience.
  * Indices refer to the lists of this description; electric node 0 is ground.
+ *
+ * @example
+ * ```ts
+ * const description: NetworkDescription = net.describe();
+ * writeFileSync('out/network.json', JSON.stringify(description));
+ * const result = simulate(JSON.parse(readFileSync('out/network.json', 'utf8')), { stopTime: 0.1 });
+ * result.fluxDensity(leg); // the builder's handles still read it
+ * ```
  */
 export interface NetworkDescription {
   readonly name: string;
@@ -18,7 +26,14 @@ export interface NetworkDescription {
   readonly elements: readonly ElementDescription[];
 }
 
-/** How a tube's MMF drop depends on its flux. */
+/**
+ * How a tube's MMF drop depends on its flux.
+ *
+ * @example
+ * ```ts
+ * const gap: TubeLaw = { kind: 'air-gap', length: 0.5e-3, area: 1.44e-4, fringingFactor: 1.2 };
+ * ```
+ */
 export type TubeLaw =
   /** A body of material: F = length * H(phi / area). */
   | { readonly kind: 'material'; readonly length: number; readonly area: number; readonly material: MaterialSpec | MaterialLaw }
@@ -27,7 +42,15 @@ export type TubeLaw =
   /** A constant reluctance (A/Wb), e.g. a leakage path: F = reluctance * phi. */
   | { readonly kind: 'reluctance'; readonly reluctance: number; readonly area?: number };
 
-/** One flux tube (leg, yoke, gap, leakage path). */
+/**
+ * One flux tube (leg, yoke, gap, leakage path).
+ *
+ * @example
+ * ```ts
+ * const leg: TubeDescription = net.describe().tubes[0]!;
+ * console.log(leg.name, leg.law.kind, leg.from, '->', leg.to);
+ * ```
+ */
 export interface TubeDescription {
   readonly name: string;
   /** Magnetic node index where positive flux leaves the tube's start. */
@@ -51,39 +74,83 @@ interface TwoTerminalBase {
   readonly minus: number;
 }
 
-/** A linear resistor, ohm. */
+/**
+ * A linear resistor, ohm.
+ *
+ * @example
+ * ```ts
+ * const r: ResistorDescription = { kind: 'resistor', name: 'load', plus: 2, minus: 0, resistance: 10 };
+ * ```
+ */
 export interface ResistorDescription extends TwoTerminalBase {
   readonly kind: 'resistor';
   readonly resistance: number;
 }
 
-/** A linear capacitor, F, with its initial voltage v_plus - v_minus. */
+/**
+ * A linear capacitor, F, with its initial voltage v_plus - v_minus.
+ *
+ * @example
+ * ```ts
+ * const c: CapacitorDescription = { kind: 'capacitor', name: 'dc link', plus: 1, minus: 0, capacitance: 470e-6, initialVoltage: 325 };
+ * ```
+ */
 export interface CapacitorDescription extends TwoTerminalBase {
   readonly kind: 'capacitor';
   readonly capacitance: number;
   readonly initialVoltage: number;
 }
 
-/** A linear inductor, H, with its initial current (plus to minus through the inductor). */
+/**
+ * A linear inductor, H, with its initial current (plus to minus through the inductor).
+ *
+ * @example
+ * ```ts
+ * const l: InductorDescription = { kind: 'inductor', name: 'line', plus: 1, minus: 2, inductance: 8e-3, initialCurrent: 0 };
+ * ```
+ */
 export interface InductorDescription extends TwoTerminalBase {
   readonly kind: 'inductor';
   readonly inductance: number;
   readonly initialCurrent: number;
 }
 
-/** An ideal voltage source: v_plus - v_minus = waveform(t). */
+/**
+ * An ideal voltage source: v_plus - v_minus = waveform(t).
+ *
+ * @example
+ * ```ts
+ * const v: VoltageSourceDescription = { kind: 'voltage-source', name: 'mains', plus: 1, minus: 0, waveform: sine({ amplitude: 325, frequency: 50 }) };
+ * ```
+ */
 export interface VoltageSourceDescription extends TwoTerminalBase {
   readonly kind: 'voltage-source';
   readonly waveform: WaveformSpec;
 }
 
-/** An ideal current source driving waveform(t) out of its plus terminal into the circuit. */
+/**
+ * An ideal current source driving waveform(t) out of its plus terminal into the circuit.
+ *
+ * @example
+ * ```ts
+ * const i: CurrentSourceDescription = { kind: 'current-source', name: 'bias', plus: 1, minus: 0, waveform: constant(2) };
+ * ```
+ */
 export interface CurrentSourceDescription extends TwoTerminalBase {
   readonly kind: 'current-source';
   readonly waveform: WaveformSpec;
 }
 
-/** A switch: resistance onResistance when closed, offResistance when open. */
+/**
+ * A switch: resistance onResistance when closed, offResistance when open.
+ *
+ * @example
+ * ```ts
+ * const s: SwitchDescription = {
+ *   kind: 'switch', name: 'breaker', plus: 1, minus: 2, onResistance: 1e-3, offResistance: 1e6, initiallyClosed: false, toggleTimes: [0.005],
+ * };
+ * ```
+ */
 export interface SwitchDescription extends TwoTerminalBase {
   readonly kind: 'switch';
   readonly onResistance: number;
@@ -93,7 +160,14 @@ export interface SwitchDescription extends TwoTerminalBase {
   readonly toggleTimes: readonly number[];
 }
 
-/** A winding of `turns` turns on tube `tube`. */
+/**
+ * A winding of `turns` turns on tube `tube`.
+ *
+ * @example
+ * ```ts
+ * const w: WindingDescription = { kind: 'winding', name: 'primary', plus: 1, minus: 0, tube: 0, turns: 820, resistance: 2.5, orientation: 1 };
+ * ```
+ */
 export interface WindingDescription extends TwoTerminalBase {
   readonly kind: 'winding';
   readonly tube: number;
@@ -103,7 +177,14 @@ export interface WindingDescription extends TwoTerminalBase {
   readonly orientation: 1 | -1;
 }
 
-/** Any two-terminal element or winding. */
+/**
+ * Any two-terminal element or winding.
+ *
+ * @example
+ * ```ts
+ * const windings = net.describe().elements.filter((e: ElementDescription) => e.kind === 'winding');
+ * ```
+ */
 export type ElementDescription =
   | ResistorDescription
   | CapacitorDescription

@@ -6,7 +6,15 @@
  * ties it to the builder that made it (checked at run time).
  */
 
-/** Fields shared by every handle. */
+/**
+ * Fields shared by every handle.
+ *
+ * @example
+ * ```ts
+ * const leg = net.fluxTube('leg', options);
+ * console.log(leg.name, leg.kind); // 'leg' 'flux-tube'
+ * ```
+ */
 export interface HandleBase {
   /** Name given by the user (unique per kind family in a network); used in messages and exports. */
   readonly name: string;
@@ -91,16 +99,38 @@ export interface CurrentSource extends HandleBase {
   readonly kind: 'current-source';
 }
 
-/** A switch: a resistance that changes between on and off values at scheduled times. @example `const s = net.switch('breaker', a, b, { closeAt: [0.01] });` */
+/** A switch: a resistance that changes between on and off values at scheduled times. @example `const s = net.switch('breaker', a, b, { schedule: [{ time: 0.01, closed: true }] });` */
 export interface Switch extends HandleBase {
   readonly kind: 'switch';
 }
 
-/** Any element with two electric terminals; current, voltage and power are read through these. */
+/**
+ * Any element with two electric terminals; current, voltage and power are read through these.
+ *
+ * @example
+ * ```ts
+ * const elements: TwoTerminal[] = [primary, load, supply];
+ * for (const e of elements) console.log(e.name, Math.max(...result.current(e)));
+ * ```
+ */
 export type TwoTerminal = Resistor | Capacitor | Inductor | VoltageSource | CurrentSource | Switch | Winding;
 
-/** A voltage or current source. */
+/**
+ * A voltage or current source.
+ *
+ * @example
+ * ```ts
+ * const sources: Source[] = [net.voltageSource('mains', a, net.ground, sine({ amplitude: 325, frequency: 50 }))];
+ * ```
+ */
 export type Source = VoltageSource | CurrentSource;
 
-/** Every kind of handle. */
+/**
+ * Every kind of handle.
+ *
+ * @example
+ * ```ts
+ * const label = (h: AnyHandle) => `${h.kind} "${h.name}"`;
+ * ```
+ */
 export type AnyHandle = ElectricNode | MagneticNode | FluxTube | TwoTerminal;

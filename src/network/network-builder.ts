@@ -24,7 +24,17 @@ import type {
   Winding,
 } from './handles.js';
 
-/** Initial condition of a flux tube: give at most one of the two. */
+/**
+ * Initial condition of a flux tube: give at most one of the two. Counted
+ * from the tube's `from` node to its `to` node; the initial fluxes of all
+ * tubes must conserve flux at every magnetic node.
+ *
+ * @example
+ * ```ts
+ * const remanence: TubeInitialCondition = { initialFluxDensity: 0.8 }; // T
+ * net.fluxTube('leg', { from: bottom, to: top, length: 0.2, area: 1e-3, material, ...remanence });
+ * ```
+ */
 export interface TubeInitialCondition {
   /** Initial flux in Wb. */
   readonly initialFlux?: number;
@@ -32,7 +42,18 @@ export interface TubeInitialCondition {
   readonly initialFluxDensity?: number;
 }
 
-/** Options of {@link NetworkBuilder.fluxTube}. */
+/**
+ * Options of {@link NetworkBuilder.fluxTube}.
+ *
+ * @example
+ * ```ts
+ * const options: FluxTubeOptions = {
+ *   from: bottom, to: top, length: mm(150), area: mm2(900), material: demoMaterials.grainOrientedSteel,
+ *   initialFluxDensity: 0.6, eddyResistance: 5e3,
+ * };
+ * const leg = net.fluxTube('leg', options);
+ * ```
+ */
 export interface FluxTubeOptions extends TubeInitialCondition {
   /** Magnetic node where positive flux enters the tube. */
   readonly from: MagneticNode;
@@ -52,7 +73,15 @@ export interface FluxTubeOptions extends TubeInitialCondition {
   readonly eddyResistance?: number;
 }
 
-/** Options of {@link NetworkBuilder.airGap}. */
+/**
+ * Options of {@link NetworkBuilder.airGap}.
+ *
+ * @example
+ * ```ts
+ * const gap: AirGapOptions = { from: top, to: bottom, length: mm(0.5), area: mm2(144), fringingFactor: 1.2 };
+ * net.airGap('centre gap', gap);
+ * ```
+ */
 export interface AirGapOptions extends TubeInitialCondition {
   readonly from: MagneticNode;
   readonly to: MagneticNode;
@@ -68,7 +97,15 @@ export interface AirGapOptions extends TubeInitialCondition {
   readonly fringingFactor?: number;
 }
 
-/** Options of {@link NetworkBuilder.reluctance}. */
+/**
+ * Options of {@link NetworkBuilder.reluctance}.
+ *
+ * @example
+ * ```ts
+ * const leakage: ReluctanceOptions = { from: lower, to: upper, reluctance: 1.35e8, initialFlux: 0 };
+ * net.reluctance('leakage', leakage);
+ * ```
+ */
 export interface ReluctanceOptions extends TubeInitialCondition {
   readonly from: MagneticNode;
   readonly to: MagneticNode;
@@ -78,7 +115,16 @@ export interface ReluctanceOptions extends TubeInitialCondition {
   readonly area?: number;
 }
 
-/** Options of {@link NetworkBuilder.winding}. */
+/**
+ * Options of {@link NetworkBuilder.winding}.
+ *
+ * @example
+ * ```ts
+ * // Wound against the tube's direction: positive current drives flux from `to` to `from`.
+ * const options: WindingOptions = { tube: rightLeg, turns: 116, resistance: 0.15, plus: mid, minus: net.ground, orientation: -1 };
+ * net.winding('secondary right', options);
+ * ```
+ */
 export interface WindingOptions {
   /** The flux tube the winding encircles. */
   readonly tube: FluxTube;
@@ -97,7 +143,16 @@ export interface WindingOptions {
   readonly orientation?: 1 | -1;
 }
 
-/** Options of {@link NetworkBuilder.switch}. */
+/**
+ * Options of {@link NetworkBuilder.switch}.
+ *
+ * @example
+ * ```ts
+ * // Open at first, closed at 5 ms, open again at 40 ms.
+ * const breaker: SwitchOptions = { onResistance: 1e-3, schedule: [{ time: 0.005, closed: true }, { time: 0.04, closed: false }] };
+ * net.switch('breaker', supply, line, breaker);
+ * ```
+ */
 export interface SwitchOptions {
   /** Resistance when closed, ohm. Default 1e-3. */
   readonly onResistance?: number;

@@ -4,7 +4,17 @@ import type { ExportColumn } from '../result/export.js';
 import type { SimulationResult } from '../result/simulation-result.js';
 import type { MetricRow, MetricTable, NetworkRow, PlotGroup, PlotSeries, ReportData, ReportInfoItem, ReportSection } from './report-data.js';
 
-/** A plot of a result: a title and the quantities to draw (see {@link ExportColumn}). */
+/**
+ * A plot of a result: a title and the quantities to draw (see {@link ExportColumn}).
+ *
+ * @example
+ * ```ts
+ * const plot: ResultPlot = {
+ *   title: 'Primary',
+ *   series: [{ quantity: 'current', handle: primary, label: 'current' }, { quantity: 'voltage', handle: primary, label: 'voltage' }],
+ * };
+ * ```
+ */
 export interface ResultPlot {
   readonly title: string;
   readonly description?: string;
@@ -13,7 +23,20 @@ export interface ResultPlot {
   readonly saturationLines?: boolean;
 }
 
-/** Options of {@link resultReport}. */
+/**
+ * Options of {@link resultReport}.
+ *
+ * @example
+ * ```ts
+ * const options: ResultReportOptions = {
+ *   title: 'Energisation at a voltage zero',
+ *   subtitle: 'Remanence 0.8 T (invented design)',
+ *   plots: [{ title: 'Flux density', series: [{ quantity: 'fluxDensity', handle: leg, label: 'wound leg' }] }],
+ *   metrics: [{ title: 'Study', rows: [{ name: 'peak inrush', value: 97.3, unit: 'A' }] }],
+ * };
+ * writeReport('out/energisation.html', resultReport(result, options));
+ * ```
+ */
 export interface ResultReportOptions {
   readonly title: string;
   readonly subtitle?: string;

@@ -11,6 +11,15 @@
  * Right-hand side f(t, y) of M y' = f(t, y), written into `out` (length n).
  * The function must not keep references to `y` or `out`; it may throw, in
  * which case the solver stops with status `'rhs-error'` and keeps all data.
+ *
+ * @example
+ * ```ts
+ * // Van der Pol oscillator, mu = 1000: y1' = y2, y2' = mu (1 - y1^2) y2 - y1
+ * const rhs: RhsFunction = (_t, y, out) => {
+ *   out[0] = y[1]!;
+ *   out[1] = 1000 * (1 - y[0]! ** 2) * y[1]! - y[0]!;
+ * };
+ * ```
  */
 export type RhsFunction = (t: number, y: Float64Array, out: Float64Array) => void;
 
@@ -18,12 +27,29 @@ export type RhsFunction = (t: number, y: Float64Array, out: Float64Array) => voi
  * Analytic Jacobian df/dy at (t, y), written into `out` (row-major n*n).
  * `out` is zero-filled by the caller before each call, so a sparse stamp may
  * write only its non-zero entries.
+ *
+ * @example
+ * ```ts
+ * // Jacobian of the Van der Pol right-hand side above (n = 2, entry (i, j) at i*2 + j)
+ * const jacobian: JacobianFunction = (_t, y, out) => {
+ *   out[1] = 1;
+ *   out[2] = -2000 * y[0]! * y[1]! - 1;
+ *   out[3] = 1000 * (1 - y[0]! ** 2);
+ * };
+ * ```
  */
 export type JacobianFunction = (t: number, y: Float64Array, out: Float64Array) => void;
 
 /**
  * A mass matrix given either as row-major Float64Array (n*n) or as an array
  * of n rows of n numbers.
+ *
+ * @example
+ * ```ts
+ * // Two differential unknowns and one algebraic (a conservation law): both forms are the same matrix.
+ * const rows: MassMatrixInput = [[1, 0, 0], [0, 1, 0], [0, 0, 0]];
+ * const flat: MassMatrixInput = Float64Array.of(1, 0, 0, 0, 1, 0, 0, 0, 0);
+ * ```
  */
 export type MassMatrixInput = Float64Array | readonly (readonly number[])[];
 
@@ -92,7 +118,14 @@ export interface DaeProblem {
   readonly index2?: readonly number[];
 }
 
-/** Progress report passed to {@link SolveDaeOptions.onProgress}. */
+/**
+ * Progress report passed to {@link SolveDaeOptions.onProgress}.
+ *
+ * @example
+ * ```ts
+ * solveDae(problem, { onProgress: (p: DaeProgress) => console.log(`${(100 * p.fraction).toFixed(0)} % at t = ${p.t}`) });
+ * ```
+ */
 export interface DaeProgress {
   /** Time reached by the last accepted step. */
   readonly t: number;
@@ -151,6 +184,13 @@ export interface SolveDaeOptions {
 
 /**
  * Outcome of a run.
+ *
+ * @example
+ * ```ts
+ * const status: DaeStatus = solveDae(problem).status;
+ * if (status === 'step-budget') console.warn('raise maxSteps or loosen the tolerances');
+ * ```
+ *
  * - `'success'`: reached tEnd.
  * - `'terminal-event'`: a terminal event fired; `events` tells which.
  * - `'step-size-underflow'`: the step size fell below the round-off limit
@@ -178,7 +218,14 @@ export type DaeStatus =
   | 'time-budget'
   | 'aborted';
 
-/** Counts of the work done; every evaluation is counted. */
+/**
+ * Counts of the work done; every evaluation is counted.
+ *
+ * @example
+ * ```ts
+ * const { acceptedSteps, rejectedSteps, luFactorizations }: SolverStats = solveDae(problem).stats;
+ * ```
+ */
 export interface SolverStats {
   acceptedSteps: number;
   rejectedSteps: number;
@@ -194,7 +241,14 @@ export interface SolverStats {
   newtonFailures: number;
 }
 
-/** A located event. */
+/**
+ * A located event.
+ *
+ * @example
+ * ```ts
+ * for (const e of solveDae(problem).events) console.log(`${e.name} at t = ${e.t}`);
+ * ```
+ */
 export interface DaeEventRecord {
   /** Index in `problem.events`. */
   readonly index: number;
@@ -203,7 +257,15 @@ export interface DaeEventRecord {
   readonly y: Float64Array;
 }
 
-/** Where and why a run stopped early. */
+/**
+ * Where and why a run stopped early.
+ *
+ * @example
+ * ```ts
+ * const { failure } = solveDae(problem);
+ * if (failure) console.warn(`stopped at t = ${failure.t}; components ${failure.components.join(', ')}`);
+ * ```
+ */
 export interface DaeFailure {
   /** Time of the last accepted step (data up to here is valid). */
   readonly t: number;
