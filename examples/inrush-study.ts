@@ -52,9 +52,8 @@ function transformer(switchingAngleDeg: number, remanence: number) {
     windowWidth: mm(60), windowHeight: mm(140),
   });
   const net = createNetwork('2.5 kVA transformer');
-  // Remanence is given on the left leg; the rest of the iron loop carries the same flux. The layout has
-  // no `windings`, hence no leakage path: with one, part of the remanent flux would start in the leakage
-  // path (see docs/guide/geometry.md, "Things to know").
+  // Remanence is given on the left leg; the rest of the iron loop carries the same flux (the least-energy
+  // division keeps it in the iron). Both windings sit on the left leg's tube: no leakage path is modelled.
   const core = addCoreLayout(net, layout, { material: steel, initialFluxDensity: { left: remanence } });
 
   // Supply: an ideal source behind a short-circuit impedance (invented: about 4 % of the rated impedance).

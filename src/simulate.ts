@@ -101,7 +101,6 @@ export function simulate(network: NetworkBuilder | NetworkDescription, options: 
   const tEnd = options.stopTime;
   checkOptions(options, t0, tEnd);
   const sampleTimes = samplingTimes(options.sampling, t0, tEnd);
-  const started = Date.now();
   let lastProgress = -Infinity;
   const run = new NetworkRun(compiled, {
     t0,
@@ -143,9 +142,10 @@ export function simulate(network: NetworkBuilder | NetworkDescription, options: 
     finalState: run.y,
     stats: run.stats,
     status,
-    message: status === 'success' ? `reached t = ${tEnd} s in ${run.stats.acceptedSteps} steps (${Date.now() - started} ms)` : run.message,
+    message: status === 'success' ? `reached t = ${tEnd} s` : run.message,
     failure: status === 'success' ? undefined : run.failure,
     adjustedAtStart: run.adjustedAtStart,
+    project: run.project,
   });
 }
 

@@ -181,7 +181,7 @@ export function periodicSteadyState(network: NetworkBuilder | NetworkDescription
       compiled, networkId, samples: run.samples, intervals: run.intervals, steps: run.steps,
       initialState: run.initialState, finalState: run.y, stats: run.stats, status: runStatus,
       message: runStatus === 'success' ? `one period from the ${status === 'converged' ? 'periodic' : 'last'} state` : run.message,
-      failure: runStatus === 'success' ? undefined : run.failure, adjustedAtStart: run.adjustedAtStart,
+      failure: runStatus === 'success' ? undefined : run.failure, adjustedAtStart: run.adjustedAtStart, project: run.project,
     });
     return { status, message, state: run.initialState ?? y, iterations, periods, residuals, result, stats };
   }

@@ -7,6 +7,8 @@ export interface AuditInput {
   readonly intervals: readonly { readonly start: number; readonly end: number }[];
   readonly start: Float64Array | undefined;
   readonly end: Float64Array | undefined;
+  /** Projects an interpolated state onto the algebraic equations (absent: use the interpolant as is). */
+  readonly project?: (t: number, y: Float64Array) => void;
 }
 
 /**
@@ -49,12 +51,17 @@ const G4_X = [0.3399810435848563, 0.8611363115940526];
 const G4_W = [0.6521451548625461, 0.3478548451374538];
 const NODES = [0.5 - G4_X[1]! / 2, 0.5 - G4_X[0]! / 2, 0.5 + G4_X[0]! / 2, 0.5 + G4_X[1]! / 2];
 const WEIGHTS = [G4_W[1]! / 2, G4_W[0]! / 2, G4_W[0]! / 2, G4_W[1]! / 2];
+/** Relative agreement of the halves with the whole that ends the subdivision of a step. */
+const AUDIT_TOLERANCE = 1e-10;
+/** Deepest subdivision of one step (2^8 panels). */
+const MAX_DEPTH = 8;
 
 /**
- * Integrate source power and losses over every accepted step with 4-point
- * Gauss-Legendre quadrature on the solver's dense output (exact for the
- * degree-6 polynomials that products of the cubic collocation polynomials
- * form), and compare with the stored energy at both ends.
+ * Integrate source power and losses over every accepted step with adaptive
+ * 4-point Gauss-Legendre quadrature on the solver's dense output (panels
+ * halved until they agree to 1e-10), the algebraic unknowns at each point
+ * solved from the algebraic equations (projection), and compare with the
+ * stored energy at both ends.
  *
  * @example
  * ```ts
@@ -134,16 +141,39 @@ export function computeEnergyAudit(
 
   const sum = [0, 0, 0, 0, 0];
   const y = new Float64Array(L.size);
+  /** 4-point Gauss-Legendre of the five power integrands over [a, b] of a step. */
+  const gauss = (step: RecordedStep, a: number, b: number): number[] => {
+    const out = [0, 0, 0, 0, 0];
+    const h = b - a;
+    for (let g = 0; g < 4; g++) {
+      const t = a + NODES[g]! * h;
+      evaluateRecordedStep(step, t, c.index2, y);
+      run.project?.(t, y);
+      const pw = powers(t, y);
+      for (let q = 0; q < 5; q++) out[q]! += WEIGHTS[g]! * h * pw[q]!;
+    }
+    return out;
+  };
+  // Adaptive: a step's integrand (say the copper loss of a saturating winding over a long step) need
+  // not be polynomial; halve until the halves agree with the whole to AUDIT_TOLERANCE of its energy.
+  const adaptive = (step: RecordedStep, a: number, b: number, whole: number[], depth: number): number[] => {
+    const m = 0.5 * (a + b);
+    const left = gauss(step, a, m);
+    const right = gauss(step, m, b);
+    const halves = left.map((x, q) => x + right[q]!);
+    const size = Math.max(...halves.map(Math.abs), Number.MIN_VALUE);
+    const change = Math.max(...halves.map((x, q) => Math.abs(x - whole[q]!)));
+    if (depth >= MAX_DEPTH || change <= AUDIT_TOLERANCE * size) return halves;
+    const l = adaptive(step, a, m, left, depth + 1);
+    const r = adaptive(step, m, b, right, depth + 1);
+    return l.map((x, q) => x + r[q]!);
+  };
   for (const step of run.steps) {
     const interval = run.intervals[step.interval]!;
     c.inputs.setInterval(interval.start, interval.end);
-    const h = step.t - step.tOld;
-    if (h <= 0) continue;
-    for (let g = 0; g < 4; g++) {
-      const t = step.tOld + NODES[g]! * h;
-      const pw = powers(t, evaluateRecordedStep(step, t, c.index2, y));
-      for (let q = 0; q < 5; q++) sum[q]! += WEIGHTS[g]! * h * pw[q]!;
-    }
+    if (step.t - step.tOld <= 0) continue;
+    const part = adaptive(step, step.tOld, step.t, gauss(step, step.tOld, step.t), 0);
+    for (let q = 0; q < 5; q++) sum[q]! += part[q]!;
   }
   const storedStart = run.start ? stored(run.start) : 0;
   const storedEnd = run.end ? stored(run.end) : 0;

@@ -43,6 +43,8 @@ export interface SimulationResultInit {
   readonly failure: DaeFailure | undefined;
   /** Differential unknowns the initialisation moved to meet index-2 hidden constraints. */
   readonly adjustedAtStart: readonly number[];
+  /** Projection of interpolated states onto the algebraic equations (for the energy audit). */
+  readonly project?: (t: number, y: Float64Array) => void;
 }
 
 /**
@@ -93,6 +95,7 @@ export class SimulationResult {
   private readonly steps: readonly RecordedStep[];
   private readonly finalState: Float64Array;
   private readonly initialState: Float64Array | undefined;
+  private readonly project: ((t: number, y: Float64Array) => void) | undefined;
   private readonly cache = new Map<string, Float64Array>();
   private audit: EnergyAudit | undefined;
   private readonly reader: StateReader;
@@ -111,6 +114,7 @@ export class SimulationResult {
     this.steps = init.steps;
     this.finalState = init.finalState;
     this.initialState = init.initialState;
+    this.project = init.project;
     this.status = init.status;
     this.message = init.message;
     this.stats = Object.freeze({ ...init.stats });
@@ -305,7 +309,7 @@ export class SimulationResult {
   energy(): EnergyAudit {
     this.audit ??= computeEnergyAudit(
       this.compiled,
-      { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState },
+      { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState, ...(this.project ? { project: this.project } : {}) },
       (b, y, t) => this.reader.fluxDerivative(b, y, t),
     );
     return this.audit;

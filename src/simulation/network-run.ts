@@ -3,6 +3,7 @@ import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } from '../solver/dae-integrator.js';
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
+import { createProjector } from './projection.js';
 import { nextUp, type InputState } from '../formulation/network-inputs.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 
@@ -111,11 +112,17 @@ export class NetworkRun {
   private readonly horizon: number;
   private lastIntervalLength = 0;
   private readonly adjusted = new Set<number>();
+  /**
+   * Projects an interpolated state onto the algebraic equations (see
+   * createProjector); the inputs' interval must be set for t.
+   */
+  readonly project: (t: number, y: Float64Array) => void;
 
   constructor(compiled: CompiledNetwork, settings: RunSettings) {
     this.compiled = compiled;
     this.index2 = compiled.index2;
     this.horizon = settings.horizon;
+    this.project = createProjector(compiled, settings.atol, settings.rtol);
     this.integ = createDaeIntegrator(
       {
         size: compiled.layout.size,
@@ -224,14 +231,17 @@ export class NetworkRun {
         }
         for (const e of r.events) this.events.push(e);
         const step = this.recordStep(record);
-        if (record.steps) this.pushSample(this.t, this.integ.y);
-        while (nextSample < samples.length && samples[nextSample]! <= this.t) {
+        // Samples inside the step first (time order), then the step's end.
+        while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
-          if (!(record.steps && ts === this.t)) {
-            this.pushSample(ts, ts === this.t ? this.integ.y : evaluateRecordedStep(step, ts, this.index2));
-          }
+          const y = evaluateRecordedStep(step, ts, this.index2);
+          this.project(ts, y);
+          this.pushSample(ts, y);
           nextSample++;
         }
+        const endIsSample = nextSample < samples.length && samples[nextSample] === this.t;
+        if (endIsSample) nextSample++;
+        if (record.steps || endIsSample) this.pushSample(this.t, this.integ.y);
         record.onStep?.(this.t);
         if (r.status === 'terminal-event') {
           this.statusCur = 'terminal-event';

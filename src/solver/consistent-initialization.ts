@@ -108,7 +108,7 @@ const UPDATE_TOLERANCE = 1e-6;
  *
  * @internal
  */
-export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Array): ConsistencyOutcome {
+export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Array, moveDifferential = true): ConsistencyOutcome {
   const { n, spaces, scale } = ctx;
   const { k, v0, w0 } = spaces;
   if (k === 0) return { ok: true, iterations: 0 };
@@ -164,7 +164,7 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
       }
     }
     const badPivot = lu.factor(jr);
-    if (badPivot >= 0) return leastChangeConsistent(ctx, t, y);
+    if (badPivot >= 0) return leastChangeConsistent(ctx, t, y, moveDifferential);
     for (let j = 0; j < k; j++) dz[j] = -r[j]!;
     lu.solve(dz);
     toY(dz, dy);
@@ -232,11 +232,13 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
  * underdetermined systems (e.g. Deuflhard, Newton Methods for Nonlinear
  * Problems, Springer 2004, sect. 4.4 on underdetermined problems; from
  * memory). Converged when each algebraic residual is below what a move of
- * one tolerance could change (sum_i |(W0^T J)_ji| scale_i).
+ * one tolerance could change (sum_i |(W0^T J)_ji| scale_i). With
+ * `moveDifferential` false only phase 1 runs (projection of an interpolated
+ * state, which must keep its differential content).
  *
  * @internal
  */
-function leastChangeConsistent(ctx: ConsistencyContext, t: number, y: Float64Array): ConsistencyOutcome {
+function leastChangeConsistent(ctx: ConsistencyContext, t: number, y: Float64Array, moveDifferential: boolean): ConsistencyOutcome {
   const { n, spaces, scale } = ctx;
   const { k, v0, w0 } = spaces;
   const f = new Float64Array(n);
@@ -275,7 +277,7 @@ function leastChangeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
   for (let i = 0; i < n; i++) for (let j = 0; j < k; j++) v0m.set(i, j, v0[i * k + j]!);
 
   let iterations = 0;
-  for (const phase of [1, 2] as const) {
+  for (const phase of moveDifferential ? ([1, 2] as const) : ([1] as const)) {
     for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
       iterations++;
       const { r, bad } = residual(y);

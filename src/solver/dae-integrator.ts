@@ -848,7 +848,9 @@ class RadauIntegrator implements DaeIntegrator {
       // Land exactly on the target (stretching the step a little rather than leaving a sliver).
       let tNew = t + h;
       let landed = false;
-      if (tNew >= tTarget || tTarget - t <= Math.min(LANDING_STRETCH * h, p.maxStep)) {
+      // maxStep may be exceeded by round-off (1e-8 relative): steps of exactly maxStep that
+      // should add up to a breakpoint would otherwise leave a sliver of a few ulp.
+      if (tNew >= tTarget || tTarget - t <= Math.min(LANDING_STRETCH * h, p.maxStep * (1 + 1e-8))) {
         tNew = tTarget;
         h = tTarget - t;
         landed = true;

@@ -419,6 +419,7 @@ export class NetworkStepper {
       message: status === 'success' ? `stepped to t = ${this.time} s` : this.run.message,
       failure: status === 'success' ? undefined : this.run.failure,
       adjustedAtStart: this.run.adjustedAtStart,
+      project: this.run.project,
     });
   }
 
