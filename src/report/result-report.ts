@@ -55,7 +55,7 @@ export interface ResultReportOptions {
 const LABEL: Record<ExportColumn['quantity'], [string, string]> = {
   flux: ['Flux', 'Wb'], fluxDensity: ['Flux density', 'T'], fieldStrength: ['Field strength', 'A/m'], mmf: ['MMF drop', 'A'],
   eddyPower: ['Eddy power', 'W'], current: ['Current', 'A'], voltage: ['Voltage', 'V'], power: ['Power', 'W'], emf: ['EMF', 'V'],
-  fluxLinkage: ['Flux linkage', 'Wb'], potential: ['Potential', 'V'], magneticPotential: ['Magnetic potential', 'A'],
+  fluxLinkage: ['Flux linkage', 'Wb'], copperLoss: ['Copper loss', 'W'], potential: ['Potential', 'V'], magneticPotential: ['Magnetic potential', 'A'],
 };
 
 /**

@@ -4,7 +4,7 @@ import type { NetworkDescription } from '../network/description.js';
 import type { ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from '../network/handles.js';
 import { StateReader, type QuantityRequest } from './state-reader.js';
 import type { DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
-import type { RecordedStep } from '../simulation/recorded-step.js';
+import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
 import type { RunSample } from '../simulation/network-run.js';
 import { computeEnergyAudit, type EnergyAudit } from './energy-audit.js';
 import { resultToCsv, resultToJson, type CsvOptions, type ResultJson } from './export.js';
@@ -353,6 +353,57 @@ export class SimulationResult {
    */
   toJSON(): ResultJson {
     return resultToJson(this);
+  }
+
+  /**
+   * Copper loss of a winding, W: R i^2 (its `power` v i also carries the
+   * energy flowing into the core).
+   *
+   * @example
+   * ```ts
+   * const p = r.copperLoss(primary);
+   * ```
+   */
+  copperLoss(winding: Winding): Float64Array {
+    return this.read({ quantity: 'copperLoss', handle: winding });
+  }
+
+  /**
+   * A quantity at any time of the run, for the metrics that take a dense
+   * evaluator (`at` option): the state comes from the collocation polynomial
+   * of the solver step that contains t, with the algebraic unknowns solved
+   * from the network's equations there. At a switching instant it gives the
+   * value just after.
+   *
+   * @example
+   * ```ts
+   * const iAt = r.evaluator({ quantity: 'current', handle: primary });
+   * const peak = seriesPeak(r.time, r.current(primary), { at: iAt });
+   * ```
+   */
+  evaluator(request: QuantityRequest): (t: number) => number {
+    const fn = this.reader.build(request);
+    const steps = this.steps;
+    const y = new Float64Array(this.compiled.layout.size);
+    return (t) => {
+      if (steps.length === 0 || !(t >= steps[0]!.tOld && t <= steps[steps.length - 1]!.t)) {
+        throw new InputError('outside-result', `evaluator: t = ${t} s lies outside the simulated span`, []);
+      }
+      // Last step with tOld <= t (a switching instant belongs to the step that starts there).
+      let lo = 0;
+      let hi = steps.length - 1;
+      while (lo < hi) {
+        const mid = (lo + hi + 1) >> 1;
+        if (steps[mid]!.tOld <= t) lo = mid;
+        else hi = mid - 1;
+      }
+      const step = steps[lo]!;
+      const interval = this.intervals[step.interval]!;
+      this.compiled.inputs.setInterval(interval.start, interval.end);
+      evaluateRecordedStep(step, t, this.compiled.index2, y);
+      this.project?.(t, y);
+      return fn(y, t);
+    };
   }
 
   /**

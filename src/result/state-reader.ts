@@ -8,7 +8,7 @@ import type { AnyHandle, ElectricNode, FluxTube, MagneticNode, TwoTerminal, Wind
 export type QuantityRequest =
   | { readonly quantity: 'flux' | 'fluxDensity' | 'fieldStrength' | 'mmf' | 'eddyPower'; readonly handle: FluxTube }
   | { readonly quantity: 'current' | 'voltage' | 'power'; readonly handle: TwoTerminal }
-  | { readonly quantity: 'emf' | 'fluxLinkage'; readonly handle: Winding }
+  | { readonly quantity: 'emf' | 'fluxLinkage' | 'copperLoss'; readonly handle: Winding }
   | { readonly quantity: 'potential'; readonly handle: ElectricNode }
   | { readonly quantity: 'magneticPotential'; readonly handle: MagneticNode };
 
@@ -18,7 +18,7 @@ export type QuantityName = QuantityRequest['quantity'];
 /** SI unit of each quantity. */
 export const QUANTITY_UNITS: Readonly<Record<QuantityName, string>> = Object.freeze({
   flux: 'Wb', fluxDensity: 'T', fieldStrength: 'A/m', mmf: 'A', eddyPower: 'W',
-  current: 'A', voltage: 'V', power: 'W', emf: 'V', fluxLinkage: 'Wb', potential: 'V', magneticPotential: 'A',
+  current: 'A', voltage: 'V', power: 'W', emf: 'V', fluxLinkage: 'Wb', copperLoss: 'W', potential: 'V', magneticPotential: 'A',
 });
 
 /** Evaluates one quantity at a state y and time t (the inputs' interval must be set for t). */
@@ -129,6 +129,12 @@ export class StateReader {
         const w = d.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
         const bi = c.layout.branchCurrent[e]!;
         return (y) => this.elementVoltage(e, y) - w.resistance * y[bi]!;
+      }
+      case 'copperLoss': {
+        const e = this.checkHandle(request.handle, 'winding').index;
+        const w = d.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
+        const bi = c.layout.branchCurrent[e]!;
+        return (y) => w.resistance * y[bi]! * y[bi]!;
       }
       case 'fluxLinkage': {
         const e = this.checkHandle(request.handle, 'winding').index;
