@@ -49,17 +49,19 @@ function inrushJob(): SweepJob {
   };
 }
 
-/** Median wall time of `repeats` sweeps, and the last result. */
-async function timeSweep(run: () => Promise<SweepResult>, repeats: number): Promise<{ ms: number; result: SweepResult }> {
-  const times: number[] = [];
+/** Median wall time of `repeats` sweeps, the CPU time of that run (all threads of this process), and the last result. */
+async function timeSweep(run: () => Promise<SweepResult>, repeats: number): Promise<{ ms: number; cpuMs: number; result: SweepResult }> {
+  const runs: { ms: number; cpuMs: number }[] = [];
   let result: SweepResult | undefined;
   for (let r = 0; r < repeats; r++) {
     const t0 = performance.now();
+    const c0 = process.cpuUsage();
     result = await run();
-    times.push(performance.now() - t0);
+    const c = process.cpuUsage(c0);
+    runs.push({ ms: performance.now() - t0, cpuMs: (c.user + c.system) / 1000 });
   }
-  times.sort((a, b) => a - b);
-  return { ms: times[Math.floor(times.length / 2)]!, result: result! };
+  runs.sort((a, b) => a.ms - b.ms);
+  return { ...runs[Math.floor(runs.length / 2)]!, result: result! };
 }
 
 export async function benchSweep(): Promise<void> {
@@ -75,14 +77,17 @@ export async function benchSweep(): Promise<void> {
 
   const serial = await timeSweep(() => built.runSweep(job, { inProcess: true }), 1);
   const same = (r: SweepResult): boolean => JSON.stringify(built.sweepResultToJson(r).cases) === JSON.stringify(built.sweepResultToJson(serial.result).cases);
-  const rows: (string | number)[][] = [['in process', 1, serial.ms, '1.00', serial.result.counts.success, 'reference']];
+  // CPU time / wall time: how many cores the run actually got (the machine may be shared).
+  const row = (mode: string, threads: number, t: { ms: number; cpuMs: number; result: SweepResult }, identical: string): (string | number)[] =>
+    [mode, threads, t.ms, (serial.ms / t.ms).toFixed(2), (t.cpuMs / t.ms).toFixed(2), t.result.counts.success, identical];
+  const rows: (string | number)[][] = [row('in process', 1, serial, 'reference')];
   for (const c of [...new Set([1, 2, cores])].sort((a, b) => a - b)) {
     const w = await timeSweep(() => built.runSweep(job, { concurrency: c }), 1);
-    rows.push(['workers', c, w.ms, (serial.ms / w.ms).toFixed(2), w.result.counts.success, same(w.result) ? 'yes' : 'NO']);
+    rows.push(row('workers', c, w, same(w.result) ? 'yes' : 'NO'));
   }
   const ts = await timeSweep(() => fromSources.runSweep(job, { concurrency: cores }), 1);
-  rows.push(['workers, TS sources (tsx)', cores, ts.ms, (serial.ms / ts.ms).toFixed(2), ts.result.counts.success, same(ts.result) ? 'yes' : 'NO']);
-  printTable(['mode', 'threads', 'wall ms', 'speedup vs in process', 'cases ok', 'results identical'], rows);
+  rows.push(row('workers, TS sources (tsx)', cores, ts, same(ts.result) ? 'yes' : 'NO'));
+  printTable(['mode', 'threads', 'wall ms', 'speedup vs in process', 'cores used (cpu/wall)', 'cases ok', 'results identical'], rows);
   const oneCase = await timeSweep(() => built.runSweep({ ...job, range: { start: 0, end: 1 } }, { inProcess: true }), 3);
   const oneOnWorker = await timeSweep(() => built.runSweep({ ...job, range: { start: 0, end: 1 } }, { concurrency: 1 }), 3);
   console.log(
