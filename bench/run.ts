@@ -2,7 +2,8 @@
  * `npm run bench`: our Radau IIA (solveDae) against odex 2.0.4 (Hairer's
  * non-stiff extrapolation code) on the stiff test set at the same
  * tolerances, the linear-algebra kernels, the kernels inside the solver, and,
- * when SciPy is importable, SciPy's solve_ivp (Radau, BDF). Prints tables;
+ * when SciPy is importable, SciPy's solve_ivp (Radau, BDF), and the sweep
+ * speedup on worker threads (bench/sweep.ts). Prints tables;
  * wall times are medians of a few repeats. Total run time about a minute.
  */
 import { solveDae, type DaeProblem, type SolveDaeOptions } from '../src/index.js';
@@ -11,6 +12,7 @@ import { benchLinearAlgebra } from './linear-algebra.js';
 import { hires, maxRelativeError, rcLadder, ringModulator, robertsonDae, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
 import { benchScipy } from './scipy.js';
 import { benchPeriodicSteadyState } from './pss.js';
+import { benchSweep } from './sweep.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -136,4 +138,5 @@ benchKernelsInSolver();
 benchAgainstOdex();
 benchScipy();
 benchPeriodicSteadyState();
+await benchSweep();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);

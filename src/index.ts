@@ -115,6 +115,7 @@ export type {
   SwitchDescription,
   WindingDescription,
 } from './network/description.js';
+export { handlesOf, type DescriptionHandles } from './network/handles-of.js';
 export { simulate } from './simulate.js';
 export type { SimulateOptions, AbsoluteTolerances, Sampling, SimulationProgress } from './simulate.js';
 export { SimulationResult } from './result/simulation-result.js';

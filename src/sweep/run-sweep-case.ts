@@ -1,0 +1,99 @@
+import { FluxstateError } from '../errors.js';
+import type { ElementDescription, NetworkDescription } from '../network/description.js';
+import { handlesOf } from '../network/handles-of.js';
+import { simulate, type SimulateOptions } from '../simulate.js';
+import { resolveFunctionWaveform } from '../waveforms/resolve-function-waveform.js';
+import { applySweepEdits } from './apply-sweep-edits.js';
+import { computeOutputs } from './compute-outputs.js';
+import { networkFromDescription } from './network-from-description.js';
+import { sweepCase } from './sweep-cases.js';
+import type { SweepJob } from './sweep-job.js';
+import type { SweepCaseResult } from './sweep-result.js';
+
+/**
+ * Options of {@link runSweepCase}.
+ *
+ * @example
+ * ```ts
+ * const options: RunSweepCaseOptions = { baseUrl: new URL('./jobs/', import.meta.url) };
+ * ```
+ */
+export interface RunSweepCaseOptions {
+  /** Base for relative module paths of function waveforms (a directory URL with a trailing slash). Default: the working directory. */
+  readonly baseUrl?: string | URL;
+  /** Stops the case's simulation; the case then ends `'cancelled'`. */
+  readonly signal?: AbortSignal;
+}
+
+/**
+ * Import the modules of function waveforms given by reference (module and
+ * export) and return a description whose sources carry the functions. The
+ * input is not modified.
+ *
+ * @example
+ * ```ts
+ * const live = await resolveFunctionWaveforms(description, { baseUrl: pathToFileURL('jobs/') });
+ * ```
+ */
+export async function resolveFunctionWaveforms(
+  description: NetworkDescription,
+  options: { readonly baseUrl?: string | URL } = {},
+): Promise<NetworkDescription> {
+  let changed = false;
+  const elements: ElementDescription[] = [];
+  for (const e of description.elements) {
+    if ((e.kind === 'voltage-source' || e.kind === 'current-source') && e.waveform.kind === 'function' && e.waveform.fn === undefined) {
+      const waveform = await resolveFunctionWaveform(e.waveform, `${e.kind} "${e.name}"`, options.baseUrl !== undefined ? { baseUrl: options.baseUrl } : {});
+      elements.push({ ...e, waveform });
+      changed = true;
+    } else {
+      elements.push(e);
+    }
+  }
+  return changed ? { ...description, elements } : description;
+}
+
+/** The job's simulate options as `SimulateOptions`. */
+function simulateOptions(job: SweepJob, signal: AbortSignal | undefined): SimulateOptions {
+  return { ...job.simulate, ...(signal !== undefined ? { signal } : {}) };
+}
+
+/**
+ * Run one case of a sweep in this thread and return its plain-data result:
+ * apply the case's values to the base network, import function waveforms
+ * named by module, rebuild the network through the builder (checking every
+ * value), simulate, and compute the outputs. Never throws for a failing
+ * case: the failure is the case's status and message. This is the code
+ * path of every case, in process and in a worker; call it alone to debug
+ * one case. The job should have passed {@link parseSweepJob}.
+ *
+ * @example
+ * ```ts
+ * const c = await runSweepCase(parseSweepJob(json), 17);
+ * console.log(c.status, c.message, c.outputs);
+ * ```
+ */
+export async function runSweepCase(job: SweepJob, index: number, options: RunSweepCaseOptions = {}): Promise<SweepCaseResult> {
+  const c = sweepCase(job, index);
+  const base = { index, parameters: c.parameters };
+  try {
+    const edited = applySweepEdits(job.network, c.edits);
+    const resolved = await resolveFunctionWaveforms(edited, options.baseUrl !== undefined ? { baseUrl: options.baseUrl } : {});
+    const description = networkFromDescription(resolved).describe();
+    const result = simulate(description, simulateOptions(job, options.signal));
+    const simulation = { status: result.status, reachedTime: result.time[result.time.length - 1] ?? Number.NaN, stats: { ...result.stats } };
+    if (result.status === 'aborted' && options.signal?.aborted) {
+      return { ...base, status: 'cancelled', message: 'cancelled while running', outputs: {}, simulation };
+    }
+    const complete = result.status === 'success';
+    const { outputs, notes } = computeOutputs(result, handlesOf(description), job.outputs, complete);
+    const time = job.outputs.some((o) => o.metric === 'series') ? { time: Float64Array.from(result.time) } : {};
+    const message = [result.message, ...notes].join('; ');
+    return { ...base, status: complete ? 'success' : 'incomplete', message, outputs, ...time, simulation };
+  } catch (e) {
+    const error = e instanceof FluxstateError
+      ? { name: e.name, code: e.code, elements: [...e.elements] }
+      : { name: e instanceof Error ? e.name : 'Error' };
+    return { ...base, status: 'error', message: e instanceof Error ? e.message : String(e), outputs: {}, error };
+  }
+}

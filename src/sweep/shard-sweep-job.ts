@@ -1,0 +1,98 @@
+import { InputError } from '../errors.js';
+import { parseSweepJob } from './parse-sweep-job.js';
+import { sweepCaseCount } from './sweep-cases.js';
+import type { SweepJob } from './sweep-job.js';
+import { emptyCounts, type SweepCaseResult, type SweepResult } from './sweep-result.js';
+
+/**
+ * Split a job into `shards` jobs over consecutive, near-equal ranges of its
+ * cases (within its own `range`, if it has one), for a batch system or job
+ * queue: each shard is a complete job file that any machine can run alone;
+ * case indices in the shards' results are those of the whole job, so
+ * {@link mergeSweepResults} puts them back together. Shards never overlap,
+ * and together they cover every case; with more shards than cases the
+ * extra shards are left out.
+ *
+ * @example
+ * ```ts
+ * shardSweepJob(job, 4).forEach((shard, k) => writeFileSync(`jobs/shard-${k}.json`, JSON.stringify(shard)));
+ * ```
+ */
+export function shardSweepJob(job: SweepJob, shards: number): SweepJob[] {
+  if (!(Number.isInteger(shards) && shards >= 1)) {
+    throw new InputError('sweep-bad-option', `shard count ${String(shards)} must be an integer >= 1`, ['shards']);
+  }
+  const checked = parseSweepJob(job);
+  const { start, end } = checked.range ?? { start: 0, end: sweepCaseCount(checked) };
+  const n = end - start;
+  const count = Math.max(1, Math.min(shards, n));
+  return Array.from({ length: count }, (_, k) => ({
+    ...checked,
+    ...(checked.name !== undefined ? { name: `${checked.name} [shard ${k + 1}/${count}]` } : {}),
+    range: { start: start + Math.floor((k * n) / count), end: start + Math.floor(((k + 1) * n) / count) },
+  }));
+}
+
+/**
+ * Put the results of a job's shards back together, ordered by case index.
+ * Throws `InputError` `'sweep-bad-shards'` when the results come from
+ * different jobs (other case counts, axes or outputs), when two shards hold
+ * the same case, or when cases are missing (it names the missing ranges:
+ * rerun those shards). The merged `elapsedMs` is the sum over the shards
+ * (compute time, not wall time); `concurrency` is the largest used.
+ *
+ * @example
+ * ```ts
+ * const merged = mergeSweepResults(files.map((f) => sweepResultFromJson(JSON.parse(readFileSync(f, 'utf8')))));
+ * ```
+ */
+export function mergeSweepResults(results: readonly SweepResult[]): SweepResult {
+  const first = results[0];
+  if (first === undefined) throw new InputError('sweep-bad-shards', 'no shard results to merge; give at least one', []);
+  const same = (a: readonly string[], b: readonly string[]): boolean => a.length === b.length && a.every((x, i) => x === b[i]);
+  results.forEach((r, k) => {
+    if (r.total !== first.total || !same(r.axes, first.axes) || !same(r.outputs, first.outputs)) {
+      throw new InputError(
+        'sweep-bad-shards',
+        `shard result ${k} is from another job (${r.total} cases, axes ${r.axes.join(', ')}) than shard 0 (${first.total} cases, axes ${first.axes.join(', ')})`,
+        [`shard ${k}`],
+      );
+    }
+  });
+  const byIndex = new Map<number, SweepCaseResult>();
+  for (const r of results) {
+    for (const c of r.cases) {
+      if (byIndex.has(c.index)) throw new InputError('sweep-bad-shards', `case ${c.index} is in more than one shard result; merge each shard once`, [`case ${c.index}`]);
+      byIndex.set(c.index, c);
+    }
+  }
+  const start = Math.min(...results.map((r) => r.range.start));
+  const end = Math.max(...results.map((r) => r.range.end));
+  const missing: string[] = [];
+  for (let i = start; i < end; i++) {
+    if (byIndex.has(i)) continue;
+    let j = i;
+    while (j + 1 < end && !byIndex.has(j + 1)) j++;
+    missing.push(i === j ? `${i}` : `${i}-${j}`);
+    i = j;
+  }
+  if (missing.length > 0) {
+    throw new InputError('sweep-bad-shards', `cases ${missing.join(', ')} are in no shard result; run the shards that hold them and merge again`, missing);
+  }
+  const cases = [...byIndex.values()].sort((a, b) => a.index - b.index);
+  const counts = emptyCounts();
+  for (const c of cases) counts[c.status]++;
+  return {
+    status: counts.cancelled > 0 ? 'cancelled' : 'complete',
+    ...(first.name !== undefined ? { name: first.name.replace(/ \[shard \d+\/\d+\]$/, '') } : {}),
+    total: first.total,
+    range: { start, end },
+    axes: [...first.axes],
+    outputs: [...first.outputs],
+    cases,
+    counts,
+    mode: results.every((r) => r.mode === 'in-process') ? 'in-process' : 'workers',
+    concurrency: Math.max(...results.map((r) => r.concurrency)),
+    elapsedMs: results.reduce((s, r) => s + r.elapsedMs, 0),
+  };
+}

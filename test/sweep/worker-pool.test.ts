@@ -1,0 +1,80 @@
+import { Worker } from 'node:worker_threads';
+import { describe, expect, it } from 'vitest';
+import { runOnWorkers } from '../../src/sweep/worker-pool.js';
+
+// Workers for the pool's protocol (ready, then one `done` per `run`), as eval'd
+// JavaScript. A task is a number: its result is task * 10, except:
+//   -1: wait (Atomics.wait) until another task has finished, then answer -10;
+//   -2: end the thread with exit code 5;
+//   -3: loop forever.
+const WORKER = `
+const { parentPort, workerData } = require('node:worker_threads');
+const flag = new Int32Array(workerData.shared);
+parentPort.on('message', (m) => {
+  if (m.task === -1) Atomics.wait(flag, 0, 0);
+  if (m.task === -2) process.exit(5);
+  if (m.task === -3) for (;;) {}
+  if (m.task !== -1) { Atomics.store(flag, 0, 1); Atomics.notify(flag, 0); }
+  parentPort.postMessage({ type: 'done', result: m.task * 10 });
+});
+parentPort.postMessage({ type: 'ready' });
+`;
+
+function pool(tasks: number[], size: number, signal?: AbortSignal) {
+  const shared = new SharedArrayBuffer(4);
+  const results: [number, number][] = [];
+  const crashes: [number, string][] = [];
+  const exits: number[] = [];
+  const run = runOnWorkers<number, number>({
+    tasks,
+    size,
+    spawn: () => new Worker(WORKER, { eval: true, workerData: { shared } }),
+    ...(signal ? { signal } : {}),
+    onResult: (task, result) => results.push([task, result]),
+    onCrash: (task, reason) => crashes.push([task, reason]),
+    onWorkerExit: (code) => exits.push(code),
+  });
+  return { run, results, crashes, exits };
+}
+
+describe('runOnWorkers', () => {
+  it('hands tasks out in order but reports them as they finish (task 0 here waits for a later one)', async () => {
+    const p = pool([-1, 1, 2, 3], 2);
+    expect(await p.run).toBe('complete');
+    // Task -1 went first to a worker and could only finish after another task did.
+    expect(p.results.map(([t]) => t)).not.toEqual([-1, 1, 2, 3]);
+    expect(p.results.map(([t]) => t).sort((a, b) => a - b)).toEqual([-1, 1, 2, 3]);
+    expect(Object.fromEntries(p.results)).toEqual({ '-1': -10, 1: 10, 2: 20, 3: 30 });
+    expect(p.exits).toHaveLength(2); // both workers ended when the tasks were done
+  });
+
+  it('loses only the task of a worker that dies, and replaces the worker', async () => {
+    const p = pool([1, -2, 2, 3, 4], 2);
+    expect(await p.run).toBe('complete');
+    expect(p.crashes).toHaveLength(1);
+    expect(p.crashes[0]![0]).toBe(-2);
+    expect(p.crashes[0]![1]).toMatch(/exited with code 5/);
+    expect(p.results.map(([t]) => t).sort()).toEqual([1, 2, 3, 4]);
+    expect(p.exits).toContain(5);
+  });
+
+  it('terminates every worker on abort, even one in an endless loop', async () => {
+    const controller = new AbortController();
+    const p = pool([-3, 1, 2], 2, controller.signal);
+    setTimeout(() => controller.abort(), 200);
+    expect(await p.run).toBe('cancelled');
+    expect(p.results.map(([t]) => t).sort()).toEqual([1, 2]);
+    expect(p.exits).toHaveLength(2); // resolved only after both threads exited
+  });
+
+  it('rejects when a worker cannot start', async () => {
+    const run = runOnWorkers<number, number>({
+      tasks: [1, 2],
+      size: 2,
+      spawn: () => new Worker('throw new Error("module did not load")', { eval: true }),
+      onResult: () => {},
+      onCrash: () => {},
+    });
+    await expect(run).rejects.toMatchObject({ code: 'sweep-worker-start', message: expect.stringMatching(/module did not load/) });
+  });
+});
