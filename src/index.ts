@@ -75,6 +75,7 @@ export { piecewiseLinear, piecewiseLinearWaveform, type PiecewiseLinearSpec } fr
 export { userFunction, userFunctionWaveform, type UserFunctionSpec } from './waveforms/user-function.js';
 export { resolveFunctionWaveform, type ResolveFunctionOptions } from './waveforms/resolve-function-waveform.js';
 export { compileWaveform, type WaveformSpec } from './waveforms/waveform-spec.js';
+export type { WaveformOwner } from './waveforms/waveform-error.js';
 
 // Network builder, simulation and results
 export { createNetwork, NetworkBuilder } from './network/network-builder.js';
@@ -189,3 +190,6 @@ export { eCoreLayout, type ECoreInput } from './geometry/e-core-layout.js';
 export { threeLimbLayout, type ThreeLimbInput, type PhaseLimb } from './geometry/three-limb-layout.js';
 export { fiveLimbLayout, type FiveLimbInput } from './geometry/five-limb-layout.js';
 export { addCoreLayout, type AddCoreLayoutOptions, type CoreHandles } from './network/add-core-layout.js';
+// Reliability: checks of plain-data descriptions and live material laws (see docs/errors.md)
+export { validateDescription } from './network/validate-description.js';
+export { checkMaterialLaw } from './materials/check-material-law.js';

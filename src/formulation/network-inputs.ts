@@ -40,7 +40,7 @@ export class NetworkInputs {
     const els = description.elements;
     this.waveforms = els.map((e) =>
       e.kind === 'voltage-source' || e.kind === 'current-source'
-        ? compileWaveform(e.waveform, `${e.kind.replace('-', ' ')} "${e.name}"`)
+        ? compileWaveform(e.waveform, { label: `${e.kind.replace('-', ' ')} "${e.name}"`, element: e.name })
         : undefined,
     );
     this.sourceOverride = els.map(() => undefined);

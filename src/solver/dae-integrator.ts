@@ -1147,7 +1147,9 @@ class RadauIntegrator implements DaeIntegrator {
       }
       const dyno = Math.sqrt(s / (3 * n));
       if (!Number.isFinite(dyno)) {
-        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: [] };
+        // The increment overflowed: name its non-finite components (or, when every entry is finite
+        // and only the sum of squares overflowed, the largest), so a failure can be diagnosed.
+        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.overflowedIncrement() };
       }
       if (newt > 1 && newt < nit) {
         const thq = dyno / dynold;
@@ -1180,6 +1182,16 @@ class RadauIntegrator implements DaeIntegrator {
       if (this.faccon * dyno <= this.fnewt) return { converged: true, iterations: newt, theta, shrink: 1, components: [] };
     }
     return { converged: false, iterations: nit, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.worstIncrement() };
+  }
+
+  /** Components whose Newton increment is NaN or infinite; the largest ones when all are finite. */
+  private overflowedIncrement(): number[] {
+    const n = this.n;
+    const bad: number[] = [];
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(this.dw[i]!) || !Number.isFinite(this.dw[n + i]!) || !Number.isFinite(this.dw[2 * n + i]!)) bad.push(i);
+    }
+    return bad.length ? bad : this.worstIncrement();
   }
 
   private worstIncrement(): number[] {
