@@ -75,7 +75,6 @@ export { piecewiseLinear, piecewiseLinearWaveform, type PiecewiseLinearSpec } fr
 export { userFunction, userFunctionWaveform, type UserFunctionSpec } from './waveforms/user-function.js';
 export { resolveFunctionWaveform, type ResolveFunctionOptions } from './waveforms/resolve-function-waveform.js';
 export { compileWaveform, type WaveformSpec } from './waveforms/waveform-spec.js';
-export type { WaveformOwner } from './waveforms/waveform-error.js';
 
 // Network builder, simulation and results
 export { createNetwork, NetworkBuilder } from './network/network-builder.js';
@@ -193,3 +192,4 @@ export { addCoreLayout, type AddCoreLayoutOptions, type CoreHandles } from './ne
 // Reliability: checks of plain-data descriptions and live material laws (see docs/errors.md)
 export { validateDescription } from './network/validate-description.js';
 export { checkMaterialLaw } from './materials/check-material-law.js';
+export type { WaveformOwner } from './waveforms/waveform-error.js';

@@ -688,7 +688,12 @@ class RadauIntegrator implements DaeIntegrator {
     const p = this.p;
     const span = p.tEnd - p.t0;
     const cap = Math.min(p.maxStep, span);
-    if (p.initialStep !== undefined) return Math.min(p.initialStep, cap);
+    if (p.initialStep !== undefined) {
+      // A step below the round-off floor of attemptStep can never be taken: start at the floor instead
+      // (a caller that carries the last step of a sliver between two close breakpoints into the next interval).
+      const floor = 10 * UROUND * Math.max(Math.abs(this.tCur), 1e-10 * span);
+      return Math.min(Math.max(p.initialStep, floor), cap);
+    }
     if (!yp) return Math.min(1e-6 * span, cap);
     const n = this.n;
     const scale = errorScale(this.yCur, p.rtol, p.atol, new Float64Array(n));
