@@ -10,16 +10,18 @@
  * analytic Jacobian (finiteDifferenceJacobian, radau5's increment; common
  * practice). Repeatability is our own contract.
  *
- * Tolerances (measured over 2100 random networks, see the reliability report):
- * - flux imbalance at any node <= 1e-12 of the largest flux (measured max 3e-16);
- * - energy audit of a successful run: relativeError <= 1e-2 (measured: median
- *   4e-8, 90 % below 2.2e-6, max 2e-3 with a step limit of 1/20 of the fastest
- *   source period). The tail comes from the audit, not from the states: it
+ * Tolerances, from measurements over 2000 random networks drawn like these
+ * (fc.sample, seeds 21-24, 500 each; 1972 succeeded):
+ * - flux imbalance at any node <= 1e-12 of the largest flux (measured max 3.3e-16:
+ *   branch fluxes are sums of loop fluxes, so only round-off remains);
+ * - energy audit of a successful run: relativeError <= 5e-3 (measured: median
+ *   4e-8, 90 % below 1.3e-6, 99 % below 1.1e-4, max 3.7e-4; an earlier draw
+ *   reached 2e-3). The tail comes from the audit, not from the states: it
  *   integrates the collocation polynomials of the algebraic currents between
- *   steps, which are poor where a step crosses the saturation knee;
- * - Jacobian: |J - J_fd| <= 1e-4 of the largest entry of its row (measured
- *   max 3.8e-5; forward differences are accurate to about sqrt(eps) times the
- *   curvature of the saturating laws).
+ *   steps, which miss the saturation knee (known-defects.test.ts);
+ * - Jacobian: |J - J_fd| <= 1e-4 of the largest entry of its row (measured:
+ *   median 2.7e-8, 90 % below 1.1e-6, max 3.1e-5; forward differences err by
+ *   about sqrt(eps) times the curvature of the saturating laws).
  *
  * Default runs are small (CI seconds); FLUXSTATE_SOAK=1 runs 50 times as many
  * cases (FLUXSTATE_SOAK=n: n times), FLUXSTATE_SEED=<seed> replays a failure.
@@ -32,7 +34,7 @@ import { maxFluxImbalance } from '../helpers/conservation.js';
 import { expectSameBits } from './bits.js';
 import { buildNetwork, networkPlanArb, runs, SOAK_FACTOR, type BuiltNetwork } from './random-network.js';
 
-const ENERGY_TOLERANCE = 1e-2;
+const ENERGY_TOLERANCE = 5e-3;
 const FLUX_TOLERANCE = 1e-12;
 const JACOBIAN_TOLERANCE = 1e-4;
 
