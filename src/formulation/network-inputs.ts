@@ -5,6 +5,11 @@ import type { Waveform } from '../waveforms/waveform.js';
 /**
  * Relative spacing below which two breakpoints count as one: 1000 units of
  * round-off (about 1.1e-13 relative), 100 times the solver's smallest step.
+ *
+ * @example
+ * ```ts
+ * const mergeGap = BREAKPOINT_MERGE * Math.max(Math.abs(t), 1e-10 * (t1 - t0));
+ * ```
  */
 export const BREAKPOINT_MERGE = 1000 * (Number.EPSILON / 2);
 

@@ -20,6 +20,10 @@ import type { JacobianFunction, RhsFunction } from './types.js';
  * so the rows' scales, are untouched. The solution y is the same.
  *
  * @internal
+ * @example
+ * ```ts
+ * const c: MassRowCompression | undefined = massRowCompression(mass, n);
+ * ```
  */
 export interface MassRowCompression {
   /** Dependent rows r and their combinations: equation r becomes f_r - sum c_j f_{rows_j}. */
@@ -84,6 +88,11 @@ export function massRowCompression(mass: Float64Array, n: number): MassRowCompre
  * The recombined mass matrix: dependent rows set to exact zeros.
  *
  * @internal
+ * @example
+ * ```ts
+ * const m = Float64Array.of(200, 200, -202, -202);
+ * compressedMass(m, 2, massRowCompression(m, 2)!); // [200, 200, 0, 0]
+ * ```
  */
 export function compressedMass(mass: Float64Array, n: number, c: MassRowCompression): Float64Array {
   const out = Float64Array.from(mass);
@@ -97,6 +106,10 @@ export function compressedMass(mass: Float64Array, n: number, c: MassRowCompress
  * diagnosis names the very equation that failed.
  *
  * @internal
+ * @example
+ * ```ts
+ * const rhs = compression ? compressedRhs(problem.rhs, compression) : problem.rhs;
+ * ```
  */
 export function compressedRhs(rhs: RhsFunction, c: MassRowCompression): RhsFunction {
   return (t, y, out) => {
@@ -114,6 +127,10 @@ export function compressedRhs(rhs: RhsFunction, c: MassRowCompression): RhsFunct
  * df/dy recombined the same way (row-major n x n).
  *
  * @internal
+ * @example
+ * ```ts
+ * const jacobian = compression && problem.jacobian ? compressedJacobian(problem.jacobian, n, compression) : problem.jacobian;
+ * ```
  */
 export function compressedJacobian(jacobian: JacobianFunction, n: number, c: MassRowCompression): JacobianFunction {
   // Dependent rows only combine independent rows (rows kept as they are), so the order of updates does not matter.
