@@ -194,3 +194,7 @@ export { QUANTITY_UNITS, type QuantityRequest, type QuantityName } from './resul
 export { createStepper, NetworkStepper, type StepperOptions, type StepperSnapshot, type Threshold } from './stepping/network-stepper.js';
 export { periodicSteadyState, type PeriodicSteadyStateOptions, type PeriodicSteadyState } from './analysis/periodic-steady-state.js';
 export { resultCoreLoss, type ResultCoreLossOptions } from './analysis/core-loss/result-core-loss.js';
+// Reliability: checks of plain-data descriptions and live material laws (see docs/errors.md)
+export { validateDescription } from './network/validate-description.js';
+export { checkMaterialLaw } from './materials/check-material-law.js';
+export type { WaveformOwner } from './waveforms/waveform-error.js';

@@ -1,5 +1,6 @@
 import { InputError } from './errors.js';
 import { compileNetwork, type CompiledNetwork } from './formulation/compile-network.js';
+import { validateDescription } from './network/validate-description.js';
 import type { NetworkBuilder } from './network/network-builder.js';
 import type { NetworkDescription } from './network/description.js';
 import { NetworkRun } from './simulation/network-run.js';
@@ -94,12 +95,19 @@ export interface SimulateOptions {
  * ```
  */
 export function simulate(network: NetworkBuilder | NetworkDescription, options: SimulateOptions): SimulationResult {
-  const description = 'describe' in network ? network.describe() : network;
+  if (network === null || typeof network !== 'object') {
+    throw new InputError('bad-option', `simulate: the first argument must be a network (builder or description), got ${String(network)}`, ['network']);
+  }
+  if (options === null || typeof options !== 'object') {
+    throw new InputError('bad-option', `simulate: options must be an object with at least stopTime, got ${String(options)}`, ['options']);
+  }
+  // A description that did not come from a builder here (JSON, a worker) gets the builder's checks.
+  const description = 'describe' in network ? network.describe() : validateDescription(network);
   const networkId = 'describe' in network ? network.id : undefined;
-  const compiled = compileNetwork(description);
   const t0 = options.startTime ?? 0;
   const tEnd = options.stopTime;
   checkOptions(options, t0, tEnd);
+  const compiled = compileNetwork(description);
   const sampleTimes = samplingTimes(options.sampling, t0, tEnd);
   let lastProgress = -Infinity;
   const run = new NetworkRun(compiled, {
@@ -177,7 +185,19 @@ function checkOptions(o: SimulateOptions, t0: number, tEnd: number): void {
   if (o.initialStep !== undefined && !(o.initialStep > 0)) bad('bad-option', `initialStep ${o.initialStep} must be > 0`);
   if (o.maxSteps !== undefined && !(o.maxSteps >= 1)) bad('bad-option', `maxSteps ${o.maxSteps} must be >= 1`);
   if (o.maxWallTimeMs !== undefined && !(o.maxWallTimeMs > 0)) bad('bad-option', `maxWallTimeMs ${o.maxWallTimeMs} must be > 0`);
+  for (const [name, v] of [['atol', o.atol], ['maxStep', o.maxStep], ['maxSteps', o.maxSteps], ['maxWallTimeMs', o.maxWallTimeMs], ['initialStep', o.initialStep]] as const) {
+    if (typeof v === 'number' && !Number.isFinite(v)) bad(name === 'atol' ? 'bad-tolerance' : 'bad-option', `${name} ${v} must be finite`);
+  }
+  if (o.onProgress !== undefined && typeof o.onProgress !== 'function') bad('bad-option', `onProgress must be a function, got ${typeof o.onProgress}`);
+  if (o.progressIntervalMs !== undefined && !(o.progressIntervalMs >= 0)) bad('bad-option', `progressIntervalMs ${o.progressIntervalMs} must be >= 0`);
+  const s = o.sampling;
+  if (s !== undefined && s !== 'steps' && (typeof s !== 'object' || s === null || (!('interval' in s) && !('times' in s)))) {
+    bad('bad-option', `sampling must be 'steps', { interval } or { times }, got ${JSON.stringify(s)}`);
+  }
 }
+
+/** Most samples a grid may ask for (a finer grid is almost surely a unit mistake). */
+const MAX_GRID_SAMPLES = 1e7;
 
 /** Per-unknown absolute tolerances from the options (internal; shared with the stepper). */
 export function absoluteTolerances(c: CompiledNetwork, atol: SimulateOptions['atol']): Float64Array | number {
@@ -204,6 +224,13 @@ function samplingTimes(s: Sampling | undefined, t0: number, tEnd: number): numbe
       throw new InputError('bad-option', `simulate options: sampling interval ${s.interval} s must be a positive number`, ['options']);
     }
     const count = Math.floor((tEnd - t0) / s.interval + 1e-9);
+    if (!(count < MAX_GRID_SAMPLES)) {
+      throw new InputError(
+        'bad-option',
+        `simulate options: sampling interval ${s.interval} s over ${tEnd - t0} s asks for ${count.toExponential(2)} samples (more than ${MAX_GRID_SAMPLES}); check the units or sample the solver's steps`,
+        ['options'],
+      );
+    }
     const times = Array.from({ length: count + 1 }, (_, k) => t0 + k * s.interval);
     if (times[times.length - 1]! < tEnd - 1e-12 * Math.abs(tEnd)) times.push(tEnd);
     return times;

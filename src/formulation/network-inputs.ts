@@ -9,6 +9,17 @@ export interface InputState {
   readonly waveforms: readonly (readonly [number, WaveformSpec])[];
 }
 
+/**
+ * Relative spacing below which two breakpoints count as one: 1000 units of
+ * round-off (about 1.1e-13 relative), 100 times the solver's smallest step.
+ *
+ * @example
+ * ```ts
+ * const mergeGap = BREAKPOINT_MERGE * Math.max(Math.abs(t), 1e-10 * (t1 - t0));
+ * ```
+ */
+export const BREAKPOINT_MERGE = 1000 * (Number.EPSILON / 2);
+
 /** The float next above x (x finite). */
 export function nextUp(x: number): number {
   if (x === 0) return Number.MIN_VALUE;
@@ -44,12 +55,16 @@ export class NetworkInputs {
   private readonly switchToggles: (readonly number[])[];
   private intervalStart = -Infinity;
   private intervalEnd = Infinity;
+  /** Breakpoint kept -> last time merged into it (a cluster of edges that counts as one jump at that time). */
+  private readonly clusterEnd = new Map<number, number>();
+  /** End of a span -> earliest time merged into it from before. */
+  private readonly clusterStart = new Map<number, number>();
 
   constructor(private readonly description: NetworkDescription) {
     const els = description.elements;
     this.waveforms = els.map((e) =>
       e.kind === 'voltage-source' || e.kind === 'current-source'
-        ? compileWaveform(e.waveform, `${e.kind.replace('-', ' ')} "${e.name}"`)
+        ? compileWaveform(e.waveform, { label: `${e.kind.replace('-', ' ')} "${e.name}"`, element: e.name })
         : undefined,
     );
     this.sourceOverride = els.map(() => undefined);
@@ -64,10 +79,16 @@ export class NetworkInputs {
     this.intervalEnd = b;
   }
 
-  /** Time at which to evaluate piecewise inputs for a call at t. */
+  /**
+   * Time at which to evaluate piecewise inputs for a call at t: just after
+   * the start of the interval (after every edge merged into it), just before
+   * its end (before every edge merged into it), t in between.
+   */
   private sided(t: number): number {
-    if (t >= this.intervalEnd) return nextDown(this.intervalEnd);
-    if (t <= this.intervalStart) return nextUp(this.intervalStart);
+    const a = this.intervalStart;
+    const b = this.intervalEnd;
+    if (t >= b) return nextDown(Math.max(this.clusterStart.get(b) ?? b, a));
+    if (t <= a) return nextUp(Math.min(this.clusterEnd.get(a) ?? a, b));
     return t;
   }
 
@@ -108,7 +129,7 @@ export class NetworkInputs {
   /** Replace a source's waveform (embedding: a new duty cycle, amplitude or phase); validated here. */
   replaceWaveform(e: number, spec: WaveformSpec): void {
     const el = this.description.elements[e]!;
-    this.waveforms[e] = compileWaveform(spec, `${el.kind.replace('-', ' ')} "${el.name}"`);
+    this.waveforms[e] = compileWaveform(spec, { label: `${el.kind.replace("-", " ")} "${el.name}"`, element: el.name });
     this.replaced.set(e, spec);
     this.sourceOverride[e] = undefined;
   }
@@ -139,7 +160,17 @@ export class NetworkInputs {
     state.sourceOverride.forEach((v, e) => (this.sourceOverride[e] = v));
   }
 
-  /** Sorted, distinct times in (t0, t1) where an input jumps or kinks. */
+  /**
+   * Sorted, distinct times in (t0, t1) where an input jumps or kinks. Times
+   * closer than {@link BREAKPOINT_MERGE} x max(|t|, 1e-10 (t1 - t0)) to the
+   * previous one kept (or to t0, t1) are merged into it: an interval that
+   * short is below the integrator's round-off floor on the step size
+   * (10 uround |t|) and could not be integrated, while the input change across
+   * it (a pulse edge of 1e-18 s at t = 1 ms) is a jump at double precision
+   * anyway. The inputs remember the merge, so an interval starting at a kept
+   * time sees the values after the whole cluster of edges, and one ending at
+   * t1 the values before the edges merged into t1.
+   */
   breakpoints(t0: number, t1: number): number[] {
     const all: number[] = [];
     this.description.elements.forEach((el, e) => {
@@ -151,8 +182,17 @@ export class NetworkInputs {
     });
     all.sort((x, y) => x - y);
     const out: number[] = [];
+    const gap = (t: number): number => BREAKPOINT_MERGE * Math.max(Math.abs(t), 1e-10 * (t1 - t0));
     for (const t of all) {
-      if (t > t0 && t < t1 && (out.length === 0 || t > out[out.length - 1]!)) out.push(t);
+      if (t < t0 || t > t1) continue;
+      const previous = out.length === 0 ? t0 : out[out.length - 1]!;
+      if (t1 - t <= gap(t)) {
+        if (t < t1) this.clusterStart.set(t1, Math.min(this.clusterStart.get(t1) ?? t1, t));
+      } else if (t - previous <= gap(t)) {
+        if (t > previous) this.clusterEnd.set(previous, Math.max(this.clusterEnd.get(previous) ?? previous, t));
+      } else {
+        out.push(t);
+      }
     }
     return out;
   }

@@ -16,6 +16,7 @@ import { UnionFind } from './union-find.js';
  * ```
  */
 export function checkTopology(d: NetworkDescription, loops: MagneticLoops): void {
+  checkNotEmpty(d);
   checkMagneticNodes(d);
   checkWindingPaths(d, loops);
   checkFloatingNodes(d);
@@ -26,6 +27,18 @@ export function checkTopology(d: NetworkDescription, loops: MagneticLoops): void
 }
 
 const quote = (names: readonly string[]): string => names.map((n) => `"${n}"`).join(', ');
+
+function checkNotEmpty(d: NetworkDescription): void {
+  // Without electric nodes besides ground and without magnetic nodes there is nothing to solve for.
+  if (d.electricNodes.length <= 1 && d.magneticNodes.length === 0) {
+    throw new TopologyError(
+      'empty-network',
+      `network "${d.name}" has no electric node besides ground and no magnetic node, so there is nothing to simulate; ` +
+        `add nodes and elements before calling simulate`,
+      [d.name],
+    );
+  }
+}
 
 function checkMagneticNodes(d: NetworkDescription): void {
   const degree = new Int32Array(d.magneticNodes.length);

@@ -1,6 +1,7 @@
 import { InputError } from '../errors.js';
 import { MU0 } from '../constants.js';
 import type { MaterialLaw } from './material-law.js';
+import { checkSaturationFluxDensity } from './odd-law.js';
 
 /**
  * Plain-data description of a linear material.
@@ -39,13 +40,14 @@ export function linearMaterial(spec: LinearMaterialSpec): MaterialLaw {
       [name],
     );
   }
+  const sat = checkSaturationFluxDensity(name, spec.saturationFluxDensity);
   const reluctivity = 1 / (MU0 * mur);
   const law: MaterialLaw = {
     name,
     fieldStrength: (b) => reluctivity * b,
     fieldSlope: () => reluctivity,
     energyDensity: (b) => 0.5 * reluctivity * b * b,
-    ...(spec.saturationFluxDensity !== undefined ? { saturationFluxDensity: spec.saturationFluxDensity } : {}),
+    ...(sat !== undefined ? { saturationFluxDensity: sat } : {}),
   };
   return Object.freeze(law);
 }

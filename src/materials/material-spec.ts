@@ -4,6 +4,7 @@ import { linearMaterial, type LinearMaterialSpec } from './linear.js';
 import { frohlichKennellyMaterial, type FrohlichKennellySpec } from './frohlich-kennelly.js';
 import { brauerMaterial, type BrauerSpec } from './brauer.js';
 import { bhTableMaterial, type BhTableSpec } from './bh-table.js';
+import { checkMaterialLaw } from './check-material-law.js';
 
 /**
  * Plain-data (JSON-serialisable) description of a material. The builder
@@ -24,7 +25,9 @@ export type MaterialSpec = LinearMaterialSpec | FrohlichKennellySpec | BrauerSpe
 
 /**
  * Turn a material spec into an executable law; a live {@link MaterialLaw}
- * object is passed through unchanged.
+ * object is checked against its contract ({@link checkMaterialLaw}: finite
+ * values, positive slope, `fieldSlope` and `energyDensity` consistent with
+ * `fieldStrength`) and passed through unchanged.
  *
  * @example
  * ```ts
@@ -33,7 +36,16 @@ export type MaterialSpec = LinearMaterialSpec | FrohlichKennellySpec | BrauerSpe
  * ```
  */
 export function compileMaterial(spec: MaterialSpec | MaterialLaw): MaterialLaw {
-  if ('fieldStrength' in spec && typeof spec.fieldStrength === 'function') return spec as MaterialLaw;
+  if (spec === null || typeof spec !== 'object') {
+    throw new InputError(
+      'unknown-material-kind',
+      `material ${String(spec)} is not a material; give a spec such as { kind: 'linear', relativePermeability: 2000 } or a MaterialLaw object`,
+      [String(spec)],
+    );
+  }
+  if ('fieldStrength' in spec && typeof spec.fieldStrength === 'function') {
+    return checkMaterialLaw(spec as MaterialLaw);
+  }
   const s = spec as MaterialSpec;
   switch (s.kind) {
     case 'linear':

@@ -252,7 +252,7 @@ export class NetworkBuilder {
     const owner = `tube "${name}"`;
     const length = requirePositive(options.length, `${owner} length`, name, 'm');
     const area = requirePositive(options.area, `${owner} area`, name, 'm^2');
-    compileMaterial(options.material); // surfaces a bad material here, at the call that gave it
+    surfaceMaterialError(options.material, owner, name); // a bad material fails here, at the call that gave it
     const eddy = options.eddyResistance;
     if (eddy !== undefined) requirePositive(eddy, `${owner} eddy resistance`, name, 'ohm');
     const law: TubeLaw = { kind: 'material', length, area, material: clonePlain(options.material) };
@@ -391,7 +391,7 @@ export class NetworkBuilder {
   voltageSource(name: string, plus: ElectricNode, minus: ElectricNode, waveform: WaveformSpec): VoltageSource {
     this.checkElementName(name, 'voltage source');
     const [p, m] = this.terminals(plus, minus, `voltage source "${name}"`, name);
-    compileWaveform(waveform, `voltage source "${name}"`);
+    compileWaveform(waveform, { label: `voltage source "${name}"`, element: name });
     return this.addElement('voltage-source', { kind: 'voltage-source', name, plus: p, minus: m, waveform: clonePlain(waveform) });
   }
 
@@ -407,7 +407,7 @@ export class NetworkBuilder {
   currentSource(name: string, plus: ElectricNode, minus: ElectricNode, waveform: WaveformSpec): CurrentSource {
     this.checkElementName(name, 'current source');
     const [p, m] = this.terminals(plus, minus, `current source "${name}"`, name);
-    compileWaveform(waveform, `current source "${name}"`);
+    compileWaveform(waveform, { label: `current source "${name}"`, element: name });
     return this.addElement('current-source', { kind: 'current-source', name, plus: p, minus: m, waveform: clonePlain(waveform) });
   }
 
@@ -598,6 +598,16 @@ export class NetworkBuilder {
  */
 export function createNetwork(name = 'network'): NetworkBuilder {
   return new NetworkBuilder(name);
+}
+
+/** Compile a tube's material; its error keeps its code and gains the tube's name (message and elements). */
+function surfaceMaterialError(material: MaterialSpec | MaterialLaw, owner: string, name: string): void {
+  try {
+    compileMaterial(material);
+  } catch (e) {
+    if (e instanceof InputError) throw new InputError(e.code, `${owner}: ${e.message}`, [name, ...e.elements]);
+    throw e;
+  }
 }
 
 function describeValue(value: unknown): string {

@@ -163,11 +163,17 @@ export function computeEnergyAudit(
     const halves = left.map((x, q) => x + right[q]!);
     const size = Math.max(...halves.map(Math.abs), Number.MIN_VALUE);
     const change = Math.max(...halves.map((x, q) => Math.abs(x - whole[q]!)));
-    if (depth >= MAX_DEPTH || change <= AUDIT_TOLERANCE * size) return halves;
+    panels += 2;
+    // Stop on agreement, at the depth limit, when the work budget is spent, or on non-finite values
+    // (a run that failed towards overflow: no subdivision makes those agree).
+    if (depth >= MAX_DEPTH || panels > budget || !(change > AUDIT_TOLERANCE * size)) return halves;
     const l = adaptive(step, a, m, left, depth + 1);
     const r = adaptive(step, m, b, right, depth + 1);
     return l.map((x, q) => x + r[q]!);
   };
+  // At most 64 panels per step on average over the run.
+  const budget = 64 * run.steps.length;
+  let panels = 0;
   for (const step of run.steps) {
     const interval = run.intervals[step.interval]!;
     c.inputs.setInterval(interval.start, interval.end);

@@ -4,7 +4,7 @@ import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } f
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { createProjector } from './projection.js';
-import { nextUp, type InputState } from '../formulation/network-inputs.js';
+import type { InputState } from '../formulation/network-inputs.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 
 /** Solver settings of a run (already resolved from the user's options). */
@@ -306,8 +306,10 @@ export class NetworkRun {
     let width = this.lastIntervalLength > 0 ? this.lastIntervalLength : (this.horizon - t) / 64;
     for (;;) {
       const end = Math.min(this.horizon, t + width);
-      // Breakpoints are searched in the open interval (t, upper): include one exactly at the horizon.
-      const found = this.compiled.inputs.breakpoints(t, end === this.horizon ? nextUp(end) : end);
+      // Breakpoints are searched in the open interval (t, upper) and merged into its ends when
+      // closer than round-off: reach past the horizon so that one exactly at it is kept.
+      const upper = end === this.horizon ? end + 1e-9 * Math.max(Math.abs(end), end - t) : end;
+      const found = this.compiled.inputs.breakpoints(t, upper).filter((b) => b <= this.horizon);
       if (found.length > 0) return found[0]!;
       if (end >= this.horizon) return Infinity;
       width *= 4;
@@ -321,7 +323,7 @@ export class NetworkRun {
     const next = this.nextBreakpoint(t);
     this.compiled.inputs.setInterval(t, next);
     this.intervals.push({ start: t, end: next });
-    this.statusCur = this.integ.restart();
+    this.statusCur = this.integ.restart(undefined, { capStepByEstimate: true });
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     this.restartPending = true;
     return this.statusCur;

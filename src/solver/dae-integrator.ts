@@ -190,13 +190,23 @@ export interface DaeIntegrator {
    * depends on (switch states, set-points). `y`, when given, replaces the
    * state first. Clears a failure. Returns the new status.
    */
-  restart(y?: ArrayLike<number>): 'running' | DaeStatus;
+  restart(y?: ArrayLike<number>, options?: RestartOptions): 'running' | DaeStatus;
   /** Copy of the whole state, see {@link DaeIntegratorSnapshot}. */
   snapshot(): DaeIntegratorSnapshot;
   /** Continue from a snapshot of this integrator (or of one built from the same problem). */
   restore(snapshot: DaeIntegratorSnapshot): void;
   /** State at time t within the last step [tOld, t] from the collocation polynomial. */
   interpolate(t: number, out?: Float64Array): Float64Array;
+}
+
+/** Options of {@link DaeIntegrator.restart}. */
+export interface RestartOptions {
+  /**
+   * Cap the kept step size by a fresh starting-step estimate from the
+   * consistent y'(t) (Hairer, Norsett and Wanner I, sect. II.4): after a jump
+   * of an input the step that suited the old inputs may be far too long.
+   */
+  readonly capStepByEstimate?: boolean;
 }
 
 /** Thrown when the Jacobian has NaN or Infinity entries; maps to status 'non-finite'. */
@@ -453,7 +463,7 @@ class RadauIntegrator implements DaeIntegrator {
     return { status: 'success', events };
   }
 
-  restart(y?: ArrayLike<number>): 'running' | DaeStatus {
+  restart(y?: ArrayLike<number>, options: RestartOptions = {}): 'running' | DaeStatus {
     if (y !== undefined) {
       if (y.length !== this.n) throw new InputError('bad-initial-state', `restart: y has ${y.length} entries, expected ${this.n}`, ['y']);
       for (let i = 0; i < this.n; i++) {
@@ -467,7 +477,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.pendingError = undefined;
     this.pendingFailure = undefined;
     this.interp = undefined;
-    this.initialise(false);
+    this.initialise(false, options.capStepByEstimate ?? false);
     return this.statusCur;
   }
 
@@ -622,7 +632,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /** Consistent initialisation, f, first h, event values at the present time. */
-  private initialise(fresh: boolean): void {
+  private initialise(fresh: boolean, capByEstimate = false): void {
     const p = this.p;
     const n = this.n;
     this.first = true;
@@ -650,7 +660,7 @@ class RadauIntegrator implements DaeIntegrator {
           return;
         }
         this.adjustedCur = res.adjusted ?? [];
-        if (fresh) {
+        if (fresh || capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(this.tCur), p.tEnd - p.t0);
           yp = consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
         }
@@ -662,6 +672,7 @@ class RadauIntegrator implements DaeIntegrator {
         return;
       }
       if (fresh) this.hCur = this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur));
+      else if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur), true));
       this.evaluateEventsAt(this.tCur, this.yCur, this.eventValues);
       if (this.tCur >= p.tEnd) this.statusCur = 'success';
     } catch (e) {
@@ -684,11 +695,16 @@ class RadauIntegrator implements DaeIntegrator {
    * "starting step size"; the form used by SciPy's select_initial_step) from
    * y' at t0: f for an ODE, the consistent derivative for a DAE.
    */
-  private initialStepSize(yp: Float64Array | undefined): number {
+  private initialStepSize(yp: Float64Array | undefined, ignoreGiven = false): number {
     const p = this.p;
     const span = p.tEnd - p.t0;
     const cap = Math.min(p.maxStep, span);
-    if (p.initialStep !== undefined) return Math.min(p.initialStep, cap);
+    if (p.initialStep !== undefined && !ignoreGiven) {
+      // A step below the round-off floor of attemptStep can never be taken: start at the floor instead
+      // (a caller that carries the last step of a sliver between two close breakpoints into the next interval).
+      const floor = 10 * UROUND * Math.max(Math.abs(this.tCur), 1e-10 * span);
+      return Math.min(Math.max(p.initialStep, floor), cap);
+    }
     if (!yp) return Math.min(1e-6 * span, cap);
     const n = this.n;
     const scale = errorScale(this.yCur, p.rtol, p.atol, new Float64Array(n));
@@ -1149,7 +1165,9 @@ class RadauIntegrator implements DaeIntegrator {
       }
       const dyno = Math.sqrt(s / (3 * n));
       if (!Number.isFinite(dyno)) {
-        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: [] };
+        // The increment overflowed: name its non-finite components (or, when every entry is finite
+        // and only the sum of squares overflowed, the largest), so a failure can be diagnosed.
+        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.overflowedIncrement() };
       }
       if (newt > 1 && newt < nit) {
         const thq = dyno / dynold;
@@ -1182,6 +1200,16 @@ class RadauIntegrator implements DaeIntegrator {
       if (this.faccon * dyno <= this.fnewt) return { converged: true, iterations: newt, theta, shrink: 1, components: [] };
     }
     return { converged: false, iterations: nit, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.worstIncrement() };
+  }
+
+  /** Components whose Newton increment is NaN or infinite; the largest ones when all are finite. */
+  private overflowedIncrement(): number[] {
+    const n = this.n;
+    const bad: number[] = [];
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(this.dw[i]!) || !Number.isFinite(this.dw[n + i]!) || !Number.isFinite(this.dw[2 * n + i]!)) bad.push(i);
+    }
+    return bad.length ? bad : this.worstIncrement();
   }
 
   private worstIncrement(): number[] {

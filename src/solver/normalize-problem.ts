@@ -1,4 +1,5 @@
 import { InputError } from '../errors.js';
+import { compressedJacobian, compressedMass, compressedRhs, massRowCompression } from './mass-row-compression.js';
 import type { DaeEvent, DaeProblem, JacobianFunction, RhsFunction, SolveDaeOptions, DaeProgress } from './types.js';
 
 /**
@@ -114,6 +115,8 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     for (let i = 0; i < n && identity; i++) for (let j = 0; j < n; j++) if (mass[i * n + j] !== (i === j ? 1 : 0)) { identity = false; break; }
     if (identity) mass = undefined;
   }
+  // Rows of M that depend on other rows are algebraic equations in disguise: make them explicit.
+  const compression = mass ? massRowCompression(mass, n) : undefined;
 
   const bps: number[] = [];
   for (const b of problem.breakpoints ?? []) {
@@ -174,9 +177,9 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
 
   return {
     n,
-    rhs: problem.rhs,
-    jacobian: problem.jacobian,
-    mass,
+    rhs: compression ? compressedRhs(problem.rhs, compression) : problem.rhs,
+    jacobian: compression && problem.jacobian ? compressedJacobian(problem.jacobian, n, compression) : problem.jacobian,
+    mass: compression && mass ? compressedMass(mass, n, compression) : mass,
     y0,
     t0,
     tEnd,

@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
 import { vertexWaveform } from './vertex-waveform.js';
 
 /**
@@ -94,7 +94,7 @@ export function bipolarSquareOnTimes(spec: BipolarSquareSpec): { positive: numbe
  * w.value(0.7); // -10
  * ```
  */
-export function bipolarSquareWaveform(spec: BipolarSquareSpec, owner = 'waveform'): Waveform {
+export function bipolarSquareWaveform(spec: BipolarSquareSpec, owner: WaveformOwner = 'waveform'): Waveform {
   const { amplitude, period } = spec;
   const deadTime = spec.deadTime ?? 0;
   const mismatch = spec.mismatch ?? 0;

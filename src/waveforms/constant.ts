@@ -1,5 +1,5 @@
-import { InputError } from '../errors.js';
 import type { Waveform } from './waveform.js';
+import { waveformError, type WaveformOwner } from './waveform-error.js';
 
 /**
  * Plain-data description of a constant (DC) waveform.
@@ -35,9 +35,9 @@ export function constant(value: number): ConstantSpec {
  * constantWaveform(constant(12), 'battery').value(3); // 12
  * ```
  */
-export function constantWaveform(spec: ConstantSpec, owner = 'waveform'): Waveform {
+export function constantWaveform(spec: ConstantSpec, owner: WaveformOwner = 'waveform'): Waveform {
   if (!Number.isFinite(spec.value)) {
-    throw new InputError('bad-waveform', `${owner}: constant value ${spec.value} is not finite; give a finite number`, [owner]);
+    throw waveformError(owner, `constant value ${spec.value} is not finite; give a finite number`);
   }
   const v = spec.value;
   return { value: () => v, breakpoints: () => [] };

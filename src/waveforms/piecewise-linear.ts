@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
 import { vertexWaveform } from './vertex-waveform.js';
 
 /**
@@ -74,7 +74,7 @@ export function piecewiseLinear(params: Omit<PiecewiseLinearSpec, 'kind'>): Piec
  * w.breakpoints(0, 10); // [0, 1, 3]
  * ```
  */
-export function piecewiseLinearWaveform(spec: PiecewiseLinearSpec, owner = 'waveform'): Waveform {
+export function piecewiseLinearWaveform(spec: PiecewiseLinearSpec, owner: WaveformOwner = 'waveform'): Waveform {
   const { times, values, period } = spec;
   const n = times.length;
   if (n === 0) throw waveformError(owner, 'piecewise-linear table is empty; give at least one (time, value) vertex');

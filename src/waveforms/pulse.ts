@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
 import { vertexWaveform } from './vertex-waveform.js';
 
 /**
@@ -76,7 +76,7 @@ export function pulse(params: Omit<PulseSpec, 'kind'>): PulseSpec {
  * w.breakpoints(0, 2e-3); // [0, 0.0005, 0.001, 0.0015, 0.002]
  * ```
  */
-export function pulseWaveform(spec: PulseSpec, owner = 'waveform'): Waveform {
+export function pulseWaveform(spec: PulseSpec, owner: WaveformOwner = 'waveform'): Waveform {
   const low = spec.low ?? 0;
   const { high, period, duty } = spec;
   const delay = spec.delay ?? 0;

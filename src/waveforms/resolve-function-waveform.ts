@@ -1,5 +1,5 @@
 import type { UserFunctionSpec } from './user-function.js';
-import { waveformError } from './waveform-error.js';
+import { waveformError, type WaveformOwner } from './waveform-error.js';
 
 /**
  * Options of {@link resolveFunctionWaveform}.
@@ -47,7 +47,7 @@ function isPath(module: string): boolean {
  */
 export async function resolveFunctionWaveform(
   spec: UserFunctionSpec,
-  owner = 'waveform',
+  owner: WaveformOwner = 'waveform',
   options: ResolveFunctionOptions = {},
 ): Promise<UserFunctionSpec> {
   if (spec.fn !== undefined) return spec;

@@ -1,5 +1,5 @@
-import { InputError } from '../errors.js';
 import type { Waveform } from './waveform.js';
+import { waveformError, type WaveformOwner } from './waveform-error.js';
 
 /**
  * Plain-data description of a sine wave switched on at `start`:
@@ -46,18 +46,18 @@ export function sine(params: Omit<SineSpec, 'kind'>): SineSpec {
  * sineWaveform(sine({ amplitude: 10, frequency: 50 }), 'V1').value(0.005); // 10
  * ```
  */
-export function sineWaveform(spec: SineSpec, owner = 'waveform'): Waveform {
+export function sineWaveform(spec: SineSpec, owner: WaveformOwner = 'waveform'): Waveform {
   const { amplitude, frequency } = spec;
   const phase = spec.phase ?? 0;
   const offset = spec.offset ?? 0;
   const start = spec.start ?? 0;
   for (const [label, v] of [['amplitude', amplitude], ['phase', phase], ['offset', offset], ['start', start]] as const) {
     if (!Number.isFinite(v)) {
-      throw new InputError('bad-waveform', `${owner}: sine ${label} ${v} is not finite; give a finite number`, [owner]);
+      throw waveformError(owner, `sine ${label} ${v} is not finite; give a finite number`);
     }
   }
   if (!Number.isFinite(frequency) || frequency <= 0) {
-    throw new InputError('bad-waveform', `${owner}: sine frequency ${frequency} Hz must be positive and finite`, [owner]);
+    throw waveformError(owner, `sine frequency ${frequency} Hz must be positive and finite`);
   }
   const omega = 2 * Math.PI * frequency;
   return {

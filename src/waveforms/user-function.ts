@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
 
 /**
  * Description of a waveform given by a user function of time.
@@ -82,7 +82,7 @@ function functionLabel(spec: UserFunctionSpec): string {
  * w.breakpoints(0, 1); // [0]
  * ```
  */
-export function userFunctionWaveform(spec: UserFunctionSpec, owner = 'waveform'): Waveform {
+export function userFunctionWaveform(spec: UserFunctionSpec, owner: WaveformOwner = 'waveform'): Waveform {
   const fn = spec.fn;
   const label = functionLabel(spec);
   if (fn === undefined) {

@@ -1,13 +1,28 @@
 import { InputError } from '../errors.js';
 
 /**
+ * Who a waveform belongs to, for error messages: a plain name (`'V1'`), or a
+ * phrase for the message with the element's name for `error.elements`
+ * (the network builder passes `{ label: 'voltage source "mains"', element: 'mains' }`).
+ *
+ * @example
+ * ```ts
+ * const owner: WaveformOwner = { label: 'voltage source "mains"', element: 'mains' };
+ * compileWaveform(sine({ amplitude: 325, frequency: 50 }), owner);
+ * ```
+ */
+export type WaveformOwner = string | { readonly label: string; readonly element: string };
+
+/**
  * The error every waveform validation raises: code `'bad-waveform'`, the
- * owning element named first in the message and listed in `elements`.
+ * owner's label first in the message and the owning element in `elements`.
  *
  * @internal
  */
-export function waveformError(owner: string, text: string): InputError {
-  return new InputError('bad-waveform', `${owner}: ${text}`, [owner]);
+export function waveformError(owner: WaveformOwner, text: string): InputError {
+  const label = typeof owner === 'string' ? owner : owner.label;
+  const element = typeof owner === 'string' ? owner : owner.element;
+  return new InputError('bad-waveform', `${label}: ${text}`, [element]);
 }
 
 /**
@@ -15,7 +30,7 @@ export function waveformError(owner: string, text: string): InputError {
  *
  * @internal
  */
-export function requireFinite(owner: string, what: string, value: number): void {
+export function requireFinite(owner: WaveformOwner, what: string, value: number): void {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
     throw waveformError(owner, `${what} ${String(value)} is not a finite number; give a finite value`);
   }

@@ -1,4 +1,5 @@
 import type { Waveform } from './waveform.js';
+import { waveformError, type WaveformOwner } from './waveform-error.js';
 import { constantWaveform, type ConstantSpec } from './constant.js';
 import { sineWaveform, type SineSpec } from './sine.js';
 import { pulseWaveform, type PulseSpec } from './pulse.js';
@@ -29,7 +30,10 @@ export type WaveformSpec = ConstantSpec | SineSpec | PulseSpec | BipolarSquareSp
  * const w = compileWaveform({ kind: 'constant', value: 5 }, 'V1');
  * ```
  */
-export function compileWaveform(spec: WaveformSpec, owner = 'waveform'): Waveform {
+export function compileWaveform(spec: WaveformSpec, owner: WaveformOwner = 'waveform'): Waveform {
+  if (spec === null || typeof spec !== 'object') {
+    throw waveformError(owner, `${String(spec)} is not a waveform spec; build one with constant(), sine(), pulse()...`);
+  }
   switch (spec.kind) {
     case 'constant':
       return constantWaveform(spec, owner);
@@ -43,5 +47,10 @@ export function compileWaveform(spec: WaveformSpec, owner = 'waveform'): Wavefor
       return piecewiseLinearWaveform(spec, owner);
     case 'function':
       return userFunctionWaveform(spec, owner);
+    default:
+      throw waveformError(
+        owner,
+        `waveform kind ${JSON.stringify((spec as { kind?: unknown }).kind)} is not known; use 'constant', 'sine', 'pulse', 'bipolar-square', 'piecewise-linear' or 'function'`,
+      );
   }
 }

@@ -1,0 +1,85 @@
+/**
+ * docs/errors.md is the catalogue of every error code and numerical status.
+ * This test keeps it honest against the code: every `code` passed to an
+ * error constructor in src/ has an entry (and every entry still has a raise
+ * site), each entry names the class the code is raised with, each entry's
+ * test files exist and mention the code, and the statuses documented are
+ * exactly the members of `DaeStatus`.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { scanErrorCodes } from './error-codes.js';
+
+const root = join(import.meta.dirname, '..', '..');
+const doc = readFileSync(join(root, 'docs', 'errors.md'), 'utf8');
+const scan = scanErrorCodes(join(root, 'src'), root);
+
+interface Entry {
+  readonly code: string;
+  readonly errorClass: string;
+  readonly tests: readonly string[];
+}
+
+/** Entries: a `### \`code\`` heading, then a line `Class · raised by ... · tests: \`file\`, ...`. */
+function entries(): Entry[] {
+  const out: Entry[] = [];
+  const lines = doc.split('\n');
+  lines.forEach((line, k) => {
+    const m = /^### `([a-z0-9-]+)`\s*$/.exec(line);
+    if (!m) return;
+    const meta = lines[k + 1] ?? '';
+    const cls = /^(InputError|TopologyError|FluxstateError) ·/.exec(meta);
+    const tests = /tests: (.*)$/.exec(meta);
+    out.push({
+      code: m[1]!,
+      errorClass: cls?.[1] ?? '(missing)',
+      tests: tests ? [...tests[1]!.matchAll(/`([^`]+)`/g)].map((x) => x[1]!) : [],
+    });
+  });
+  return out;
+}
+
+describe('docs/errors.md', () => {
+  it('every error code in src/ is resolved statically (no computed codes)', () => {
+    expect(scan.unresolved).toEqual([]);
+    expect(scan.sites.length).toBeGreaterThan(100);
+  });
+
+  it('has an entry for every code raised in src/, and no entry without a raise site', () => {
+    const inSource = new Set(scan.sites.map((s) => s.code));
+    const inDoc = new Set(entries().map((e) => e.code));
+    expect([...inSource].filter((c) => !inDoc.has(c)).sort()).toEqual([]);
+    expect([...inDoc].filter((c) => !inSource.has(c)).sort()).toEqual([]);
+  });
+
+  it('names, for each entry, the class the code is raised with', () => {
+    const byCode = new Map<string, Set<string>>();
+    for (const s of scan.sites) byCode.set(s.code, new Set([...(byCode.get(s.code) ?? []), s.errorClass]));
+    for (const e of entries()) {
+      const classes = byCode.get(e.code);
+      expect(classes, e.code).toBeDefined();
+      expect([...classes!], `${e.code} is raised as ${[...classes!].join(', ')}`).toEqual([e.errorClass]);
+    }
+  });
+
+  it('lists, for each entry, test files that exist and trigger the code', () => {
+    for (const e of entries()) {
+      expect(e.tests.length, `${e.code}: no test listed`).toBeGreaterThan(0);
+      for (const file of e.tests) {
+        const path = join(root, file);
+        expect(existsSync(path), `${e.code}: ${file} does not exist`).toBe(true);
+        expect(readFileSync(path, 'utf8').includes(`'${e.code}'`), `${e.code}: ${file} does not mention '${e.code}'`).toBe(true);
+      }
+    }
+  });
+
+  it('documents exactly the numerical statuses of DaeStatus', () => {
+    const types = readFileSync(join(root, 'src', 'solver', 'types.ts'), 'utf8');
+    const union = /export type DaeStatus =([^;]*);/.exec(types)![1]!;
+    const statuses = [...union.matchAll(/'([a-z-]+)'/g)].map((m) => m[1]!).sort();
+    const documented = [...doc.matchAll(/^### Status `([a-z-]+)`\s*$/gm)].map((m) => m[1]!).sort();
+    expect(statuses.length).toBeGreaterThan(5);
+    expect(documented).toEqual(statuses);
+  });
+});
