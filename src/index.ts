@@ -29,6 +29,7 @@ export {
   type DaeStepInterpolant,
   type DaeStepResult,
   type DaeStepStatus,
+  type RestartOptions,
 } from './solver/dae-integrator.js';
 export { finiteDifferenceJacobian } from './solver/finite-difference-jacobian.js';
 export { consistentInitialValues, type ConsistentInitialValues } from './solver/consistent-initial-values.js';

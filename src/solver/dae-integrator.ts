@@ -199,7 +199,14 @@ export interface DaeIntegrator {
   interpolate(t: number, out?: Float64Array): Float64Array;
 }
 
-/** Options of {@link DaeIntegrator.restart}. */
+/**
+ * Options of {@link DaeIntegrator.restart}.
+ *
+ * @example
+ * ```ts
+ * integ.restart(undefined, { capStepByEstimate: true }); // after a source jumped
+ * ```
+ */
 export interface RestartOptions {
   /**
    * Cap the kept step size by a fresh starting-step estimate from the
