@@ -83,6 +83,6 @@ if (isMain) {
   console.log(`Push-pull transformer, ${AMPLITUDE} V, ${(1 / T / 1e3).toFixed(0)} kHz, on-time fault ${FAULT * 1e9} ns, ${PERIODS} periods; demo ferrite B_sat ${bSat} T`);
   console.log(row('open loop', open));
   console.log(row('closed loop', closed));
-  console.log(`The controller holds the DC flux offset near zero (its correction cancels the fault); open loop the peak flux density ${open.peakB > bSat ? 'exceeds' : 'approaches'} B_sat.`);
+  console.log(`The controller holds the DC flux offset near zero (its correction all but cancels the fault); open loop the peak flux density ${open.peakB > bSat ? 'exceeds' : 'approaches'} B_sat.`);
   console.log('Engineering estimate: verify against measurements before relying on it.');
 }

@@ -219,8 +219,13 @@ export class NetworkRun {
     let nextSample = 0;
     while (tStop - this.t > timeTolerance(tStop) && this.statusCur === 'running') {
       const interval = this.intervals[this.intervals.length - 1]!;
-      // A stop a few round-offs away from a breakpoint is the breakpoint: no step is that short.
-      const edge = Math.abs(interval.end - tStop) <= timeTolerance(tStop) ? interval.end : Math.min(interval.end, tStop);
+      // A stop a few round-offs away from a breakpoint is that breakpoint (no step is that short);
+      // it takes the caller's time value, so a run ends exactly at its stop time.
+      if (interval.end !== tStop && Math.abs(interval.end - tStop) <= timeTolerance(tStop)) {
+        interval.end = tStop;
+        this.compiled.inputs.setInterval(interval.start, tStop);
+      }
+      const edge = Math.min(interval.end, tStop);
       while (this.t < edge) {
         const sample = record.exact && nextSample < samples.length ? samples[nextSample]! : Infinity;
         const target = edge - sample <= timeTolerance(edge) ? edge : Math.min(edge, sample);

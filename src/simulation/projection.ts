@@ -1,10 +1,15 @@
 import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from '../solver/consistent-initialization.js';
+import { createDenseLu } from '../solver/dense-lu.js';
+
+/** Converged when the last correction is this small in tolerance units (as the initialisation). */
+const UPDATE_TOLERANCE = 1e-6;
+/** Simplified Newton iterations before falling back to a full Newton solve. */
+const MAX_SIMPLIFIED = 6;
 
 /**
  * Projects an interpolated state onto the algebraic equations: keeps its
- * differential content M y and solves W0^T f(t, y) = 0 for the algebraic
- * part by Newton's method (the solver's consistent initialisation).
+ * differential content M y and solves W0^T f(t, y + V0 z) = 0 for z.
  *
  * Why: between steps the state comes from the collocation polynomial, which
  * is accurate for the differential unknowns, but an algebraic unknown that is
@@ -16,6 +21,11 @@ import { makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } 
  * Numerical Solution of Initial-Value Problems in DAEs, SIAM 1996, sect. 5.3;
  * from memory). Index-2 unknowns are left as interpolated.
  *
+ * Cost: simplified Newton with the factorised W0^T J V0 kept from call to
+ * call (refreshed when it stops contracting), so a projection usually costs
+ * one or two evaluations of f; where that matrix is singular (index 2) the
+ * solver's full least-change initialisation is used instead.
+ *
  * @example
  * ```ts
  * const project = createProjector(compiled, atol, rtol);
@@ -25,26 +35,101 @@ import { makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } 
 export function createProjector(compiled: CompiledNetwork, atol: number | Float64Array, rtol: number): (t: number, y: Float64Array) => void {
   const n = compiled.layout.size;
   let spaces: MassSpaces | undefined;
+  let k = 0;
   const scale = new Float64Array(n);
-  const ctx = (): ConsistencyContext => {
-    spaces ??= massSpaces(compiled.mass, n);
-    return {
-      n,
-      spaces,
-      rhs: compiled.rhs,
-      jacobian: (t, y, _f, out) => {
-        out.fill(0);
-        compiled.jacobian(t, y, out);
-      },
-      scale,
-    };
+  const f = new Float64Array(n);
+  const jac = new Float64Array(n * n);
+  let lu: ReturnType<typeof createDenseLu> | undefined;
+  let luValid = false;
+  let singular = false;
+  let z = new Float64Array(0);
+
+  const ctx = (): ConsistencyContext => ({
+    n,
+    spaces: spaces!,
+    rhs: compiled.rhs,
+    jacobian: (t, y, _f, out) => {
+      out.fill(0);
+      compiled.jacobian(t, y, out);
+    },
+    scale,
+  });
+
+  /** Factorise W0^T J V0 at (t, y); false when it is singular. */
+  const refresh = (t: number, y: Float64Array): boolean => {
+    const s = spaces!;
+    jac.fill(0);
+    compiled.jacobian(t, y, jac);
+    const jv = new Float64Array(n * k);
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < k; j++) {
+        let acc = 0;
+        for (let l = 0; l < n; l++) {
+          const a = jac[i * n + l]!;
+          if (a !== 0) acc += a * s.v0[l * k + j]!;
+        }
+        jv[i * k + j] = acc;
+      }
+    }
+    const jr = new Float64Array(k * k);
+    for (let a = 0; a < k; a++) {
+      for (let b = 0; b < k; b++) {
+        let acc = 0;
+        for (let i = 0; i < n; i++) acc += s.w0[i * k + a]! * jv[i * k + b]!;
+        jr[a * k + b] = acc;
+      }
+    }
+    lu ??= createDenseLu(k);
+    luValid = lu.factor(jr) < 0;
+    return luValid;
   };
-  return (t, y) => {
-    for (let i = 0; i < n; i++) scale[i] = (typeof atol === 'number' ? atol : atol[i]!) + rtol * Math.abs(y[i]!);
-    const c = ctx();
-    if (c.spaces.k === 0) return;
+
+  const full = (t: number, y: Float64Array): void => {
     const before = Float64Array.from(y);
-    const res = makeConsistent(c, t, y, false);
-    if (!res.ok) y.set(before); // keep the interpolated state rather than a failed iterate
+    if (!makeConsistent(ctx(), t, y, false).ok) y.set(before); // keep the interpolated state
+  };
+
+  return (t, y) => {
+    if (!spaces) {
+      spaces = massSpaces(compiled.mass, n);
+      k = spaces.k;
+      z = new Float64Array(k);
+    }
+    if (k === 0) return;
+    for (let i = 0; i < n; i++) scale[i] = (typeof atol === 'number' ? atol : atol[i]!) + rtol * Math.abs(y[i]!);
+    if (singular) return full(t, y);
+    const s = spaces;
+    const start = Float64Array.from(y);
+    let previous = Infinity;
+    for (let iter = 0; iter < MAX_SIMPLIFIED; iter++) {
+      if (!luValid && !refresh(t, y)) {
+        singular = true;
+        y.set(start);
+        return full(t, y);
+      }
+      compiled.rhs(t, y, f);
+      for (let j = 0; j < k; j++) {
+        let acc = 0;
+        for (let i = 0; i < n; i++) acc += s.w0[i * k + j]! * f[i]!;
+        z[j] = -acc;
+      }
+      lu!.solve(z);
+      let norm = 0;
+      for (let i = 0; i < n; i++) {
+        let dy = 0;
+        for (let j = 0; j < k; j++) dy += s.v0[i * k + j]! * z[j]!;
+        y[i] = y[i]! + dy;
+        norm += (dy / scale[i]!) ** 2;
+      }
+      norm = Math.sqrt(norm / n);
+      if (!Number.isFinite(norm)) break;
+      if (norm <= UPDATE_TOLERANCE) return;
+      // Not contracting fast enough: refresh the matrix at the present iterate.
+      if (norm > 0.5 * previous) luValid = false;
+      previous = norm;
+    }
+    y.set(start);
+    luValid = false;
+    full(t, y);
   };
 }
