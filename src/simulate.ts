@@ -4,7 +4,7 @@ import { validateDescription } from './network/validate-description.js';
 import type { NetworkBuilder } from './network/network-builder.js';
 import type { NetworkDescription } from './network/description.js';
 import { NetworkRun } from './simulation/network-run.js';
-import { SimulationResult } from './result/simulation-result.js';
+import { resultFromRun, type SimulationResult } from './result/simulation-result.js';
 
 /** Absolute tolerances per kind of unknown. */
 export interface AbsoluteTolerances {
@@ -139,22 +139,7 @@ export function simulate(network: NetworkBuilder | NetworkDescription, options: 
   if (options.onProgress) {
     options.onProgress({ time: run.t, stopTime: tEnd, fraction: (run.t - t0) / (tEnd - t0), steps: run.stats.acceptedSteps });
   }
-  const status = run.status === 'running' ? 'success' : run.status;
-  return new SimulationResult({
-    compiled,
-    networkId,
-    samples: run.samples,
-    intervals: run.intervals,
-    steps: run.steps,
-    initialState: run.initialState,
-    finalState: run.y,
-    stats: run.stats,
-    status,
-    message: status === 'success' ? `reached t = ${tEnd} s` : run.message,
-    failure: status === 'success' ? undefined : run.failure,
-    adjustedAtStart: run.adjustedAtStart,
-    project: run.project,
-  });
+  return resultFromRun(compiled, networkId, run, `reached t = ${tEnd} s`);
 }
 
 function checkedInitialState(c: CompiledNetwork, y: ArrayLike<number>): Float64Array {

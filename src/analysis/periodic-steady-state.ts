@@ -3,7 +3,7 @@ import { InputError } from '../errors.js';
 import { compileNetwork, type CompiledNetwork } from '../formulation/compile-network.js';
 import type { NetworkBuilder } from '../network/network-builder.js';
 import type { NetworkDescription } from '../network/description.js';
-import { SimulationResult } from '../result/simulation-result.js';
+import { resultFromRun, type SimulationResult } from '../result/simulation-result.js';
 import { absoluteTolerances, type AbsoluteTolerances } from '../simulate.js';
 import { NetworkRun } from '../simulation/network-run.js';
 import type { DaeStatus, SolverStats } from '../solver/types.js';
@@ -176,13 +176,7 @@ export function periodicSteadyState(network: NetworkBuilder | NetworkDescription
       sampleTimes: Array.from({ length: samples }, (_, k) => t0 + ((k + 1) * T) / samples),
       exact: true,
     });
-    const runStatus = run.status === 'running' ? 'success' : run.status;
-    const result = new SimulationResult({
-      compiled, networkId, samples: run.samples, intervals: run.intervals, steps: run.steps,
-      initialState: run.initialState, finalState: run.y, stats: run.stats, status: runStatus,
-      message: runStatus === 'success' ? `one period from the ${status === 'converged' ? 'periodic' : 'last'} state` : run.message,
-      failure: runStatus === 'success' ? undefined : run.failure, adjustedAtStart: run.adjustedAtStart, project: run.project,
-    });
+    const result = resultFromRun(compiled, networkId, run, `one period from the ${status === 'converged' ? 'periodic' : 'last'} state`);
     return { status, message, state: run.initialState ?? y, iterations, periods, residuals, result, stats };
   }
 }

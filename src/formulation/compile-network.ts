@@ -8,7 +8,7 @@ import { layoutUnknowns, type UnknownLayout } from './unknown-layout.js';
 import { checkTopology } from './topology-checks.js';
 import { findIndexTwoUnknowns } from './index-analysis.js';
 import { initialState } from './initial-state.js';
-import { massSpaces } from '../solver/consistent-initialization.js';
+import { algebraicJacobian, massSpaces } from '../solver/consistent-initialization.js';
 import { createDenseLu } from '../solver/dense-lu.js';
 
 /** A flux tube ready for evaluation. */
@@ -275,20 +275,7 @@ function confirmIndexTwo(
   if (k === 0) return structural;
   const J = new Float64Array(n * n);
   jacobian(y0, J);
-  const jr = new Float64Array(k * k);
-  for (let a = 0; a < k; a++) {
-    for (let b = 0; b < k; b++) {
-      let s = 0;
-      for (let i = 0; i < n; i++) {
-        const w = spaces.w0[i * k + a]!;
-        if (w === 0) continue;
-        let jv = 0;
-        for (let l = 0; l < n; l++) jv += J[i * n + l]! * spaces.v0[l * k + b]!;
-        s += w * jv;
-      }
-      jr[a * k + b] = s;
-    }
-  }
+  const jr = algebraicJacobian(spaces, J, new Float64Array(k * k));
   return createDenseLu(k).factor(jr) < 0 ? [] : structural;
 }
 

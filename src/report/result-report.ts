@@ -2,6 +2,7 @@ import { compileMaterial } from '../materials/material-spec.js';
 import type { NetworkDescription, TubeDescription } from '../network/description.js';
 import type { ExportColumn } from '../result/export.js';
 import type { SimulationResult } from '../result/simulation-result.js';
+import { QUANTITY_UNITS } from '../result/state-reader.js';
 import type { MetricRow, MetricTable, NetworkRow, PlotGroup, PlotSeries, ReportData, ReportInfoItem, ReportSection } from './report-data.js';
 
 /**
@@ -52,10 +53,11 @@ export interface ResultReportOptions {
   readonly caution?: string;
 }
 
-const LABEL: Record<ExportColumn['quantity'], [string, string]> = {
-  flux: ['Flux', 'Wb'], fluxDensity: ['Flux density', 'T'], fieldStrength: ['Field strength', 'A/m'], mmf: ['MMF drop', 'A'],
-  eddyPower: ['Eddy power', 'W'], current: ['Current', 'A'], voltage: ['Voltage', 'V'], power: ['Power', 'W'], emf: ['EMF', 'V'],
-  fluxLinkage: ['Flux linkage', 'Wb'], copperLoss: ['Copper loss', 'W'], potential: ['Potential', 'V'], magneticPotential: ['Magnetic potential', 'A'],
+/** Axis names of the quantities (their units come from QUANTITY_UNITS). */
+const QUANTITY_NAMES: Record<ExportColumn['quantity'], string> = {
+  flux: 'Flux', fluxDensity: 'Flux density', fieldStrength: 'Field strength', mmf: 'MMF drop', eddyPower: 'Eddy power',
+  current: 'Current', voltage: 'Voltage', power: 'Power', emf: 'EMF', fluxLinkage: 'Flux linkage', copperLoss: 'Copper loss',
+  potential: 'Potential', magneticPotential: 'Magnetic potential',
 };
 
 /**
@@ -110,7 +112,8 @@ function defaultPlots(
 
 function plotGroup(r: SimulationResult, p: ResultPlot): PlotGroup {
   const series: PlotSeries[] = p.series.map((c) => {
-    const [quantity, unit] = LABEL[c.quantity];
+    const quantity = QUANTITY_NAMES[c.quantity];
+    const unit = QUANTITY_UNITS[c.quantity];
     return { label: c.label ?? c.handle.name, unit, quantity, t: r.time, values: r.read(c) };
   });
   const saturation = new Set<number>();

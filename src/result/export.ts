@@ -36,10 +36,6 @@ function columnLabel(c: ExportColumn): string {
   return c.label ?? `${c.quantity} ${c.handle.name} [${QUANTITY_UNITS[c.quantity]}]`;
 }
 
-function columnValues(r: SimulationResult, c: ExportColumn): Float64Array {
-  return r.read(c);
-}
-
 function csvField(text: string, sep: string): string {
   return /["\n\r]/.test(text) || text.includes(sep) ? `"${text.replace(/"/g, '""')}"` : text;
 }
@@ -48,7 +44,7 @@ function csvField(text: string, sep: string): string {
 export function resultToCsv(r: SimulationResult, options: CsvOptions): string {
   const sep = options.separator ?? ',';
   const cols = options.columns ?? defaultColumns(r.network, resultNetworkId(r));
-  const data = cols.map((c) => columnValues(r, c));
+  const data = cols.map((c) => r.read(c));
   const lines = [['time [s]', ...cols.map(columnLabel)].map((x) => csvField(x, sep)).join(sep)];
   for (let k = 0; k < r.time.length; k++) {
     lines.push([r.time[k]!, ...data.map((d) => d[k]!)].map((x) => String(x)).join(sep));
@@ -83,7 +79,7 @@ export function resultToJson(r: SimulationResult): ResultJson {
       quantity: c.quantity,
       element: c.handle.name,
       unit: QUANTITY_UNITS[c.quantity],
-      values: Array.from(columnValues(r, c)),
+      values: Array.from(r.read(c)),
     })),
   };
 }

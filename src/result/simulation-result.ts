@@ -5,7 +5,7 @@ import type { ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from 
 import { StateReader, type QuantityRequest } from './state-reader.js';
 import type { DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
-import type { RunSample } from '../simulation/network-run.js';
+import type { NetworkRun, RunSample } from '../simulation/network-run.js';
 import { computeEnergyAudit, type EnergyAudit } from './energy-audit.js';
 import { resultToCsv, resultToJson, type CsvOptions, type ResultJson } from './export.js';
 
@@ -431,4 +431,31 @@ export class SimulationResult {
     return s;
   }
 
+}
+
+/**
+ * The result of what a run recorded so far (copies of its records, so the run
+ * may go on): `successMessage` is the message when the run did not fail.
+ * Shared by `simulate`, the stepper's history and the periodic steady state.
+ *
+ * @internal
+ */
+export function resultFromRun(compiled: CompiledNetwork, networkId: number | undefined, run: NetworkRun, successMessage: string): SimulationResult {
+  // A terminal event is handled by the stepper (it resumes); it is not an outcome of the record.
+  const status = run.status === 'running' || run.status === 'terminal-event' ? 'success' : run.status;
+  return new SimulationResult({
+    compiled,
+    networkId,
+    samples: [...run.samples],
+    intervals: [...run.intervals],
+    steps: [...run.steps],
+    initialState: run.initialState,
+    finalState: run.y,
+    stats: run.stats,
+    status,
+    message: status === 'success' ? successMessage : run.message,
+    failure: status === 'success' ? undefined : run.failure,
+    adjustedAtStart: run.adjustedAtStart,
+    project: run.project,
+  });
 }

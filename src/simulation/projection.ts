@@ -1,5 +1,5 @@
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import { makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from '../solver/consistent-initialization.js';
+import { algebraicJacobian, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from '../solver/consistent-initialization.js';
 import { createDenseLu } from '../solver/dense-lu.js';
 
 /** Converged when the last correction is this small in tolerance units (as the initialisation). */
@@ -57,28 +57,9 @@ export function createProjector(compiled: CompiledNetwork, atol: number | Float6
 
   /** Factorise W0^T J V0 at (t, y); false when it is singular. */
   const refresh = (t: number, y: Float64Array): boolean => {
-    const s = spaces!;
     jac.fill(0);
     compiled.jacobian(t, y, jac);
-    const jv = new Float64Array(n * k);
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < k; j++) {
-        let acc = 0;
-        for (let l = 0; l < n; l++) {
-          const a = jac[i * n + l]!;
-          if (a !== 0) acc += a * s.v0[l * k + j]!;
-        }
-        jv[i * k + j] = acc;
-      }
-    }
-    const jr = new Float64Array(k * k);
-    for (let a = 0; a < k; a++) {
-      for (let b = 0; b < k; b++) {
-        let acc = 0;
-        for (let i = 0; i < n; i++) acc += s.w0[i * k + a]! * jv[i * k + b]!;
-        jr[a * k + b] = acc;
-      }
-    }
+    const jr = algebraicJacobian(spaces!, jac, new Float64Array(k * k));
     lu ??= createDenseLu(k);
     luValid = lu.factor(jr) < 0;
     return luValid;

@@ -61,6 +61,36 @@ export function massSpaces(mass: Float64Array, n: number): MassSpaces {
   return { n, rank, k, v0, w0, u1 };
 }
 
+/**
+ * The Jacobian of the algebraic equations with respect to the algebraic
+ * directions, W0^T J V0 (k x k, row-major, into `out`): nonsingular exactly
+ * when the DAE is index 1 at that state (Hairer and Wanner II, sect. VII.1).
+ * `work` (n x k) may be passed to avoid an allocation.
+ *
+ * @internal
+ */
+export function algebraicJacobian(spaces: MassSpaces, jac: Float64Array, out: Float64Array, work = new Float64Array(spaces.n * spaces.k)): Float64Array {
+  const { n, k, v0, w0 } = spaces;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < k; j++) {
+      let s = 0;
+      for (let l = 0; l < n; l++) {
+        const a = jac[i * n + l]!;
+        if (a !== 0) s += a * v0[l * k + j]!;
+      }
+      work[i * k + j] = s;
+    }
+  }
+  for (let a = 0; a < k; a++) {
+    for (let b = 0; b < k; b++) {
+      let s = 0;
+      for (let i = 0; i < n; i++) s += w0[i * k + a]! * work[i * k + b]!;
+      out[a * k + b] = s;
+    }
+  }
+  return out;
+}
+
 /** What {@link makeConsistent} needs from its caller (evaluations are counted there). */
 export interface ConsistencyContext {
   readonly n: number;
@@ -148,21 +178,7 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
       return { ok: false, reason: 'non-finite', components: badF, message: `f is not finite at the initial state (components ${badF.join(', ')})` };
     }
     ctx.jacobian(t, y, f, jac);
-    // jr = W0^T J V0
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < k; j++) {
-        let s = 0;
-        for (let l = 0; l < n; l++) s += jac[i * n + l]! * v0[l * k + j]!;
-        jv[i * k + j] = s;
-      }
-    }
-    for (let a = 0; a < k; a++) {
-      for (let b = 0; b < k; b++) {
-        let s = 0;
-        for (let i = 0; i < n; i++) s += w0[i * k + a]! * jv[i * k + b]!;
-        jr[a * k + b] = s;
-      }
-    }
+    algebraicJacobian(spaces, jac, jr, jv);
     const badPivot = lu.factor(jr);
     if (badPivot >= 0) return leastChangeConsistent(ctx, t, y, moveDifferential);
     for (let j = 0; j < k; j++) dz[j] = -r[j]!;

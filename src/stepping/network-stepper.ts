@@ -3,7 +3,7 @@ import { compileNetwork, type CompiledNetwork } from '../formulation/compile-net
 import type { NetworkBuilder } from '../network/network-builder.js';
 import type { NetworkDescription } from '../network/description.js';
 import type { CurrentSource, ElectricNode, FluxTube, Switch, TwoTerminal, VoltageSource } from '../network/handles.js';
-import { SimulationResult } from '../result/simulation-result.js';
+import { resultFromRun, type SimulationResult } from '../result/simulation-result.js';
 import { StateReader, type QuantityRequest, type StateFunction } from '../result/state-reader.js';
 import { NetworkRun, timeTolerance, type RecordOptions, type RunSnapshot } from '../simulation/network-run.js';
 import type { DaeEvent, DaeStatus, SolverStats } from '../solver/types.js';
@@ -405,22 +405,7 @@ export class NetworkStepper {
     if (!this.record.steps) {
       throw new InputError('no-history', 'this stepper was created with record: false; create it with record: true to get a result', []);
     }
-    const status = this.status === 'running' ? 'success' : this.status;
-    return new SimulationResult({
-      compiled: this.compiled,
-      networkId: this.networkId,
-      samples: [...this.run.samples],
-      intervals: [...this.run.intervals],
-      steps: [...this.run.steps],
-      initialState: this.run.initialState,
-      finalState: this.run.y,
-      stats: this.run.stats,
-      status,
-      message: status === 'success' ? `stepped to t = ${this.time} s` : this.run.message,
-      failure: status === 'success' ? undefined : this.run.failure,
-      adjustedAtStart: this.run.adjustedAtStart,
-      project: this.run.project,
-    });
+    return resultFromRun(this.compiled, this.networkId, this.run, `stepped to t = ${this.time} s`);
   }
 
   private handleCrossings(): void {
