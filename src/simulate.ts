@@ -1,6 +1,7 @@
 import { InputError } from './errors.js';
 import { checkedInitialState } from './simulation/checked-initial-state.js';
 import { acceptNetwork, type NetworkInput } from './simulation/accept-network.js';
+import { finitenessCheck } from './simulation/finiteness-check.js';
 import { NetworkRun, timeTolerance } from './simulation/network-run.js';
 import { checkSolverSettings, resolveSolverSettings, type SolverSettings } from './simulation/solver-settings.js';
 import { resultFromRun, type SimulationResult } from './result/simulation-result.js';
@@ -95,6 +96,7 @@ export function simulate(network: NetworkInput, options: SimulateOptions): Simul
     t0,
     horizon: tEnd,
     ...resolveSolverSettings(compiled, options, { rtol: 1e-6, maxSteps: 1e6 }),
+    check: finitenessCheck(compiled),
     ...(options.initialState ? { initialState: checkedInitialState(compiled, options.initialState, 'simulate options') } : {}),
   });
   const progress = (t: number): void => {

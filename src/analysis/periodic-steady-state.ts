@@ -4,6 +4,7 @@ import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { resultFromRun, type SimulationResult } from '../result/simulation-result.js';
 import { acceptNetwork, type NetworkInput } from '../simulation/accept-network.js';
 import { checkedInitialState } from '../simulation/checked-initial-state.js';
+import { finitenessCheck } from '../simulation/finiteness-check.js';
 import { NetworkRun } from '../simulation/network-run.js';
 import { checkSolverSettings, resolveSolverSettings, type SolverSettings } from '../simulation/solver-settings.js';
 import type { DaeStatus, SolverStats } from '../solver/types.js';
@@ -180,13 +181,17 @@ export function periodicSteadyState(network: NetworkInput, options: PeriodicStea
 
   function finish(status: PeriodicSteadyState['status'], message: string): PeriodicSteadyState {
     const samples = options.samplesPerPeriod ?? 200;
-    const run = new NetworkRun(compiled, periodSettings(y));
+    const run = new NetworkRun(compiled, { ...periodSettings(y), check: finitenessCheck(compiled) });
     run.advanceTo(t0 + T, {
       steps: true, interpolants: true,
       sampleTimes: Array.from({ length: samples }, (_, k) => t0 + ((k + 1) * T) / samples),
       exact: true,
     });
     const result = resultFromRun(compiled, networkId, run, `one period from the ${status === 'converged' ? 'periodic' : 'last'} state`);
+    // A converged state whose returned period did not run through (a non-finite quantity, a budget) is not a success.
+    if (status === 'converged' && result.status !== 'success') {
+      return { status: result.status, message: `the periodic state was found, but its period stopped: ${result.message}`, state: run.initialState ?? y, iterations, periods, residuals, result, stats };
+    }
     return { status, message, state: run.initialState ?? y, iterations, periods, residuals, result, stats };
   }
 }

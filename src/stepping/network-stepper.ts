@@ -7,6 +7,7 @@ import { NetworkRun, timeTolerance, type RecordOptions, type RunSnapshot } from 
 import type { DaeEvent, DaeStatus, SolverStats } from '../solver/types.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import { checkedInitialState } from '../simulation/checked-initial-state.js';
+import { finitenessCheck } from '../simulation/finiteness-check.js';
 import { acceptNetwork, type NetworkInput } from '../simulation/accept-network.js';
 import { checkSolverSettings, resolveSolverSettings, type SolverSettings } from '../simulation/solver-settings.js';
 
@@ -136,6 +137,7 @@ export class NetworkStepper {
       t0,
       horizon: options.horizon,
       ...resolveSolverSettings(this.compiled, options, { rtol: 1e-6, maxSteps: 1e7 }),
+      ...(this.record.steps ? { check: finitenessCheck(this.compiled) } : {}),
       ...(options.initialState ? { initialState: checkedInitialState(this.compiled, options.initialState, 'stepper options') } : {}),
       events,
     });
