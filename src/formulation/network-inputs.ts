@@ -1,4 +1,6 @@
-import type { NetworkDescription } from '../network/description.js';
+import type { InputView } from '../elements/element-kind.js';
+import { elementKind } from '../elements/registry.js';
+import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { nextDown, nextUp } from '../waveforms/float-steps.js';
 import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { Waveform } from '../waveforms/waveform.js';
@@ -28,8 +30,14 @@ function mergeGap(t: number, span: number): number {
   return BREAKPOINT_MERGE * Math.max(Math.abs(t), 1e-10 * span);
 }
 
-function sourceLabel(el: NetworkDescription['elements'][number]): { label: string; element: string } {
-  return { label: `${el.kind.replace('-', ' ')} "${el.name}"`, element: el.name };
+function sourceLabel(el: ElementDescription): { label: string; element: string } {
+  return { label: `${elementKind(el).noun} "${el.name}"`, element: el.name };
+}
+
+/** The element's own waveform (sources), compiled; undefined for elements without one. */
+function ownWaveform(el: ElementDescription): Waveform | undefined {
+  const spec = elementKind(el).waveform?.(el);
+  return spec === undefined ? undefined : compileWaveform(spec, sourceLabel(el));
 }
 
 /**
@@ -53,19 +61,23 @@ export class InputSchedule {
     private readonly switchOverride: readonly (boolean | undefined)[],
     private readonly switchInitial: readonly boolean[],
     private readonly switchToggles: readonly (readonly number[])[],
+    /** Whether element e follows a switching schedule. */
+    private readonly hasSchedule: readonly boolean[],
   ) {}
 
   /** The schedule of a description: its waveforms and switch schedules, no overrides. */
   static of(description: NetworkDescription): InputSchedule {
     const els = description.elements;
+    const schedules = els.map((e) => elementKind(e).schedule?.(e));
     return new InputSchedule(
       description,
-      els.map((e) => (e.kind === 'voltage-source' || e.kind === 'current-source' ? compileWaveform(e.waveform, sourceLabel(e)) : undefined)),
+      els.map(ownWaveform),
       new Map(),
       els.map(() => undefined),
       els.map(() => undefined),
-      els.map((e) => (e.kind === 'switch' ? e.initiallyClosed : false)),
-      els.map((e) => (e.kind === 'switch' ? e.toggleTimes : [])),
+      schedules.map((s) => s?.initiallyClosed ?? false),
+      schedules.map((s) => s?.toggleTimes ?? []),
+      schedules.map((s) => s !== undefined),
     );
   }
 
@@ -80,6 +92,7 @@ export class InputSchedule {
       changes.switchOverride ?? this.switchOverride,
       this.switchInitial,
       this.switchToggles,
+      this.hasSchedule,
     );
   }
 
@@ -146,10 +159,10 @@ export class InputSchedule {
   /** The first time after `after` where an input that follows its schedule jumps or kinks (Infinity if none). */
   nextEdge(after: number): number {
     let next = Infinity;
-    this.description.elements.forEach((el, e) => {
+    this.description.elements.forEach((_el, e) => {
       const w = this.waveforms[e];
       if (w && this.sourceOverride[e] === undefined) next = Math.min(next, w.nextBreakpoint(after));
-      if (el.kind === 'switch' && this.switchOverride[e] === undefined) {
+      if (this.hasSchedule[e] && this.switchOverride[e] === undefined) {
         const toggles = this.switchToggles[e]!;
         let lo = 0;
         let hi = toggles.length;
@@ -202,7 +215,7 @@ export class InputSchedule {
  * inputs.sourceValue(2, 0); // V or A
  * ```
  */
-export class InputsInForce {
+export class InputsInForce implements InputView {
   /**
    * @param rightOf time at which inputs are evaluated for t <= start
    * @param leftOf time at which inputs are evaluated for t >= end
@@ -268,23 +281,24 @@ export function openInterval(schedule: InputSchedule, t: number, horizon: number
 }
 
 /**
- * Time-dependent inputs of a compiled network as the formulation sees them:
- * every evaluation of f and the Jacobian goes through {@link
- * NetworkInputs.sourceValue} and {@link NetworkInputs.switchClosed}, which
- * read the {@link InputsInForce} value made current by {@link
- * NetworkInputs.use}. The run makes each interval's value current while it
- * integrates it; a reader of past results makes the recorded value current
- * only for the duration of its call ({@link NetworkInputs.during}) and puts
- * the live one back, so reading never changes a live run.
+ * The network's own inputs, for code that reads quantities without being
+ * given an {@link InputsInForce} (the state reader, the energy audit, the
+ * projection of interpolated states): it reads the value made current by
+ * {@link NetworkInputs.use} (a run, for present values) or, for the
+ * duration of one call, by {@link NetworkInputs.during} (a reader of
+ * recorded results, which puts back what was current). A run itself never
+ * reads it: it passes its own value to every evaluation
+ * (`compiled.evaluate(t, y, inputs, out)`), so no reader can change a live
+ * run.
  *
  * @example
  * ```ts
  * const inputs = new NetworkInputs(description);
  * const value = openInterval(inputs.schedule, 0, 0.02, 0.02);
- * inputs.during(value, () => compiled.rhs(0, y, f));
+ * inputs.during(value, () => reader.build(request)(y, 0.01));
  * ```
  */
-export class NetworkInputs {
+export class NetworkInputs implements InputView {
   /** The description's schedule (no overrides). */
   readonly schedule: InputSchedule;
   private current: InputsInForce;
@@ -316,41 +330,11 @@ export class NetworkInputs {
   }
 
   /**
-   * Run fn with a sequence of recorded values for {@link
-   * NetworkInputs.setInterval}: code that names intervals by their ends, one
-   * call per item in the sequence's order (the energy audit, one call per
-   * step), gets the recorded value of that item.
-   */
-  duringRecord<T>(sequence: readonly InputsInForce[], fn: () => T): T {
-    const before = { current: this.current, sequence: this.sequence, cursor: this.cursor };
-    this.sequence = sequence;
-    this.cursor = 0;
-    try {
-      return fn();
-    } finally {
-      this.current = before.current;
-      this.sequence = before.sequence;
-      this.cursor = before.cursor;
-    }
-  }
-
-  private sequence: readonly InputsInForce[] | undefined;
-  private cursor = 0;
-
-  /**
-   * Make the interval [a, b] current, named by its ends: inside {@link
-   * NetworkInputs.duringRecord}, the next recorded value of the sequence
-   * (whose ends must be a and b), else the inputs in force over [a, b] with
-   * the present schedule. Prefer {@link NetworkInputs.use} or {@link
-   * NetworkInputs.during} with a recorded value.
+   * Make the interval [a, b] of the present schedule current (for code that
+   * names an interval by its ends). Prefer {@link NetworkInputs.use} or
+   * {@link NetworkInputs.during} with a recorded value.
    */
   setInterval(a: number, b: number): void {
-    const next = this.sequence?.[this.cursor];
-    if (next && next.start === a && next.end === b) {
-      this.cursor++;
-      this.current = next;
-      return;
-    }
     this.current = new InputsInForce(this.current.schedule, a, b, Number.isFinite(a) ? Math.min(nextUp(a), b) : a, Number.isFinite(b) ? nextDown(b) : b);
   }
 

@@ -318,12 +318,11 @@ export class SimulationResult {
    */
   energy(): EnergyAudit {
     // Each step is audited with the inputs recorded for its interval (never those in force now).
-    this.audit ??= this.compiled.inputs.duringRecord(this.steps.map((step) => this.intervals[step.interval]!), () =>
-      computeEnergyAudit(
-        this.compiled,
-        { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState, ...(this.project ? { project: this.project } : {}) },
-        (b, y, t) => this.reader.fluxDerivative(b, y, t),
-      ),
+    this.audit ??= computeEnergyAudit(
+      this.compiled,
+      { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState, ...(this.project ? { project: this.project } : {}) },
+      (b, y, t) => this.reader.fluxDerivative(b, y, t),
+      this.reader,
     );
     return this.audit;
   }

@@ -4,6 +4,8 @@ import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } f
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { createProjector } from './projection.js';
+import type { InputView } from '../elements/element-kind.js';
+import { DenseStampTarget } from '../elements/stamp-target.js';
 import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { ResolvedSolverSettings } from './solver-settings.js';
@@ -137,9 +139,11 @@ export class NetworkRun {
   private endState: Float64Array | undefined;
   /**
    * Projects an interpolated state onto the algebraic equations (see
-   * createProjector); the inputs' interval must be set for t.
+   * createProjector) with the network's inputs, as a reader of recorded
+   * results has put them (`compiled.inputs.during`).
    */
   readonly project: (t: number, y: Float64Array) => void;
+  private readonly projector: (t: number, y: Float64Array, inputs?: InputView) => void;
 
   constructor(compiled: CompiledNetwork, settings: RunSettings) {
     this.compiled = compiled;
@@ -150,12 +154,15 @@ export class NetworkRun {
     this.schedule = compiled.inputs.schedule;
     this.live = openInterval(this.schedule, settings.t0, settings.horizon, this.span);
     compiled.inputs.use(this.live);
-    this.project = createProjector(compiled, settings.atol, settings.rtol);
+    this.projector = createProjector(compiled, settings.atol, settings.rtol);
+    this.project = (t, y) => this.projector(t, y);
+    const jacobianTarget = new DenseStampTarget(compiled.layout.size);
     this.integ = createDaeIntegrator(
       {
         size: compiled.layout.size,
-        rhs: compiled.rhs,
-        jacobian: compiled.jacobian,
+        // The run's own inputs in force, passed explicitly: nothing a reader does to the network's can reach it.
+        rhs: (t, y, out) => compiled.evaluate(t, y, this.live, out),
+        jacobian: (t, y, out) => compiled.stampJacobian(t, y, this.live, jacobianTarget.bind(out)),
         mass: compiled.mass,
         y0: settings.initialState ?? compiled.y0,
         t0: settings.t0,
@@ -296,7 +303,7 @@ export class NetworkRun {
           const y = evaluateRecordedStep(step, ts, this.index2);
           // An input that throws here (a user function failing exactly at a sampling instant) ends the run as 'rhs-error'.
           try {
-            this.project(ts, y);
+            this.projector(ts, y, this.live);
           } catch (cause) {
             return this.stopAt(step, kept, 'rhs-error', `f threw at t = ${ts}: ${cause instanceof Error ? cause.message : String(cause)}`, { cause });
           }
@@ -455,7 +462,8 @@ export class NetworkRun {
       if (!Number.isFinite(y[i]!)) hit = { quantity: 'state', name: this.compiled.layout.labels[i] ?? `unknown ${i}`, value: y[i]! };
     }
     try {
-      hit ??= this.check?.(t, y);
+      const check = this.check;
+      if (!hit && check) hit = this.compiled.inputs.during(this.live, () => check(t, y));
     } catch (cause) {
       this.stopAt(step, kept, 'rhs-error', `f threw at t = ${t}: ${cause instanceof Error ? cause.message : String(cause)}`, { cause });
       return false;
