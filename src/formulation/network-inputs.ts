@@ -7,7 +7,15 @@ import type { Waveform } from '../waveforms/waveform.js';
 
 export { nextDown, nextUp } from '../waveforms/float-steps.js';
 
-/** What embedding code changed in a network's inputs (plain data). */
+/**
+ * What embedding code changed in a network's inputs (plain data).
+ *
+ * @example
+ * ```ts
+ * const saved: InputState = schedule.state();
+ * const again = InputSchedule.of(description).withState(saved);
+ * ```
+ */
 export interface InputState {
   readonly sourceOverride: readonly (number | undefined)[];
   readonly switchOverride: readonly (boolean | undefined)[];

@@ -15,7 +15,16 @@ import { validateDescription } from '../network/validate-description.js';
  */
 export type NetworkInput = NetworkBuilder | NetworkDescription;
 
-/** A network accepted by an entry point: checked, compiled, with the builder's identity. @internal */
+/**
+ * A network accepted by an entry point: checked, compiled, with the builder's identity.
+ *
+ * @example
+ * ```ts
+ * const { description, networkId, compiled }: AcceptedNetwork = acceptNetwork(net, 'simulate');
+ * ```
+ *
+ * @internal
+ */
 export interface AcceptedNetwork {
   readonly description: NetworkDescription;
   /** Identity of the builder whose handles fit (undefined for a description). */

@@ -12,7 +12,12 @@ import type { ResolvedSolverSettings } from './solver-settings.js';
 
 /**
  * A non-finite value found in a recorded state or in a quantity read from
- * it: what, where and when (see {@link RunSettings.check}).
+ * it: what and where (see {@link RunSettings.check}).
+ *
+ * @example
+ * ```ts
+ * const hit: NonFiniteValue = { quantity: 'power', name: 'drive', value: Infinity };
+ * ```
  */
 export interface NonFiniteValue {
   /** The quantity (`'current'`, `'mmf'`...) or `'state'` for a raw unknown. */
@@ -22,7 +27,14 @@ export interface NonFiniteValue {
   readonly value: number;
 }
 
-/** Settings of a run: the resolved solver settings plus its span and what it watches. */
+/**
+ * Settings of a run: the resolved solver settings plus its span and what it watches.
+ *
+ * @example
+ * ```ts
+ * const settings: RunSettings = { t0: 0, horizon: 0.02, rtol: 1e-6, atol: 1e-6, check: finitenessCheck(compiled) };
+ * ```
+ */
 export interface RunSettings extends Omit<ResolvedSolverSettings, 'maxSteps'> {
   readonly maxSteps?: number;
   /** Start time. */

@@ -51,7 +51,16 @@ export interface SolverSettings {
   readonly signal?: AbortSignal;
 }
 
-/** Solver settings resolved for one network (defaults filled in, tolerances per unknown). @internal */
+/**
+ * Solver settings resolved for one network (defaults filled in, tolerances per unknown).
+ *
+ * @example
+ * ```ts
+ * const resolved: ResolvedSolverSettings = resolveSolverSettings(compiled, { rtol: 1e-7 }, { rtol: 1e-6, maxSteps: 1e6 });
+ * ```
+ *
+ * @internal
+ */
 export interface ResolvedSolverSettings {
   readonly rtol: number;
   readonly atol: number | Float64Array;
@@ -103,6 +112,11 @@ export function checkSolverSettings(o: SolverSettings, where: string): void {
  * Resolve checked settings for a compiled network: defaults filled in, the
  * absolute tolerances per unknown.
  *
+ * @example
+ * ```ts
+ * const run = new NetworkRun(compiled, { t0: 0, horizon: 0.02, ...resolveSolverSettings(compiled, options, { rtol: 1e-6, maxSteps: 1e6 }) });
+ * ```
+ *
  * @internal
  */
 export function resolveSolverSettings(
@@ -123,6 +137,11 @@ export function resolveSolverSettings(
 
 /**
  * Per-unknown absolute tolerances from the settings.
+ *
+ * @example
+ * ```ts
+ * const atol = absoluteTolerances(compiled, { current: 1e-7 }); // Float64Array, one per unknown
+ * ```
  *
  * @internal
  */
