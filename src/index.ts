@@ -118,7 +118,7 @@ export type {
 } from './network/description.js';
 export { handlesOf, type DescriptionHandles } from './network/handles-of.js';
 export { simulate } from './simulate.js';
-export type { SimulateOptions, AbsoluteTolerances, Sampling, SimulationProgress } from './simulate.js';
+export type { SimulateOptions, AbsoluteTolerances, SolverSettings, NetworkInput, Sampling, SimulationProgress } from './simulate.js';
 export { SimulationResult } from './result/simulation-result.js';
 export type { SimulationFailure } from './result/simulation-result.js';
 export type { EnergyAudit } from './result/energy-audit.js';

@@ -1,23 +1,13 @@
 import { InputError } from './errors.js';
-import { compileNetwork, type CompiledNetwork } from './formulation/compile-network.js';
-import { validateDescription } from './network/validate-description.js';
-import type { NetworkBuilder } from './network/network-builder.js';
-import type { NetworkDescription } from './network/description.js';
-import { NetworkRun } from './simulation/network-run.js';
+import { checkedInitialState } from './simulation/checked-initial-state.js';
+import { acceptNetwork, type NetworkInput } from './simulation/accept-network.js';
+import { finitenessCheck } from './simulation/finiteness-check.js';
+import { NetworkRun, timeTolerance } from './simulation/network-run.js';
+import { checkSolverSettings, resolveSolverSettings, type SolverSettings } from './simulation/solver-settings.js';
 import { resultFromRun, type SimulationResult } from './result/simulation-result.js';
 
-/** Absolute tolerances per kind of unknown. */
-export interface AbsoluteTolerances {
-  /** Node potentials and voltages, V. Default 1e-6. */
-  readonly voltage?: number;
-  /** Branch currents, A. Default 1e-6. */
-  readonly current?: number;
-  /**
-   * Flux density, T: each loop flux gets this times the smallest area of
-   * its tubes (1e-4 m^2 assumed for tubes without an area). Default 1e-7.
-   */
-  readonly fluxDensity?: number;
-}
+export type { AbsoluteTolerances, SolverSettings } from './simulation/solver-settings.js';
+export type { NetworkInput } from './simulation/accept-network.js';
 
 /**
  * How the result is sampled in time. Grid samples are evaluated on the
@@ -45,28 +35,23 @@ export interface SimulationProgress {
   readonly steps: number;
 }
 
-/** Options of {@link simulate}. */
-export interface SimulateOptions {
+/**
+ * Options of {@link simulate}: the shared {@link SolverSettings} (rtol
+ * default 1e-6, maxSteps default 1e6) plus the span, the sampling and
+ * progress reports.
+ *
+ * @example
+ * ```ts
+ * const options: SimulateOptions = { stopTime: 0.1, rtol: 1e-7, sampling: { interval: 1e-4 } };
+ * ```
+ */
+export interface SimulateOptions extends SolverSettings {
   /** End of the simulated interval, s. */
   readonly stopTime: number;
   /** Start, s. Default 0. */
   readonly startTime?: number;
-  /** Relative tolerance. Default 1e-6. */
-  readonly rtol?: number;
-  /** Absolute tolerances: one number for every unknown, or per kind. */
-  readonly atol?: number | AbsoluteTolerances;
-  /** Largest solver step, s. Default: no limit beyond the interval. */
-  readonly maxStep?: number;
-  /** First step to try, s. */
-  readonly initialStep?: number;
   /** Output sampling. Default `'steps'`. */
   readonly sampling?: Sampling;
-  /** Budget of solver steps (accepted + rejected). Default 1e6. */
-  readonly maxSteps?: number;
-  /** Wall-time budget, ms. */
-  readonly maxWallTimeMs?: number;
-  /** Cancels the run; the result keeps what was computed (status `'aborted'`). */
-  readonly signal?: AbortSignal;
   /** Progress callback, called at most every `progressIntervalMs`. */
   readonly onProgress?: (progress: SimulationProgress) => void;
   /** Minimum wall time between progress calls, ms. Default 200. */
@@ -94,33 +79,25 @@ export interface SimulateOptions {
  * const b = result.fluxDensity(leg); // Float64Array, T
  * ```
  */
-export function simulate(network: NetworkBuilder | NetworkDescription, options: SimulateOptions): SimulationResult {
+export function simulate(network: NetworkInput, options: SimulateOptions): SimulationResult {
   if (network === null || typeof network !== 'object') {
     throw new InputError('bad-option', `simulate: the first argument must be a network (builder or description), got ${String(network)}`, ['network']);
   }
   if (options === null || typeof options !== 'object') {
     throw new InputError('bad-option', `simulate: options must be an object with at least stopTime, got ${String(options)}`, ['options']);
   }
-  // A description that did not come from a builder here (JSON, a worker) gets the builder's checks.
-  const description = 'describe' in network ? network.describe() : validateDescription(network);
-  const networkId = 'describe' in network ? network.id : undefined;
   const t0 = options.startTime ?? 0;
   const tEnd = options.stopTime;
   checkOptions(options, t0, tEnd);
-  const compiled = compileNetwork(description);
+  const { compiled, networkId } = acceptNetwork(network, 'simulate');
   const sampleTimes = samplingTimes(options.sampling, t0, tEnd);
   let lastProgress = -Infinity;
   const run = new NetworkRun(compiled, {
     t0,
     horizon: tEnd,
-    rtol: options.rtol ?? 1e-6,
-    atol: absoluteTolerances(compiled, options.atol),
-    ...(options.maxStep !== undefined ? { maxStep: options.maxStep } : {}),
-    ...(options.initialStep !== undefined ? { initialStep: options.initialStep } : {}),
-    maxSteps: options.maxSteps ?? 1e6,
-    ...(options.maxWallTimeMs !== undefined ? { maxWallTimeMs: options.maxWallTimeMs } : {}),
-    ...(options.signal ? { signal: options.signal } : {}),
-    ...(options.initialState ? { initialState: checkedInitialState(compiled, options.initialState) } : {}),
+    ...resolveSolverSettings(compiled, options, { rtol: 1e-6, maxSteps: 1e6 }),
+    check: finitenessCheck(compiled),
+    ...(options.initialState ? { initialState: checkedInitialState(compiled, options.initialState, 'simulate options') } : {}),
   });
   const progress = (t: number): void => {
     if (!options.onProgress) return;
@@ -142,37 +119,13 @@ export function simulate(network: NetworkBuilder | NetworkDescription, options: 
   return resultFromRun(compiled, networkId, run, `reached t = ${tEnd} s`);
 }
 
-function checkedInitialState(c: CompiledNetwork, y: ArrayLike<number>): Float64Array {
-  if (y.length !== c.layout.size) {
-    throw new InputError('bad-initial-state', `simulate options: initialState has ${y.length} entries; this network has ${c.layout.size} unknowns`, ['options']);
-  }
-  const out = Float64Array.from(y);
-  out.forEach((v, i) => {
-    if (!Number.isFinite(v)) {
-      throw new InputError('bad-initial-state', `simulate options: initialState[${i}] (${c.layout.labels[i]}) is ${v}; give finite values`, ['options']);
-    }
-  });
-  return out;
-}
-
 function checkOptions(o: SimulateOptions, t0: number, tEnd: number): void {
   const bad = (code: string, text: string): never => {
     throw new InputError(code, `simulate options: ${text}`, ['options']);
   };
   if (!Number.isFinite(t0)) bad('bad-option', `startTime ${t0} is not finite`);
   if (!Number.isFinite(tEnd) || tEnd <= t0) bad('bad-time-span', `stopTime ${tEnd} s must be a finite time after startTime ${t0} s`);
-  if (o.rtol !== undefined && !(o.rtol > 0 && o.rtol < 1)) bad('bad-tolerance', `rtol ${o.rtol} must be in (0, 1)`);
-  if (typeof o.atol === 'number' && !(o.atol > 0)) bad('bad-tolerance', `atol ${o.atol} must be > 0`);
-  if (typeof o.atol === 'object') {
-    for (const [k, v] of Object.entries(o.atol)) if (v !== undefined && !(typeof v === 'number' && v > 0)) bad('bad-tolerance', `atol.${k} ${String(v)} must be > 0`);
-  }
-  if (o.maxStep !== undefined && !(o.maxStep > 0)) bad('bad-option', `maxStep ${o.maxStep} must be > 0`);
-  if (o.initialStep !== undefined && !(o.initialStep > 0)) bad('bad-option', `initialStep ${o.initialStep} must be > 0`);
-  if (o.maxSteps !== undefined && !(o.maxSteps >= 1)) bad('bad-option', `maxSteps ${o.maxSteps} must be >= 1`);
-  if (o.maxWallTimeMs !== undefined && !(o.maxWallTimeMs > 0)) bad('bad-option', `maxWallTimeMs ${o.maxWallTimeMs} must be > 0`);
-  for (const [name, v] of [['atol', o.atol], ['maxStep', o.maxStep], ['maxSteps', o.maxSteps], ['maxWallTimeMs', o.maxWallTimeMs], ['initialStep', o.initialStep]] as const) {
-    if (typeof v === 'number' && !Number.isFinite(v)) bad(name === 'atol' ? 'bad-tolerance' : 'bad-option', `${name} ${v} must be finite`);
-  }
+  checkSolverSettings(o, 'simulate options');
   if (o.onProgress !== undefined && typeof o.onProgress !== 'function') bad('bad-option', `onProgress must be a function, got ${typeof o.onProgress}`);
   if (o.progressIntervalMs !== undefined && !(o.progressIntervalMs >= 0)) bad('bad-option', `progressIntervalMs ${o.progressIntervalMs} must be >= 0`);
   const s = o.sampling;
@@ -183,24 +136,6 @@ function checkOptions(o: SimulateOptions, t0: number, tEnd: number): void {
 
 /** Most samples a grid may ask for (a finer grid is almost surely a unit mistake). */
 const MAX_GRID_SAMPLES = 1e7;
-
-/** Per-unknown absolute tolerances from the options (internal; shared with the stepper). */
-export function absoluteTolerances(c: CompiledNetwork, atol: SimulateOptions['atol']): Float64Array | number {
-  if (typeof atol === 'number') return atol;
-  const voltage = atol?.voltage ?? 1e-6;
-  const current = atol?.current ?? 1e-6;
-  const fluxDensity = atol?.fluxDensity ?? 1e-7;
-  return Float64Array.from(c.layout.kinds, (kind, i) => {
-    if (kind === 'potential') return voltage;
-    if (kind === 'current') return current;
-    const entries = c.loops.loops[i - c.layout.loopOffset]!;
-    const area = Math.min(...entries.map((en) => {
-      const a = c.tubes[en.tube]!.area;
-      return Number.isFinite(a) ? a : 1e-4;
-    }));
-    return fluxDensity * area;
-  });
-}
 
 function samplingTimes(s: Sampling | undefined, t0: number, tEnd: number): number[] {
   if (s === undefined || s === 'steps') return [];
@@ -220,11 +155,7 @@ function samplingTimes(s: Sampling | undefined, t0: number, tEnd: number): numbe
     if (times[times.length - 1]! < tEnd - 1e-12 * Math.abs(tEnd)) times.push(tEnd);
     return times;
   }
-  const times = Array.from(s.times).filter((t) => t >= t0 && t <= tEnd).sort((a, b) => a - b);
-  if (times.length !== s.times.length) {
-    throw new InputError('bad-option', `simulate options: sampling times must lie in [${t0}, ${tEnd}] s`, ['options']);
-  }
-  return times;
+  return sortedSampleTimes(s.times, t0, tEnd);
 }
 
 function includeSteps(s: Sampling | undefined): boolean {
@@ -234,4 +165,33 @@ function includeSteps(s: Sampling | undefined): boolean {
 
 function exactSampling(s: Sampling | undefined): boolean {
   return s !== undefined && s !== 'steps' && (s.exact ?? false);
+}
+
+/**
+ * Given sampling times, sorted and without repeats (a repeated time, natural
+ * when grids of half-periods share end points, is one sample); a time
+ * outside [t0, tEnd] or not a finite number is refused, never dropped.
+ * Times within round-off of each other (see `timeTolerance`) count as one
+ * instant: the first is kept.
+ */
+function sortedSampleTimes(given: ArrayLike<number>, t0: number, tEnd: number): number[] {
+  if (given === null || typeof given !== 'object' || typeof given.length !== 'number') {
+    throw new InputError('bad-option', `simulate options: sampling times must be an array of numbers, got ${String(given)}`, ['options']);
+  }
+  const times = Array.from(given);
+  times.forEach((t, k) => {
+    if (typeof t !== 'number' || !Number.isFinite(t)) {
+      throw new InputError('bad-option', `simulate options: sampling times[${k}] = ${String(t)} is not a finite number; sampling times must lie in [${t0}, ${tEnd}] s`, ['options']);
+    }
+    if (t < t0 || t > tEnd) {
+      throw new InputError('bad-option', `simulate options: sampling times[${k}] = ${t} s lies outside the simulated span; sampling times must lie in [${t0}, ${tEnd}] s`, ['options']);
+    }
+  });
+  times.sort((a, b) => a - b);
+  const out: number[] = [];
+  for (const t of times) {
+    const last = out[out.length - 1];
+    if (last === undefined || t - last > timeTolerance(t)) out.push(t);
+  }
+  return out;
 }

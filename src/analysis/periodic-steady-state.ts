@@ -1,25 +1,31 @@
 import { Matrix, pseudoInverse } from 'ml-matrix';
 import { InputError } from '../errors.js';
-import { compileNetwork, type CompiledNetwork } from '../formulation/compile-network.js';
-import type { NetworkBuilder } from '../network/network-builder.js';
-import type { NetworkDescription } from '../network/description.js';
+import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { resultFromRun, type SimulationResult } from '../result/simulation-result.js';
-import { absoluteTolerances, type AbsoluteTolerances } from '../simulate.js';
+import { acceptNetwork, type NetworkInput } from '../simulation/accept-network.js';
+import { checkedInitialState } from '../simulation/checked-initial-state.js';
+import { finitenessCheck } from '../simulation/finiteness-check.js';
 import { NetworkRun } from '../simulation/network-run.js';
+import { checkSolverSettings, resolveSolverSettings, type SolverSettings } from '../simulation/solver-settings.js';
 import type { DaeStatus, SolverStats } from '../solver/types.js';
 
-/** Options of {@link periodicSteadyState}. */
-export interface PeriodicSteadyStateOptions {
+/**
+ * Options of {@link periodicSteadyState}: the shared {@link SolverSettings}
+ * for each period's integration (rtol default 1e-8, because the
+ * finite-difference sensitivities need an accurate map; maxSteps, default
+ * 1e6, counts per period; maxWallTimeMs and signal cover the whole search)
+ * plus the period and the Newton iteration's settings.
+ *
+ * @example
+ * ```ts
+ * const options: PeriodicSteadyStateOptions = { period: 20e-6, rtol: 1e-9, maxIterations: 30 };
+ * ```
+ */
+export interface PeriodicSteadyStateOptions extends SolverSettings {
   /** Period T of the drive, s (every source and switch must repeat with it). */
   readonly period: number;
   /** Start of the periods, s. Default 0. */
   readonly startTime?: number;
-  /** Relative tolerance of each period's integration. Default 1e-8 (the finite-difference sensitivities need an accurate map). */
-  readonly rtol?: number;
-  /** Absolute tolerances of each period's integration (see `simulate`). */
-  readonly atol?: number | AbsoluteTolerances;
-  /** Largest solver step, s. */
-  readonly maxStep?: number;
   /**
    * Convergence: the change of the state over one period, in units of the
    * absolute tolerances, must fall below this. Default 1 (one tolerance).
@@ -74,16 +80,18 @@ export interface PeriodicSteadyState {
  * if (pss.status === 'converged') console.log(pss.result.fluxDensity(leg));
  * ```
  */
-export function periodicSteadyState(network: NetworkBuilder | NetworkDescription, options: PeriodicSteadyStateOptions): PeriodicSteadyState {
-  const description = 'describe' in network ? network.describe() : network;
-  const networkId = 'describe' in network ? network.id : undefined;
-  const compiled = compileNetwork(description);
+export function periodicSteadyState(network: NetworkInput, options: PeriodicSteadyStateOptions): PeriodicSteadyState {
+  if (options === null || typeof options !== 'object') {
+    throw new InputError('bad-option', `periodicSteadyState: options must be an object with at least period, got ${String(options)}`, ['options']);
+  }
   const T = options.period;
   if (!(Number.isFinite(T) && T > 0)) throw new InputError('bad-option', `periodic steady state: period ${T} s must be > 0`, ['options']);
   const t0 = options.startTime ?? 0;
-  const rtol = options.rtol ?? 1e-8;
-  if (!(rtol > 0 && rtol < 1)) throw new InputError('bad-tolerance', `periodic steady state: rtol ${rtol} must be in (0, 1)`, ['options']);
-  const atolOpt = absoluteTolerances(compiled, options.atol);
+  if (!Number.isFinite(t0)) throw new InputError('bad-option', `periodic steady state: startTime ${t0} is not finite`, ['options']);
+  checkSolverSettings(options, 'periodic steady state');
+  const { compiled, networkId } = acceptNetwork(network, 'periodicSteadyState');
+  const settings = resolveSolverSettings(compiled, options, { rtol: 1e-8, maxSteps: 1e6 });
+  const { rtol, atol: atolOpt } = settings;
   const n = compiled.layout.size;
   const atol = typeof atolOpt === 'number' ? new Float64Array(n).fill(atolOpt) : atolOpt;
   const tolerance = options.tolerance ?? 1;
@@ -91,13 +99,21 @@ export function periodicSteadyState(network: NetworkBuilder | NetworkDescription
   const diff = differentialUnknowns(compiled);
   const stats: SolverStats = { acceptedSteps: 0, rejectedSteps: 0, rhsEvaluations: 0, jacobianEvaluations: 0, luFactorizations: 0, newtonIterations: 0, newtonFailures: 0 };
   let periods = 0;
+  let iterations = 0;
+  const began = Date.now();
+
+  /** Settings of one period's run: the wall-time budget is what is left of the whole search's. */
+  const periodSettings = (y: Float64Array) => ({
+    ...settings,
+    t0,
+    horizon: t0 + T,
+    initialState: y,
+    ...(settings.maxWallTimeMs !== undefined ? { maxWallTimeMs: Math.max(1, settings.maxWallTimeMs - (Date.now() - began)) } : {}),
+  });
 
   /** One period from y: the state at t0 + T, the consistent start, or a failure. */
   const periodMap = (y: Float64Array): { ok: true; start: Float64Array; end: Float64Array } | { ok: false; status: DaeStatus; message: string } => {
-    const run = new NetworkRun(compiled, {
-      t0, horizon: t0 + T, rtol, atol: atolOpt, initialState: y, maxSteps: 1e6,
-      ...(options.maxStep !== undefined ? { maxStep: options.maxStep } : {}),
-    });
+    const run = new NetworkRun(compiled, periodSettings(y));
     run.advanceTo(t0 + T, { steps: false, interpolants: false });
     periods++;
     const s = run.stats;
@@ -107,8 +123,7 @@ export function periodicSteadyState(network: NetworkBuilder | NetworkDescription
     return { ok: true, start: run.initialState ?? Float64Array.from(y), end: run.y };
   };
 
-  let y: Float64Array = Float64Array.from(options.initialState ?? compiled.y0);
-  if (y.length !== n) throw new InputError('bad-initial-state', `periodic steady state: initialState has ${y.length} entries, the network has ${n} unknowns`, ['options']);
+  let y: Float64Array = options.initialState !== undefined ? checkedInitialState(compiled, options.initialState, 'periodic steady state') : Float64Array.from(compiled.y0);
   const residuals: number[] = [];
   const scaledResidual = (start: Float64Array, end: Float64Array): Float64Array =>
     Float64Array.from(diff, (j) => (end[j]! - start[j]!) / atol[j]!);
@@ -121,7 +136,6 @@ export function periodicSteadyState(network: NetworkBuilder | NetworkDescription
   residuals.push(norm(r));
   options.onProgress?.({ iteration: 0, periods, residual: residuals[0]! });
   let jac: Matrix | undefined;
-  let iterations = 0;
   let converged = norm(r) <= tolerance;
   while (!converged && iterations < maxIterations) {
     iterations++;
@@ -167,16 +181,17 @@ export function periodicSteadyState(network: NetworkBuilder | NetworkDescription
 
   function finish(status: PeriodicSteadyState['status'], message: string): PeriodicSteadyState {
     const samples = options.samplesPerPeriod ?? 200;
-    const run = new NetworkRun(compiled, {
-      t0, horizon: t0 + T, rtol, atol: atolOpt, initialState: y, maxSteps: 1e6,
-      ...(options.maxStep !== undefined ? { maxStep: options.maxStep } : {}),
-    });
+    const run = new NetworkRun(compiled, { ...periodSettings(y), check: finitenessCheck(compiled) });
     run.advanceTo(t0 + T, {
       steps: true, interpolants: true,
       sampleTimes: Array.from({ length: samples }, (_, k) => t0 + ((k + 1) * T) / samples),
       exact: true,
     });
     const result = resultFromRun(compiled, networkId, run, `one period from the ${status === 'converged' ? 'periodic' : 'last'} state`);
+    // A converged state whose returned period did not run through (a non-finite quantity, a budget) is not a success.
+    if (status === 'converged' && result.status !== 'success') {
+      return { status: result.status, message: `the periodic state was found, but its period stopped: ${result.message}`, state: run.initialState ?? y, iterations, periods, residuals, result, stats };
+    }
     return { status, message, state: run.initialState ?? y, iterations, periods, residuals, result, stats };
   }
 }

@@ -1,9 +1,21 @@
+import type { InputView } from '../elements/element-kind.js';
 import { elementKind } from '../elements/registry.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
+import { nextDown, nextUp } from '../waveforms/float-steps.js';
 import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { Waveform } from '../waveforms/waveform.js';
 
-/** What embedding code changed in a network's inputs (plain data). */
+export { nextDown, nextUp } from '../waveforms/float-steps.js';
+
+/**
+ * What embedding code changed in a network's inputs (plain data).
+ *
+ * @example
+ * ```ts
+ * const saved: InputState = schedule.state();
+ * const again = InputSchedule.of(description).withState(saved);
+ * ```
+ */
 export interface InputState {
   readonly sourceOverride: readonly (number | undefined)[];
   readonly switchOverride: readonly (boolean | undefined)[];
@@ -21,183 +33,331 @@ export interface InputState {
  */
 export const BREAKPOINT_MERGE = 1000 * (Number.EPSILON / 2);
 
-/** The float next above x (x finite). */
-export function nextUp(x: number): number {
-  if (x === 0) return Number.MIN_VALUE;
-  const buf = new Float64Array([x]);
-  const bits = new BigInt64Array(buf.buffer);
-  bits[0] = bits[0]! + (x > 0 ? 1n : -1n);
-  return buf[0]!;
+/** Merge gap at time t for a run spanning `span` seconds (see {@link BREAKPOINT_MERGE}). */
+function mergeGap(t: number, span: number): number {
+  return BREAKPOINT_MERGE * Math.max(Math.abs(t), 1e-10 * span);
 }
 
-/** The float next below x (x finite). */
-export function nextDown(x: number): number {
-  return -nextUp(-x);
+function sourceLabel(el: ElementDescription): { label: string; element: string } {
+  return { label: `${elementKind(el).noun} "${el.name}"`, element: el.name };
+}
+
+/** The element's own waveform (sources), compiled; undefined for elements without one. */
+function ownWaveform(el: ElementDescription): Waveform | undefined {
+  const spec = elementKind(el).waveform?.(el);
+  return spec === undefined ? undefined : compileWaveform(spec, sourceLabel(el));
 }
 
 /**
- * Time-dependent inputs of a compiled network: source waveforms and switch
- * states, plus overrides set by embedding code between advances.
+ * The inputs of a network as a value: compiled waveforms, switch schedules
+ * and the set-points, switch states and waveforms that embedding code put in
+ * their place. Immutable: a change gives a new schedule, so a schedule
+ * recorded with a step still says what was in force then.
  *
- * Inputs are piecewise smooth; at a breakpoint the value depends on the side
- * we come from. The driver integrates one interval [a, b] between
- * consecutive breakpoints at a time and tells the inputs which interval is
- * active: at t <= a they give the right limit, at t >= b the left limit. So
- * a step that ends on a switching instant sees the old state, and the
- * restart there sees the new one.
+ * @example
+ * ```ts
+ * const schedule = InputSchedule.of(description).withSource(2, 10); // element 2 held at 10 V
+ * schedule.nextEdge(0); // first breakpoint after t = 0 of the inputs that follow a schedule
+ * ```
  */
-export class NetworkInputs {
-  private readonly waveforms: (Waveform | undefined)[];
-  /** Waveforms given by embedding code in place of the description's (by element). */
-  private readonly replaced = new Map<number, WaveformSpec>();
-  private readonly sourceOverride: (number | undefined)[];
-  private readonly switchOverride: (boolean | undefined)[];
-  private readonly switchInitial: boolean[];
-  private readonly switchToggles: (readonly number[])[];
-  /** Whether element e follows a switching schedule. */
-  private readonly hasSchedule: boolean[];
-  private intervalStart = -Infinity;
-  private intervalEnd = Infinity;
-  /** Breakpoint kept -> last time merged into it (a cluster of edges that counts as one jump at that time). */
-  private readonly clusterEnd = new Map<number, number>();
-  /** End of a span -> earliest time merged into it from before. */
-  private readonly clusterStart = new Map<number, number>();
+export class InputSchedule {
+  private constructor(
+    private readonly description: NetworkDescription,
+    private readonly waveforms: readonly (Waveform | undefined)[],
+    private readonly replaced: ReadonlyMap<number, WaveformSpec>,
+    private readonly sourceOverride: readonly (number | undefined)[],
+    private readonly switchOverride: readonly (boolean | undefined)[],
+    private readonly switchInitial: readonly boolean[],
+    private readonly switchToggles: readonly (readonly number[])[],
+    /** Whether element e follows a switching schedule. */
+    private readonly hasSchedule: readonly boolean[],
+  ) {}
 
-  constructor(private readonly description: NetworkDescription) {
+  /** The schedule of a description: its waveforms and switch schedules, no overrides. */
+  static of(description: NetworkDescription): InputSchedule {
     const els = description.elements;
-    this.waveforms = els.map((e) => this.compileOwnWaveform(e));
-    this.sourceOverride = els.map(() => undefined);
-    this.switchOverride = els.map(() => undefined);
     const schedules = els.map((e) => elementKind(e).schedule?.(e));
-    this.switchInitial = schedules.map((s) => s?.initiallyClosed ?? false);
-    this.switchToggles = schedules.map((s) => s?.toggleTimes ?? []);
-    this.hasSchedule = schedules.map((s) => s !== undefined);
+    return new InputSchedule(
+      description,
+      els.map(ownWaveform),
+      new Map(),
+      els.map(() => undefined),
+      els.map(() => undefined),
+      schedules.map((s) => s?.initiallyClosed ?? false),
+      schedules.map((s) => s?.toggleTimes ?? []),
+      schedules.map((s) => s !== undefined),
+    );
   }
 
-  /** The element's own waveform (sources), compiled; undefined for elements without one. */
-  private compileOwnWaveform(e: ElementDescription): Waveform | undefined {
-    const spec = elementKind(e).waveform?.(e);
-    return spec === undefined ? undefined : compileWaveform(spec, { label: `${elementKind(e).noun} "${e.name}"`, element: e.name });
+  private with(
+    changes: Partial<{ waveforms: readonly (Waveform | undefined)[]; replaced: ReadonlyMap<number, WaveformSpec>; sourceOverride: readonly (number | undefined)[]; switchOverride: readonly (boolean | undefined)[] }>,
+  ): InputSchedule {
+    return new InputSchedule(
+      this.description,
+      changes.waveforms ?? this.waveforms,
+      changes.replaced ?? this.replaced,
+      changes.sourceOverride ?? this.sourceOverride,
+      changes.switchOverride ?? this.switchOverride,
+      this.switchInitial,
+      this.switchToggles,
+      this.hasSchedule,
+    );
   }
 
-  /** Declare the interval being integrated (see the class comment). */
-  setInterval(a: number, b: number): void {
-    this.intervalStart = a;
-    this.intervalEnd = b;
+  /** Source element e held at a value (V or A), or following its waveform again (undefined). */
+  withSource(e: number, value: number | undefined): InputSchedule {
+    const sourceOverride = [...this.sourceOverride];
+    sourceOverride[e] = value;
+    return this.with({ sourceOverride });
   }
 
-  /**
-   * Time at which to evaluate piecewise inputs for a call at t: just after
-   * the start of the interval (after every edge merged into it), just before
-   * its end (before every edge merged into it), t in between.
-   */
-  private sided(t: number): number {
-    const a = this.intervalStart;
-    const b = this.intervalEnd;
-    if (t >= b) return nextDown(Math.max(this.clusterStart.get(b) ?? b, a));
-    if (t <= a) return nextUp(Math.min(this.clusterEnd.get(a) ?? a, b));
-    return t;
+  /** Switch element e held open/closed, or following its schedule again (undefined). */
+  withSwitch(e: number, closed: boolean | undefined): InputSchedule {
+    const switchOverride = [...this.switchOverride];
+    switchOverride[e] = closed;
+    return this.with({ switchOverride });
   }
 
-  /** Value of source element e at time t (V or A). */
-  sourceValue(e: number, t: number): number {
+  /** Source element e with a new waveform (validated here); a set-point held on it is released. */
+  withWaveform(e: number, spec: WaveformSpec): InputSchedule {
+    const waveforms = [...this.waveforms];
+    waveforms[e] = compileWaveform(spec, sourceLabel(this.description.elements[e]!));
+    const replaced = new Map(this.replaced);
+    replaced.set(e, spec);
+    const sourceOverride = [...this.sourceOverride];
+    sourceOverride[e] = undefined;
+    return this.with({ waveforms, replaced, sourceOverride });
+  }
+
+  /** Plain-data copy of what embedding code changed (overrides, replaced waveforms). */
+  state(): InputState {
+    return { sourceOverride: [...this.sourceOverride], switchOverride: [...this.switchOverride], waveforms: [...this.replaced.entries()] };
+  }
+
+  /** The description's schedule with the changes of a {@link InputSchedule.state}. */
+  withState(state: InputState): InputSchedule {
+    let s = InputSchedule.of(this.description);
+    for (const [e, spec] of state.waveforms) s = s.withWaveform(e, spec);
+    return s.with({ sourceOverride: [...state.sourceOverride], switchOverride: [...state.switchOverride] });
+  }
+
+  /** Value of source element e at exactly time t (no choice of side at a breakpoint). */
+  sourceValueAt(e: number, t: number): number {
     const o = this.sourceOverride[e];
     if (o !== undefined) return o;
-    return this.waveforms[e]!.value(this.sided(t));
+    return this.waveforms[e]!.value(t);
   }
 
-  /** Whether switch element e is closed at time t. */
-  switchClosed(e: number, t: number): boolean {
+  /** Whether switch element e is closed at exactly time t (toggles at or before t count). */
+  switchClosedAt(e: number, t: number): boolean {
     const o = this.switchOverride[e];
     if (o !== undefined) return o;
-    const ts = this.sided(t);
     const toggles = this.switchToggles[e]!;
-    // Number of toggles at or before ts (binary search: schedules can be long).
+    // Number of toggles at or before t (binary search: schedules can be long).
     let lo = 0;
     let hi = toggles.length;
     while (lo < hi) {
       const mid = (lo + hi) >> 1;
-      if (toggles[mid]! <= ts) lo = mid + 1;
+      if (toggles[mid]! <= t) lo = mid + 1;
       else hi = mid;
     }
     return this.switchInitial[e]! !== (lo % 2 === 1);
   }
 
-  /** Hold a source at a fixed value (embedding), or undefined to follow its waveform again. */
-  overrideSource(e: number, value: number | undefined): void {
-    this.sourceOverride[e] = value;
-  }
-
-  /** Hold a switch open/closed (embedding), or undefined to follow its schedule again. */
-  overrideSwitch(e: number, closed: boolean | undefined): void {
-    this.switchOverride[e] = closed;
-  }
-
-  /** Replace a source's waveform (embedding: a new duty cycle, amplitude or phase); validated here. */
-  replaceWaveform(e: number, spec: WaveformSpec): void {
-    const el = this.description.elements[e]!;
-    this.waveforms[e] = compileWaveform(spec, { label: `${elementKind(el).noun} "${el.name}"`, element: el.name });
-    this.replaced.set(e, spec);
-    this.sourceOverride[e] = undefined;
-  }
-
-  /** Plain-data copy of everything embedding code changed (overrides, replaced waveforms). */
-  state(): InputState {
-    return {
-      sourceOverride: [...this.sourceOverride],
-      switchOverride: [...this.switchOverride],
-      waveforms: [...this.replaced.entries()],
-    };
-  }
-
-  /** Go back to a state from {@link NetworkInputs.state}. */
-  setState(state: InputState): void {
-    state.sourceOverride.forEach((v, e) => (this.sourceOverride[e] = v));
-    state.switchOverride.forEach((v, e) => (this.switchOverride[e] = v));
-    for (const e of [...this.replaced.keys()]) {
-      if (!state.waveforms.some(([k]) => k === e)) {
-        this.waveforms[e] = this.compileOwnWaveform(this.description.elements[e]!);
-        this.replaced.delete(e);
+  /** The first time after `after` where an input that follows its schedule jumps or kinks (Infinity if none). */
+  nextEdge(after: number): number {
+    let next = Infinity;
+    this.description.elements.forEach((_el, e) => {
+      const w = this.waveforms[e];
+      if (w && this.sourceOverride[e] === undefined) next = Math.min(next, w.nextBreakpoint(after));
+      if (this.hasSchedule[e] && this.switchOverride[e] === undefined) {
+        const toggles = this.switchToggles[e]!;
+        let lo = 0;
+        let hi = toggles.length;
+        while (lo < hi) {
+          const mid = (lo + hi) >> 1;
+          if (toggles[mid]! <= after) lo = mid + 1;
+          else hi = mid;
+        }
+        if (lo < toggles.length) next = Math.min(next, toggles[lo]!);
       }
-    }
-    for (const [e, spec] of state.waveforms) this.replaceWaveform(e, spec);
-    state.sourceOverride.forEach((v, e) => (this.sourceOverride[e] = v));
+    });
+    return next;
   }
 
   /**
-   * Sorted, distinct times in (t0, t1) where an input jumps or kinks. Times
-   * closer than {@link BREAKPOINT_MERGE} x max(|t|, 1e-10 (t1 - t0)) to the
-   * previous one kept (or to t0, t1) are merged into it: an interval that
-   * short is below the integrator's round-off floor on the step size
-   * (10 uround |t|) and could not be integrated, while the input change across
-   * it (a pulse edge of 1e-18 s at t = 1 ms) is a jump at double precision
-   * anyway. The inputs remember the merge, so an interval starting at a kept
-   * time sees the values after the whole cluster of edges, and one ending at
-   * t1 the values before the edges merged into t1.
+   * Sorted, distinct times in (t0, t1) where an input jumps or kinks, with
+   * times closer than {@link BREAKPOINT_MERGE} x max(|t|, 1e-10 (t1 - t0))
+   * to the previous one kept (or to t0, t1) merged into it, found edge by
+   * edge (so a drive with a tiny period costs one step per edge, not one
+   * array of every edge at once).
    */
   breakpoints(t0: number, t1: number): number[] {
-    const all: number[] = [];
-    this.description.elements.forEach((_el, e) => {
-      const w = this.waveforms[e];
-      if (w && this.sourceOverride[e] === undefined) all.push(...w.breakpoints(t0, t1));
-      if (this.hasSchedule[e] && this.switchOverride[e] === undefined) {
-        for (const t of this.switchToggles[e]!) if (t > t0 && t < t1) all.push(t);
-      }
-    });
-    all.sort((x, y) => x - y);
     const out: number[] = [];
-    const gap = (t: number): number => BREAKPOINT_MERGE * Math.max(Math.abs(t), 1e-10 * (t1 - t0));
-    for (const t of all) {
-      if (t < t0 || t > t1) continue;
-      const previous = out.length === 0 ? t0 : out[out.length - 1]!;
-      if (t1 - t <= gap(t)) {
-        if (t < t1) this.clusterStart.set(t1, Math.min(this.clusterStart.get(t1) ?? t1, t));
-      } else if (t - previous <= gap(t)) {
-        if (t > previous) this.clusterEnd.set(previous, Math.max(this.clusterEnd.get(previous) ?? previous, t));
-      } else {
-        out.push(t);
-      }
+    const span = t1 - t0;
+    let at = t0;
+    for (;;) {
+      const t = this.nextEdge(at + mergeGap(at, span));
+      if (!(t < t1 - mergeGap(t1, span))) return out;
+      out.push(t);
+      at = t;
     }
-    return out;
+  }
+}
+
+/**
+ * The inputs in force over one input interval [start, end] of a run: an
+ * immutable value that travels with every evaluation of the network and is
+ * recorded with every step and sample, so a result read at any time uses
+ * the inputs that were in force then, and no reader can change a live run.
+ *
+ * Inputs are piecewise smooth; at a breakpoint the value depends on the side
+ * we come from: at t <= start the value gives the right limit (after every
+ * edge merged into the start), at t >= end the left limit. So a step that
+ * ends on a switching instant sees the old inputs, and the restart there
+ * sees the new ones.
+ *
+ * @example
+ * ```ts
+ * const inputs = openInterval(InputSchedule.of(description), 0, 0.02, 0.02);
+ * inputs.sourceValue(2, 0); // V or A
+ * ```
+ */
+export class InputsInForce implements InputView {
+  /**
+   * @param rightOf time at which inputs are evaluated for t <= start
+   * @param leftOf time at which inputs are evaluated for t >= end
+   */
+  constructor(
+    readonly schedule: InputSchedule,
+    readonly start: number,
+    readonly end: number,
+    readonly rightOf: number,
+    readonly leftOf: number,
+  ) {}
+
+  private sided(t: number): number {
+    if (t >= this.end) return this.leftOf;
+    if (t <= this.start) return this.rightOf;
+    return t;
+  }
+
+  /** Value of source element e at time t (V or A). */
+  sourceValue(e: number, t: number): number {
+    return this.schedule.sourceValueAt(e, this.sided(t));
+  }
+
+  /** Whether switch element e is closed at time t. */
+  switchClosed(e: number, t: number): boolean {
+    return this.schedule.switchClosedAt(e, this.sided(t));
+  }
+
+  /** The same inputs ending at `end` instead (a stop time within round-off of the breakpoint); the left limit stays before the edge. */
+  endingAt(end: number): InputsInForce {
+    return new InputsInForce(this.schedule, this.start, end, Math.min(this.rightOf, end), Number.isFinite(end) ? nextDown(Math.min(end, this.end)) : this.leftOf);
+  }
+
+  /** The same interval under another schedule (an input changed at the present time). */
+  withSchedule(schedule: InputSchedule): InputsInForce {
+    return new InputsInForce(schedule, this.start, this.end, this.rightOf, this.leftOf);
+  }
+}
+
+/**
+ * The input interval that starts at t under a schedule: it ends at the next
+ * breakpoint (Infinity when there is none up to `horizon`), found on demand.
+ * Edges closer to t than the merge gap ({@link BREAKPOINT_MERGE}) count as
+ * a jump at t: the interval starts with the values after them (an interval
+ * that short could not be integrated, and the change across it is a jump at
+ * double precision). `span` is the run's length, for the gap near t = 0.
+ *
+ * @example
+ * ```ts
+ * const first = openInterval(schedule, 0, 0.02, 0.02);
+ * const second = openInterval(schedule, first.end, 0.02, 0.02);
+ * ```
+ */
+export function openInterval(schedule: InputSchedule, t: number, horizon: number, span: number): InputsInForce {
+  const gap = mergeGap(t, span);
+  const first = schedule.nextEdge(t);
+  const merged = first - t <= gap;
+  const next = merged ? schedule.nextEdge(t + gap) : first;
+  const end = next <= horizon ? next : Infinity;
+  // Waveforms are right-continuous: at t + gap every merged edge is behind.
+  const rightOf = merged ? t + gap : nextUp(t);
+  return new InputsInForce(schedule, t, end, Number.isFinite(end) ? Math.min(rightOf, end) : rightOf, Number.isFinite(end) ? nextDown(end) : end);
+}
+
+/**
+ * The network's own inputs, for code that reads quantities without being
+ * given an {@link InputsInForce} (the state reader, the energy audit, the
+ * projection of interpolated states): it reads the value made current by
+ * {@link NetworkInputs.use} (a run, for present values) or, for the
+ * duration of one call, by {@link NetworkInputs.during} (a reader of
+ * recorded results, which puts back what was current). A run itself never
+ * reads it: it passes its own value to every evaluation
+ * (`compiled.evaluate(t, y, inputs, out)`), so no reader can change a live
+ * run.
+ *
+ * @example
+ * ```ts
+ * const inputs = new NetworkInputs(description);
+ * const value = openInterval(inputs.schedule, 0, 0.02, 0.02);
+ * inputs.during(value, () => reader.build(request)(y, 0.01));
+ * ```
+ */
+export class NetworkInputs implements InputView {
+  /** The description's schedule (no overrides). */
+  readonly schedule: InputSchedule;
+  private current: InputsInForce;
+
+  constructor(description: NetworkDescription) {
+    this.schedule = InputSchedule.of(description);
+    this.current = openInterval(this.schedule, -Infinity, Infinity, 0);
+  }
+
+  /** The inputs every evaluation sees now. */
+  get inForce(): InputsInForce {
+    return this.current;
+  }
+
+  /** Make `value` the inputs of every evaluation from now on (the run does this per interval). */
+  use(value: InputsInForce): void {
+    this.current = value;
+  }
+
+  /** Run fn with `value` in force, then put back what was in force before (readers of recorded results). */
+  during<T>(value: InputsInForce, fn: () => T): T {
+    const before = this.current;
+    this.current = value;
+    try {
+      return fn();
+    } finally {
+      this.current = before;
+    }
+  }
+
+  /**
+   * Make the interval [a, b] of the present schedule current (for code that
+   * names an interval by its ends). Prefer {@link NetworkInputs.use} or
+   * {@link NetworkInputs.during} with a recorded value.
+   */
+  setInterval(a: number, b: number): void {
+    this.current = new InputsInForce(this.current.schedule, a, b, Number.isFinite(a) ? Math.min(nextUp(a), b) : a, Number.isFinite(b) ? nextDown(b) : b);
+  }
+
+  /** Value of source element e at time t (V or A), under the inputs in force. */
+  sourceValue(e: number, t: number): number {
+    return this.current.sourceValue(e, t);
+  }
+
+  /** Whether switch element e is closed at time t, under the inputs in force. */
+  switchClosed(e: number, t: number): boolean {
+    return this.current.switchClosed(e, t);
+  }
+
+  /** The description's breakpoints in (t0, t1), merged (see {@link InputSchedule.breakpoints}). */
+  breakpoints(t0: number, t1: number): number[] {
+    return this.schedule.breakpoints(t0, t1);
   }
 }

@@ -1,11 +1,12 @@
 import type { LossCategory, RateReader } from '../elements/element-kind.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
+import type { InputsInForce } from '../formulation/network-inputs.js';
 import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
 
-/** What the audit integrates: the run's steps, its input intervals and its end states. */
+/** What the audit integrates: the run's steps, the inputs in force over each of its input intervals and its end states. */
 export interface AuditInput {
   readonly steps: readonly RecordedStep[];
-  readonly intervals: readonly { readonly start: number; readonly end: number }[];
+  readonly intervals: readonly InputsInForce[];
   readonly start: Float64Array | undefined;
   readonly end: Float64Array | undefined;
   /** Projects an interpolated state onto the algebraic equations (absent: use the interpolant as is). */
@@ -141,10 +142,9 @@ export function computeEnergyAudit(
   const budget = 64 * run.steps.length;
   let panels = 0;
   for (const step of run.steps) {
-    const interval = run.intervals[step.interval]!;
-    c.inputs.setInterval(interval.start, interval.end);
     if (step.t - step.tOld <= 0) continue;
-    const part = adaptive(step, step.tOld, step.t, gauss(step, step.tOld, step.t), 0);
+    // The inputs recorded for the step's interval, for this step only (a live run keeps its own).
+    const part = c.inputs.during(run.intervals[step.interval]!, () => adaptive(step, step.tOld, step.t, gauss(step, step.tOld, step.t), 0));
     for (let q = 0; q < 5; q++) sum[q]! += part[q]!;
   }
   const storedStart = run.start ? stored(run.start) : 0;

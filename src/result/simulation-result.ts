@@ -1,5 +1,6 @@
 import { InputError } from '../errors.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
+import type { InputsInForce } from '../formulation/network-inputs.js';
 import type { NetworkDescription } from '../network/description.js';
 import type { ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from '../network/handles.js';
 import { StateReader, type QuantityRequest } from './state-reader.js';
@@ -17,6 +18,12 @@ export interface SimulationFailure {
   readonly unknowns: readonly { readonly index: number; readonly label: string; readonly elements: readonly string[] }[];
   /** What f threw, for status `'rhs-error'` (for example a user waveform returning NaN). */
   readonly cause?: unknown;
+  /**
+   * For status `'non-finite'` found in the recorded data: the first quantity
+   * that was not finite (`'state'` for a raw unknown), whose element, tube or
+   * node, its value and time. The result ends before it.
+   */
+  readonly nonFinite?: { readonly quantity: string; readonly name: string; readonly value: number; readonly time: number };
 }
 
 /**
@@ -29,8 +36,8 @@ export interface SimulationResultInit {
   readonly networkId: number | undefined;
   /** Samples in time order, each with the input interval it belongs to. */
   readonly samples: readonly RunSample[];
-  /** Input intervals (between breakpoints of sources and switches). */
-  readonly intervals: readonly { readonly start: number; readonly end: number }[];
+  /** The inputs in force over each input interval (between breakpoints of sources and switches, and input changes). */
+  readonly intervals: readonly InputsInForce[];
   /** Every accepted step's collocation polynomial, for the energy audit. */
   readonly steps: readonly RecordedStep[];
   /** State at the start of the run (after consistent initialisation). */
@@ -45,6 +52,8 @@ export interface SimulationResultInit {
   readonly adjustedAtStart: readonly number[];
   /** Projection of interpolated states onto the algebraic equations (for the energy audit). */
   readonly project?: (t: number, y: Float64Array) => void;
+  /** The non-finite value that stopped the run, if that is why it stopped. */
+  readonly nonFinite?: SimulationFailure['nonFinite'];
 }
 
 /**
@@ -91,7 +100,7 @@ export class SimulationResult {
   private readonly states: readonly Float64Array[];
   /** Input interval of every sample, so inputs are evaluated on the right side of breakpoints. */
   private readonly sampleInterval: Int32Array;
-  private readonly intervals: readonly { readonly start: number; readonly end: number }[];
+  private readonly intervals: readonly InputsInForce[];
   private readonly steps: readonly RecordedStep[];
   private readonly finalState: Float64Array;
   private readonly initialState: Float64Array | undefined;
@@ -136,6 +145,7 @@ export class SimulationResult {
           elements: layout.owners[i] ?? [],
         })),
         ...(init.failure.cause !== undefined ? { cause: init.failure.cause } : {}),
+        ...(init.nonFinite ? { nonFinite: init.nonFinite } : {}),
       };
       const named = this.failure.unknowns.map((u) => u.label).join('; ');
       if (named) this.message = `${init.message} (involved: ${named})`;
@@ -307,6 +317,7 @@ export class SimulationResult {
    * ```
    */
   energy(): EnergyAudit {
+    // Each step is audited with the inputs recorded for its interval (never those in force now).
     this.audit ??= computeEnergyAudit(
       this.compiled,
       { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState, ...(this.project ? { project: this.project } : {}) },
@@ -399,11 +410,12 @@ export class SimulationResult {
         else hi = mid - 1;
       }
       const step = steps[lo]!;
-      const interval = this.intervals[step.interval]!;
-      this.compiled.inputs.setInterval(interval.start, interval.end);
-      evaluateRecordedStep(step, t, this.compiled.index2, y);
-      this.project?.(t, y);
-      return fn(y, t);
+      // The inputs recorded for the step's interval, for this call only: a live run goes on with its own.
+      return this.compiled.inputs.during(this.intervals[step.interval]!, () => {
+        evaluateRecordedStep(step, t, this.compiled.index2, y);
+        this.project?.(t, y);
+        return fn(y, t);
+      });
     };
   }
 
@@ -421,12 +433,13 @@ export class SimulationResult {
     let s = this.cache.get(key);
     if (!s) {
       const fn = this.reader.build(request);
-      s = new Float64Array(this.time.length);
-      for (let k = 0; k < s.length; k++) {
+      const series = new Float64Array(this.time.length);
+      // Each sample with the inputs recorded for it, for this call only: a live run goes on with its own.
+      for (let k = 0; k < series.length; k++) {
         const p = this.intervals[this.sampleInterval[k]!];
-        if (p) this.compiled.inputs.setInterval(p.start, p.end);
-        s[k] = fn(this.states[k]!, this.time[k]!);
+        series[k] = p ? this.compiled.inputs.during(p, () => fn(this.states[k]!, this.time[k]!)) : fn(this.states[k]!, this.time[k]!);
       }
+      s = series;
       this.cache.set(key, s);
     }
     return s;
@@ -458,5 +471,6 @@ export function resultFromRun(compiled: CompiledNetwork, networkId: number | und
     failure: status === 'success' ? undefined : run.failure,
     adjustedAtStart: run.adjustedAtStart,
     project: run.project,
+    ...(status !== 'success' && run.nonFinite ? { nonFinite: run.nonFinite } : {}),
   });
 }

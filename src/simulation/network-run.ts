@@ -4,18 +4,39 @@ import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } f
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { createProjector } from './projection.js';
-import type { InputState } from '../formulation/network-inputs.js';
+import type { InputView } from '../elements/element-kind.js';
+import { DenseStampTarget } from '../elements/stamp-target.js';
+import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
+import type { ResolvedSolverSettings } from './solver-settings.js';
 
-/** Solver settings of a run (already resolved from the user's options). */
-export interface RunSettings {
-  readonly rtol: number;
-  readonly atol: number | Float64Array;
-  readonly maxStep?: number;
-  readonly initialStep?: number;
+/**
+ * A non-finite value found in a recorded state or in a quantity read from
+ * it: what and where (see {@link RunSettings.check}).
+ *
+ * @example
+ * ```ts
+ * const hit: NonFiniteValue = { quantity: 'power', name: 'drive', value: Infinity };
+ * ```
+ */
+export interface NonFiniteValue {
+  /** The quantity (`'current'`, `'mmf'`...) or `'state'` for a raw unknown. */
+  readonly quantity: string;
+  /** The element, tube or node it belongs to (the unknown's label for `'state'`). */
+  readonly name: string;
+  readonly value: number;
+}
+
+/**
+ * Settings of a run: the resolved solver settings plus its span and what it watches.
+ *
+ * @example
+ * ```ts
+ * const settings: RunSettings = { t0: 0, horizon: 0.02, rtol: 1e-6, atol: 1e-6, check: finitenessCheck(compiled) };
+ * ```
+ */
+export interface RunSettings extends Omit<ResolvedSolverSettings, 'maxSteps'> {
   readonly maxSteps?: number;
-  readonly maxWallTimeMs?: number;
-  readonly signal?: AbortSignal;
   /** Start time. */
   readonly t0: number;
   /** Latest time the run may reach (the integrator's end of span). */
@@ -24,6 +45,12 @@ export interface RunSettings {
   readonly events?: readonly DaeEvent[];
   /** Initial state to use instead of the network's initial conditions (raw state vector). */
   readonly initialState?: ArrayLike<number>;
+  /**
+   * Finiteness check of every recorded state (the inputs in force are
+   * current): the first non-finite quantity, or undefined. A hit ends the
+   * run with status `'non-finite'`, keeping what came before.
+   */
+  readonly check?: (t: number, y: Float64Array) => NonFiniteValue | undefined;
 }
 
 /**
@@ -39,7 +66,7 @@ export function timeTolerance(t: number): number {
 /** A run's restorable state (plain data). */
 export interface RunSnapshot {
   readonly integrator: DaeIntegratorSnapshot;
-  readonly interval: { readonly start: number; readonly end: number };
+  readonly interval: { readonly start: number; readonly end: number; readonly rightOf: number; readonly leftOf: number };
   readonly inputs: InputState;
   readonly status: 'running' | DaeStatus;
   readonly inputsChanged: boolean;
@@ -49,7 +76,7 @@ export interface RunSnapshot {
 export interface RunSample {
   readonly t: number;
   readonly y: Float64Array;
-  /** Index of the input interval it belongs to (see {@link NetworkRun.intervals}). */
+  /** Index of the input interval it belongs to: the inputs in force for it are `intervals[interval]` (see {@link NetworkRun.intervals}). */
   readonly interval: number;
 }
 
@@ -93,8 +120,8 @@ export class NetworkRun {
   readonly compiled: CompiledNetwork;
   private readonly integ: DaeIntegrator;
   private readonly index2: readonly number[];
-  /** Input intervals in time order: [start, end]. */
-  readonly intervals: { start: number; end: number }[] = [];
+  /** The inputs in force over each input interval, in time order (immutable values; steps and samples refer to them by index). */
+  readonly intervals: InputsInForce[] = [];
   /** Samples recorded so far, in time order. */
   readonly samples: RunSample[] = [];
   /** Step interpolants recorded so far, in time order. */
@@ -110,24 +137,44 @@ export class NetworkRun {
   private restartPending = true;
   private statusCur: 'running' | DaeStatus;
   private readonly horizon: number;
-  private lastIntervalLength = 0;
+  /** Length of the run's span, for the breakpoint merge gap near t = 0. */
+  private readonly span: number;
   private readonly adjusted = new Set<number>();
+  /** The live schedule: the description's inputs with what embedding code changed so far. */
+  private schedule: InputSchedule;
+  /** The inputs in force now (the last interval, or that interval under a schedule changed at the present time). */
+  private live: InputsInForce;
+  private readonly check: RunSettings['check'];
+  /** A stop decided by the run itself (a throwing input at a sample, a non-finite quantity), overriding the integrator's account. */
+  private stop: { readonly message: string; readonly failure: DaeFailure; readonly nonFinite?: NonFiniteValue & { readonly time: number } } | undefined;
+  /** State at the end of the last step kept (the integrator's may be past a stop the run decided). */
+  private endState: Float64Array | undefined;
   /**
    * Projects an interpolated state onto the algebraic equations (see
-   * createProjector); the inputs' interval must be set for t.
+   * createProjector) with the network's inputs, as a reader of recorded
+   * results has put them (`compiled.inputs.during`).
    */
   readonly project: (t: number, y: Float64Array) => void;
+  private readonly projector: (t: number, y: Float64Array, inputs?: InputView) => void;
 
   constructor(compiled: CompiledNetwork, settings: RunSettings) {
     this.compiled = compiled;
     this.index2 = compiled.index2;
     this.horizon = settings.horizon;
-    this.project = createProjector(compiled, settings.atol, settings.rtol);
+    this.span = settings.horizon - settings.t0;
+    this.check = settings.check;
+    this.schedule = compiled.inputs.schedule;
+    this.live = openInterval(this.schedule, settings.t0, settings.horizon, this.span);
+    compiled.inputs.use(this.live);
+    this.projector = createProjector(compiled, settings.atol, settings.rtol);
+    this.project = (t, y) => this.projector(t, y);
+    const jacobianTarget = new DenseStampTarget(compiled.layout.size);
     this.integ = createDaeIntegrator(
       {
         size: compiled.layout.size,
-        rhs: compiled.rhs,
-        jacobian: compiled.jacobian,
+        // The run's own inputs in force, passed explicitly: nothing a reader does to the network's can reach it.
+        rhs: (t, y, out) => compiled.evaluate(t, y, this.live, out),
+        jacobian: (t, y, out) => compiled.stampJacobian(t, y, this.live, jacobianTarget.bind(out)),
         mass: compiled.mass,
         y0: settings.initialState ?? compiled.y0,
         t0: settings.t0,
@@ -151,14 +198,19 @@ export class NetworkRun {
     this.statusCur = this.integ.status;
   }
 
-  /** Present time, s. */
+  /** Present time, s: the end of the last step kept. */
   get t(): number {
-    return this.integ.t;
+    return this.stop ? this.stop.failure.t : this.integ.t;
   }
 
-  /** Present state (a copy). */
+  /** Present state (a copy): the end of the last step kept. */
   get y(): Float64Array {
-    return this.integ.y;
+    return this.endState ? Float64Array.from(this.endState) : this.integ.y;
+  }
+
+  /** The inputs in force now (an immutable value). */
+  get inputs(): InputsInForce {
+    return this.live;
   }
 
   /** `'running'`, or why the run stopped. */
@@ -167,11 +219,16 @@ export class NetworkRun {
   }
 
   get message(): string {
-    return this.integ.message;
+    return this.stop?.message ?? this.integ.message;
   }
 
   get failure(): DaeFailure | undefined {
-    return this.integ.failure;
+    return this.stop?.failure ?? this.integ.failure;
+  }
+
+  /** The non-finite value that stopped the run, with its time (status `'non-finite'` from the run's check). */
+  get nonFinite(): (NonFiniteValue & { readonly time: number }) | undefined {
+    return this.stop?.nonFinite;
   }
 
   get stats(): SolverStats {
@@ -185,13 +242,22 @@ export class NetworkRun {
 
   /** Hold a source at a value (or release it with undefined); takes effect at the present time. */
   overrideSource(element: number, value: number | undefined): void {
-    this.compiled.inputs.overrideSource(element, value);
-    this.inputsChanged = true;
+    this.changeSchedule(this.schedule.withSource(element, value));
   }
 
   /** Hold a switch open/closed (or release it with undefined); takes effect at the present time. */
   overrideSwitch(element: number, closed: boolean | undefined): void {
-    this.compiled.inputs.overrideSwitch(element, closed);
+    this.changeSchedule(this.schedule.withSwitch(element, closed));
+  }
+
+  /**
+   * A new schedule from the present time: present values read before the
+   * next advance see it; recorded intervals keep the inputs of their time.
+   */
+  private changeSchedule(schedule: InputSchedule): void {
+    this.schedule = schedule;
+    this.live = this.live.withSchedule(schedule);
+    this.compiled.inputs.use(this.live);
     this.inputsChanged = true;
   }
 
@@ -209,25 +275,31 @@ export class NetworkRun {
       );
     }
     if (this.statusCur !== 'running') return this.statusCur;
+    // Another run or a reader on the same compiled network may have used it since.
+    this.compiled.inputs.use(this.live);
     if (this.inputsChanged) {
       this.inputsChanged = false;
       this.startInterval(this.t);
       if (this.statusCur !== 'running') return this.statusCur;
     }
     if (this.restartPending) this.recordStart(record);
-    const samples = (record.sampleTimes ?? []).filter((s) => s > this.t && s <= tStop);
+    // Sorted, without repeats: a repeated time is one sample (never a zero-length step that ends the run).
+    const samples = [...new Set((record.sampleTimes ?? []).filter((s) => s > this.t && s <= tStop))].sort((a, b) => a - b);
     let nextSample = 0;
     while (tStop - this.t > timeTolerance(tStop) && this.statusCur === 'running') {
-      const interval = this.intervals[this.intervals.length - 1]!;
       // A stop a few round-offs away from a breakpoint is that breakpoint (no step is that short);
       // it takes the caller's time value, so a run ends exactly at its stop time.
-      if (interval.end !== tStop && Math.abs(interval.end - tStop) <= timeTolerance(tStop)) {
-        interval.end = tStop;
-        this.compiled.inputs.setInterval(interval.start, tStop);
+      if (this.live.end !== tStop && Math.abs(this.live.end - tStop) <= timeTolerance(tStop)) {
+        this.live = this.live.endingAt(tStop);
+        this.intervals[this.intervals.length - 1] = this.live;
+        this.compiled.inputs.use(this.live);
       }
-      const edge = Math.min(interval.end, tStop);
+      const edge = Math.min(this.live.end, tStop);
       while (this.t < edge) {
-        const sample = record.exact && nextSample < samples.length ? samples[nextSample]! : Infinity;
+        // Exact samples: the solver stops at the next one that is a step away (closer ones are interpolated).
+        let k = nextSample;
+        while (record.exact && k < samples.length && samples[k]! - this.t <= timeTolerance(samples[k]!)) k++;
+        const sample = record.exact && k < samples.length ? samples[k]! : Infinity;
         const target = edge - sample <= timeTolerance(edge) ? edge : Math.min(edge, sample);
         const r = this.integ.step(target);
         if (r.status !== 'accepted' && r.status !== 'terminal-event') {
@@ -236,24 +308,35 @@ export class NetworkRun {
         }
         for (const e of r.events) this.events.push(e);
         const step = this.recordStep(record);
+        const kept = { steps: this.steps.length, samples: this.samples.length };
         // Samples inside the step first (time order), then the step's end.
         while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
           const y = evaluateRecordedStep(step, ts, this.index2);
-          this.project(ts, y);
-          this.pushSample(ts, y);
+          // An input that throws here (a user function failing exactly at a sampling instant) ends the run as 'rhs-error'.
+          try {
+            this.projector(ts, y, this.live);
+          } catch (cause) {
+            return this.stopAt(step, kept, 'rhs-error', `f threw at t = ${ts}: ${cause instanceof Error ? cause.message : String(cause)}`, { cause });
+          }
+          if (!this.pushChecked(ts, y, step, kept)) return this.statusCur;
           nextSample++;
         }
         const endIsSample = nextSample < samples.length && samples[nextSample] === this.t;
         if (endIsSample) nextSample++;
-        if (record.steps || endIsSample) this.pushSample(this.t, this.integ.y);
+        if (record.steps || endIsSample) {
+          if (!this.pushChecked(this.t, this.integ.y, step, kept)) return this.statusCur;
+        } else if (record.interpolants && !this.checked(this.t, this.integ.y, step, kept)) {
+          return this.statusCur;
+        }
+        this.endState = undefined;
         record.onStep?.(this.t);
         if (r.status === 'terminal-event') {
           this.statusCur = 'terminal-event';
           return this.statusCur;
         }
       }
-      if (this.t === interval.end) {
+      if (this.t === this.live.end) {
         // A switching instant: the inputs change here.
         this.startInterval(this.t);
         if (this.statusCur !== 'running') return this.statusCur;
@@ -265,11 +348,11 @@ export class NetworkRun {
 
   /** Copy of the run's state for what-if runs: integrator, input interval and input changes (plain data). */
   snapshot(): RunSnapshot {
-    const last = this.intervals[this.intervals.length - 1]!;
+    const live = this.live;
     return {
       integrator: this.integ.snapshot(),
-      interval: { ...last },
-      inputs: this.compiled.inputs.state(),
+      interval: { start: live.start, end: live.end, rightOf: live.rightOf, leftOf: live.leftOf },
+      inputs: this.schedule.state(),
       status: this.statusCur,
       inputsChanged: this.inputsChanged,
     };
@@ -281,13 +364,16 @@ export class NetworkRun {
    */
   restore(s: RunSnapshot): void {
     this.integ.restore(s.integrator);
-    this.compiled.inputs.setState(s.inputs);
+    this.schedule = this.compiled.inputs.schedule.withState(s.inputs);
     const t = s.integrator.t;
     while (this.samples.length > 0 && this.samples[this.samples.length - 1]!.t > t) this.samples.pop();
     while (this.steps.length > 0 && this.steps[this.steps.length - 1]!.t > t) this.steps.pop();
     while (this.events.length > 0 && this.events[this.events.length - 1]!.t > t) this.events.pop();
-    this.intervals.push({ ...s.interval });
-    this.compiled.inputs.setInterval(s.interval.start, s.interval.end);
+    this.live = new InputsInForce(this.schedule, s.interval.start, s.interval.end, s.interval.rightOf, s.interval.leftOf);
+    this.intervals.push(this.live);
+    this.compiled.inputs.use(this.live);
+    this.stop = undefined;
+    this.endState = undefined;
     this.statusCur = s.status;
     this.inputsChanged = s.inputsChanged;
   }
@@ -296,38 +382,25 @@ export class NetworkRun {
   resume(record: RecordOptions): 'running' | DaeStatus {
     if (this.statusCur !== 'terminal-event') return this.statusCur;
     this.inputsChanged = false;
+    this.compiled.inputs.use(this.live);
     if (this.startInterval(this.t) === 'running') this.recordStart(record);
     return this.statusCur;
   }
 
   /** Replace a source's waveform from now on. */
   replaceWaveform(element: number, spec: WaveformSpec): void {
-    this.compiled.inputs.replaceWaveform(element, spec);
-    this.inputsChanged = true;
+    this.changeSchedule(this.schedule.withWaveform(element, spec));
   }
 
-  /** The first input breakpoint after t (searched in growing windows, so long periodic drives stay cheap). */
-  private nextBreakpoint(t: number): number {
-    let width = this.lastIntervalLength > 0 ? this.lastIntervalLength : (this.horizon - t) / 64;
-    for (;;) {
-      const end = Math.min(this.horizon, t + width);
-      // Breakpoints are searched in the open interval (t, upper) and merged into its ends when
-      // closer than round-off: reach past the horizon so that one exactly at it is kept.
-      const upper = end === this.horizon ? end + 1e-9 * Math.max(Math.abs(end), end - t) : end;
-      const found = this.compiled.inputs.breakpoints(t, upper).filter((b) => b <= this.horizon);
-      if (found.length > 0) return found[0]!;
-      if (end >= this.horizon) return Infinity;
-      width *= 4;
-    }
-  }
-
-  /** Begin a new input interval at time t: tell the inputs, re-initialise consistently. */
+  /**
+   * Begin a new input interval at time t: the inputs in force from t to the
+   * next breakpoint (found on demand, so any number of edges costs one
+   * interval at a time), then consistent re-initialisation.
+   */
   private startInterval(t: number): 'running' | DaeStatus {
-    const previous = this.intervals[this.intervals.length - 1];
-    if (previous && Number.isFinite(previous.end)) this.lastIntervalLength = previous.end - previous.start;
-    const next = this.nextBreakpoint(t);
-    this.compiled.inputs.setInterval(t, next);
-    this.intervals.push({ start: t, end: next });
+    this.live = openInterval(this.schedule, t, this.horizon, this.span);
+    this.intervals.push(this.live);
+    this.compiled.inputs.use(this.live);
     this.statusCur = this.integ.restart(undefined, { capStepByEstimate: true });
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     this.restartPending = true;
@@ -385,5 +458,66 @@ export class NetworkRun {
 
   private pushSample(t: number, y: Float64Array): void {
     this.samples.push({ t, y: Float64Array.from(y), interval: this.intervals.length - 1 });
+  }
+
+  /** Record a sample after the finiteness check; false when the check stopped the run. */
+  private pushChecked(t: number, y: Float64Array, step: RecordedStep, kept: { steps: number; samples: number }): boolean {
+    if (!this.checked(t, y, step, kept)) return false;
+    this.pushSample(t, y);
+    return true;
+  }
+
+  /** The finiteness check of a state about to be recorded; on a hit the run stops (false). */
+  private checked(t: number, y: Float64Array, step: RecordedStep, kept: { steps: number; samples: number }): boolean {
+    let hit: NonFiniteValue | undefined;
+    for (let i = 0; i < y.length && !hit; i++) {
+      if (!Number.isFinite(y[i]!)) hit = { quantity: 'state', name: this.compiled.layout.labels[i] ?? `unknown ${i}`, value: y[i]! };
+    }
+    try {
+      const check = this.check;
+      if (!hit && check) hit = this.compiled.inputs.during(this.live, () => check(t, y));
+    } catch (cause) {
+      this.stopAt(step, kept, 'rhs-error', `f threw at t = ${t}: ${cause instanceof Error ? cause.message : String(cause)}`, { cause });
+      return false;
+    }
+    if (!hit) return true;
+    const what = hit.quantity === 'state' ? `unknown ${hit.name}` : `${hit.quantity} of "${hit.name}"`;
+    this.stopAt(step, kept, 'non-finite', `${what} is ${hit.value} at t = ${t} s; the data before it is kept`, { nonFinite: { ...hit, time: t } });
+    return false;
+  }
+
+  /** The unknowns a non-finite value involves: the unknown itself, or those of its element, tube or node. */
+  private unknownsOf(hit: NonFiniteValue | undefined): number[] {
+    if (!hit) return [];
+    const layout = this.compiled.layout;
+    const out: number[] = [];
+    for (let i = 0; i < layout.size; i++) {
+      if (hit.quantity === 'state' ? layout.labels[i] === hit.name : (layout.owners[i] ?? []).includes(hit.name)) out.push(i);
+    }
+    return out;
+  }
+
+  /**
+   * End the run inside the step just taken: drop the step (its polynomial
+   * reaches past the stop) and the samples taken from it, keep everything
+   * before; the run stands at the start of that step.
+   */
+  private stopAt(
+    step: RecordedStep,
+    kept: { steps: number; samples: number },
+    status: DaeStatus,
+    message: string,
+    extra: { cause?: unknown; nonFinite?: NonFiniteValue & { time: number } },
+  ): DaeStatus {
+    if (this.steps[kept.steps - 1] === step) this.steps.length = kept.steps - 1;
+    this.samples.length = Math.min(this.samples.length, kept.samples);
+    this.endState = Float64Array.from(step.yOld);
+    this.stop = {
+      message,
+      failure: { t: step.tOld, h: step.h, components: this.unknownsOf(extra.nonFinite), ...(extra.cause !== undefined ? { cause: extra.cause } : {}) },
+      ...(extra.nonFinite ? { nonFinite: extra.nonFinite } : {}),
+    };
+    this.statusCur = status;
+    return status;
   }
 }

@@ -1,3 +1,5 @@
+import type { InputView } from '../elements/element-kind.js';
+import { DenseStampTarget } from '../elements/stamp-target.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { algebraicJacobian, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from '../solver/consistent-initialization.js';
 import { createDenseLu } from '../solver/dense-lu.js';
@@ -29,11 +31,20 @@ const MAX_SIMPLIFIED = 6;
  * @example
  * ```ts
  * const project = createProjector(compiled, atol, rtol);
- * project(t, y); // in place; the inputs' interval must be set for t
+ * project(t, y, inputs); // in place, with the inputs in force at t
  * ```
  */
-export function createProjector(compiled: CompiledNetwork, atol: number | Float64Array, rtol: number): (t: number, y: Float64Array) => void {
+export function createProjector(
+  compiled: CompiledNetwork,
+  atol: number | Float64Array,
+  rtol: number,
+): (t: number, y: Float64Array, inputs?: InputView) => void {
   const n = compiled.layout.size;
+  /** The inputs of the present call (default: the network's, as a reader has put them). */
+  let inputs: InputView = compiled.inputs;
+  const target = new DenseStampTarget(n);
+  const rhs = (t: number, y: Float64Array, out: Float64Array): void => compiled.evaluate(t, y, inputs, out);
+  const jacobianInto = (t: number, y: Float64Array, out: Float64Array): void => compiled.stampJacobian(t, y, inputs, target.bind(out));
   let spaces: MassSpaces | undefined;
   let k = 0;
   const scale = new Float64Array(n);
@@ -47,10 +58,10 @@ export function createProjector(compiled: CompiledNetwork, atol: number | Float6
   const ctx = (): ConsistencyContext => ({
     n,
     spaces: spaces!,
-    rhs: compiled.rhs,
+    rhs,
     jacobian: (t, y, _f, out) => {
       out.fill(0);
-      compiled.jacobian(t, y, out);
+      jacobianInto(t, y, out);
     },
     scale,
   });
@@ -58,7 +69,7 @@ export function createProjector(compiled: CompiledNetwork, atol: number | Float6
   /** Factorise W0^T J V0 at (t, y); false when it is singular. */
   const refresh = (t: number, y: Float64Array): boolean => {
     jac.fill(0);
-    compiled.jacobian(t, y, jac);
+    jacobianInto(t, y, jac);
     const jr = algebraicJacobian(spaces!, jac, new Float64Array(k * k));
     lu ??= createDenseLu(k);
     luValid = lu.factor(jr) < 0;
@@ -70,7 +81,8 @@ export function createProjector(compiled: CompiledNetwork, atol: number | Float6
     if (!makeConsistent(ctx(), t, y, false).ok) y.set(before); // keep the interpolated state
   };
 
-  return (t, y) => {
+  return (t, y, given) => {
+    inputs = given ?? compiled.inputs;
     if (!spaces) {
       spaces = massSpaces(compiled.mass, n);
       k = spaces.k;
@@ -88,7 +100,7 @@ export function createProjector(compiled: CompiledNetwork, atol: number | Float6
         y.set(start);
         return full(t, y);
       }
-      compiled.rhs(t, y, f);
+      rhs(t, y, f);
       for (let j = 0; j < k; j++) {
         let acc = 0;
         for (let i = 0; i < n; i++) acc += s.w0[i * k + j]! * f[i]!;

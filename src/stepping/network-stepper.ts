@@ -1,14 +1,15 @@
 import { InputError } from '../errors.js';
-import { compileNetwork, type CompiledNetwork } from '../formulation/compile-network.js';
-import type { NetworkBuilder } from '../network/network-builder.js';
-import type { NetworkDescription } from '../network/description.js';
+import type { CompiledNetwork } from '../formulation/compile-network.js';
 import type { CurrentSource, ElectricNode, FluxTube, Switch, TwoTerminal, VoltageSource } from '../network/handles.js';
 import { resultFromRun, type SimulationResult } from '../result/simulation-result.js';
 import { StateReader, type QuantityRequest, type StateFunction } from '../result/state-reader.js';
 import { NetworkRun, timeTolerance, type RecordOptions, type RunSnapshot } from '../simulation/network-run.js';
 import type { DaeEvent, DaeStatus, SolverStats } from '../solver/types.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
-import { absoluteTolerances, type AbsoluteTolerances } from '../simulate.js';
+import { checkedInitialState } from '../simulation/checked-initial-state.js';
+import { finitenessCheck } from '../simulation/finiteness-check.js';
+import { acceptNetwork, type NetworkInput } from '../simulation/accept-network.js';
+import { checkSolverSettings, resolveSolverSettings, type SolverSettings } from '../simulation/solver-settings.js';
 
 /** A level crossing watched during the run (located on the dense output). */
 export interface Threshold {
@@ -27,26 +28,21 @@ export interface Threshold {
   readonly onCross: (stepper: NetworkStepper, crossing: { readonly name: string; readonly time: number; readonly rising: boolean }) => void;
 }
 
-/** Options of {@link createStepper}. */
-export interface StepperOptions {
+/**
+ * Options of {@link createStepper}: the shared {@link SolverSettings} (rtol
+ * default 1e-6; maxSteps and maxWallTimeMs count over the stepper's life,
+ * maxSteps default 1e7) plus the span, recording and thresholds.
+ *
+ * @example
+ * ```ts
+ * const options: StepperOptions = { horizon: 0.1, rtol: 1e-7, record: false };
+ * ```
+ */
+export interface StepperOptions extends SolverSettings {
   /** Start time, s. Default 0. */
   readonly startTime?: number;
   /** Latest time the stepper may reach, s (the solver's span). */
   readonly horizon: number;
-  /** Relative tolerance. Default 1e-6. */
-  readonly rtol?: number;
-  /** Absolute tolerances (see `simulate`). */
-  readonly atol?: number | AbsoluteTolerances;
-  /** Largest solver step, s. */
-  readonly maxStep?: number;
-  /** First step to try, s. */
-  readonly initialStep?: number;
-  /** Budget of solver steps over the stepper's life. Default 1e7. */
-  readonly maxSteps?: number;
-  /** Wall-time budget over the stepper's life, ms. */
-  readonly maxWallTimeMs?: number;
-  /** Cancels the run. */
-  readonly signal?: AbortSignal;
   /** Raw state to start from instead of the network's initial conditions. */
   readonly initialState?: ArrayLike<number>;
   /** Keep the history (solver steps) so that {@link NetworkStepper.result} can return it. Default true. */
@@ -110,16 +106,20 @@ export class NetworkStepper {
   private inCallback = false;
 
   /** Use {@link createStepper}. */
-  constructor(network: NetworkBuilder | NetworkDescription, options: StepperOptions) {
-    const description = 'describe' in network ? network.describe() : network;
-    this.networkId = 'describe' in network ? network.id : undefined;
-    this.compiled = compileNetwork(description);
-    this.reader = new StateReader(this.compiled, this.networkId);
+  constructor(network: NetworkInput, options: StepperOptions) {
+    if (options === null || typeof options !== 'object') {
+      throw new InputError('bad-option', `createStepper: options must be an object with at least horizon, got ${String(options)}`, ['options']);
+    }
     const t0 = options.startTime ?? 0;
     if (!Number.isFinite(t0)) throw new InputError('bad-option', `stepper options: startTime ${t0} is not finite`, ['options']);
     if (!(Number.isFinite(options.horizon) && options.horizon > t0)) {
       throw new InputError('bad-time-span', `stepper options: horizon ${options.horizon} s must be a finite time after startTime ${t0} s`, ['options']);
     }
+    checkSolverSettings(options, 'stepper options');
+    const accepted = acceptNetwork(network, 'createStepper');
+    this.networkId = accepted.networkId;
+    this.compiled = accepted.compiled;
+    this.reader = new StateReader(this.compiled, this.networkId);
     this.horizon = options.horizon;
     this.thresholds = options.thresholds ?? [];
     const events: DaeEvent[] = this.thresholds.map((th) => {
@@ -136,14 +136,9 @@ export class NetworkStepper {
     this.run = new NetworkRun(this.compiled, {
       t0,
       horizon: options.horizon,
-      rtol: options.rtol ?? 1e-6,
-      atol: absoluteTolerances(this.compiled, options.atol),
-      ...(options.maxStep !== undefined ? { maxStep: options.maxStep } : {}),
-      ...(options.initialStep !== undefined ? { initialStep: options.initialStep } : {}),
-      maxSteps: options.maxSteps ?? 1e7,
-      ...(options.maxWallTimeMs !== undefined ? { maxWallTimeMs: options.maxWallTimeMs } : {}),
-      ...(options.signal ? { signal: options.signal } : {}),
-      ...(options.initialState ? { initialState: options.initialState } : {}),
+      ...resolveSolverSettings(this.compiled, options, { rtol: 1e-6, maxSteps: 1e7 }),
+      ...(this.record.steps ? { check: finitenessCheck(this.compiled) } : {}),
+      ...(options.initialState ? { initialState: checkedInitialState(this.compiled, options.initialState, 'stepper options') } : {}),
       events,
     });
   }
@@ -446,6 +441,6 @@ export class NetworkStepper {
  * stepper.advanceTo(0.01);
  * ```
  */
-export function createStepper(network: NetworkBuilder | NetworkDescription, options: StepperOptions): NetworkStepper {
+export function createStepper(network: NetworkInput, options: StepperOptions): NetworkStepper {
   return new NetworkStepper(network, options);
 }

@@ -5,7 +5,6 @@ import { simulate, type SimulateOptions } from '../simulate.js';
 import { resolveFunctionWaveform } from '../waveforms/resolve-function-waveform.js';
 import { applySweepEdits } from './apply-sweep-edits.js';
 import { computeOutputs } from './compute-outputs.js';
-import { networkFromDescription } from './network-from-description.js';
 import { sweepCase } from './sweep-cases.js';
 import type { SweepJob } from './sweep-job.js';
 import type { SweepCaseResult } from './sweep-result.js';
@@ -61,8 +60,8 @@ function simulateOptions(job: SweepJob, signal: AbortSignal | undefined): Simula
 /**
  * Run one case of a sweep in this thread and return its plain-data result:
  * apply the case's values to the base network, import function waveforms
- * named by module, rebuild the network through the builder (checking every
- * value), simulate, and compute the outputs. Never throws for a failing
+ * named by module, simulate (whose front door checks every value by the
+ * builder's rules, as for any plain description), and compute the outputs. Never throws for a failing
  * case: the failure is the case's status and message. This is the code
  * path of every case, in process and in a worker; call it alone to debug
  * one case. The job should have passed {@link parseSweepJob}.
@@ -79,8 +78,9 @@ export async function runSweepCase(job: SweepJob, index: number, options: RunSwe
   try {
     const edited = applySweepEdits(job.network, c.edits);
     const resolved = await resolveFunctionWaveforms(edited, options.baseUrl !== undefined ? { baseUrl: options.baseUrl } : {});
-    const description = networkFromDescription(resolved).describe();
-    const result = simulate(description, simulateOptions(job, options.signal));
+    // The front door shared with simulate, the stepper and the periodic steady state: the description is checked there, once.
+    const result = simulate(resolved, simulateOptions(job, options.signal));
+    const description = result.network;
     const simulation = { status: result.status, reachedTime: result.time[result.time.length - 1] ?? Number.NaN, stats: { ...result.stats } };
     if (result.status === 'aborted' && options.signal?.aborted) {
       return { ...base, status: 'cancelled', message: 'cancelled while running', outputs: {}, simulation };

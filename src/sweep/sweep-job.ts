@@ -1,5 +1,5 @@
 import type { NetworkDescription } from '../network/description.js';
-import type { AbsoluteTolerances } from '../simulate.js';
+import type { SolverSettings } from '../simulation/solver-settings.js';
 
 /**
  * The format tag of a sweep job file.
@@ -181,22 +181,18 @@ export type SweepSampling =
 
 /**
  * Simulate options of a sweep job: the plain-data part of
- * `SimulateOptions` (no signal, no callbacks).
+ * `SimulateOptions` (the shared `SolverSettings` without the signal, no
+ * callbacks).
  *
  * @example
  * ```ts
  * const o: SweepSimulateOptions = { stopTime: 0.2, rtol: 1e-6, maxStep: 4e-4, sampling: { interval: 1e-4 } };
  * ```
  */
-export interface SweepSimulateOptions {
+export interface SweepSimulateOptions extends Omit<SolverSettings, 'signal'> {
   readonly stopTime: number;
   readonly startTime?: number;
-  readonly rtol?: number;
-  readonly atol?: number | AbsoluteTolerances;
-  readonly maxStep?: number;
-  readonly initialStep?: number;
   readonly sampling?: SweepSampling;
-  readonly maxSteps?: number;
   /** Wall-time budget per case, ms (a case over it ends `'incomplete'`). */
   readonly maxWallTimeMs?: number;
 }

@@ -40,5 +40,5 @@ export function constantWaveform(spec: ConstantSpec, owner: WaveformOwner = 'wav
     throw waveformError(owner, `constant value ${spec.value} is not finite; give a finite number`);
   }
   const v = spec.value;
-  return { value: () => v, breakpoints: () => [] };
+  return { value: () => v, breakpoints: () => [], nextBreakpoint: () => Infinity };
 }

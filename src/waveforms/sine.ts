@@ -63,5 +63,6 @@ export function sineWaveform(spec: SineSpec, owner: WaveformOwner = 'waveform'):
   return {
     value: (t) => (t < start ? 0 : offset + amplitude * Math.sin(omega * (t - start) + phase)),
     breakpoints: (t0, t1) => (start >= t0 && start <= t1 ? [start] : []),
+    nextBreakpoint: (after) => (start > after ? start : Infinity),
   };
 }

@@ -140,5 +140,17 @@ export function userFunctionWaveform(spec: UserFunctionSpec, owner: WaveformOwne
     return out;
   };
 
-  return { value, breakpoints };
+  const nextBreakpoint = (after: number): number => {
+    // First breakpoint > after by bisection.
+    let lo = 0;
+    let hi = bps.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if ((bps[mid] ?? 0) <= after) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo < bps.length ? bps[lo]! : Infinity;
+  };
+
+  return { value, breakpoints, nextBreakpoint };
 }

@@ -1,3 +1,4 @@
+import { nextUp } from './float-steps.js';
 import type { Waveform } from './waveform.js';
 
 /**
@@ -73,9 +74,10 @@ export function vertexWaveform(table: VertexTable): Waveform {
     let k = 0;
     if (period !== undefined) {
       k = Math.floor((t - first) / period);
-      // Rounding in the division can put k one off; settle it against the edge formula.
-      while (k > 0 && edgeTime(0, k) > t) k--;
-      while (edgeTime(0, k + 1) <= t) k++;
+      // Rounding in the division can put k one off; settle it against the edge formula. Bounded:
+      // a period below the rounding unit of t (k + 1 === k, or edges that no longer advance) ends it.
+      for (let settle = 0; settle < 4 && k > 0 && edgeTime(0, k) > t; settle++) k--;
+      for (let settle = 0; settle < 4 && edgeTime(0, k + 1) <= t && edgeTime(0, k + 1) > edgeTime(0, k); settle++) k++;
     }
     const j = findVertex(t, k);
     const vj = values[j] ?? 0;
@@ -99,12 +101,28 @@ export function vertexWaveform(table: VertexTable): Waveform {
     }
     // First period whose edges can reach t0, computed (not scanned); one period of slack for rounding.
     let k = Math.max(0, Math.ceil((t0 - closing) / period) - 1);
-    while (edgeTime(0, k) <= t1) {
+    // k + 1 === k: the period is below the rounding unit of k (no further edge can be told apart).
+    while (edgeTime(0, k) <= t1 && k + 1 > k) {
       for (const j of edgeVertices) push(edgeTime(j, k));
       k++;
     }
     return out;
   };
 
-  return { value, breakpoints };
+  const nextBreakpoint = (after: number): number => {
+    if (edgeVertices.length === 0 || Number.isNaN(after)) return Infinity;
+    if (period === undefined) {
+      for (const j of edgeVertices) if (edgeTime(j, 0) > after) return edgeTime(j, 0);
+      return Infinity;
+    }
+    // The period index is computed, then at most a few periods are tried (one of slack each side for rounding).
+    const k0 = Math.max(0, Math.floor((after - first) / period) - 1);
+    for (let k = k0; k < k0 + 4; k++) {
+      for (const j of edgeVertices) if (edgeTime(j, k) > after) return edgeTime(j, k);
+    }
+    // Edges denser than the floats around `after`: the next float is an edge.
+    return nextUp(after);
+  };
+
+  return { value, breakpoints, nextBreakpoint };
 }

@@ -13,4 +13,12 @@ export interface Waveform {
   value(t: number): number;
   /** Sorted times in [t0, t1] where the value or its slope is discontinuous. */
   breakpoints(t0: number, t1: number): number[];
+  /**
+   * The first breakpoint strictly after `after` (Infinity when there is
+   * none), computed on demand in bounded time and memory, so a run can walk
+   * any number of edges one at a time. When edges are denser than the
+   * floats around `after` (a period below its rounding unit), the next
+   * float above `after` is returned.
+   */
+  nextBreakpoint(after: number): number;
 }

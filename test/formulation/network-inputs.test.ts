@@ -9,7 +9,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { createNetwork, demoMaterials, pulse, simulate } from '../../src/index.js';
-import { NetworkInputs, BREAKPOINT_MERGE } from '../../src/formulation/network-inputs.js';
+import { NetworkInputs, BREAKPOINT_MERGE, openInterval } from '../../src/formulation/network-inputs.js';
 import { maxRelativeDeviation } from '../helpers/conservation.js';
 
 function pulsed(edge: number) {
@@ -37,11 +37,14 @@ describe('NetworkInputs.breakpoints: edges closer than round-off count as one ju
 
   it('gives an interval that starts at a merged edge the value after the whole edge', () => {
     const inputs = new NetworkInputs(pulsed(1e-60).net.describe());
-    inputs.breakpoints(0, 2e-3);
-    inputs.setInterval(0, 5e-4);
+    const first = openInterval(inputs.schedule, 0, 2e-3, 2e-3);
+    expect(first.end).toBe(5e-4); // the ramp of 1e-60 s is merged into t = 0
     // At t = 0 the ramp of 1e-60 s has just begun: the right limit after the merged edge is the high level.
-    expect(inputs.sourceValue(0, 0)).toBe(1);
-    expect(inputs.sourceValue(0, 5e-4)).toBe(1); // left limit at the falling edge
+    expect(first.sourceValue(0, 0)).toBe(1);
+    expect(first.sourceValue(0, 5e-4)).toBe(1); // left limit at the falling edge
+    const second = openInterval(inputs.schedule, first.end, 2e-3, 2e-3);
+    expect(second.sourceValue(0, 5e-4)).toBe(-1); // right limit after the falling edge
+    expect(second.end).toBe(1e-3);
   });
 
   it('lets simulate run through edges of 1e-18 s and 1e-60 s like through ideal jumps', () => {
