@@ -1,6 +1,7 @@
 import type { NetworkDescription } from '../network/description.js';
 import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { Waveform } from '../waveforms/waveform.js';
+import { nextDown, nextUp } from '../solver/float-neighbours.js';
 
 /** What embedding code changed in a network's inputs (plain data). */
 export interface InputState {
@@ -20,19 +21,8 @@ export interface InputState {
  */
 export const BREAKPOINT_MERGE = 1000 * (Number.EPSILON / 2);
 
-/** The float next above x (x finite). */
-export function nextUp(x: number): number {
-  if (x === 0) return Number.MIN_VALUE;
-  const buf = new Float64Array([x]);
-  const bits = new BigInt64Array(buf.buffer);
-  bits[0] = bits[0]! + (x > 0 ? 1n : -1n);
-  return buf[0]!;
-}
-
-/** The float next below x (x finite). */
-export function nextDown(x: number): number {
-  return -nextUp(-x);
-}
+// One nextUp/nextDown for the project (allocation-free); re-exported here for existing importers.
+export { nextDown, nextUp } from '../solver/float-neighbours.js';
 
 /**
  * Time-dependent inputs of a compiled network: source waveforms and switch
