@@ -2,7 +2,20 @@ import { InputError } from '../errors.js';
 import { createCollocationWork, createNewtonOutcome, NEWTON_FAILURE_SHRINK, solveCollocation, type CollocationSystem, type CollocationWork, type NewtonOutcome } from './collocation-newton.js';
 import { evaluateCollocation } from './collocation-polynomial.js';
 import { createComplexLu } from './complex-lu.js';
-import { consistentDerivative, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from './consistent-initialization.js';
+import {
+  consistentDerivative,
+  consistentDerivativeWith,
+  createAlgebraicSolver,
+  createDerivativeWork,
+  factorAlgebraic,
+  makeConsistent,
+  massSpaces,
+  resolveAlgebraic,
+  type AlgebraicSolver,
+  type ConsistencyContext,
+  type DerivativeWork,
+  type MassSpaces,
+} from './consistent-initialization.js';
 import { createDenseLu } from './dense-lu.js';
 import { locateSignChange } from './event-locator.js';
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
@@ -15,7 +28,7 @@ import { radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estima
 import { firstIndexAbove } from './sorted-search.js';
 import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
-import { errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
+import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
 
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
@@ -296,6 +309,20 @@ class RadauIntegrator implements DaeIntegrator {
   private jacValid = false;
   private jacCurrent = false;
   private luH = NaN;
+  /** Bumped whenever this.jac changes: the factored algebraic Jacobian belongs to one version. */
+  private jacVersion = 0;
+  private algebraicVersion = -1;
+  /** For cheap restarts (singular M only): W0^T J V0 factored for the kept J, and y' work. */
+  private readonly algebraic: AlgebraicSolver | undefined;
+  private readonly derivativeWork: DerivativeWork | undefined;
+  /** The consistency context, built once; its scale is refreshed per use. */
+  private readonly consistency: ConsistencyContext | undefined;
+  /** State saved before a cheap restart, to fall back to the full one. */
+  private readonly ySaved: Float64Array;
+  /** y' at the last cheap restart: the first step's Newton starts from the tangent instead of zero. */
+  private readonly restartSlope: Float64Array;
+  private slopeStart = false;
+  private readonly stepWork: { scale: Float64Array; y1: Float64Array; f1: Float64Array };
   private interp: DaeStepInterpolant | undefined;
   private eventValues: Float64Array;
   private readonly statsCur: SolverStats = emptyStats();
@@ -377,6 +404,20 @@ class RadauIntegrator implements DaeIntegrator {
     this.e2r = new Float64Array(n * n);
     this.e2i = new Float64Array(n * n);
     this.fdWork = new Float64Array(n);
+    this.ySaved = new Float64Array(n);
+    this.restartSlope = new Float64Array(n);
+    this.stepWork = { scale: new Float64Array(n), y1: new Float64Array(n), f1: new Float64Array(n) };
+    if (this.spaces) {
+      this.consistency = {
+        n,
+        spaces: this.spaces,
+        rhs: this.countedRhs,
+        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
+        scale: new Float64Array(n),
+      };
+      this.algebraic = createAlgebraicSolver(n, this.spaces.k);
+      this.derivativeWork = createDerivativeWork(n);
+    }
     this.jac = new Float64Array(n * n);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
@@ -464,14 +505,83 @@ class RadauIntegrator implements DaeIntegrator {
       }
       this.yCur.set(Array.from(y));
     }
+    const healthy = (this.statusCur === 'running' || this.statusCur === 'success' || this.statusCur === 'terminal-event') && !this.pendingError && !this.pendingFailure;
     this.statusCur = 'running';
     this.messageCur = '';
     this.failureCur = undefined;
     this.pendingError = undefined;
     this.pendingFailure = undefined;
     this.interp = undefined;
-    this.initialise(false, options.capStepByEstimate ?? false);
+    const capByEstimate = options.capStepByEstimate ?? false;
+    if (!(y === undefined && healthy && this.restartCheaply(capByEstimate))) this.initialise(false, capByEstimate);
     return this.statusCur;
+  }
+
+  /**
+   * Restart after an input jump keeping what is still valid (issue: cheap
+   * restarts): the Jacobian and the LU factors (marked not current, so a
+   * Newton failure refreshes them first, as within a run), the step size
+   * (capped by a fresh estimate when asked); the algebraic unknowns are
+   * re-solved by a simplified Newton iteration with the kept factorisation of
+   * W0^T J V0. The step history (controller memory, extrapolated start
+   * values) is dropped, as at any restart. Returns false, with the state as
+   * it was, when this is not enough (no convergence, a singular algebraic
+   * Jacobian, a non-finite f, user code throwing): the caller then does the
+   * full re-initialisation.
+   */
+  private restartCheaply(capByEstimate: boolean): boolean {
+    const p = this.p;
+    const y = this.yCur;
+    const t = this.tCur;
+    this.ySaved.set(y);
+    try {
+      // A Jacobian dropped after slow Newton convergence is evaluated here, once, with the new inputs.
+      if (!this.jacValid) this.ensureJacobian();
+      let yp: Float64Array | undefined;
+      if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
+        const solver = this.algebraic!;
+        if (this.algebraicVersion !== this.jacVersion) {
+          if (!factorAlgebraic(this.spaces, this.jac, solver)) return this.undoCheapRestart();
+          this.algebraicVersion = this.jacVersion;
+        }
+        const ctx = this.consistencyContext();
+        if (!resolveAlgebraic(ctx, t, y, solver)) return this.undoCheapRestart();
+        this.callRhs(t, y, this.fCur);
+        if (!allFinite(this.fCur)) return this.undoCheapRestart();
+        if (capByEstimate) {
+          const dt = Math.sqrt(UROUND) * Math.max(Math.abs(t), p.tEnd - p.t0);
+          yp = consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.jac, this.derivativeWork!);
+        }
+      } else {
+        this.callRhs(t, y, this.fCur);
+        if (!allFinite(this.fCur)) return this.undoCheapRestart();
+        if (!p.mass) yp = this.fCur;
+      }
+      this.adjustedCur = [];
+      this.first = true;
+      this.extrapolate = false;
+      this.hAcc = NaN;
+      this.errAcc = NaN;
+      this.faccon = 1;
+      this.jacCurrent = false;
+      if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp, true));
+      this.slopeStart = yp !== undefined;
+      if (yp) this.restartSlope.set(yp);
+      this.evaluateEventsAt(t, y, this.eventValues);
+      if (t >= p.tEnd) this.statusCur = 'success';
+      return true;
+    } catch (e) {
+      if (e instanceof UserCodeError || e instanceof NonFiniteJacobian) {
+        // Let the full re-initialisation meet (and report) the same failure; the evaluations stay counted.
+        return this.undoCheapRestart();
+      }
+      throw e;
+    }
+  }
+
+  private undoCheapRestart(): false {
+    this.yCur.set(this.ySaved);
+    return false;
   }
 
   snapshot(): DaeIntegratorSnapshot {
@@ -507,8 +617,10 @@ class RadauIntegrator implements DaeIntegrator {
     this.faccon = s.faccon;
     this.first = s.first;
     this.extrapolate = s.extrapolate;
+    this.slopeStart = false;
     if (s.jacobian) {
       this.jac.set(s.jacobian);
+      this.jacVersion++;
       this.jacValid = true;
       this.jacCurrent = s.jacobianCurrent;
     } else {
@@ -629,6 +741,7 @@ class RadauIntegrator implements DaeIntegrator {
     const n = this.n;
     this.first = true;
     this.extrapolate = false;
+    this.slopeStart = false;
     this.hAcc = NaN;
     this.errAcc = NaN;
     this.faccon = 1;
@@ -672,14 +785,11 @@ class RadauIntegrator implements DaeIntegrator {
     }
   }
 
+  /** The consistency context with its scale atol + rtol |y| at the present state. */
   private consistencyContext(): ConsistencyContext {
-    return {
-      n: this.n,
-      spaces: this.spaces!,
-      rhs: (t: number, y: Float64Array, out: Float64Array) => this.callRhs(t, y, out),
-      jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
-      scale: errorScale(this.yCur, this.p.rtol, this.p.atol, new Float64Array(this.n)),
-    };
+    const ctx = this.consistency!;
+    errorScale(this.yCur, this.p.rtol, this.p.atol, ctx.scale);
+    return ctx;
   }
 
   /**
@@ -699,14 +809,13 @@ class RadauIntegrator implements DaeIntegrator {
     }
     if (!yp) return Math.min(1e-6 * span, cap);
     const n = this.n;
-    const scale = errorScale(this.yCur, p.rtol, p.atol, new Float64Array(n));
+    const { y1, f1 } = this.stepWork;
+    const scale = errorScale(this.yCur, p.rtol, p.atol, this.stepWork.scale);
     const d0 = weightedRmsNorm(this.yCur, scale);
     const d1 = weightedRmsNorm(yp, scale);
     let h0 = d0 < 1e-5 || d1 < 1e-5 ? 1e-6 * span : (0.01 * d0) / d1;
     h0 = Math.min(h0, cap);
-    const y1 = new Float64Array(n);
     for (let i = 0; i < n; i++) y1[i] = this.yCur[i]! + h0 * yp[i]!;
-    const f1 = new Float64Array(n);
     this.callRhs(this.tCur + h0, y1, f1);
     for (let i = 0; i < n; i++) f1[i] = f1[i]! - this.fCur[i]!;
     const d2 = weightedRmsNorm(f1, scale) / h0;
@@ -774,6 +883,7 @@ class RadauIntegrator implements DaeIntegrator {
   private ensureJacobian(): void {
     if (!this.jacValid || !this.jacCurrent) {
       this.callJacobian(this.tCur, this.yCur, this.fCur, this.jac);
+      this.jacVersion++;
       this.jacValid = true;
       this.jacCurrent = true;
       this.luH = NaN;
@@ -808,8 +918,8 @@ class RadauIntegrator implements DaeIntegrator {
     if (p.signal?.aborted) {
       return this.fail('aborted', `aborted by the caller's signal at t = ${this.tCur}`, []);
     }
-    const badF = nonFiniteIndices(this.fCur);
-    if (badF.length) {
+    if (!allFinite(this.fCur)) {
+      const badF = nonFiniteIndices(this.fCur);
       return this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${badF.join(', ')}; check the model near this time`, badF);
     }
     const { tTarget, isBreakpoint } = this.nextTarget(tStopIn);
@@ -830,7 +940,7 @@ class RadauIntegrator implements DaeIntegrator {
       if (st.acceptedSteps + st.rejectedSteps >= p.maxSteps) {
         return this.fail('step-budget', `stopped after maxSteps = ${p.maxSteps} steps at t = ${t}; raise maxSteps or loosen the tolerances`, []);
       }
-      if (performance.now() - this.startTime > p.maxWallTimeMs) {
+      if (p.maxWallTimeMs !== Infinity && performance.now() - this.startTime > p.maxWallTimeMs) {
         return this.fail('time-budget', `stopped after the wall-time budget of ${p.maxWallTimeMs} ms at t = ${t}`, []);
       }
       let h = Math.min(this.hCur, p.maxStep);
@@ -950,6 +1060,13 @@ class RadauIntegrator implements DaeIntegrator {
         evaluateCollocation(it, t + (s === 0 ? C1 : s === 1 ? C2 : 1) * h, u);
         for (let i = 0; i < n; i++) z[s * n + i] = u[i]! - y[i]!;
       }
+    } else if (this.slopeStart) {
+      // After a cheap restart: the tangent y + c h y' (y' consistent), closer than zero by O(h^2).
+      const yp = this.restartSlope;
+      for (let s = 0; s < 3; s++) {
+        const ch = (s === 0 ? C1 : s === 1 ? C2 : 1) * h;
+        for (let i = 0; i < n; i++) z[s * n + i] = ch * yp[i]!;
+      }
     } else {
       z.fill(0);
     }
@@ -980,6 +1097,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.tCur = tNew;
     this.first = false;
     this.extrapolate = true;
+    this.slopeStart = false;
     try {
       this.callRhs(tNew, y, this.fCur);
     } catch (e) {
@@ -1045,6 +1163,7 @@ class RadauIntegrator implements DaeIntegrator {
   private restartHistory(): void {
     this.first = true;
     this.extrapolate = false;
+    this.slopeStart = false;
     this.hAcc = NaN;
     this.errAcc = NaN;
     this.faccon = 1;
