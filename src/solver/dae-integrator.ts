@@ -30,6 +30,9 @@ import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
 
+/** The events of a step without events (shared, frozen: steps without events allocate no array). */
+const NO_EVENTS: readonly DaeEventRecord[] = Object.freeze([]);
+
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
 /** Consecutive Newton failures with a fresh Jacobian before status 'newton-failure' (our choice; radau5 only halves h). */
@@ -890,12 +893,11 @@ class RadauIntegrator implements DaeIntegrator {
     }
   }
 
-  /** The next time a step may not pass: the first breakpoint after t, else tStop, else tEnd. */
-  private nextTarget(tStop: number): { tTarget: number; isBreakpoint: boolean } {
+  /** The next breakpoint after t when it comes no later than tStop, else NaN. */
+  private nextBreakpoint(tStop: number): number {
     const bps = this.p.breakpoints;
     const next = firstIndexAbove(bps, this.tCur);
-    if (next < bps.length && bps[next]! <= tStop) return { tTarget: bps[next]!, isBreakpoint: true };
-    return { tTarget: Math.min(tStop, this.p.tEnd), isBreakpoint: false };
+    return next < bps.length && bps[next]! <= tStop ? bps[next]! : NaN;
   }
 
   /**
@@ -922,7 +924,10 @@ class RadauIntegrator implements DaeIntegrator {
       const badF = nonFiniteIndices(this.fCur);
       return this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${badF.join(', ')}; check the model near this time`, badF);
     }
-    const { tTarget, isBreakpoint } = this.nextTarget(tStopIn);
+    // A step may not pass the next breakpoint, tStop or tEnd.
+    const breakpoint = this.nextBreakpoint(tStopIn);
+    const isBreakpoint = breakpoint === breakpoint;
+    const tTarget = isBreakpoint ? breakpoint : Math.min(tStopIn, p.tEnd);
     const z = this.work.z;
     const scale = this.scale;
     const y = this.yCur;
@@ -1116,7 +1121,7 @@ class RadauIntegrator implements DaeIntegrator {
     if (tNew >= p.tEnd) this.statusCur = 'success';
 
     // Events on the dense output.
-    let events: DaeEventRecord[] = [];
+    let events: readonly DaeEventRecord[] = NO_EVENTS;
     let terminal = false;
     if (p.events.length) {
       const r = this.findEvents(t, tNew);
