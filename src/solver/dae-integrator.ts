@@ -33,6 +33,14 @@ import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm
 /** The events of a step without events (shared, frozen: steps without events allocate no array). */
 const NO_EVENTS: readonly DaeEventRecord[] = Object.freeze([]);
 
+/**
+ * When atol does not follow rtol it is mapped as radau5 maps it at this rtol
+ * (the default): atol' = 0.1 (1e-6)^(2/3) atol / 1e-6 = 10 atol, written in
+ * the same operations, so that runs at the default rtol are bit for bit unchanged.
+ */
+const REFERENCE_RTOL = 1e-6;
+const REFERENCE_RTOL_MAPPED = 0.1 * REFERENCE_RTOL ** (2 / 3);
+
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
 /** Consecutive Newton failures with a fresh Jacobian before status 'newton-failure' (our choice; radau5 only halves h). */
@@ -374,7 +382,8 @@ class RadauIntegrator implements DaeIntegrator {
       this.mVal = Float64Array.from(vals);
       this.spaces = massSpaces(p.mass, n);
     }
-    // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol.
+    // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
+    // or, with atolFollowsRtol false, atol' = 10 atol (the same map at rtol = 1e-6) at every rtol.
     this.rtolT = new Float64Array(n);
     this.atolT = new Float64Array(n);
     let rmin = Infinity;
@@ -382,7 +391,7 @@ class RadauIntegrator implements DaeIntegrator {
       const r = p.rtol[i]!;
       const rt = 0.1 * r ** (2 / 3);
       this.rtolT[i] = rt;
-      this.atolT[i] = (rt * p.atol[i]!) / r;
+      this.atolT[i] = p.atolFollowsRtol ? (rt * p.atol[i]!) / r : (REFERENCE_RTOL_MAPPED * p.atol[i]!) / REFERENCE_RTOL;
       rmin = Math.min(rmin, rt);
     }
     // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
