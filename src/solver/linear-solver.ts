@@ -99,14 +99,14 @@ const scaleWords = new Uint32Array(scaleBits.buffer);
 const HIGH = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1 ? 1 : 0;
 
 /**
- * 2^-round(log2 m), or 1 for a zero or non-finite m. Read from the bits of m
+ * 2^-round(log2 m), or 1 for a zero or non-finite m (@internal). Read from the bits of m
  * (round(log2 m) = exponent + 1 when the significand is >= sqrt 2), since
  * Math.log2 and a power per row and column cost more than the elimination
  * for small systems; within 1e-9 of the sqrt 2 boundary, and for subnormal
  * m, the original formula decides, so the result is the same as
  * 2 ** -Math.round(Math.log2(m)) everywhere.
  */
-function powerOfTwoInverse(m: number): number {
+export function powerOfTwoInverse(m: number): number {
   if (!(m > 0) || !Number.isFinite(m)) return 1;
   scaleBits[0] = m;
   const high = scaleWords[HIGH]!;
