@@ -1,11 +1,11 @@
 import type { InputView } from '../elements/element-kind.js';
 import { elementKind } from '../elements/registry.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
-import { nextDown, nextUp } from '../waveforms/float-steps.js';
+import { nextDown, nextUp } from '../solver/float-neighbours.js';
 import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { Waveform } from '../waveforms/waveform.js';
 
-export { nextDown, nextUp } from '../waveforms/float-steps.js';
+export { nextDown, nextUp } from '../solver/float-neighbours.js';
 
 /**
  * What embedding code changed in a network's inputs (plain data).

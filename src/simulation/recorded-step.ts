@@ -1,3 +1,6 @@
+import { collocationComponent, evaluateCollocation } from '../solver/collocation-polynomial.js';
+import { C1, C2, C3 } from '../solver/radau-tableau.js';
+
 /**
  * One accepted step of a run: the collocation polynomial of Radau IIA
  * (Hairer and Wanner II, sect. IV.8, dense output),
@@ -15,15 +18,7 @@ export interface RecordedStep {
   readonly firstAfterStart: boolean;
 }
 
-/** Radau IIA (3 stages) collocation nodes (Hairer and Wanner II, Table IV.5.6). */
-const C1 = (4 - Math.sqrt(6)) / 10;
-const C2 = (4 + Math.sqrt(6)) / 10;
-const C3 = 1;
-
-function cubic(step: RecordedStep, s: number, i: number): number {
-  const n = step.yOld.length;
-  return step.yOld[i]! + s * (step.q[i]! + s * (step.q[n + i]! + s * step.q[2 * n + i]!));
-}
+const cubic = collocationComponent;
 
 /** Quadratic through the stage values (c_k, Y_k) of component i, evaluated at s. */
 function stageQuadratic(step: RecordedStep, s: number, i: number): number {
@@ -45,11 +40,11 @@ function stageQuadratic(step: RecordedStep, s: number, i: number): number {
  * that error into the step.
  */
 export function evaluateRecordedStep(step: RecordedStep, t: number, index2: readonly number[], out?: Float64Array): Float64Array {
-  const n = step.yOld.length;
-  const y = out ?? new Float64Array(n);
-  const s = (t - step.tOld) / step.h;
-  for (let i = 0; i < n; i++) y[i] = cubic(step, s, i);
-  if (step.firstAfterStart) for (const i of index2) y[i] = stageQuadratic(step, s, i);
+  const y = evaluateCollocation(step, t, out ?? new Float64Array(step.yOld.length));
+  if (step.firstAfterStart) {
+    const s = (t - step.tOld) / step.h;
+    for (const i of index2) y[i] = stageQuadratic(step, s, i);
+  }
   return y;
 }
 

@@ -1,6 +1,7 @@
 import { Matrix, SVD, pseudoInverse } from 'ml-matrix';
 import { createDenseLu } from './dense-lu.js';
-import { largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
+import type { RealLinearSolver } from './linear-solver.js';
+import { largestScaled, nonFiniteIndices, roundingFlooredNorm } from './weighted-norm.js';
 
 /**
  * Null spaces of a constant mass matrix M = U S V^T (singular value
@@ -69,7 +70,7 @@ export function massSpaces(mass: Float64Array, n: number): MassSpaces {
  *
  * @internal
  */
-export function algebraicJacobian(spaces: MassSpaces, jac: Float64Array, out: Float64Array, work = new Float64Array(spaces.n * spaces.k)): Float64Array {
+export function algebraicJacobian(spaces: MassSpaces, jac: Float64Array, out: Float64Array, work: Float64Array = new Float64Array(spaces.n * spaces.k)): Float64Array {
   const { n, k, v0, w0 } = spaces;
   for (let i = 0; i < n; i++) {
     for (let j = 0; j < k; j++) {
@@ -184,7 +185,7 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
     for (let j = 0; j < k; j++) dz[j] = -r[j]!;
     lu.solve(dz);
     toY(dz, dy);
-    const norm = weightedRmsNorm(dy, scale);
+    const norm = roundingFlooredNorm(dy, y, scale);
     if (!Number.isFinite(norm)) {
       return { ok: false, reason: 'no-convergence', components: nonFiniteIndices(dy), message: 'the Newton update for the algebraic unknowns is not finite' };
     }
@@ -206,7 +207,7 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
         for (let j = 0; j < k; j++) zbar[j] = -zbar[j]!;
         lu.solve(zbar);
         toY(zbar, dybar);
-        const nbar = weightedRmsNorm(dybar, scale);
+        const nbar = roundingFlooredNorm(dybar, ytrial, scale);
         if (nbar <= (1 - lambda / 4) * norm) break;
       }
       lambda /= 2;
@@ -321,7 +322,7 @@ function leastChangeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
         for (let l = 0; l < n; l++) dy.set(l, 0, dy.get(l, 0) * scale[l]!);
       }
       const step = Float64Array.from(dy.to1DArray());
-      const norm = weightedRmsNorm(step, scale);
+      const norm = roundingFlooredNorm(step, y, scale);
       if (!Number.isFinite(norm)) {
         return { ok: false, reason: 'no-convergence', components: nonFiniteIndices(step), message: 'the least-change update of the initial state is not finite' };
       }
@@ -365,26 +366,72 @@ export function consistentDerivative(
   dt: number,
   y: Float64Array,
 ): Float64Array | undefined {
-  const { n, spaces } = ctx;
-  const { k, rank, w0, u1 } = spaces;
+  const { n } = ctx;
   const f = new Float64Array(n);
-  const ft = new Float64Array(n);
   const jac = new Float64Array(n * n);
   ctx.rhs(t, y, f);
   ctx.jacobian(t, y, f, jac);
+  return consistentDerivativeWith(ctx, mass, t, dt, y, f, jac, createDerivativeWork(n));
+}
+
+/**
+ * Buffers of {@link consistentDerivativeWith}, allocated once.
+ *
+ * @internal
+ */
+export interface DerivativeWork {
+  /** U1^T M (rank x n), filled on first use (M is constant). */
+  massRows: Float64Array | undefined;
+  readonly ft: Float64Array;
+  readonly a: Float64Array;
+  readonly b: Float64Array;
+  readonly lu: RealLinearSolver;
+}
+
+/** @internal */
+export function createDerivativeWork(n: number): DerivativeWork {
+  return { massRows: undefined, ft: new Float64Array(n), a: new Float64Array(n * n), b: new Float64Array(n), lu: createDenseLu(n) };
+}
+
+/**
+ * {@link consistentDerivative} with f = f(t, y) and a Jacobian given (for a
+ * restart: the kept one, good enough for a step-size estimate) and buffers
+ * from `work`; allocates nothing. The result lives in `work.b`.
+ *
+ * @internal
+ */
+export function consistentDerivativeWith(
+  ctx: ConsistencyContext,
+  mass: Float64Array,
+  t: number,
+  dt: number,
+  y: Float64Array,
+  f: Float64Array,
+  jac: Float64Array,
+  work: DerivativeWork,
+): Float64Array | undefined {
+  const { n, spaces } = ctx;
+  const { k, rank, w0, u1 } = spaces;
+  const { ft, a, b } = work;
   ctx.rhs(t + dt, y, ft);
-  const a = new Float64Array(n * n);
-  const b = new Float64Array(n);
+  let massRows = work.massRows;
+  if (!massRows) {
+    massRows = new Float64Array(rank * n);
+    for (let r = 0; r < rank; r++) {
+      for (let j = 0; j < n; j++) {
+        let m = 0;
+        for (let i = 0; i < n; i++) m += u1[i * rank + r]! * mass[i * n + j]!;
+        massRows[r * n + j] = m;
+      }
+    }
+    work.massRows = massRows;
+  }
   for (let r = 0; r < rank; r++) {
     let s = 0;
     for (let i = 0; i < n; i++) s += u1[i * rank + r]! * f[i]!;
     b[r] = s;
-    for (let j = 0; j < n; j++) {
-      let m = 0;
-      for (let i = 0; i < n; i++) m += u1[i * rank + r]! * mass[i * n + j]!;
-      a[r * n + j] = m;
-    }
   }
+  a.set(massRows);
   for (let c = 0; c < k; c++) {
     const row = rank + c;
     let s = 0;
@@ -396,8 +443,94 @@ export function consistentDerivative(
       a[row * n + j] = m;
     }
   }
-  const lu = createDenseLu(n);
-  if (lu.factor(a) >= 0) return undefined;
-  lu.solve(b);
+  if (work.lu.factor(a) >= 0) return undefined;
+  work.lu.solve(b);
   return b;
+}
+
+/**
+ * Buffers and the factored algebraic Jacobian W0^T J V0 for
+ * {@link resolveAlgebraic}, allocated once per integrator.
+ *
+ * @internal
+ */
+export interface AlgebraicSolver {
+  readonly lu: RealLinearSolver;
+  readonly jr: Float64Array;
+  readonly jv: Float64Array;
+  readonly f: Float64Array;
+  readonly r: Float64Array;
+  readonly dz: Float64Array;
+  readonly dy: Float64Array;
+}
+
+/** @internal */
+export function createAlgebraicSolver(n: number, k: number): AlgebraicSolver {
+  return {
+    lu: createDenseLu(k),
+    jr: new Float64Array(k * k),
+    jv: new Float64Array(n * k),
+    f: new Float64Array(n),
+    r: new Float64Array(k),
+    dz: new Float64Array(k),
+    dy: new Float64Array(n),
+  };
+}
+
+/**
+ * Factor W0^T J V0 for the kept Jacobian J; false when it is singular (an
+ * index-2 structure: the full initialisation must handle it).
+ *
+ * @internal
+ */
+export function factorAlgebraic(spaces: MassSpaces, jac: Float64Array, solver: AlgebraicSolver): boolean {
+  algebraicJacobian(spaces, jac, solver.jr, solver.jv);
+  return solver.lu.factor(solver.jr) < 0;
+}
+
+/** Iterations of the simplified Newton method of {@link resolveAlgebraic} before it gives up. */
+const SIMPLIFIED_MAX_ITERATIONS = 8;
+/** Contraction rate above which the simplified iteration hands over to the full Newton method. */
+const SIMPLIFIED_MAX_RATE = 0.5;
+
+/**
+ * Re-solve the algebraic equations W0^T f(t, y + V0 z) = 0 after an input
+ * jump with a kept factorisation of W0^T J V0 (simplified Newton: no new
+ * Jacobian, no allocation). Converged when the contraction-corrected update
+ * theta/(1 - theta) ||dy|| (or the first update itself) is within the same
+ * tolerance as {@link makeConsistent}, rounding units excepted. Returns false
+ * when it does not converge quickly (or meets a non-finite value): y may then
+ * have moved, and the caller falls back to the full method from its saved state.
+ *
+ * @internal
+ */
+export function resolveAlgebraic(ctx: ConsistencyContext, t: number, y: Float64Array, solver: AlgebraicSolver): boolean {
+  const { n, spaces, scale } = ctx;
+  const { k, v0, w0 } = spaces;
+  const { f, r, dz, dy } = solver;
+  let previous = Infinity;
+  for (let iter = 1; iter <= SIMPLIFIED_MAX_ITERATIONS; iter++) {
+    ctx.rhs(t, y, f);
+    for (let j = 0; j < k; j++) {
+      let s = 0;
+      for (let i = 0; i < n; i++) s += w0[i * k + j]! * f[i]!;
+      r[j] = s;
+      dz[j] = -s;
+    }
+    solver.lu.solve(dz);
+    for (let i = 0; i < n; i++) {
+      let s = 0;
+      for (let j = 0; j < k; j++) s += v0[i * k + j]! * dz[j]!;
+      dy[i] = s;
+    }
+    const norm = roundingFlooredNorm(dy, y, scale);
+    if (!Number.isFinite(norm)) return false;
+    for (let i = 0; i < n; i++) y[i] = y[i]! + dy[i]!;
+    if (norm <= UPDATE_TOLERANCE) return true;
+    const theta = norm / previous;
+    if (theta >= SIMPLIFIED_MAX_RATE) return false;
+    if ((theta / (1 - theta)) * norm <= UPDATE_TOLERANCE) return true;
+    previous = norm;
+  }
+  return false;
 }

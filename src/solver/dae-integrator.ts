@@ -1,43 +1,50 @@
 import { InputError } from '../errors.js';
+import { createCollocationWork, createNewtonOutcome, NEWTON_FAILURE_SHRINK, solveCollocation, type CollocationSystem, type CollocationWork, type NewtonOutcome } from './collocation-newton.js';
+import { evaluateCollocation } from './collocation-polynomial.js';
 import { createComplexLu } from './complex-lu.js';
-import { consistentDerivative, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from './consistent-initialization.js';
+import {
+  consistentDerivative,
+  consistentDerivativeWith,
+  createAlgebraicSolver,
+  createDerivativeWork,
+  factorAlgebraic,
+  makeConsistent,
+  massSpaces,
+  resolveAlgebraic,
+  type AlgebraicSolver,
+  type ConsistencyContext,
+  type DerivativeWork,
+  type MassSpaces,
+} from './consistent-initialization.js';
 import { createDenseLu } from './dense-lu.js';
 import { locateSignChange } from './event-locator.js';
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
+import { nextDown } from './float-neighbours.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { createEmbeddedComplexLu, createMlMatrixLu } from './ml-matrix-lu.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
-import {
-  C1,
-  C2,
-  DIVERGENT_RATE,
-  E1,
-  E2,
-  E3,
-  JACOBIAN_RATE_THRESHOLD,
-  KEEP_STEP_HIGH,
-  KEEP_STEP_LOW,
-  MAX_SINGULAR_RETRIES,
-  MAX_STEP_RATIO,
-  MIN_STEP_RATIO,
-  MU_COMPLEX_IM,
-  MU_COMPLEX_RE,
-  MU_REAL,
-  NEWTON_MAX_ITERATIONS,
-  P,
-  SAFETY,
-  T,
-  TI,
-} from './radau-tableau.js';
+import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
+import { radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
+import { firstIndexAbove } from './sorted-search.js';
+import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
-import { errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
+import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
+
+/** The events of a step without events (shared, frozen: steps without events allocate no array). */
+const NO_EVENTS: readonly DaeEventRecord[] = Object.freeze([]);
+
+/**
+ * When atol does not follow rtol it is mapped as radau5 maps it at this rtol
+ * (the default): atol' = 0.1 (1e-6)^(2/3) atol / 1e-6 = 10 atol, written in
+ * the same operations, so that runs at the default rtol are bit for bit unchanged.
+ */
+const REFERENCE_RTOL = 1e-6;
+const REFERENCE_RTOL_MAPPED = 0.1 * REFERENCE_RTOL ** (2 / 3);
 
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
 /** Consecutive Newton failures with a fresh Jacobian before status 'newton-failure' (our choice; radau5 only halves h). */
 const MAX_NEWTON_FAILURES = 10;
-/** Shrink factor after a Newton failure without a rate estimate, or with non-finite stage values (radau5: 0.5). */
-const NEWTON_FAILURE_SHRINK = 0.5;
 /** Shrink factor after a rejected first step (radau5: 0.1). */
 const FIRST_STEP_REJECT_SHRINK = 0.1;
 /** Stretch the step by up to this factor to land on a stop time instead of leaving a sliver (common practice). */
@@ -313,9 +320,23 @@ class RadauIntegrator implements DaeIntegrator {
   private jacValid = false;
   private jacCurrent = false;
   private luH = NaN;
+  /** Bumped whenever this.jac changes: the factored algebraic Jacobian belongs to one version. */
+  private jacVersion = 0;
+  private algebraicVersion = -1;
+  /** For cheap restarts (singular M only): W0^T J V0 factored for the kept J, and y' work. */
+  private readonly algebraic: AlgebraicSolver | undefined;
+  private readonly derivativeWork: DerivativeWork | undefined;
+  /** The consistency context, built once; its scale is refreshed per use. */
+  private readonly consistency: ConsistencyContext | undefined;
+  /** State saved before a cheap restart, to fall back to the full one. */
+  private readonly ySaved: Float64Array;
+  /** y' at the last cheap restart: the first step's Newton starts from the tangent instead of zero. */
+  private readonly restartSlope: Float64Array;
+  private slopeStart = false;
+  private readonly stepWork: { scale: Float64Array; y1: Float64Array; f1: Float64Array };
   private interp: DaeStepInterpolant | undefined;
   private eventValues: Float64Array;
-  private statsCur: SolverStats = emptyStats();
+  private readonly statsCur: SolverStats = emptyStats();
   private statusCur: 'running' | DaeStatus = 'running';
   private adjustedCur: readonly number[] = [];
   private messageCur = '';
@@ -324,19 +345,18 @@ class RadauIntegrator implements DaeIntegrator {
   private pendingFailure: { status: DaeStatus; message: string; components: number[] } | undefined;
 
   // Work buffers (allocated once).
-  private readonly z: Float64Array;
-  private readonly w: Float64Array;
-  private readonly fz: Float64Array;
-  private readonly dw: Float64Array;
-  private readonly ys: Float64Array;
+  private readonly work: CollocationWork;
+  private readonly errorWork: ErrorEstimateWork;
+  private readonly newtonOutcome: NewtonOutcome = createNewtonOutcome();
+  private readonly collocation: CollocationSystem;
+  /** f, counted and guarded (bound once). */
+  private readonly countedRhs: (t: number, y: Float64Array, out: Float64Array) => void;
+  /** out = M v[vOff..) (bound once). */
+  private readonly multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void;
   private readonly scale: Float64Array;
   private readonly e1: Float64Array;
   private readonly e2r: Float64Array;
   private readonly e2i: Float64Array;
-  private readonly v1: Float64Array;
-  private readonly v2: Float64Array;
-  private readonly v3: Float64Array;
-  private readonly err: Float64Array;
   private readonly fdWork: Float64Array;
 
   constructor(p: NormalizedDae) {
@@ -362,7 +382,8 @@ class RadauIntegrator implements DaeIntegrator {
       this.mVal = Float64Array.from(vals);
       this.spaces = massSpaces(p.mass, n);
     }
-    // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol.
+    // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
+    // or, with atolFollowsRtol false, atol' = 10 atol (the same map at rtol = 1e-6) at every rtol.
     this.rtolT = new Float64Array(n);
     this.atolT = new Float64Array(n);
     let rmin = Infinity;
@@ -370,27 +391,45 @@ class RadauIntegrator implements DaeIntegrator {
       const r = p.rtol[i]!;
       const rt = 0.1 * r ** (2 / 3);
       this.rtolT[i] = rt;
-      this.atolT[i] = (rt * p.atol[i]!) / r;
+      this.atolT[i] = p.atolFollowsRtol ? (rt * p.atol[i]!) / r : (REFERENCE_RTOL_MAPPED * p.atol[i]!) / REFERENCE_RTOL;
       rmin = Math.min(rmin, rt);
     }
     // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
     this.fnewt = Math.max((10 * UROUND) / rmin, Math.min(0.03, Math.sqrt(rmin)));
     this.luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n);
     this.luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n);
-    this.z = new Float64Array(3 * n);
-    this.w = new Float64Array(3 * n);
-    this.fz = new Float64Array(3 * n);
-    this.dw = new Float64Array(3 * n);
-    this.ys = new Float64Array(n);
+    this.work = createCollocationWork(n);
+    this.errorWork = { err: new Float64Array(n), mz: new Float64Array(n), ez: new Float64Array(n), ys: new Float64Array(n), fy: new Float64Array(n) };
+    this.countedRhs = (t, y, out) => this.callRhs(t, y, out);
+    this.multiplyMass = (v, vOff, out) => this.mulMass(v, vOff, out);
+    this.collocation = {
+      n,
+      rhs: this.countedRhs,
+      multiplyMass: this.multiplyMass,
+      luReal: this.luReal,
+      luComplex: this.luComplex,
+      fnewt: this.fnewt,
+      stats: this.statsCur,
+    };
     this.scale = new Float64Array(n);
     this.e1 = new Float64Array(n * n);
     this.e2r = new Float64Array(n * n);
     this.e2i = new Float64Array(n * n);
-    this.v1 = new Float64Array(n);
-    this.v2 = new Float64Array(n);
-    this.v3 = new Float64Array(n);
-    this.err = new Float64Array(n);
     this.fdWork = new Float64Array(n);
+    this.ySaved = new Float64Array(n);
+    this.restartSlope = new Float64Array(n);
+    this.stepWork = { scale: new Float64Array(n), y1: new Float64Array(n), f1: new Float64Array(n) };
+    if (this.spaces) {
+      this.consistency = {
+        n,
+        spaces: this.spaces,
+        rhs: this.countedRhs,
+        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
+        scale: new Float64Array(n),
+      };
+      this.algebraic = createAlgebraicSolver(n, this.spaces.k);
+      this.derivativeWork = createDerivativeWork(n);
+    }
     this.jac = new Float64Array(n * n);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
@@ -478,14 +517,83 @@ class RadauIntegrator implements DaeIntegrator {
       }
       this.yCur.set(Array.from(y));
     }
+    const healthy = (this.statusCur === 'running' || this.statusCur === 'success' || this.statusCur === 'terminal-event') && !this.pendingError && !this.pendingFailure;
     this.statusCur = 'running';
     this.messageCur = '';
     this.failureCur = undefined;
     this.pendingError = undefined;
     this.pendingFailure = undefined;
     this.interp = undefined;
-    this.initialise(false, options.capStepByEstimate ?? false);
+    const capByEstimate = options.capStepByEstimate ?? false;
+    if (!(y === undefined && healthy && this.restartCheaply(capByEstimate))) this.initialise(false, capByEstimate);
     return this.statusCur;
+  }
+
+  /**
+   * Restart after an input jump keeping what is still valid (issue: cheap
+   * restarts): the Jacobian and the LU factors (marked not current, so a
+   * Newton failure refreshes them first, as within a run), the step size
+   * (capped by a fresh estimate when asked); the algebraic unknowns are
+   * re-solved by a simplified Newton iteration with the kept factorisation of
+   * W0^T J V0. The step history (controller memory, extrapolated start
+   * values) is dropped, as at any restart. Returns false, with the state as
+   * it was, when this is not enough (no convergence, a singular algebraic
+   * Jacobian, a non-finite f, user code throwing): the caller then does the
+   * full re-initialisation.
+   */
+  private restartCheaply(capByEstimate: boolean): boolean {
+    const p = this.p;
+    const y = this.yCur;
+    const t = this.tCur;
+    this.ySaved.set(y);
+    try {
+      // A Jacobian dropped after slow Newton convergence is evaluated here, once, with the new inputs.
+      if (!this.jacValid) this.ensureJacobian();
+      let yp: Float64Array | undefined;
+      if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
+        const solver = this.algebraic!;
+        if (this.algebraicVersion !== this.jacVersion) {
+          if (!factorAlgebraic(this.spaces, this.jac, solver)) return this.undoCheapRestart();
+          this.algebraicVersion = this.jacVersion;
+        }
+        const ctx = this.consistencyContext();
+        if (!resolveAlgebraic(ctx, t, y, solver)) return this.undoCheapRestart();
+        this.callRhs(t, y, this.fCur);
+        if (!allFinite(this.fCur)) return this.undoCheapRestart();
+        if (capByEstimate) {
+          const dt = Math.sqrt(UROUND) * Math.max(Math.abs(t), p.tEnd - p.t0);
+          yp = consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.jac, this.derivativeWork!);
+        }
+      } else {
+        this.callRhs(t, y, this.fCur);
+        if (!allFinite(this.fCur)) return this.undoCheapRestart();
+        if (!p.mass) yp = this.fCur;
+      }
+      this.adjustedCur = [];
+      this.first = true;
+      this.extrapolate = false;
+      this.hAcc = NaN;
+      this.errAcc = NaN;
+      this.faccon = 1;
+      this.jacCurrent = false;
+      if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp, true));
+      this.slopeStart = yp !== undefined;
+      if (yp) this.restartSlope.set(yp);
+      this.evaluateEventsAt(t, y, this.eventValues);
+      if (t >= p.tEnd) this.statusCur = 'success';
+      return true;
+    } catch (e) {
+      if (e instanceof UserCodeError || e instanceof NonFiniteJacobian) {
+        // Let the full re-initialisation meet (and report) the same failure; the evaluations stay counted.
+        return this.undoCheapRestart();
+      }
+      throw e;
+    }
+  }
+
+  private undoCheapRestart(): false {
+    this.yCur.set(this.ySaved);
+    return false;
   }
 
   snapshot(): DaeIntegratorSnapshot {
@@ -521,8 +629,10 @@ class RadauIntegrator implements DaeIntegrator {
     this.faccon = s.faccon;
     this.first = s.first;
     this.extrapolate = s.extrapolate;
+    this.slopeStart = false;
     if (s.jacobian) {
       this.jac.set(s.jacobian);
+      this.jacVersion++;
       this.jacValid = true;
       this.jacCurrent = s.jacobianCurrent;
     } else {
@@ -533,7 +643,7 @@ class RadauIntegrator implements DaeIntegrator {
     const it = s.interpolant;
     this.interp = it && { tOld: it.tOld, t: it.t, h: it.h, yOld: Float64Array.from(it.yOld), q: Float64Array.from(it.q) };
     this.eventValues = Float64Array.from(s.eventValues);
-    this.statsCur = { ...s.stats };
+    Object.assign(this.statsCur, s.stats); // the same object: the Newton kernel counts into it
     this.pendingError = undefined;
     this.pendingFailure = undefined;
     this.failureCur = undefined;
@@ -554,8 +664,7 @@ class RadauIntegrator implements DaeIntegrator {
     if (!(t >= it.tOld && t <= it.t)) {
       throw new InputError('outside-last-step', `interpolate(${t}): the last step covers [${it.tOld}, ${it.t}]`, ['t']);
     }
-    evaluateInterpolant(it, t, res);
-    return res;
+    return evaluateCollocation(it, t, res);
   }
 
   // ---- internals -------------------------------------------------------------
@@ -644,6 +753,7 @@ class RadauIntegrator implements DaeIntegrator {
     const n = this.n;
     this.first = true;
     this.extrapolate = false;
+    this.slopeStart = false;
     this.hAcc = NaN;
     this.errAcc = NaN;
     this.faccon = 1;
@@ -687,14 +797,11 @@ class RadauIntegrator implements DaeIntegrator {
     }
   }
 
+  /** The consistency context with its scale atol + rtol |y| at the present state. */
   private consistencyContext(): ConsistencyContext {
-    return {
-      n: this.n,
-      spaces: this.spaces!,
-      rhs: (t: number, y: Float64Array, out: Float64Array) => this.callRhs(t, y, out),
-      jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
-      scale: errorScale(this.yCur, this.p.rtol, this.p.atol, new Float64Array(this.n)),
-    };
+    const ctx = this.consistency!;
+    errorScale(this.yCur, this.p.rtol, this.p.atol, ctx.scale);
+    return ctx;
   }
 
   /**
@@ -714,14 +821,13 @@ class RadauIntegrator implements DaeIntegrator {
     }
     if (!yp) return Math.min(1e-6 * span, cap);
     const n = this.n;
-    const scale = errorScale(this.yCur, p.rtol, p.atol, new Float64Array(n));
+    const { y1, f1 } = this.stepWork;
+    const scale = errorScale(this.yCur, p.rtol, p.atol, this.stepWork.scale);
     const d0 = weightedRmsNorm(this.yCur, scale);
     const d1 = weightedRmsNorm(yp, scale);
     let h0 = d0 < 1e-5 || d1 < 1e-5 ? 1e-6 * span : (0.01 * d0) / d1;
     h0 = Math.min(h0, cap);
-    const y1 = new Float64Array(n);
     for (let i = 0; i < n; i++) y1[i] = this.yCur[i]! + h0 * yp[i]!;
-    const f1 = new Float64Array(n);
     this.callRhs(this.tCur + h0, y1, f1);
     for (let i = 0; i < n; i++) f1[i] = f1[i]! - this.fCur[i]!;
     const d2 = weightedRmsNorm(f1, scale) / h0;
@@ -789,13 +895,28 @@ class RadauIntegrator implements DaeIntegrator {
   private ensureJacobian(): void {
     if (!this.jacValid || !this.jacCurrent) {
       this.callJacobian(this.tCur, this.yCur, this.fCur, this.jac);
+      this.jacVersion++;
       this.jacValid = true;
       this.jacCurrent = true;
       this.luH = NaN;
     }
   }
 
-  /** The attempt loop of radau5 (Hairer and Wanner II, sect. IV.8), returning after one accepted step or a failure. */
+  /** The next breakpoint after t when it comes no later than tStop, else NaN. */
+  private nextBreakpoint(tStop: number): number {
+    const bps = this.p.breakpoints;
+    const next = firstIndexAbove(bps, this.tCur);
+    return next < bps.length && bps[next]! <= tStop ? bps[next]! : NaN;
+  }
+
+  /**
+   * The attempt loop of radau5 (Hairer and Wanner II, sect. IV.8), returning
+   * after one accepted step or a failure. Per attempt: choose h (landing on
+   * the target), factor the iteration matrices when h changed, solve the
+   * collocation system ({@link solveCollocation}), estimate the error
+   * ({@link radauErrorEstimate}), then accept or reject with the step-size
+   * controller (step-size-controller.ts).
+   */
   private attemptStep(tStopIn: number): DaeStepResult {
     const p = this.p;
     const n = this.n;
@@ -808,32 +929,15 @@ class RadauIntegrator implements DaeIntegrator {
     if (p.signal?.aborted) {
       return this.fail('aborted', `aborted by the caller's signal at t = ${this.tCur}`, []);
     }
-    const badF = nonFiniteIndices(this.fCur);
-    if (badF.length) {
+    if (!allFinite(this.fCur)) {
+      const badF = nonFiniteIndices(this.fCur);
       return this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${badF.join(', ')}; check the model near this time`, badF);
     }
-    // Next breakpoint strictly after t.
-    let tTarget = tStopIn;
-    let isBreakpoint = false;
-    const bps = p.breakpoints;
-    // Binary search for the first breakpoint > t (PWM sources announce thousands).
-    let lo = 0;
-    let hi = bps.length;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (bps[mid]! > this.tCur) hi = mid;
-      else lo = mid + 1;
-    }
-    if (lo < bps.length && bps[lo]! <= tTarget) {
-      tTarget = bps[lo]!;
-      isBreakpoint = true;
-    }
-    if (tTarget >= p.tEnd) {
-      tTarget = p.tEnd;
-    }
-
-    const z = this.z;
-    const w = this.w;
+    // A step may not pass the next breakpoint, tStop or tEnd.
+    const breakpoint = this.nextBreakpoint(tStopIn);
+    const isBreakpoint = breakpoint === breakpoint;
+    const tTarget = isBreakpoint ? breakpoint : Math.min(tStopIn, p.tEnd);
+    const z = this.work.z;
     const scale = this.scale;
     const y = this.yCur;
     const t = this.tCur;
@@ -850,29 +954,16 @@ class RadauIntegrator implements DaeIntegrator {
       if (st.acceptedSteps + st.rejectedSteps >= p.maxSteps) {
         return this.fail('step-budget', `stopped after maxSteps = ${p.maxSteps} steps at t = ${t}; raise maxSteps or loosen the tolerances`, []);
       }
-      if (performance.now() - this.startTime > p.maxWallTimeMs) {
+      if (p.maxWallTimeMs !== Infinity && performance.now() - this.startTime > p.maxWallTimeMs) {
         return this.fail('time-budget', `stopped after the wall-time budget of ${p.maxWallTimeMs} ms at t = ${t}`, []);
       }
       let h = Math.min(this.hCur, p.maxStep);
-      if (!(h >= hMin)) {
-        if (lastNonFinite) {
-          return this.fail('non-finite', `f returned NaN or Infinity near t = ${t} in components ${lastNonFinite.join(', ')} for every step tried; check the model near this time`, lastNonFinite);
-        } else {
-          let comps = lastErrorComponents.length ? lastErrorComponents : lastNewtonComponents;
-          // Without an error estimate, name the components that change fastest.
-          if (!comps.length) comps = largestScaled(this.fCur, errorScale(y, this.rtolT, this.atolT, scale));
-          return this.fail(
-            'step-size-underflow',
-            `step size ${h.toExponential(3)} fell below the round-off limit at t = ${t} (components ${comps.join(', ')}); look for a singularity in f (a solution that blows up), an inconsistent or higher-index model, or tolerances too tight`,
-            comps,
-          );
-        }
-      }
+      if (!(h >= hMin)) return this.failTooSmall(h, t, lastNonFinite, lastErrorComponents.length ? lastErrorComponents : lastNewtonComponents);
       // Land exactly on the target (stretching the step a little rather than leaving a sliver).
-      let tNew = t + h;
-      let landed = false;
       // maxStep may be exceeded by round-off (1e-8 relative): steps of exactly maxStep that
       // should add up to a breakpoint would otherwise leave a sliver of a few ulp.
+      let tNew = t + h;
+      let landed = false;
       if (tNew >= tTarget || tTarget - t <= Math.min(LANDING_STRETCH * h, p.maxStep * (1 + 1e-8))) {
         tNew = tTarget;
         h = tTarget - t;
@@ -904,23 +995,13 @@ class RadauIntegrator implements DaeIntegrator {
       // Scale for Newton and error (radau5's SCAL; index-2 components divided by h).
       errorScale(y, this.rtolT, this.atolT, scale);
       if (p.hasIndex2) for (let i = 0; i < n; i++) if (p.index2[i] === 1) scale[i] = scale[i]! / h;
-
-      // Starting values: extrapolated collocation polynomial, or zero (radau5 STARTN).
-      if (this.extrapolate && this.interp) {
-        const it = this.interp;
-        for (let s = 0; s < 3; s++) {
-          const c = s === 0 ? C1 : s === 1 ? C2 : 1;
-          evaluateInterpolant(it, t + c * h, this.v1);
-          for (let i = 0; i < n; i++) z[s * n + i] = this.v1[i]! - y[i]!;
-        }
-      } else {
-        z.fill(0);
-      }
+      this.startValues(t, h);
 
       // The last stage sits at tNew; on a breakpoint it takes the left limit of f (one ulp before),
       // because f(breakpoint) is the value after the switch (the project's waveform convention).
       const tLastStage = landed && isBreakpoint && tNew === tTarget ? nextDown(tNew) : tNew;
-      const newton = this.newton(t, h, tLastStage);
+      const newton = solveCollocation(this.collocation, this.work, y, scale, t, h, tLastStage, this.faccon, this.newtonOutcome);
+      this.faccon = newton.faccon;
       if (!newton.converged) {
         this.statsCur.newtonFailures++;
         this.luH = NaN;
@@ -951,279 +1032,158 @@ class RadauIntegrator implements DaeIntegrator {
       }
       lastNonFinite = undefined;
 
-      // Error estimate (radau5 ESTRAD; book eq. IV.8.19-8.20 with M).
-      const v1 = this.v1;
-      const v2 = this.v2;
-      const errv = this.err;
-      const hee1 = E1 / h;
-      const hee2 = E2 / h;
-      const hee3 = E3 / h;
-      for (let i = 0; i < n; i++) v1[i] = hee1 * z[i]! + hee2 * z[n + i]! + hee3 * z[2 * n + i]!;
-      this.mulMass(v1, 0, v2); // v2 = M (e.z)/h
-      for (let i = 0; i < n; i++) errv[i] = this.fCur[i]! + v2[i]!;
-      this.luReal.solve(errv);
-      let err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
-      if (err >= 1 && (this.first || rejected)) {
-        for (let i = 0; i < n; i++) this.ys[i] = y[i]! + errv[i]!;
-        this.callRhs(t, this.ys, this.v3);
-        for (let i = 0; i < n; i++) errv[i] = this.v3[i]! + v2[i]!;
-        this.luReal.solve(errv);
-        err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
-        if (!Number.isFinite(err)) err = 1e10;
-      }
-      if (!Number.isFinite(err)) err = 1e10;
-      // Step-size proposal (radau5): fac = min(safe, cfac/(newt + 2 nit)).
-      const cfac = SAFETY * (1 + 2 * NEWTON_MAX_ITERATIONS);
-      const fac = Math.min(SAFETY, cfac / (newton.iterations + 2 * NEWTON_MAX_ITERATIONS));
-      let quot = Math.max(1 / MAX_STEP_RATIO, Math.min(1 / MIN_STEP_RATIO, err ** 0.25 / fac));
-      let hNew = h / quot;
-
+      const err = radauErrorEstimate(this.countedRhs, this.multiplyMass, this.luReal, this.errorWork, t, y, this.fCur, z, h, scale, this.first || rejected);
+      const quot = errorQuotient(err, newton.iterations);
       if (err >= 1) {
         // Rejected.
         this.statsCur.rejectedSteps++;
-        lastErrorComponents = largestScaled(errv, scale);
+        lastErrorComponents = largestScaled(this.errorWork.err, scale);
         rejected = true;
-        this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : hNew;
+        this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : h / quot;
         this.luH = NaN;
         if (!this.jacCurrent) this.ensureJacobian();
         continue;
       }
-
-      // Accepted. Gustafsson's predictive controller (book sect. IV.8, eq. 8.25).
-      if (!Number.isNaN(this.hAcc)) {
-        let facgus = ((this.hAcc / h) * (err * err / this.errAcc) ** 0.25) / SAFETY;
-        facgus = Math.max(1 / MAX_STEP_RATIO, Math.min(1 / MIN_STEP_RATIO, facgus));
-        quot = Math.max(quot, facgus);
-        hNew = h / quot;
-      }
-      this.hAcc = h;
-      this.errAcc = Math.max(1e-2, err);
-      this.statsCur.acceptedSteps++;
-
-      // Dense output coefficients Q = Z^T P, before z is reused.
-      const q = new Float64Array(3 * n);
-      for (let k = 0; k < 3; k++) {
-        for (let i = 0; i < n; i++) q[k * n + i] = z[i]! * P[k]! + z[n + i]! * P[3 + k]! + z[2 * n + i]! * P[6 + k]!;
-      }
-      const yOld = Float64Array.from(y);
-      for (let i = 0; i < n; i++) y[i] = y[i]! + z[2 * n + i]!;
-      this.interp = { tOld: t, t: tNew, h, yOld, q };
-      this.tCur = tNew;
-      this.first = false;
-      this.extrapolate = true;
-      try {
-        this.callRhs(tNew, y, this.fCur);
-      } catch (e) {
-        // The step itself is good: keep it; the next step() reports the error.
-        if (e instanceof UserCodeError) this.pendingError = e;
-        else throw e;
-      }
-
-      hNew = Math.min(hNew, p.maxStep);
-      if (rejected) hNew = Math.min(hNew, h);
-      const recomputeJac = newton.iterations > 2 && newton.theta > JACOBIAN_RATE_THRESHOLD;
-      this.jacCurrent = false;
-      if (recomputeJac) this.jacValid = false;
-      const qt = hNew / h;
-      if (!recomputeJac && qt >= KEEP_STEP_LOW && qt <= KEEP_STEP_HIGH) {
-        this.hCur = h; // keep h: the LU factors survive
-      } else {
-        this.hCur = hNew;
-      }
-      let jumpFrom: Float64Array | undefined;
-      if (landed && isBreakpoint && tNew === tTarget) {
-        this.restartHistory();
-        // A switch may move the algebraic unknowns: start the next step from a consistent state
-        // (radau5's error estimate copes with an inconsistent start only with an exact Jacobian).
-        if (this.spaces && this.spaces.k > 0 && p.consistentInit && !this.pendingError) {
-          const before = Float64Array.from(y);
-          const res = makeConsistent(this.consistencyContext(), tNew, y);
-          if (!res.ok) {
-            y.set(before);
-            this.pendingFailure = {
-              status: res.reason === 'non-finite' ? 'non-finite' : 'inconsistent-init',
-              message: `no consistent state after the breakpoint at t = ${tNew}: ${res.message}`,
-              components: res.components,
-            };
-          } else if (y.some((v, i) => v !== before[i])) {
-            jumpFrom = before;
-            this.callRhs(tNew, y, this.fCur);
-          }
-        }
-      }
-      if (tNew >= p.tEnd) this.statusCur = 'success';
-
-      // Events on the dense output.
-      let events: DaeEventRecord[] = [];
-      let terminal = false;
-      if (p.events.length) {
-        const r = this.findEvents(t, tNew);
-        events = r.events;
-        terminal = r.terminal;
-      }
-      if (terminal) {
-        this.statusCur = 'terminal-event';
-        this.messageCur = `terminal event "${events[events.length - 1]!.name}" at t = ${this.tCur}`;
-        return jumpFrom ? { status: 'terminal-event', events, jumpFrom } : { status: 'terminal-event', events };
-      }
-      return jumpFrom ? { status: 'accepted', events, jumpFrom } : { status: 'accepted', events };
+      return this.accept(t, tNew, h, err, quot, rejected, newton.iterations, newton.theta, landed && isBreakpoint && tNew === tTarget);
     }
   }
 
+  /** Status for a step size below the round-off limit: non-finite f, or step-size underflow naming components. */
+  private failTooSmall(h: number, t: number, lastNonFinite: number[] | undefined, components: number[]): DaeStepResult {
+    if (lastNonFinite) {
+      return this.fail('non-finite', `f returned NaN or Infinity near t = ${t} in components ${lastNonFinite.join(', ')} for every step tried; check the model near this time`, lastNonFinite);
+    }
+    // Without an error estimate, name the components that change fastest.
+    const comps = components.length ? components : largestScaled(this.fCur, errorScale(this.yCur, this.rtolT, this.atolT, this.scale));
+    return this.fail(
+      'step-size-underflow',
+      `step size ${h.toExponential(3)} fell below the round-off limit at t = ${t} (components ${comps.join(', ')}); look for a singularity in f (a solution that blows up), an inconsistent or higher-index model, or tolerances too tight`,
+      comps,
+    );
+  }
+
+  /** Newton start values into work.z: the last step's collocation polynomial extrapolated, or zero (radau5 STARTN). */
+  private startValues(t: number, h: number): void {
+    const n = this.n;
+    const z = this.work.z;
+    const y = this.yCur;
+    const it = this.interp;
+    if (this.extrapolate && it) {
+      const u = this.errorWork.ez;
+      for (let s = 0; s < 3; s++) {
+        evaluateCollocation(it, t + (s === 0 ? C1 : s === 1 ? C2 : 1) * h, u);
+        for (let i = 0; i < n; i++) z[s * n + i] = u[i]! - y[i]!;
+      }
+    } else if (this.slopeStart) {
+      // After a cheap restart: the tangent y + c h y' (y' consistent), closer than zero by O(h^2).
+      const yp = this.restartSlope;
+      for (let s = 0; s < 3; s++) {
+        const ch = (s === 0 ? C1 : s === 1 ? C2 : 1) * h;
+        for (let i = 0; i < n; i++) z[s * n + i] = ch * yp[i]!;
+      }
+    } else {
+      z.fill(0);
+    }
+  }
+
+  /**
+   * Take the converged step [t, tNew]: controller memory and next h, the
+   * dense output, f at the new point, re-initialisation on a breakpoint, events.
+   */
+  private accept(t: number, tNew: number, h: number, err: number, quot: number, rejected: boolean, iterations: number, theta: number, onBreakpoint: boolean): DaeStepResult {
+    const p = this.p;
+    const n = this.n;
+    const z = this.work.z;
+    const y = this.yCur;
+    let hNew = h / predictiveQuotient(quot, h, err, this.hAcc, this.errAcc);
+    this.hAcc = h;
+    this.errAcc = Math.max(1e-2, err);
+    this.statsCur.acceptedSteps++;
+
+    // Dense output coefficients Q = Z^T P, before z is reused.
+    const q = new Float64Array(3 * n);
+    for (let k = 0; k < 3; k++) {
+      for (let i = 0; i < n; i++) q[k * n + i] = z[i]! * P[k]! + z[n + i]! * P[3 + k]! + z[2 * n + i]! * P[6 + k]!;
+    }
+    const yOld = Float64Array.from(y);
+    for (let i = 0; i < n; i++) y[i] = y[i]! + z[2 * n + i]!;
+    this.interp = { tOld: t, t: tNew, h, yOld, q };
+    this.tCur = tNew;
+    this.first = false;
+    this.extrapolate = true;
+    this.slopeStart = false;
+    try {
+      this.callRhs(tNew, y, this.fCur);
+    } catch (e) {
+      // The step itself is good: keep it; the next step() reports the error.
+      if (e instanceof UserCodeError) this.pendingError = e;
+      else throw e;
+    }
+
+    hNew = Math.min(hNew, p.maxStep);
+    if (rejected) hNew = Math.min(hNew, h);
+    const recomputeJac = iterations > 2 && theta > JACOBIAN_RATE_THRESHOLD;
+    this.jacCurrent = false;
+    if (recomputeJac) this.jacValid = false;
+    this.hCur = stepAfterAccept(h, hNew, recomputeJac);
+    const jumpFrom = onBreakpoint ? this.reinitialiseAtBreakpoint(tNew) : undefined;
+    if (tNew >= p.tEnd) this.statusCur = 'success';
+
+    // Events on the dense output.
+    let events: readonly DaeEventRecord[] = NO_EVENTS;
+    let terminal = false;
+    if (p.events.length) {
+      const r = this.findEvents(t, tNew);
+      events = r.events;
+      terminal = r.terminal;
+    }
+    if (terminal) {
+      this.statusCur = 'terminal-event';
+      this.messageCur = `terminal event "${events[events.length - 1]!.name}" at t = ${this.tCur}`;
+      return jumpFrom ? { status: 'terminal-event', events, jumpFrom } : { status: 'terminal-event', events };
+    }
+    return jumpFrom ? { status: 'accepted', events, jumpFrom } : { status: 'accepted', events };
+  }
+
+  /**
+   * After landing on a breakpoint: forget the step history and, since a
+   * switch may move the algebraic unknowns, start the next step from a
+   * consistent state (radau5's error estimate copes with an inconsistent
+   * start only with an exact Jacobian). Returns the state before when it moved.
+   */
+  private reinitialiseAtBreakpoint(tNew: number): Float64Array | undefined {
+    const p = this.p;
+    const y = this.yCur;
+    this.restartHistory();
+    if (!(this.spaces && this.spaces.k > 0 && p.consistentInit && !this.pendingError)) return undefined;
+    const before = Float64Array.from(y);
+    const res = makeConsistent(this.consistencyContext(), tNew, y);
+    if (!res.ok) {
+      y.set(before);
+      this.pendingFailure = {
+        status: res.reason === 'non-finite' ? 'non-finite' : 'inconsistent-init',
+        message: `no consistent state after the breakpoint at t = ${tNew}: ${res.message}`,
+        components: res.components,
+      };
+      return undefined;
+    }
+    if (y.some((v, i) => v !== before[i])) {
+      this.callRhs(tNew, y, this.fCur);
+      return before;
+    }
+    return undefined;
+  }
   /** After landing on a breakpoint: forget the step history (radau5 restarted there). */
   private restartHistory(): void {
     this.first = true;
     this.extrapolate = false;
+    this.slopeStart = false;
     this.hAcc = NaN;
     this.errAcc = NaN;
     this.faccon = 1;
     this.jacValid = false;
     this.jacCurrent = false;
     this.luH = NaN;
-  }
-
-  /**
-   * Simplified Newton iteration on the transformed collocation system (book
-   * sect. IV.8, eq. 8.9-8.16; radau5): per iteration one real system with
-   * (gamma/h) M - J and one complex system with ((alpha - i beta)/h) M - J.
-   * z (3n, stage increments Z_i = Y_i - y) holds the start values on entry
-   * and the solution on success.
-   */
-  private newton(t: number, h: number, tLastStage: number): {
-    converged: boolean;
-    iterations: number;
-    theta: number;
-    shrink: number;
-    nonFinite?: number[];
-    components: number[];
-  } {
-    const n = this.n;
-    const z = this.z;
-    const w = this.w;
-    const fz = this.fz;
-    const dw = this.dw;
-    const ys = this.ys;
-    const scale = this.scale;
-    const y = this.yCur;
-    const fac1 = MU_REAL / h;
-    const alphn = MU_COMPLEX_RE / h;
-    const betan = MU_COMPLEX_IM / h;
-    const m1 = this.v1;
-    const m2 = this.v2;
-    const m3 = this.v3;
-    // w = T^-1 z
-    for (let i = 0; i < n; i++) {
-      const z1 = z[i]!;
-      const z2 = z[n + i]!;
-      const z3 = z[2 * n + i]!;
-      w[i] = TI[0]! * z1 + TI[1]! * z2 + TI[2]! * z3;
-      w[n + i] = TI[3]! * z1 + TI[4]! * z2 + TI[5]! * z3;
-      w[2 * n + i] = TI[6]! * z1 + TI[7]! * z2 + TI[8]! * z3;
-    }
-    this.faccon = Math.max(this.faccon, UROUND) ** 0.8;
-    let theta = Math.abs(JACOBIAN_RATE_THRESHOLD);
-    let dynold = 0;
-    let thqold = 0;
-    const nit = NEWTON_MAX_ITERATIONS;
-    for (let newt = 1; newt <= nit; newt++) {
-      // Stage values f(t + c_i h, y + z_i).
-      for (let s = 0; s < 3; s++) {
-        const off = s * n;
-        for (let i = 0; i < n; i++) ys[i] = y[i]! + z[off + i]!;
-        const out = fz.subarray(off, off + n);
-        this.callRhs(s === 0 ? t + C1 * h : s === 1 ? t + C2 * h : tLastStage, ys, out);
-      }
-      this.statsCur.newtonIterations++;
-      let finite = true;
-      for (let k = 0; k < 3 * n; k++) {
-        if (!Number.isFinite(fz[k]!)) {
-          finite = false;
-          break;
-        }
-      }
-      if (!finite) {
-        const bad = new Set<number>();
-        for (let k = 0; k < 3 * n; k++) if (!Number.isFinite(fz[k]!)) bad.add(k % n);
-        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, nonFinite: [...bad].sort((a, b) => a - b), components: [] };
-      }
-      // Right-hand sides of the transformed system.
-      this.mulMass(w, 0, m1);
-      this.mulMass(w, n, m2);
-      this.mulMass(w, 2 * n, m3);
-      for (let i = 0; i < n; i++) {
-        const f1 = fz[i]!;
-        const f2 = fz[n + i]!;
-        const f3 = fz[2 * n + i]!;
-        dw[i] = TI[0]! * f1 + TI[1]! * f2 + TI[2]! * f3 - fac1 * m1[i]!;
-        const cr = TI[3]! * f1 + TI[4]! * f2 + TI[5]! * f3;
-        const ci = TI[6]! * f1 + TI[7]! * f2 + TI[8]! * f3;
-        dw[n + i] = cr - (alphn * m2[i]! - betan * m3[i]!);
-        dw[2 * n + i] = ci - (alphn * m3[i]! + betan * m2[i]!);
-      }
-      this.luReal.solve(dw.subarray(0, n));
-      this.luComplex.solve(dw.subarray(n, 2 * n), dw.subarray(2 * n, 3 * n));
-      // dyno: weighted RMS of the increment over all 3n entries.
-      let s = 0;
-      for (let k = 0; k < 3; k++) {
-        for (let i = 0; i < n; i++) {
-          const r = dw[k * n + i]! / scale[i]!;
-          s += r * r;
-        }
-      }
-      const dyno = Math.sqrt(s / (3 * n));
-      if (!Number.isFinite(dyno)) {
-        // The increment overflowed: name its non-finite components (or, when every entry is finite
-        // and only the sum of squares overflowed, the largest), so a failure can be diagnosed.
-        return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.overflowedIncrement() };
-      }
-      if (newt > 1 && newt < nit) {
-        const thq = dyno / dynold;
-        theta = newt === 2 ? thq : Math.sqrt(thq * thqold);
-        thqold = thq;
-        if (theta < DIVERGENT_RATE) {
-          this.faccon = theta / (1 - theta);
-          const dyth = (this.faccon * dyno * theta ** (nit - 1 - newt)) / this.fnewt;
-          if (dyth >= 1) {
-            // Cannot converge within nit iterations: shrink h by radau5's estimate.
-            const qnewt = Math.max(1e-4, Math.min(20, dyth));
-            const shrink = 0.8 * qnewt ** (-1 / (4 + nit - 1 - newt));
-            return { converged: false, iterations: newt, theta, shrink, components: this.worstIncrement() };
-          }
-        } else {
-          return { converged: false, iterations: newt, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.worstIncrement() };
-        }
-      }
-      dynold = Math.max(dyno, UROUND);
-      for (let k = 0; k < 3 * n; k++) w[k] = w[k]! + dw[k]!;
-      // z = T w
-      for (let i = 0; i < n; i++) {
-        const w1 = w[i]!;
-        const w2 = w[n + i]!;
-        const w3 = w[2 * n + i]!;
-        z[i] = T[0]! * w1 + T[1]! * w2 + T[2]! * w3;
-        z[n + i] = T[3]! * w1 + T[4]! * w2 + T[5]! * w3;
-        z[2 * n + i] = T[6]! * w1 + T[7]! * w2 + T[8]! * w3;
-      }
-      if (this.faccon * dyno <= this.fnewt) return { converged: true, iterations: newt, theta, shrink: 1, components: [] };
-    }
-    return { converged: false, iterations: nit, theta, shrink: NEWTON_FAILURE_SHRINK, components: this.worstIncrement() };
-  }
-
-  /** Components whose Newton increment is NaN or infinite; the largest ones when all are finite. */
-  private overflowedIncrement(): number[] {
-    const n = this.n;
-    const bad: number[] = [];
-    for (let i = 0; i < n; i++) {
-      if (!Number.isFinite(this.dw[i]!) || !Number.isFinite(this.dw[n + i]!) || !Number.isFinite(this.dw[2 * n + i]!)) bad.push(i);
-    }
-    return bad.length ? bad : this.worstIncrement();
-  }
-
-  private worstIncrement(): number[] {
-    const n = this.n;
-    const m = new Float64Array(n);
-    for (let i = 0; i < n; i++) m[i] = Math.max(Math.abs(this.dw[i]!), Math.abs(this.dw[n + i]!), Math.abs(this.dw[2 * n + i]!));
-    return largestScaled(m, this.scale);
   }
 
   /** Sign changes of the event functions over [tOld, tNew]; cuts the step at the first terminal one. */
@@ -1245,7 +1205,7 @@ class RadauIntegrator implements DaeIntegrator {
       const fn = evs[e]!.fn;
       const name = p.eventNames[e]!;
       const g = (tt: number): number => {
-        evaluateInterpolant(it, tt, yb);
+        evaluateCollocation(it, tt, yb);
         try {
           return fn(tt, yb);
         } catch (err) {
@@ -1261,7 +1221,7 @@ class RadauIntegrator implements DaeIntegrator {
     for (const f of found) {
       const yE = new Float64Array(this.n);
       if (f.t === tNew) yE.set(this.yCur);
-      else evaluateInterpolant(it, f.t, yE);
+      else evaluateCollocation(it, f.t, yE);
       records.push({ index: f.index, name: p.eventNames[f.index]!, t: f.t, y: yE });
       if (evs[f.index]!.terminal) {
         terminal = true;
@@ -1287,21 +1247,16 @@ class RadauIntegrator implements DaeIntegrator {
   }
 }
 
-const ulpBuffer = new Float64Array(1);
-const ulpBits = new BigInt64Array(ulpBuffer.buffer);
-
-/** The largest double below x (x finite). */
-function nextDown(x: number): number {
-  if (x === 0) return -Number.MIN_VALUE;
-  ulpBuffer[0] = x;
-  ulpBits[0] = x > 0 ? ulpBits[0]! - 1n : ulpBits[0]! + 1n;
-  return ulpBuffer[0]!;
-}
-
-/** u(tOld + s h) = yOld + sum_k Q_k s^(k+1) (SciPy's RadauDenseOutput form). */
+/**
+ * u(tOld + s h) = yOld + sum_k Q_k s^(k+1): the dense output of one step
+ * (kept name; the evaluator is {@link evaluateCollocation}).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * evaluateInterpolant(integ.interpolant!, t, out);
+ * ```
+ */
 export function evaluateInterpolant(it: DaeStepInterpolant, t: number, out: Float64Array): void {
-  const n = it.yOld.length;
-  const s = (t - it.tOld) / it.h;
-  const q = it.q;
-  for (let i = 0; i < n; i++) out[i] = it.yOld[i]! + s * (q[i]! + s * (q[n + i]! + s * q[2 * n + i]!));
+  evaluateCollocation(it, t, out);
 }

@@ -93,8 +93,32 @@ export function equilibrationScales(
   return -1;
 }
 
-/** 2^-round(log2 m), or 1 for a zero or non-finite m. */
-function powerOfTwoInverse(m: number): number {
+const scaleBits = new Float64Array(1);
+const scaleWords = new Uint32Array(scaleBits.buffer);
+/** Index of the high 32-bit word of a double (1 on little-endian machines). */
+const HIGH = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1 ? 1 : 0;
+
+/**
+ * 2^-round(log2 m), or 1 for a zero or non-finite m (@internal). Read from the bits of m
+ * (round(log2 m) = exponent + 1 when the significand is >= sqrt 2), since
+ * Math.log2 and a power per row and column cost more than the elimination
+ * for small systems; within 1e-9 of the sqrt 2 boundary, and for subnormal
+ * m, the original formula decides, so the result is the same as
+ * 2 ** -Math.round(Math.log2(m)) everywhere.
+ */
+export function powerOfTwoInverse(m: number): number {
   if (!(m > 0) || !Number.isFinite(m)) return 1;
-  return 2 ** -Math.round(Math.log2(m));
+  scaleBits[0] = m;
+  const high = scaleWords[HIGH]!;
+  const biased = (high >>> 20) & 0x7ff;
+  if (biased === 0) return 2 ** -Math.round(Math.log2(m));
+  scaleWords[HIGH] = (high & 0x000fffff) | 0x3ff00000;
+  const significand = scaleBits[0]!;
+  if (Math.abs(significand - Math.SQRT2) < 1e-9) return 2 ** -Math.round(Math.log2(m));
+  const e = biased - 1023 + (significand >= Math.SQRT2 ? 1 : 0);
+  const inverseBiased = 1023 - e;
+  if (inverseBiased <= 0 || inverseBiased >= 0x7ff) return 2 ** -e;
+  scaleBits[0] = 0;
+  scaleWords[HIGH] = inverseBiased << 20;
+  return scaleBits[0]!;
 }

@@ -26,6 +26,8 @@ export interface NormalizedDae {
   readonly hasIndex2: boolean;
   readonly rtol: Float64Array;
   readonly atol: Float64Array;
+  /** Whether atol is mapped with rtol (radau5) or fixed at its value for rtol = 1e-6. */
+  readonly atolFollowsRtol: boolean;
   readonly initialStep: number | undefined;
   readonly maxStep: number;
   readonly maxSteps: number;
@@ -190,6 +192,7 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     hasIndex2: index2.some((v) => v === 1),
     rtol,
     atol,
+    atolFollowsRtol: options.atolFollowsRtol ?? options.atol !== undefined,
     initialStep,
     maxStep,
     maxSteps,

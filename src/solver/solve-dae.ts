@@ -1,6 +1,8 @@
 import { InputError } from '../errors.js';
-import { createDaeIntegratorFromNormalized, evaluateInterpolant, type DaeStepInterpolant } from './dae-integrator.js';
+import { evaluateCollocation } from './collocation-polynomial.js';
+import { createDaeIntegratorFromNormalized, type DaeStepInterpolant } from './dae-integrator.js';
 import { normalizeDae } from './normalize-problem.js';
+import { firstIndexAbove } from './sorted-search.js';
 import type { DaeEventRecord, DaeProblem, DaeSolution, SolveDaeOptions } from './types.js';
 
 /**
@@ -71,9 +73,7 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     ys.push(integ.y);
     for (const e of r.events) events.push(e);
     while (outK < outT.length && outT[outK]! <= integ.t) {
-      const y = new Float64Array(p.n);
-      evaluateInterpolant(it, outT[outK]!, y);
-      outY.push(y);
+      outY.push(evaluateCollocation(it, outT[outK]!, new Float64Array(p.n)));
       outK++;
     }
     if (p.onProgress) {
@@ -103,22 +103,13 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     if (!(t >= p.t0 && t <= tReached)) {
       throw new InputError('outside-solution', `at(${t}): the solution covers [${p.t0}, ${tReached}]`, ['t']);
     }
-    // Last index k with tArr[k] <= t.
-    let lo = 0;
-    let hi = tArr.length - 1;
-    while (lo < hi) {
-      const mid = (lo + hi + 1) >> 1;
-      if (tArr[mid]! <= t) lo = mid;
-      else hi = mid - 1;
-    }
+    // Last index k with tArr[k] <= t (t >= t0 = tArr[0], so k >= 0).
+    const lo = firstIndexAbove(tArr, t) - 1;
     if (tArr[lo] === t) return Float64Array.from(ys[lo]!);
     if (!p.denseOutput) {
       throw new InputError('no-dense-output', `at(${t}): run with denseOutput: true to evaluate between steps`, ['denseOutput']);
     }
-    const piece = pieces[lo]!;
-    const y = new Float64Array(n);
-    evaluateInterpolant(piece, t, y);
-    return y;
+    return evaluateCollocation(pieces[lo]!, t, new Float64Array(n));
   };
 
   const solution: DaeSolution = {

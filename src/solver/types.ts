@@ -147,8 +147,22 @@ export interface DaeProgress {
 export interface SolveDaeOptions {
   /** Relative tolerance, scalar or per component. Default 1e-6. */
   readonly rtol?: number | ArrayLike<number>;
-  /** Absolute tolerance, scalar or per component. Default 1e-9. */
+  /**
+   * Absolute tolerance, scalar or per component. Default 1e-9 (in the error
+   * test 1e-8 at every rtol: see {@link SolveDaeOptions.atolFollowsRtol}).
+   */
   readonly atol?: number | ArrayLike<number>;
+  /**
+   * How the error test uses atol. The tolerances are mapped on entry as in
+   * radau5: rtol' = 0.1 rtol^(2/3). With `true`, atol' = rtol' atol / rtol
+   * (radau5: the ratio atol/rtol is kept, so atol' grows as rtol shrinks:
+   * 46 atol at rtol 1e-8, 1000 atol at rtol 1e-12). With `false`, atol' =
+   * 10 atol, the value the map gives at rtol = 1e-6, at every rtol: a tighter
+   * rtol never loosens the absolute part. Default: `true` when `atol` is
+   * given (the published radau5 behaviour), `false` for the default atol.
+   * (Added field.)
+   */
+  readonly atolFollowsRtol?: boolean;
   /** First step size to try; default chosen from the problem. */
   readonly initialStep?: number;
   /** Largest step size allowed. Default tEnd - t0. */

@@ -41,6 +41,16 @@ export function largestScaled(v: Float64Array, scale: Float64Array | undefined, 
 }
 
 /**
+ * Whether every entry of `v` is finite (no allocation, for hot paths).
+ *
+ * @internal
+ */
+export function allFinite(v: Float64Array): boolean {
+  for (let i = 0; i < v.length; i++) if (!Number.isFinite(v[i]!)) return false;
+  return true;
+}
+
+/**
  * Indices of the non-finite entries of `v`.
  *
  * @internal
@@ -49,4 +59,37 @@ export function nonFiniteIndices(v: Float64Array): number[] {
   const idx: number[] = [];
   for (let i = 0; i < v.length; i++) if (!Number.isFinite(v[i]!)) idx.push(i);
   return idx;
+}
+
+/**
+ * Rounding units of a quantity below which a Newton update counts as zero in
+ * the convergence tests (a few units: the update of a converged iteration is
+ * of the size of the rounding error of f, common practice).
+ *
+ * @internal
+ */
+export const ROUNDING_FLOOR_UNITS = 4;
+
+/**
+ * The weighted RMS norm of an update dy of y, with the part of each entry
+ * within {@link ROUNDING_FLOOR_UNITS} rounding units of y_i removed:
+ * sqrt((1/n) sum_i (max(|dy_i| - 4 eps |y_i|, 0) / scale_i)^2). A convergence
+ * test on this norm can be met at any tolerance: at rtol below about 1e-10
+ * the plain norm asks for updates smaller than one rounding unit, which
+ * round-off in f never delivers.
+ *
+ * @internal
+ */
+export function roundingFlooredNorm(dy: Float64Array, y: Float64Array, scale: Float64Array): number {
+  const n = dy.length;
+  const u = ROUNDING_FLOOR_UNITS * Number.EPSILON;
+  let s = 0;
+  for (let i = 0; i < n; i++) {
+    const d = Math.abs(dy[i]!) - u * Math.abs(y[i]!);
+    if (d > 0 || d !== d) {
+      const r = d / scale[i]!;
+      s += r * r;
+    }
+  }
+  return Math.sqrt(s / n);
 }

@@ -1,4 +1,4 @@
-import { nextUp } from './float-steps.js';
+import { nextUp } from '../solver/float-neighbours.js';
 import type { Waveform } from './waveform.js';
 
 /**

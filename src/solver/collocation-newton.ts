@@ -1,0 +1,292 @@
+import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
+import {
+  C1,
+  C2,
+  DIVERGENT_RATE,
+  JACOBIAN_RATE_THRESHOLD,
+  MU_COMPLEX_IM,
+  MU_COMPLEX_RE,
+  MU_REAL,
+  NEWTON_MAX_ITERATIONS,
+  T,
+  TI,
+} from './radau-tableau.js';
+import { largestScaled } from './weighted-norm.js';
+
+/** Unit round-off (radau5's UROUND). */
+const UROUND = Number.EPSILON / 2;
+/** Shrink factor after a Newton failure without a rate estimate, or with non-finite stage values (radau5: 0.5). */
+export const NEWTON_FAILURE_SHRINK = 0.5;
+
+/**
+ * What the collocation Newton iteration needs from the integrator: f, the
+ * mass matrix, the two factored iteration matrices (gamma/h) M - J and
+ * ((alpha - i beta)/h) M - J for the step size h being tried, and the
+ * Newton stopping tolerance.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const sys: CollocationSystem = { n, rhs, multiplyMass, luReal, luComplex, fnewt, stats };
+ * ```
+ */
+export interface CollocationSystem {
+  readonly n: number;
+  /** f(t, y) into out (length n). Counted and guarded by the caller; may throw. */
+  readonly rhs: (t: number, y: Float64Array, out: Float64Array) => void;
+  /** out = M v[vOff .. vOff + n). */
+  readonly multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void;
+  readonly luReal: RealLinearSolver;
+  readonly luComplex: ComplexLinearSolver;
+  /** radau5's FNEWT. */
+  readonly fnewt: number;
+  /** Newton iterations are counted here. */
+  readonly stats: { newtonIterations: number };
+}
+
+/**
+ * Work arrays of the iteration, allocated once per integrator. Shapes (n
+ * unknowns): z, w, fz, dw are 3n, stage k at [k n, k n + n); the views are
+ * made once here so the iteration itself allocates nothing.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const work = createCollocationWork(n);
+ * work.z.fill(0); // start values
+ * ```
+ */
+export interface CollocationWork {
+  /** Stage increments Z_k = Y_k - y (3n): start values in, solution out. */
+  readonly z: Float64Array;
+  /** Transformed increments W = T^-1 Z (3n). */
+  readonly w: Float64Array;
+  /** f at the stages (3n), and its per-stage views. */
+  readonly fz: Float64Array;
+  readonly fzStage: readonly [Float64Array, Float64Array, Float64Array];
+  /** Newton increment of W (3n): real part [0, n), complex pair [n, 2n) + i [2n, 3n). */
+  readonly dw: Float64Array;
+  readonly dwReal: Float64Array;
+  readonly dwRe: Float64Array;
+  readonly dwIm: Float64Array;
+  /** Stage state y + Z_k (n). */
+  readonly ys: Float64Array;
+  /** M W_k (n each). */
+  readonly m1: Float64Array;
+  readonly m2: Float64Array;
+  readonly m3: Float64Array;
+}
+
+/** @internal @example `const work = createCollocationWork(3);` */
+export function createCollocationWork(n: number): CollocationWork {
+  const fz = new Float64Array(3 * n);
+  const dw = new Float64Array(3 * n);
+  return {
+    z: new Float64Array(3 * n),
+    w: new Float64Array(3 * n),
+    fz,
+    fzStage: [fz.subarray(0, n), fz.subarray(n, 2 * n), fz.subarray(2 * n, 3 * n)],
+    dw,
+    dwReal: dw.subarray(0, n),
+    dwRe: dw.subarray(n, 2 * n),
+    dwIm: dw.subarray(2 * n, 3 * n),
+    ys: new Float64Array(n),
+    m1: new Float64Array(n),
+    m2: new Float64Array(n),
+    m3: new Float64Array(n),
+  };
+}
+
+/**
+ * Outcome of {@link solveCollocation}; one object per integrator, rewritten
+ * by each call (nothing is allocated on success).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const outcome = solveCollocation(sys, work, y, scale, t, h, tNew, faccon, createNewtonOutcome());
+ * if (!outcome.converged) h *= outcome.shrink;
+ * ```
+ */
+export interface NewtonOutcome {
+  converged: boolean;
+  /** Iterations done (the last one included). */
+  iterations: number;
+  /** Observed contraction rate. */
+  theta: number;
+  /** Factor for the step size on failure (1 on success). */
+  shrink: number;
+  /** radau5's FACCON after the call: theta/(1 - theta) of the last rate estimate, carried to the next step. */
+  faccon: number;
+  /** Components with non-finite f at a stage (failure only). */
+  nonFinite: number[] | undefined;
+  /** Components with the largest increments (failure only). */
+  components: number[];
+}
+
+/** @internal @example `const outcome = createNewtonOutcome();` */
+export function createNewtonOutcome(): NewtonOutcome {
+  return { converged: false, iterations: 0, theta: 0, shrink: 1, faccon: 1, nonFinite: undefined, components: [] };
+}
+
+const NO_COMPONENTS: number[] = [];
+
+function finish(out: NewtonOutcome, converged: boolean, iterations: number, theta: number, shrink: number, faccon: number, components: number[], nonFinite?: number[]): NewtonOutcome {
+  out.converged = converged;
+  out.iterations = iterations;
+  out.theta = theta;
+  out.shrink = shrink;
+  out.faccon = faccon;
+  out.components = components;
+  out.nonFinite = nonFinite;
+  return out;
+}
+
+/**
+ * Simplified Newton iteration on the collocation system of Radau IIA,
+ * transformed to one real and one complex system (Hairer and Wanner II,
+ * sect. IV.8, eq. 8.9-8.16; radau5; SciPy's solve_collocation_system with M):
+ * per iteration the stage values f(t + c_k h, y + Z_k), then
+ * (gamma/h) M - J and ((alpha - i beta)/h) M - J solve for the increment of
+ * W = T^-1 Z. Stops when faccon ||dW|| <= fnewt, early when the observed
+ * contraction rate says it cannot converge within the iteration limit
+ * (returning radau5's step reduction), on divergence, and on non-finite f.
+ *
+ * Shapes: y, scale (n); work.z (3n) holds the start values on entry and the
+ * converged increments on success. The last stage is evaluated at
+ * `tLastStage` (t + h, or one ulp before a breakpoint). Pure apart from the
+ * work arrays, `out` and the iteration count in `sys.stats`.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const outcome = solveCollocation(sys, work, y, scale, t, h, t + h, faccon, createNewtonOutcome());
+ * ```
+ */
+export function solveCollocation(
+  sys: CollocationSystem,
+  work: CollocationWork,
+  y: Float64Array,
+  scale: Float64Array,
+  t: number,
+  h: number,
+  tLastStage: number,
+  faccon: number,
+  out: NewtonOutcome,
+): NewtonOutcome {
+  const n = sys.n;
+  const { z, w, fz, fzStage, dw, ys, m1, m2, m3 } = work;
+  const fac1 = MU_REAL / h;
+  const alphn = MU_COMPLEX_RE / h;
+  const betan = MU_COMPLEX_IM / h;
+  const fnewt = sys.fnewt;
+  // w = T^-1 z
+  for (let i = 0; i < n; i++) {
+    const z1 = z[i]!;
+    const z2 = z[n + i]!;
+    const z3 = z[2 * n + i]!;
+    w[i] = TI[0]! * z1 + TI[1]! * z2 + TI[2]! * z3;
+    w[n + i] = TI[3]! * z1 + TI[4]! * z2 + TI[5]! * z3;
+    w[2 * n + i] = TI[6]! * z1 + TI[7]! * z2 + TI[8]! * z3;
+  }
+  faccon = Math.max(faccon, UROUND) ** 0.8;
+  let theta = Math.abs(JACOBIAN_RATE_THRESHOLD);
+  let dynold = 0;
+  let thqold = 0;
+  const nit = NEWTON_MAX_ITERATIONS;
+  for (let newt = 1; newt <= nit; newt++) {
+    // Stage values f(t + c_k h, y + z_k).
+    for (let s = 0; s < 3; s++) {
+      const off = s * n;
+      for (let i = 0; i < n; i++) ys[i] = y[i]! + z[off + i]!;
+      sys.rhs(s === 0 ? t + C1 * h : s === 1 ? t + C2 * h : tLastStage, ys, fzStage[s]!);
+    }
+    sys.stats.newtonIterations++;
+    for (let k = 0; k < 3 * n; k++) {
+      if (!Number.isFinite(fz[k]!)) return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, NO_COMPONENTS, nonFiniteStages(fz, n));
+    }
+    // Right-hand sides of the transformed system.
+    sys.multiplyMass(w, 0, m1);
+    sys.multiplyMass(w, n, m2);
+    sys.multiplyMass(w, 2 * n, m3);
+    for (let i = 0; i < n; i++) {
+      const f1 = fz[i]!;
+      const f2 = fz[n + i]!;
+      const f3 = fz[2 * n + i]!;
+      dw[i] = TI[0]! * f1 + TI[1]! * f2 + TI[2]! * f3 - fac1 * m1[i]!;
+      const cr = TI[3]! * f1 + TI[4]! * f2 + TI[5]! * f3;
+      const ci = TI[6]! * f1 + TI[7]! * f2 + TI[8]! * f3;
+      dw[n + i] = cr - (alphn * m2[i]! - betan * m3[i]!);
+      dw[2 * n + i] = ci - (alphn * m3[i]! + betan * m2[i]!);
+    }
+    sys.luReal.solve(work.dwReal);
+    sys.luComplex.solve(work.dwRe, work.dwIm);
+    // dyno: weighted RMS of the increment over all 3n entries.
+    let sum = 0;
+    for (let k = 0; k < 3; k++) {
+      for (let i = 0; i < n; i++) {
+        const r = dw[k * n + i]! / scale[i]!;
+        sum += r * r;
+      }
+    }
+    const dyno = Math.sqrt(sum / (3 * n));
+    if (!Number.isFinite(dyno)) {
+      // The increment overflowed: name its non-finite components (or, when every entry is finite
+      // and only the sum of squares overflowed, the largest), so a failure can be diagnosed.
+      return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, overflowedIncrement(dw, n, scale));
+    }
+    if (newt > 1 && newt < nit) {
+      const thq = dyno / dynold;
+      theta = newt === 2 ? thq : Math.sqrt(thq * thqold);
+      thqold = thq;
+      if (theta < DIVERGENT_RATE) {
+        faccon = theta / (1 - theta);
+        const dyth = (faccon * dyno * theta ** (nit - 1 - newt)) / fnewt;
+        if (dyth >= 1) {
+          // Cannot converge within nit iterations: shrink h by radau5's estimate.
+          const qnewt = Math.max(1e-4, Math.min(20, dyth));
+          const shrink = 0.8 * qnewt ** (-1 / (4 + nit - 1 - newt));
+          return finish(out, false, newt, theta, shrink, faccon, worstIncrement(dw, n, scale));
+        }
+      } else {
+        return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, worstIncrement(dw, n, scale));
+      }
+    }
+    dynold = Math.max(dyno, UROUND);
+    for (let k = 0; k < 3 * n; k++) w[k] = w[k]! + dw[k]!;
+    // z = T w
+    for (let i = 0; i < n; i++) {
+      const w1 = w[i]!;
+      const w2 = w[n + i]!;
+      const w3 = w[2 * n + i]!;
+      z[i] = T[0]! * w1 + T[1]! * w2 + T[2]! * w3;
+      z[n + i] = T[3]! * w1 + T[4]! * w2 + T[5]! * w3;
+      z[2 * n + i] = T[6]! * w1 + T[7]! * w2 + T[8]! * w3;
+    }
+    if (faccon * dyno <= fnewt) return finish(out, true, newt, theta, 1, faccon, NO_COMPONENTS);
+  }
+  return finish(out, false, nit, theta, NEWTON_FAILURE_SHRINK, faccon, worstIncrement(dw, n, scale));
+}
+
+/** Components (mod n) with a non-finite stage value of f, ascending. */
+function nonFiniteStages(fz: Float64Array, n: number): number[] {
+  const bad = new Set<number>();
+  for (let k = 0; k < 3 * n; k++) if (!Number.isFinite(fz[k]!)) bad.add(k % n);
+  return [...bad].sort((a, b) => a - b);
+}
+
+/** Components whose Newton increment is NaN or infinite; the largest ones when all are finite. */
+function overflowedIncrement(dw: Float64Array, n: number, scale: Float64Array): number[] {
+  const bad: number[] = [];
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(dw[i]!) || !Number.isFinite(dw[n + i]!) || !Number.isFinite(dw[2 * n + i]!)) bad.push(i);
+  }
+  return bad.length ? bad : worstIncrement(dw, n, scale);
+}
+
+/** Components with the largest scaled increment over the three stages. */
+function worstIncrement(dw: Float64Array, n: number, scale: Float64Array): number[] {
+  const m = new Float64Array(n);
+  for (let i = 0; i < n; i++) m[i] = Math.max(Math.abs(dw[i]!), Math.abs(dw[n + i]!), Math.abs(dw[2 * n + i]!));
+  return largestScaled(m, scale);
+}
