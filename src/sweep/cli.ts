@@ -3,7 +3,7 @@
 // job into shard files, merge shard results. Small on purpose: it is what a batch
 // system or job queue calls on each machine (docs/sweeps.md).
 //
-//   node dist/sweep/cli.js run job.json [--concurrency N] [--in-process] [--base DIR] [--out result.json]
+//   node dist/sweep/cli.js run job.json [--concurrency N] [--in-process] [--base DIR] [--allow-modules DIR]... [--out result.json]
 //   node dist/sweep/cli.js shard job.json --shards N [--out-dir DIR]
 //   node dist/sweep/cli.js merge result-0.json result-1.json ... [--out merged.json]
 //
@@ -22,7 +22,7 @@ import type { SweepResult } from './sweep-result.js';
 import { terminalProgress } from './terminal-progress.js';
 
 const USAGE = `usage:
-  fluxstate-sweep run <job.json> [--concurrency N] [--in-process] [--base DIR] [--out FILE]
+  fluxstate-sweep run <job.json> [--concurrency N] [--in-process] [--base DIR] [--allow-modules DIR]... [--out FILE]
   fluxstate-sweep shard <job.json> --shards N [--out-dir DIR]
   fluxstate-sweep merge <result.json>... [--out FILE]`;
 
@@ -55,6 +55,7 @@ async function run(args: string[]): Promise<number> {
       concurrency: { type: 'string' },
       'in-process': { type: 'boolean' },
       base: { type: 'string' },
+      'allow-modules': { type: 'string', multiple: true },
       out: { type: 'string' },
     },
   });
@@ -68,6 +69,7 @@ async function run(args: string[]): Promise<number> {
     ...(values.concurrency !== undefined ? { concurrency: Number(values.concurrency) } : {}),
     ...(values['in-process'] ? { inProcess: true } : {}),
     ...(values.base !== undefined ? { baseUrl: values.base } : {}),
+    ...(values['allow-modules'] !== undefined ? { allowModuleFolders: values['allow-modules'] } : {}),
     signal: controller.signal,
     onProgress: terminalProgress({ label: basename(file) }),
   });

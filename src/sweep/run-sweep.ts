@@ -46,10 +46,23 @@ export interface RunSweepOptions {
   /** Called at the start, after each case (in the order cases finish) and at the end; see {@link SweepProgress}. */
   readonly onProgress?: (progress: SweepProgress) => void;
   /**
-   * Base for relative module paths of function waveforms (`./drives.js`):
-   * a directory path or URL. Default: the working directory.
+   * The job's base folder: relative module paths of function waveforms
+   * (`./drives.js`) resolve against it, and every module the job names must
+   * lie inside it or inside `allowModuleFolders` (see
+   * {@link resolveFunctionWaveforms}). A directory path or file: URL.
+   * Default: the working directory.
    */
   readonly baseUrl?: string | URL;
+  /**
+   * Further folders the job's modules may be in. A job that names modules
+   * runs their code: allow only folders whose code you trust.
+   */
+  readonly allowModuleFolders?: readonly (string | URL)[];
+}
+
+/** A folder as a string (a path or URL href), to pass to a worker. */
+function folderHref(folder: string | URL): string {
+  return folder instanceof URL ? folder.href : folder;
 }
 
 /** The base URL as a string href (a plain path becomes a directory URL). */
@@ -128,8 +141,13 @@ export async function runSweep(job: SweepJob, options: RunSweepOptions = {}): Pr
       );
     }
   }
+  const modules = {
+    ...(baseUrl !== undefined ? { baseUrl } : {}),
+    ...(options.allowModuleFolders !== undefined ? { allowModuleFolders: options.allowModuleFolders.map(folderHref) } : {}),
+  };
   // The base network must be valid on its own: check it once here, not in every case.
-  networkFromDescription(await resolveFunctionWaveforms(checked.network, baseUrl !== undefined ? { baseUrl } : {}));
+  // Its module references are checked before anything is imported.
+  networkFromDescription(await resolveFunctionWaveforms(checked.network, modules));
 
   const results = new Map<number, SweepCaseResult>();
   const counts = emptyCounts();
@@ -147,7 +165,7 @@ export async function runSweep(job: SweepJob, options: RunSweepOptions = {}): Pr
     for (const index of indices) {
       if (options.signal?.aborted) break;
       const r = await runSweepCase(checked, index, {
-        ...(baseUrl !== undefined ? { baseUrl } : {}),
+        ...modules,
         ...(options.signal ? { signal: options.signal } : {}),
       });
       record(r);
@@ -159,7 +177,7 @@ export async function runSweep(job: SweepJob, options: RunSweepOptions = {}): Pr
     await runOnWorkers<number, SweepCaseResult>({
       tasks: indices,
       size: concurrency,
-      spawn: () => spawnSweepWorker({ job: checked, ...(baseUrl !== undefined ? { baseUrl } : {}) }),
+      spawn: () => spawnSweepWorker({ job: checked, ...modules }),
       ...(options.signal ? { signal: options.signal } : {}),
       onResult: (_index, r) => record(r),
       onCrash: (index, reason) => {
