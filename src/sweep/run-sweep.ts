@@ -82,11 +82,6 @@ export interface RunSweepOptions {
   readonly previous?: readonly SweepCaseResult[];
   /** Called with each case's full result as soon as it ends (before `onProgress`), for example to stream it to a file. */
   readonly onCase?: (result: SweepCaseResult) => void;
-  /**
-   * Called just before each case starts in process (not on workers). The case then runs synchronously
-   * until it ends; the command line uses this to let a signal end the process at once during a case.
-   */
-  readonly onCaseStart?: (index: number) => void;
 }
 
 /** Default heap limit of a sweep worker, MB. */
@@ -212,7 +207,6 @@ export async function runSweep(job: SweepJob, options: RunSweepOptions = {}): Pr
     const job = limit === undefined ? checked : { ...checked, simulate: { ...checked.simulate, maxWallTimeMs: Math.min(limit, budget ?? Infinity) } };
     for (const index of indices) {
       if (options.signal?.aborted) break;
-      options.onCaseStart?.(index);
       const r = await runSweepCase(job, index, {
         ...modules,
         ...(options.signal ? { signal: options.signal } : {}),
