@@ -56,6 +56,10 @@ function fieldKeys(field: string, label: string): (string | number)[] {
   if (parts.some((p) => p === '')) {
     throw new InputError('sweep-unknown-field', `${label}: field path "${field}" has an empty part; write fields like "waveform.phase"`, [field]);
   }
+  const reserved = parts.find((p) => p === '__proto__' || p === 'constructor' || p === 'prototype');
+  if (reserved !== undefined) {
+    throw new InputError('sweep-unknown-field', `${label}: field path "${field}" names "${reserved}", which is no field of a network entry`, [field]);
+  }
   return parts.map((p) => (/^\d+$/.test(p) ? Number(p) : p));
 }
 

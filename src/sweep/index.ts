@@ -41,13 +41,23 @@ export { parseSweepJob } from './parse-sweep-job.js';
 export { applySweepEdits, type SweepEdit } from './apply-sweep-edits.js';
 export { sweepCase, sweepCaseCount, type SweepCase } from './sweep-cases.js';
 export { networkFromDescription } from './network-from-description.js';
-export { runSweepCase, resolveFunctionWaveforms, type RunSweepCaseOptions } from './run-sweep-case.js';
+export { runSweepCase, resolveFunctionWaveforms, type RunSweepCaseOptions, type ResolveJobModulesOptions } from './run-sweep-case.js';
 export { runSweep, type RunSweepOptions } from './run-sweep.js';
 export { terminalProgress, type TerminalProgressOptions } from './terminal-progress.js';
-export { shardSweepJob, mergeSweepResults } from './shard-sweep-job.js';
+export {
+  shardSweepJob,
+  mergeSweepResults,
+  shardSweepReferences,
+  jobOfShard,
+  SWEEP_SHARD_FORMAT,
+  type SweepShardReference,
+} from './shard-sweep-job.js';
+export { openSweepJournal, sweepJobDigest, SWEEP_JOURNAL_FORMAT, type SweepJournal } from './sweep-journal.js';
 export {
   sweepResultToJson,
   sweepResultFromJson,
+  sweepCaseResultToJson,
+  sweepCaseResultFromJson,
   type SweepResultJson,
   type SweepCaseResultJson,
   type JsonNumber,

@@ -1,6 +1,7 @@
 import { FluxstateError, InputError } from '../errors.js';
 import type { NetworkDescription } from '../network/description.js';
 import { applySweepEdits, locateTarget } from './apply-sweep-edits.js';
+import { checkJsonShape } from './check-json-shape.js';
 import { sweepJobSchema } from './job-schema.js';
 import { schemaError } from './schema-error.js';
 import { axisTargets, sweepCaseCount } from './sweep-cases.js';
@@ -110,6 +111,19 @@ function checkSimulateOptions(job: SweepJob): void {
   }
 }
 
+/** Most cases a job may hold: case indices stay exact integers and a run's bookkeeping fits in memory. */
+const MAX_CASES = 10_000_000;
+
+function checkCaseCount(job: SweepJob): void {
+  const p = job.parameters;
+  if (p.grid === undefined) return;
+  let total = 1;
+  for (const a of p.axes) total *= p.grid[a.name]?.length ?? 0;
+  if (total > MAX_CASES) {
+    throw jobError('sweep-bad-job', 'parameters.grid', `${total.toExponential(3)} cases (the product of the value counts) is more than ${MAX_CASES}; split the study into several jobs`);
+  }
+}
+
 function checkParameters(job: SweepJob): void {
   const p = job.parameters;
   const d: NetworkDescription = job.network;
@@ -205,10 +219,12 @@ function checkParameters(job: SweepJob): void {
  * ```
  */
 export function parseSweepJob(input: unknown): SweepJob {
+  checkJsonShape(input, 'sweep-bad-job', 'sweep job', true);
   const parsed = sweepJobSchema.safeParse(input);
   if (!parsed.success) throw schemaError('sweep-bad-job', 'sweep job', parsed.error.issues, input);
   const job = parsed.data as unknown as SweepJob;
   checkSimulateOptions(job);
+  checkCaseCount(job);
   checkParameters(job);
   checkOutputs(job);
   if (job.range !== undefined) {

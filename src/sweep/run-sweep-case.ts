@@ -5,6 +5,7 @@ import { simulate, type SimulateOptions } from '../simulate.js';
 import { resolveFunctionWaveform } from '../waveforms/resolve-function-waveform.js';
 import { applySweepEdits } from './apply-sweep-edits.js';
 import { computeOutputs } from './compute-outputs.js';
+import { checkedJobModule, jobModuleFolders, type JobModuleFolders } from './job-module-policy.js';
 import { sweepCase } from './sweep-cases.js';
 import type { SweepJob } from './sweep-job.js';
 import type { SweepCaseResult } from './sweep-result.js';
@@ -18,16 +19,46 @@ import type { SweepCaseResult } from './sweep-result.js';
  * ```
  */
 export interface RunSweepCaseOptions {
-  /** Base for relative module paths of function waveforms (a directory URL with a trailing slash). Default: the working directory. */
+  /**
+   * Base folder of the job: relative module paths of function waveforms
+   * resolve against it, and modules must lie inside it (or inside
+   * `allowModuleFolders`). A directory path or file: URL. Default: the
+   * working directory.
+   */
   readonly baseUrl?: string | URL;
+  /** Further folders the job's modules may be in (see {@link resolveFunctionWaveforms}). */
+  readonly allowModuleFolders?: readonly (string | URL)[];
   /** Stops the case's simulation; the case then ends `'cancelled'`. */
   readonly signal?: AbortSignal;
+}
+
+/**
+ * Options of {@link resolveFunctionWaveforms}.
+ *
+ * @example
+ * ```ts
+ * const options: ResolveJobModulesOptions = { baseUrl: pathToFileURL('jobs/'), allowModuleFolders: ['/opt/drives'] };
+ * ```
+ */
+export interface ResolveJobModulesOptions {
+  /** The job's base folder (directory path or file: URL). Default: the working directory. */
+  readonly baseUrl?: string | URL;
+  /** Further folders modules may be in, besides the base folder. */
+  readonly allowModuleFolders?: readonly (string | URL)[];
 }
 
 /**
  * Import the modules of function waveforms given by reference (module and
  * export) and return a description whose sources carry the functions. The
  * input is not modified.
+ *
+ * A job that names modules runs their code. Module references are therefore
+ * treated as untrusted: each must be a relative path (`./drives.js`) to a file
+ * inside the base folder or an allowed folder, symbolic links resolved.
+ * URLs (`data:`, `file:`, ...), absolute paths, package names, `../` paths
+ * and links that lead out of the folders are refused, before anything is
+ * imported, with `InputError` `'sweep-bad-job'` naming the field
+ * (`network.elements[2] (voltage-source "drive").waveform.module`).
  *
  * @example
  * ```ts
@@ -36,13 +67,24 @@ export interface RunSweepCaseOptions {
  */
 export async function resolveFunctionWaveforms(
   description: NetworkDescription,
-  options: { readonly baseUrl?: string | URL } = {},
+  options: ResolveJobModulesOptions = {},
 ): Promise<NetworkDescription> {
+  let folders: JobModuleFolders | undefined;
   let changed = false;
   const elements: ElementDescription[] = [];
-  for (const e of description.elements) {
+  for (const [i, e] of description.elements.entries()) {
     if ((e.kind === 'voltage-source' || e.kind === 'current-source') && e.waveform.kind === 'function' && e.waveform.fn === undefined) {
-      const waveform = await resolveFunctionWaveform(e.waveform, `${e.kind} "${e.name}"`, options.baseUrl !== undefined ? { baseUrl: options.baseUrl } : {});
+      const owner = `${e.kind} "${e.name}"`;
+      const module = e.waveform.module;
+      let waveform = e.waveform;
+      if (typeof module === 'string') {
+        folders ??= jobModuleFolders(options.baseUrl, options.allowModuleFolders);
+        const href = checkedJobModule(module, `network.elements[${i}] (${owner}).waveform.module`, folders, [e.name]);
+        // Import the checked file URL; keep the job's own reference in the description.
+        waveform = { ...(await resolveFunctionWaveform({ ...e.waveform, module: href }, owner)), module };
+      } else {
+        waveform = await resolveFunctionWaveform(e.waveform, owner);
+      }
       elements.push({ ...e, waveform });
       changed = true;
     } else {
@@ -77,7 +119,10 @@ export async function runSweepCase(job: SweepJob, index: number, options: RunSwe
   const base = { index, parameters: c.parameters };
   try {
     const edited = applySweepEdits(job.network, c.edits);
-    const resolved = await resolveFunctionWaveforms(edited, options.baseUrl !== undefined ? { baseUrl: options.baseUrl } : {});
+    const resolved = await resolveFunctionWaveforms(edited, {
+      ...(options.baseUrl !== undefined ? { baseUrl: options.baseUrl } : {}),
+      ...(options.allowModuleFolders !== undefined ? { allowModuleFolders: options.allowModuleFolders } : {}),
+    });
     // The front door shared with simulate, the stepper and the periodic steady state: the description is checked there, once.
     const result = simulate(resolved, simulateOptions(job, options.signal));
     const description = result.network;

@@ -1,6 +1,6 @@
 import { availableParallelism } from 'node:os';
 import { pathToFileURL } from 'node:url';
-import { InputError } from '../errors.js';
+import { FluxstateError, InputError } from '../errors.js';
 import type { NetworkDescription } from '../network/description.js';
 import { networkFromDescription } from './network-from-description.js';
 import { outputName, parseSweepJob } from './parse-sweep-job.js';
@@ -46,10 +46,50 @@ export interface RunSweepOptions {
   /** Called at the start, after each case (in the order cases finish) and at the end; see {@link SweepProgress}. */
   readonly onProgress?: (progress: SweepProgress) => void;
   /**
-   * Base for relative module paths of function waveforms (`./drives.js`):
-   * a directory path or URL. Default: the working directory.
+   * The job's base folder: relative module paths of function waveforms
+   * (`./drives.js`) resolve against it, and every module the job names must
+   * lie inside it or inside `allowModuleFolders` (see
+   * {@link resolveFunctionWaveforms}). A directory path or file: URL.
+   * Default: the working directory.
    */
   readonly baseUrl?: string | URL;
+  /**
+   * Further folders the job's modules may be in. A job that names modules
+   * runs their code: allow only folders whose code you trust.
+   */
+  readonly allowModuleFolders?: readonly (string | URL)[];
+  /**
+   * Wall time one case may take, ms. On worker threads, a case past it has
+   * its worker terminated (a case stuck in a user function or a runaway
+   * input is stopped too) and ends `'error'` with code
+   * `'sweep-case-time-limit'`; the sweep goes on with a new worker. In
+   * process, where nothing can interrupt a running case, it caps the case's
+   * `maxWallTimeMs` budget instead (the case ends `'incomplete'`,
+   * `time-budget`). Default: no limit beyond the job's `maxWallTimeMs`.
+   */
+  readonly caseTimeLimitMs?: number;
+  /**
+   * Heap limit of each worker thread, MB (Node's `resourceLimits.maxOldGenerationSizeMb`):
+   * a case that needs more ends `'error'` and its worker is replaced, instead
+   * of taking the whole process down. Default 2048.
+   */
+  readonly workerMemoryLimitMb?: number;
+  /**
+   * Cases already finished by an earlier, interrupted run of the same job
+   * (from its journal): they are not run again, and the result holds them
+   * as they are. Cases with status `'cancelled'` among them are run.
+   */
+  readonly previous?: readonly SweepCaseResult[];
+  /** Called with each case's full result as soon as it ends (before `onProgress`), for example to stream it to a file. */
+  readonly onCase?: (result: SweepCaseResult) => void;
+}
+
+/** Default heap limit of a sweep worker, MB. */
+const DEFAULT_WORKER_MEMORY_MB = 2048;
+
+/** A folder as a string (a path or URL href), to pass to a worker. */
+function folderHref(folder: string | URL): string {
+  return folder instanceof URL ? folder.href : folder;
 }
 
 /** The base URL as a string href (a plain path becomes a directory URL). */
@@ -71,6 +111,10 @@ function inProcessOnly(d: NetworkDescription): string[] {
 }
 
 function checkOptions(o: RunSweepOptions): void {
+  for (const key of ['caseTimeLimitMs', 'workerMemoryLimitMb'] as const) {
+    const v = o[key];
+    if (v !== undefined && !(Number.isFinite(v) && v > 0)) throw new InputError('sweep-bad-option', `runSweep option ${key} ${String(v)} must be a number > 0`, [key]);
+  }
   const c = o.concurrency;
   if (c !== undefined && !(Number.isInteger(c) && c >= 1)) {
     throw new InputError('sweep-bad-option', `runSweep option concurrency ${String(c)} must be an integer >= 1`, ['concurrency']);
@@ -114,9 +158,15 @@ export async function runSweep(job: SweepJob, options: RunSweepOptions = {}): Pr
   const baseUrl = baseHref(options.baseUrl);
   const total = sweepCaseCount(checked);
   const range = checked.range ?? { start: 0, end: total };
-  const indices = Array.from({ length: range.end - range.start }, (_, k) => range.start + k);
+  const done = new Map<number, SweepCaseResult>();
+  for (const r of options.previous ?? []) {
+    if (r.index < range.start || r.index >= range.end || r.status === 'cancelled') continue;
+    done.set(r.index, r);
+  }
+  const all = Array.from({ length: range.end - range.start }, (_, k) => range.start + k);
+  const indices = all.filter((i) => !done.has(i));
   const inProcess = options.inProcess ?? false;
-  const concurrency = inProcess ? 1 : Math.max(1, Math.min(options.concurrency ?? availableParallelism(), indices.length));
+  const concurrency = inProcess ? 1 : Math.max(1, Math.min(options.concurrency ?? availableParallelism(), Math.max(indices.length, 1)));
   if (!inProcess) {
     const local = inProcessOnly(checked.network);
     if (local.length > 0) {
@@ -128,26 +178,37 @@ export async function runSweep(job: SweepJob, options: RunSweepOptions = {}): Pr
       );
     }
   }
+  const modules = {
+    ...(baseUrl !== undefined ? { baseUrl } : {}),
+    ...(options.allowModuleFolders !== undefined ? { allowModuleFolders: options.allowModuleFolders.map(folderHref) } : {}),
+  };
   // The base network must be valid on its own: check it once here, not in every case.
-  networkFromDescription(await resolveFunctionWaveforms(checked.network, baseUrl !== undefined ? { baseUrl } : {}));
+  // Its module references are checked before anything is imported.
+  networkFromDescription(await resolveFunctionWaveforms(checked.network, modules));
 
-  const results = new Map<number, SweepCaseResult>();
+  const results = new Map<number, SweepCaseResult>(done);
   const counts = emptyCounts();
+  for (const r of done.values()) counts[r.status]++;
   const report = (p: Omit<SweepProgress, 'counts' | 'total'>): void => {
-    options.onProgress?.({ ...p, total: indices.length, counts: { ...counts } });
+    options.onProgress?.({ ...p, total: all.length, counts: { ...counts } });
   };
   const record = (r: SweepCaseResult): void => {
     results.set(r.index, r);
     counts[r.status]++;
+    options.onCase?.(r);
     report({ phase: 'case', done: results.size, case: { index: r.index, status: r.status, message: r.message, parameters: r.parameters } });
   };
-  report({ phase: 'start', done: 0 });
+  report({ phase: 'start', done: results.size });
 
+  const limit = options.caseTimeLimitMs;
   if (inProcess) {
+    // Nothing interrupts a synchronous case: the limit becomes the case's wall-time budget.
+    const budget = checked.simulate.maxWallTimeMs;
+    const job = limit === undefined ? checked : { ...checked, simulate: { ...checked.simulate, maxWallTimeMs: Math.min(limit, budget ?? Infinity) } };
     for (const index of indices) {
       if (options.signal?.aborted) break;
-      const r = await runSweepCase(checked, index, {
-        ...(baseUrl !== undefined ? { baseUrl } : {}),
+      const r = await runSweepCase(job, index, {
+        ...modules,
         ...(options.signal ? { signal: options.signal } : {}),
       });
       record(r);
@@ -155,20 +216,26 @@ export async function runSweep(job: SweepJob, options: RunSweepOptions = {}): Pr
       // Let timers and abort handlers run between cases.
       await new Promise<void>((resolve) => setImmediate(resolve));
     }
-  } else {
+  } else if (indices.length > 0) {
+    const memory = options.workerMemoryLimitMb ?? DEFAULT_WORKER_MEMORY_MB;
     await runOnWorkers<number, SweepCaseResult>({
       tasks: indices,
       size: concurrency,
-      spawn: () => spawnSweepWorker({ job: checked, ...(baseUrl !== undefined ? { baseUrl } : {}) }),
+      spawn: () => spawnSweepWorker({ job: checked, ...modules }, { maxOldGenerationSizeMb: memory }),
       ...(options.signal ? { signal: options.signal } : {}),
+      ...(limit !== undefined ? { taskTimeLimitMs: limit } : {}),
       onResult: (_index, r) => record(r),
       onCrash: (index, reason) => {
         record({ index, parameters: sweepCase(checked, index).parameters, status: 'error', message: reason, outputs: {}, error: { name: 'WorkerError' } });
       },
+      onTimeout: (index, ms) => {
+        const e = new FluxstateError('sweep-case-time-limit', `the case ran past the sweep's case time limit of ${ms} ms; its worker was terminated`, [`case ${index}`]);
+        record({ index, parameters: sweepCase(checked, index).parameters, status: 'error', message: e.message, outputs: {}, error: { name: e.name, code: e.code, elements: [...e.elements] } });
+      },
     });
   }
 
-  const cases = indices.map((index): SweepCaseResult => {
+  const cases = all.map((index): SweepCaseResult => {
     const r = results.get(index);
     if (r) return r;
     counts.cancelled++;

@@ -1,6 +1,7 @@
 import { InputError } from '../errors.js';
 import { parseSweepJob } from './parse-sweep-job.js';
 import { sweepCaseCount } from './sweep-cases.js';
+import { sweepJobDigest } from './sweep-journal.js';
 import type { SweepJob } from './sweep-job.js';
 import { emptyCounts, type SweepCaseResult, type SweepResult } from './sweep-result.js';
 
@@ -95,4 +96,67 @@ export function mergeSweepResults(results: readonly SweepResult[]): SweepResult 
     concurrency: Math.max(...results.map((r) => r.concurrency)),
     elapsedMs: results.reduce((s, r) => s + r.elapsedMs, 0),
   };
+}
+
+/** Format tag of a shard file that references its job instead of copying it. */
+export const SWEEP_SHARD_FORMAT = 'fluxstate-sweep-shard/1';
+
+/**
+ * A shard that references its job file instead of copying it: for a large
+ * job (a long list of cases, a big network), each shard file stays a few
+ * lines whatever the size of the job. The job file must travel with the
+ * shards; its fingerprint ({@link sweepJobDigest}) is checked when the shard
+ * runs, so a changed job file is refused instead of giving mixed results.
+ *
+ * @example
+ * ```ts
+ * const shard: SweepShardReference = { format: 'fluxstate-sweep-shard/1', job: '../inrush.json', digest, range: { start: 0, end: 250 } };
+ * ```
+ */
+export interface SweepShardReference {
+  readonly format: typeof SWEEP_SHARD_FORMAT;
+  /** Path of the job file, relative to the folder of the shard file. */
+  readonly job: string;
+  /** Fingerprint of the checked job ({@link sweepJobDigest}). */
+  readonly digest: string;
+  /** The shard's cases: `start` inclusive, `end` exclusive. */
+  readonly range: { readonly start: number; readonly end: number };
+  readonly name?: string;
+}
+
+/**
+ * Split a job into shards like {@link shardSweepJob}, as references to the
+ * job file (`jobPath`, relative to where the shard files will be) rather
+ * than copies of the job.
+ *
+ * @example
+ * ```ts
+ * shardSweepReferences(job, 16, '../inrush.json').forEach((s, k) => writeFileSync(`shards/inrush.shard-${k}.json`, JSON.stringify(s)));
+ * ```
+ */
+export function shardSweepReferences(job: SweepJob, shards: number, jobPath: string): SweepShardReference[] {
+  const copies = shardSweepJob(job, shards);
+  const digest = sweepJobDigest(parseSweepJob(job));
+  return copies.map((s) => ({
+    format: SWEEP_SHARD_FORMAT, job: jobPath, digest, range: s.range!,
+    ...(s.name !== undefined ? { name: s.name } : {}),
+  }));
+}
+
+/**
+ * The job a shard reference stands for: the referenced job, already read
+ * and parsed by the caller, with the shard's range. Throws `InputError`
+ * `'sweep-bad-job'` when its fingerprint differs from the shard's.
+ *
+ * @example
+ * ```ts
+ * const job = jobOfShard(shard, JSON.parse(readFileSync(join(dirname(file), shard.job), 'utf8')));
+ * ```
+ */
+export function jobOfShard(shard: SweepShardReference, referenced: unknown): SweepJob {
+  const job = parseSweepJob(referenced);
+  if (sweepJobDigest(job) !== shard.digest) {
+    throw new InputError('sweep-bad-job', `sweep shard: job: the job file "${shard.job}" is not the one this shard was cut from (its fingerprint differs); shard the job again`, ['job']);
+  }
+  return parseSweepJob({ ...job, range: shard.range });
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { checkJsonShape } from './check-json-shape.js';
 import { schemaError } from './schema-error.js';
 import type { SweepCaseResult, SweepResult } from './sweep-result.js';
 
@@ -66,13 +67,23 @@ export function sweepResultToJson(result: SweepResult): SweepResultJson {
   return {
     ...result,
     format: 'fluxstate-sweep-result/1',
-    cases: result.cases.map((c) => {
-      const outputs: Record<string, JsonNumber | JsonNumber[]> = {};
-      for (const [k, v] of Object.entries(c.outputs)) outputs[k] = typeof v === 'number' ? toJsonNumber(v) : Array.from(v, toJsonNumber);
-      const { time, ...rest } = c;
-      return { ...rest, outputs, ...(time !== undefined ? { time: Array.from(time, toJsonNumber) } : {}) };
-    }),
+    cases: result.cases.map(sweepCaseResultToJson),
   };
+}
+
+/**
+ * One case result as JSON-ready data (what a journal line holds); see {@link sweepResultToJson}.
+ *
+ * @example
+ * ```ts
+ * appendFileSync('run.jsonl', `${JSON.stringify(sweepCaseResultToJson(c))}\n`);
+ * ```
+ */
+export function sweepCaseResultToJson(c: SweepCaseResult): SweepCaseResultJson {
+  const outputs: Record<string, JsonNumber | JsonNumber[]> = {};
+  for (const [k, v] of Object.entries(c.outputs)) outputs[k] = typeof v === 'number' ? toJsonNumber(v) : Array.from(v, toJsonNumber);
+  const { time, ...rest } = c;
+  return { ...rest, outputs, ...(time !== undefined ? { time: Array.from(time, toJsonNumber) } : {}) };
 }
 
 const jsonNumber = z.union([z.number(), z.literal('NaN'), z.literal('Infinity'), z.literal('-Infinity'), z.literal('-0')]);
@@ -116,23 +127,43 @@ const resultSchema = z.object({
  * ```
  */
 export function sweepResultFromJson(json: unknown): SweepResult {
+  checkJsonShape(json, 'sweep-bad-result', 'sweep result');
   const parsed = resultSchema.safeParse(json);
   if (!parsed.success) throw schemaError('sweep-bad-result', 'sweep result', parsed.error.issues, json);
   const { format: _format, ...r } = parsed.data;
   return {
     ...r,
-    cases: r.cases.map((c): SweepCaseResult => {
-      const outputs: Record<string, number | Float64Array> = {};
-      for (const [k, v] of Object.entries(c.outputs)) outputs[k] = Array.isArray(v) ? Float64Array.from(v, fromJsonNumber) : fromJsonNumber(v as JsonNumber);
-      const { time, simulation, ...rest } = c;
-      return {
-        ...(rest as Omit<SweepCaseResult, 'outputs' | 'time' | 'simulation'>),
-        outputs,
-        ...(time !== undefined ? { time: Float64Array.from(time, fromJsonNumber) } : {}),
-        ...(simulation !== undefined
-          ? { simulation: { ...simulation, reachedTime: fromJsonNumber(simulation.reachedTime) } as SweepCaseResult['simulation'] }
-          : {}),
-      };
-    }),
+    cases: r.cases.map((c) => caseFromParsed(c as z.infer<typeof caseSchema>)),
   };
+}
+
+/** A schema-checked case back to a {@link SweepCaseResult}. */
+function caseFromParsed(c: z.infer<typeof caseSchema>): SweepCaseResult {
+  const outputs: Record<string, number | Float64Array> = {};
+  for (const [k, v] of Object.entries(c.outputs)) outputs[k] = Array.isArray(v) ? Float64Array.from(v, fromJsonNumber) : fromJsonNumber(v as JsonNumber);
+  const { time, simulation, ...rest } = c;
+  return {
+    ...(rest as Omit<SweepCaseResult, 'outputs' | 'time' | 'simulation'>),
+    outputs,
+    ...(time !== undefined ? { time: Float64Array.from(time, fromJsonNumber) } : {}),
+    ...(simulation !== undefined
+      ? { simulation: { ...simulation, reachedTime: fromJsonNumber(simulation.reachedTime) } as SweepCaseResult['simulation'] }
+      : {}),
+  };
+}
+
+/**
+ * Read one case result back (a journal line); checks its shape (`InputError`
+ * `'sweep-bad-result'`). The inverse of {@link sweepCaseResultToJson}.
+ *
+ * @example
+ * ```ts
+ * const c = sweepCaseResultFromJson(JSON.parse(line));
+ * ```
+ */
+export function sweepCaseResultFromJson(json: unknown): SweepCaseResult {
+  checkJsonShape(json, 'sweep-bad-result', 'sweep case result');
+  const parsed = caseSchema.safeParse(json);
+  if (!parsed.success) throw schemaError('sweep-bad-result', 'sweep case result', parsed.error.issues, json);
+  return caseFromParsed(parsed.data);
 }

@@ -12,6 +12,7 @@ import type { PoolMessage } from './worker-pool.js';
 export interface SweepWorkerData {
   readonly job: SweepJob;
   readonly baseUrl?: string;
+  readonly allowModuleFolders?: readonly string[];
 }
 
 /** The buffers of a case result's arrays, each once, to move rather than copy them. */
@@ -27,10 +28,14 @@ function transferables(result: SweepCaseResult): ArrayBuffer[] {
 
 const port = parentPort;
 if (port) {
-  const { job, baseUrl } = workerData as SweepWorkerData;
+  const { job, baseUrl, allowModuleFolders } = workerData as SweepWorkerData;
+  const options = {
+    ...(baseUrl !== undefined ? { baseUrl } : {}),
+    ...(allowModuleFolders !== undefined ? { allowModuleFolders } : {}),
+  };
   port.on('message', (m: PoolMessage<number, SweepCaseResult>) => {
     if (m.type !== 'run') return;
-    void runSweepCase(job, m.task, baseUrl !== undefined ? { baseUrl } : {}).then((result) => {
+    void runSweepCase(job, m.task, options).then((result) => {
       port.postMessage({ type: 'done', result } satisfies PoolMessage<number, SweepCaseResult>, transferables(result));
     });
   });

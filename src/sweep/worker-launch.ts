@@ -1,4 +1,4 @@
-import { Worker } from 'node:worker_threads';
+import { Worker, type ResourceLimits } from 'node:worker_threads';
 import type { SweepWorkerData } from './sweep-worker.js';
 
 /**
@@ -23,7 +23,7 @@ export function sweepWorkerLaunch(): { readonly url: URL; readonly execArgv?: st
 }
 
 /** Start one sweep worker with the job. @internal */
-export function spawnSweepWorker(data: SweepWorkerData): Worker {
+export function spawnSweepWorker(data: SweepWorkerData, resourceLimits?: ResourceLimits): Worker {
   const { url, execArgv } = sweepWorkerLaunch();
-  return new Worker(url, { workerData: data, ...(execArgv ? { execArgv } : {}) });
+  return new Worker(url, { workerData: data, ...(execArgv ? { execArgv } : {}), ...(resourceLimits ? { resourceLimits } : {}) });
 }

@@ -28,6 +28,14 @@ export interface RunOnWorkersOptions<T, R> {
   readonly onCrash: (task: T, reason: string) => void;
   /** Every worker that exits, for tests and diagnostics. */
   readonly onWorkerExit?: (code: number) => void;
+  /**
+   * Wall time one task may take, ms: past it the worker is terminated, the
+   * task reported to `onTimeout`, and a new worker takes the remaining tasks.
+   * Default: no limit.
+   */
+  readonly taskTimeLimitMs?: number;
+  /** A task ran past `taskTimeLimitMs` and its worker was terminated. */
+  readonly onTimeout?: (task: T, limitMs: number) => void;
 }
 
 /**
@@ -49,9 +57,11 @@ export function runOnWorkers<T, R>(options: RunOnWorkersOptions<T, R>): Promise<
   let settled = false;
 
   return new Promise((resolve, reject) => {
+    const timers = new Set<ReturnType<typeof setTimeout>>();
     const stop = (then: () => void): void => {
       if (settled) return;
       settled = true;
+      for (const t of timers) clearTimeout(t);
       signal?.removeEventListener('abort', onAbort);
       void Promise.all([...live].map((w) => w.terminate())).then(then, then);
     };
@@ -75,13 +85,24 @@ export function runOnWorkers<T, R>(options: RunOnWorkersOptions<T, R>): Promise<
       const worker = options.spawn();
       live.add(worker);
       let ready = false;
-      let busy: { task: T } | undefined;
+      let busy: { task: T; timer?: ReturnType<typeof setTimeout> } | undefined;
+      let timedOut = false;
       let lastError: Error | undefined;
+      const limit = options.taskTimeLimitMs;
       const next = (): void => {
         if (settled) return;
         const task = queue.shift();
         if (task === undefined) return;
         busy = { task };
+        if (limit !== undefined) {
+          const timer = setTimeout(() => {
+            timers.delete(timer);
+            timedOut = true;
+            void worker.terminate();
+          }, limit);
+          timers.add(timer);
+          busy.timer = timer;
+        }
         worker.postMessage({ type: 'run', task } satisfies PoolMessage<T, R>);
       };
       worker.on('message', (m: PoolMessage<T, R>) => {
@@ -89,8 +110,10 @@ export function runOnWorkers<T, R>(options: RunOnWorkersOptions<T, R>): Promise<
         if (m.type === 'ready') {
           ready = true;
           next();
-        } else if (m.type === 'done' && busy) {
-          const { task } = busy;
+        } else if (m.type === 'done' && busy && !timedOut) {
+          const { task, timer } = busy;
+          clearTimeout(timer);
+          if (timer) timers.delete(timer);
           busy = undefined;
           if (!guarded(() => options.onResult(task, m.result))) return;
           taskDone();
@@ -110,10 +133,19 @@ export function runOnWorkers<T, R>(options: RunOnWorkersOptions<T, R>): Promise<
           return;
         }
         if (busy) {
-          const { task } = busy;
+          const { task, timer } = busy;
+          clearTimeout(timer);
+          if (timer) timers.delete(timer);
           busy = undefined;
-          const why = lastError ? `${lastError.name}: ${lastError.message}` : `the worker exited with code ${code}`;
-          if (!guarded(() => options.onCrash(task, `worker thread died while running this case (${why})`))) return;
+          if (timedOut && limit !== undefined) {
+            const report = options.onTimeout
+              ? () => options.onTimeout!(task, limit)
+              : () => options.onCrash(task, `the case ran past its time limit of ${limit} ms; its worker was terminated`);
+            if (!guarded(report)) return;
+          } else {
+            const why = lastError ? `${lastError.name}: ${lastError.message}` : `the worker exited with code ${code}`;
+            if (!guarded(() => options.onCrash(task, `worker thread died while running this case (${why})`))) return;
+          }
           taskDone();
         }
         if (!settled && queue.length > 0 && live.size < options.size) start();

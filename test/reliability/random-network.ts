@@ -8,6 +8,12 @@
  * shunt resistor, or loaded by a resistor. Source amplitudes are scaled so
  * that the flux density reaches 0.05..2.5 T if the winding took the whole
  * voltage (invented test values inside handbook ranges).
+ *
+ * Also, each optional: an eddy resistance on a material tube (sized against
+ * the tube's own reluctance at the source frequency), an RC snubber across a
+ * winding (1 pF..1 uF, so that the mass matrix mixes very different
+ * entries), a scheduled switch in series with a winding (open or closed at
+ * the start, toggling once inside the run). Diodes are to come.
  */
 import fc from 'fast-check';
 import {
@@ -47,6 +53,12 @@ export type MaterialPlan =
 
 export interface TubePlan {
   readonly material: MaterialPlan;
+  /**
+   * Eddy resistance as a multiple of the tube's reluctance over the base
+   * angular frequency (R_e omega / R_m: 0 none, ~1 the eddy term as large
+   * as the reluctance drop). Ignored for air gaps.
+   */
+  readonly eddy: number;
   /** Path length, m. */
   readonly length: number;
   /** Area, m^2. */
@@ -67,6 +79,10 @@ export interface WindingPlan {
   readonly resistance: number;
   readonly orientation: 1 | -1;
   readonly circuit: CircuitPlan;
+  /** An RC snubber across the winding, or none. */
+  readonly snubber: { readonly resistance: number; readonly capacitance: number } | null;
+  /** A switch in series with the winding: its state at t = 0 and when (fraction of the run) it toggles. */
+  readonly switch: { readonly closed: boolean; readonly at: number } | null;
 }
 
 export interface NetworkPlan {
@@ -101,6 +117,7 @@ const materialArb: fc.Arbitrary<MaterialPlan> = fc.oneof(
 
 const tubeArb: fc.Arbitrary<TubePlan> = fc.record({
   material: materialArb,
+  eddy: fc.oneof(fc.constant(0), logUniform(1e-3, 10)),
   length: logUniform(0.02, 0.2),
   area: logUniform(2e-5, 1e-3),
 });
@@ -127,6 +144,8 @@ const windingArb: fc.Arbitrary<WindingPlan> = fc.record({
   resistance: logUniform(0.05, 5),
   orientation: fc.constantFrom(1 as const, -1 as const),
   circuit: circuitArb,
+  snubber: fc.option(fc.record({ resistance: logUniform(1, 1e3), capacitance: logUniform(1e-12, 1e-6) }), { nil: null, freq: 3 }),
+  switch: fc.option(fc.record({ closed: fc.boolean(), at: fc.double({ min: 0.05, max: 0.95, noNaN: true }) }), { nil: null, freq: 3 }),
 });
 
 /** Random valid network plans (at least one driven winding). */
@@ -164,6 +183,8 @@ export interface BuiltNetwork {
   readonly net: NetworkBuilder;
   readonly magneticNodes: readonly MagneticNode[];
   readonly tubes: readonly FluxTube[];
+  /** Tubes with an eddy resistance. */
+  readonly eddyTubes: readonly FluxTube[];
   readonly windings: readonly Winding[];
   readonly elements: readonly TwoTerminal[];
   readonly nodes: readonly ElectricNode[];
@@ -191,6 +212,7 @@ export function buildNetwork(plan: NetworkPlan, name = 'random'): BuiltNetwork {
   const top = Array.from({ length: k + 1 }, (_, i) => net.magneticNode(`T${i}`));
   const bottom = Array.from({ length: k + 1 }, (_, i) => net.magneticNode(`B${i}`));
   const ends: [MagneticNode, MagneticNode, string][] = [];
+  const eddyTubes: FluxTube[] = [];
   for (let i = 0; i <= k; i++) ends.push([bottom[i]!, top[i]!, `leg ${i}`]);
   for (let i = 0; i < k; i++) ends.push([top[i]!, top[i + 1]!, `top ${i}`], [bottom[i + 1]!, bottom[i]!, `bottom ${i}`]);
   const tubes: FluxTube[] = ends.map(([from, to, tubeName], j) => {
@@ -198,7 +220,15 @@ export function buildNetwork(plan: NetworkPlan, name = 'random'): BuiltNetwork {
     if (t.material.kind === 'gap') {
       return net.airGap(tubeName, { from, to, length: t.material.length, area: t.area, fringingFactor: t.material.fringing });
     }
-    return net.fluxTube(tubeName, { from, to, length: t.length, area: t.area, material: materialSpec(t.material) });
+    const spec = materialSpec(t.material);
+    // The eddy resistance as a multiple of R_m / omega, with R_m from the initial permeability (an estimate for sizing only).
+    const mur = spec.kind === 'linear' ? spec.relativePermeability : spec.kind === 'frohlich-kennelly' ? spec.initialRelativePermeability : 1000;
+    const eddyResistance = t.eddy > 0 ? (t.eddy * t.length) / (4e-7 * Math.PI * mur * t.area * 2 * Math.PI * plan.frequency) : undefined;
+    const tube = net.fluxTube(tubeName, {
+      from, to, length: t.length, area: t.area, material: spec, ...(eddyResistance !== undefined ? { eddyResistance } : {}),
+    });
+    if (eddyResistance !== undefined) eddyTubes.push(tube);
+    return tube;
   });
   const withArea = [...tubes];
   const magneticNodes = [...top, ...bottom];
@@ -218,11 +248,25 @@ export function buildNetwork(plan: NetworkPlan, name = 'random'): BuiltNetwork {
   plan.windings.forEach((w, j) => {
     const tube = withArea[w.tube % withArea.length]!;
     const area = plan.tubes[(w.tube % withArea.length) % plan.tubes.length]!.area;
-    const p = net.node(`w${j}`);
-    nodes.push(p);
-    const winding = net.winding(`winding ${j}`, { tube, turns: w.turns, resistance: w.resistance, orientation: w.orientation, plus: p, minus: net.ground });
+    const top = net.node(`w${j}`);
+    nodes.push(top);
+    const winding = net.winding(`winding ${j}`, { tube, turns: w.turns, resistance: w.resistance, orientation: w.orientation, plus: top, minus: net.ground });
     windings.push(winding);
     elements.push(winding);
+    if (w.snubber) {
+      const mid = net.node(`snubber ${j}`);
+      nodes.push(mid);
+      elements.push(net.resistor(`snubber R ${j}`, top, mid, w.snubber.resistance));
+      elements.push(net.capacitor(`snubber C ${j}`, mid, net.ground, w.snubber.capacitance));
+    }
+    // The circuit connects to p: the winding's terminal, or the far side of its switch.
+    let p = top;
+    if (w.switch) {
+      p = net.node(`switched ${j}`);
+      nodes.push(p);
+      const at = (w.switch.at * plan.periods) / plan.frequency;
+      elements.push(net.switch(`switch ${j}`, p, top, { closed: w.switch.closed, schedule: [{ time: at, closed: !w.switch.closed }] }));
+    }
     const c = w.circuit;
     if (c.kind === 'load') {
       elements.push(net.resistor(`load ${j}`, p, net.ground, c.load));
@@ -252,7 +296,7 @@ export function buildNetwork(plan: NetworkPlan, name = 'random'): BuiltNetwork {
   });
   const area = Math.min(...plan.tubes.map((t) => t.area));
   return {
-    net, magneticNodes, tubes, windings, elements, nodes, tubesWithArea: withArea,
+    net, magneticNodes, tubes, eddyTubes, windings, elements, nodes, tubesWithArea: withArea,
     stopTime: plan.periods / plan.frequency,
     shortestPeriod: 1 / (highest * plan.frequency),
     scale: { voltage, current: Math.max(current, voltage / Math.min(...plan.windings.map((w) => w.resistance))), area },

@@ -20,21 +20,26 @@ parentPort.on('message', (m) => {
 parentPort.postMessage({ type: 'ready' });
 `;
 
-function pool(tasks: number[], size: number, signal?: AbortSignal) {
+function pool(tasks: number[], size: number, signal?: AbortSignal, extra: { taskTimeLimitMs?: number; onResult?: (count: number) => void } = {}) {
   const shared = new SharedArrayBuffer(4);
   const results: [number, number][] = [];
   const crashes: [number, string][] = [];
+  const timeouts: [number, number][] = [];
   const exits: number[] = [];
   const run = runOnWorkers<number, number>({
     tasks,
     size,
     spawn: () => new Worker(WORKER, { eval: true, workerData: { shared } }),
     ...(signal ? { signal } : {}),
-    onResult: (task, result) => results.push([task, result]),
+    ...(extra.taskTimeLimitMs !== undefined ? { taskTimeLimitMs: extra.taskTimeLimitMs, onTimeout: (task: number, ms: number) => timeouts.push([task, ms]) } : {}),
+    onResult: (task, result) => {
+      results.push([task, result]);
+      extra.onResult?.(results.length);
+    },
     onCrash: (task, reason) => crashes.push([task, reason]),
     onWorkerExit: (code) => exits.push(code),
   });
-  return { run, results, crashes, exits };
+  return { run, results, crashes, timeouts, exits };
 }
 
 describe('runOnWorkers', () => {
@@ -59,12 +64,23 @@ describe('runOnWorkers', () => {
   });
 
   it('terminates every worker on abort, even one in an endless loop', async () => {
+    // Abort once both finite tasks are done (an event, not a timer: on a loaded machine a
+    // fixed delay may come before the workers have even started). Task -3 never ends by itself.
     const controller = new AbortController();
-    const p = pool([-3, 1, 2], 2, controller.signal);
-    setTimeout(() => controller.abort(), 200);
+    const p = pool([-3, 1, 2], 2, controller.signal, { onResult: (count) => count === 2 && controller.abort() });
     expect(await p.run).toBe('cancelled');
     expect(p.results.map(([t]) => t).sort()).toEqual([1, 2]);
     expect(p.exits).toHaveLength(2); // resolved only after both threads exited
+  });
+
+  it('terminates the worker of a task past the time limit, reports it, and runs the rest on a new worker', async () => {
+    // Task -3 never ends, so whatever the machine's load it passes the limit; the finite tasks (a
+    // message round trip each) run on the replacement worker, far inside the limit.
+    const p = pool([-3, 1, 2, 3], 1, undefined, { taskTimeLimitMs: 2000 });
+    expect(await p.run).toBe('complete');
+    expect(p.timeouts).toEqual([[-3, 2000]]);
+    expect(p.crashes).toEqual([]);
+    expect(p.results.map(([t]) => t).sort()).toEqual([1, 2, 3]);
   });
 
   it('rejects when a worker cannot start', async () => {
