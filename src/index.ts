@@ -148,6 +148,7 @@ export {
   type FluxDensitySeries,
 } from './analysis/metrics/flux-density-margin.js';
 export { inrushRatio, type InrushRatio, type InrushRatioOptions } from './analysis/metrics/inrush-ratio.js';
+export { harmonics, type Harmonics, type HarmonicsOptions } from './analysis/metrics/harmonics.js';
 
 // Analysis: core loss post-processing (Steinmetz, iGSE)
 export type { SteinmetzCoefficients } from './analysis/core-loss/steinmetz-coefficients.js';
