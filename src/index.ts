@@ -200,3 +200,11 @@ export { resultCoreLoss, type ResultCoreLossOptions } from './analysis/core-loss
 export { validateDescription } from './network/validate-description.js';
 export { checkMaterialLaw } from './materials/check-material-law.js';
 export type { WaveformOwner } from './waveforms/waveform-error.js';
+// Analysis: inductances of windings at an operating point
+export {
+  inductanceMatrix,
+  type InductanceMatrix,
+  type InductanceMatrixOptions,
+  type OperatingPointTube,
+} from './analysis/inductance/inductance-matrix.js';
+export { incrementalInductance, type InductanceCurve } from './analysis/inductance/incremental-inductance.js';

@@ -108,6 +108,8 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
     lines: [/^status: success/m, /^report: .*report\.html$/m],
     check: (stdout) => expectPageOutput(readFileSync(join(ROOT, 'docs', 'guide', 'getting-started.md'), 'utf8'), stdout),
   },
+  'harmonics.ts': { lines: [/^ +0 A +\d+\.\d+ +\d/m, /^ +1 A +\d+\.\d+/m, /^Caution: model estimates/m] },
+  'inductance-matrix.ts': { lines: [/^  coupling factor k = 0\.99\d+$/m, /^ +12 A +\d+\.\d+ uH/m, /^Caution: model estimates/m] },
   'inrush-study.ts': { lines: [/^12 cases in /m, /^CAUTION: engineering estimates/m] },
   'materials.ts': { lines: [/^fit of the brauer law/m] },
   'readme.ts': {
