@@ -208,3 +208,4 @@ export {
   type OperatingPointTube,
 } from './analysis/inductance/inductance-matrix.js';
 export { incrementalInductance, type InductanceCurve } from './analysis/inductance/incremental-inductance.js';
+export { worstCase, type WorstCase, type WorstCaseOptions, type WorstCaseParameter } from './analysis/search/worst-case.js';

@@ -121,6 +121,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
+  'worst-case.ts': { lines: [/^largest inrush peak: \d+\.\d A at -?\d+\.\d deg, remanence 0\.80 T/m, /^smallest margin to B_sat/m, /^CAUTION/m] },
   'waveforms.ts': { lines: [/^net volt-seconds per period:/m] },
 };
 
