@@ -209,3 +209,4 @@ export {
 } from './analysis/inductance/inductance-matrix.js';
 export { incrementalInductance, type InductanceCurve } from './analysis/inductance/incremental-inductance.js';
 export { worstCase, type WorstCase, type WorstCaseOptions, type WorstCaseParameter } from './analysis/search/worst-case.js';
+export { sanityWarnings, resultSanityWarnings, type SanityWarning } from './analysis/sanity-warnings.js';
