@@ -210,3 +210,5 @@ export {
 export { incrementalInductance, type InductanceCurve } from './analysis/inductance/incremental-inductance.js';
 export { worstCase, type WorstCase, type WorstCaseOptions, type WorstCaseParameter } from './analysis/search/worst-case.js';
 export { sanityWarnings, resultSanityWarnings, type SanityWarning } from './analysis/sanity-warnings.js';
+export { zeroSequenceReluctance, type ZeroSequencePath } from './geometry/tank-path.js';
+export type { LayoutTankPath } from './geometry/core-layout.js';
