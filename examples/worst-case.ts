@@ -45,7 +45,7 @@ const inrush = worstCase({
   parameters,
   evaluate: ({ angle, remanence }) => {
     const { result, primary } = energise(angle!, remanence!);
-    return seriesPeak(result.time, result.current(primary)).maxAbs;
+    return seriesPeak(result.time, result.current(primary)).peak;
   },
 });
 console.log(

@@ -101,7 +101,7 @@ export function inrushRatio(t: ArrayLike<number>, i: ArrayLike<number>, options:
   const at = options.at !== undefined ? { at: options.at } : {};
   const all = seriesPeak(t, i, { name, ...at });
   const steady = seriesPeak(t, i, { name, from: steadyFrom, ...at });
-  if (steady.maxAbs === 0) {
+  if (steady.peak === 0) {
     throw new InputError('bad-series', `${name}: the current is zero over the last ${cycles} cycles; there is no steady-state peak to compare with`, [name]);
   }
   const tolerance = options.steadyTolerance ?? 0.02;
@@ -113,11 +113,11 @@ export function inrushRatio(t: ArrayLike<number>, i: ArrayLike<number>, options:
   let dcPart = 0;
   for (let from = firstCycle; from < last - 0.5 * period; from += period) {
     const to = Math.min(last, from + period);
-    cyclePeaks.push(seriesPeak(t, i, { name, from, to, ...at }).maxAbs);
+    cyclePeaks.push(seriesPeak(t, i, { name, from, to, ...at }).peak);
     dcPart = Math.max(dcPart, Math.abs(seriesMean(t, i, { name, from, to })));
   }
   const warnings: string[] = [];
-  const change = cyclePeaks.length >= 2 ? Math.abs(cyclePeaks[cyclePeaks.length - 1]! - cyclePeaks[0]!) / steady.maxAbs : 0;
+  const change = cyclePeaks.length >= 2 ? Math.abs(cyclePeaks[cyclePeaks.length - 1]! - cyclePeaks[0]!) / steady.peak : 0;
   if (change > tolerance) {
     warnings.push(
       `${name}: the current is not steady in the last ${cycles} cycle(s): the cycle peak goes from ${cyclePeaks[0]!.toPrecision(4)} to ` +
@@ -125,18 +125,18 @@ export function inrushRatio(t: ArrayLike<number>, i: ArrayLike<number>, options:
         'simulate more cycles (dcOffsetDecay gives the time constant) or start from periodicSteadyState',
     );
   }
-  if (dcPart / steady.maxAbs > tolerance) {
+  if (dcPart / steady.peak > tolerance) {
     warnings.push(
-      `${name}: a cycle of the steady window still has a DC part of ${(100 * dcPart / steady.maxAbs).toFixed(1)} % of its peak (a decaying offset); ` +
+      `${name}: a cycle of the steady window still has a DC part of ${(100 * dcPart / steady.peak).toFixed(1)} % of its peak (a decaying offset); ` +
         'the steady peak is overestimated and the ratio understated: simulate more cycles',
     );
   }
   return {
-    peak: all.maxAbs,
-    peakTime: all.timeOfMaxAbs,
-    steadyPeak: steady.maxAbs,
+    peak: all.peak,
+    peakTime: all.peakTime,
+    steadyPeak: steady.peak,
     steadyFrom,
-    ratio: all.maxAbs / steady.maxAbs,
+    ratio: all.peak / steady.peak,
     steady: warnings.length === 0,
     warnings,
   };

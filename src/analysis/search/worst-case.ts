@@ -108,7 +108,7 @@ export interface WorstCase {
  *     const { net, primary } = transformer(angle!, remanence!);
  *     const result = simulate(net, { stopTime: 0.04 });
  *     if (result.status !== 'success') return Number.NaN;
- *     return seriesPeak(result.time, result.current(primary)).maxAbs;
+ *     return seriesPeak(result.time, result.current(primary)).peak;
  *   },
  * });
  * console.log(`largest inrush peak ${worst.objective.toFixed(1)} A at ${worst.values.angle} deg, B_r ${worst.values.remanence} T`);
