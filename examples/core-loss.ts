@@ -62,6 +62,6 @@ for (const m of fluxDensityMargins(t, [
   { name: 'legs', b: bLeg, saturation: 0.38 },
   { name: 'yokes', b: bYoke, saturation: 0.38 },
 ])) {
-  console.log(`${m.name}: peak |B| ${m.peak.toFixed(4)} T at ${(m.time * 1e6).toFixed(2)} us, margin ${m.margin.toFixed(4)} T (${(100 * m.ratio).toFixed(1)} % of B_sat)`);
+  console.log(`${m.name}: peak |B| ${m.peak.toFixed(4)} T at ${(m.peakTime * 1e6).toFixed(2)} us, margin ${m.margin.toFixed(4)} T (${(100 * m.ratio).toFixed(1)} % of B_sat)`);
 }
 console.log('Caution: engineering estimates from a model; local codes, standards and licensed practice govern.');

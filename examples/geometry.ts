@@ -33,8 +33,8 @@ const mur = 2000;
 console.log(`\nE core layout: paths (linear reluctance at mu_r = ${mur})`);
 for (const p of layout.paths) {
   const geometry =
-    p.kind === 'leakage'
-      ? 'leakage'
+    p.kind === 'leakage' || p.kind === 'tank'
+      ? p.kind
       : `l = ${(p.length * 1e3).toFixed(3).padStart(7)} mm  A = ${(p.area * 1e6).toFixed(2).padStart(7)} mm^2` +
         (p.kind === 'gap' ? `  (fringing ${p.fringing}, F = ${p.fringingFactor.toFixed(4)})` : '');
   console.log(`  ${p.name.padEnd(18)} ${p.from.padEnd(13)} -> ${p.to.padEnd(13)} ${geometry.padEnd(40)} R = ${pathReluctance(p, mur).toExponential(4)} A/Wb`);

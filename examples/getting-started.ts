@@ -33,7 +33,7 @@ console.log(`status: ${result.status} (${result.message}), ${result.stats.accept
 
 const b = result.fluxDensity(leg); // T
 const margin = fluxDensityMargin(result.time, b, { saturation: steel.saturationFluxDensity ?? 1.97 });
-console.log(`peak |B| ${margin.peak.toFixed(3)} T at ${(margin.time * 1e3).toFixed(1)} ms, margin to saturation ${margin.margin.toFixed(3)} T`);
+console.log(`peak |B| ${margin.peak.toFixed(3)} T at ${(margin.peakTime * 1e3).toFixed(1)} ms, margin to saturation ${margin.margin.toFixed(3)} T`);
 
 const lastCycle = { from: 0.08 };
 const iPrimary = seriesRms(result.time, result.current(primary), lastCycle);

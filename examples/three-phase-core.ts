@@ -25,6 +25,8 @@ import {
   simulate,
   sine,
   threeLimbLayout,
+  inductanceMatrix,
+  zeroSequenceReluctance,
 } from '../src/index.js';
 
 const F = 50; // Hz
@@ -42,10 +44,11 @@ const phases = [
 ] as const;
 const loads = { a: 7.2, b: 7.2, c: 14.4 }; // ohm: phase c carries half the load
 
-const layout = threeLimbLayout({
+const layoutDimensions = {
   limbWidth: mm(60), yokeHeight: mm(60), depth: mm(70), stackingFactor: 0.96,
   windowWidth: mm(55), windowHeight: mm(150),
-});
+};
+const layout = threeLimbLayout(layoutDimensions);
 // Iron section of a limb, and the effective area of each limb's flux tube (IEC 60205 corners give the
 // outer and middle limbs slightly different effective areas).
 const limbArea = layout.legs.find((l) => l.name === 'a')!.area;
@@ -112,4 +115,17 @@ console.log(
     ` + copper ${audit.dissipated.windings.toFixed(1)} J + stored change ${(audit.storedEnd - audit.storedStart).toFixed(3)} J` +
     ` (relative error ${audit.relativeError.toExponential(1)})`,
 );
+
+// Zero-sequence: the same three windings carrying one common current. Without a return path outside the iron the
+// three-limb core carries no common flux at all; a tank path gives it (R0 from an assumed X0 of 0.5 per unit).
+const zImpedance = (U_PHASE * U_PHASE) / (3000 / 3); // ohm per phase, for an invented 3 kVA rating
+const r0 = zeroSequenceReluctance({ turns: N1, frequency: F, reactance: 0.5 * zImpedance });
+for (const [label, zeroSequence] of [['without a tank path', undefined], [`with a tank path of ${r0.toExponential(2)} A/Wb`, { reluctance: r0 }]] as const) {
+  const zsNet = createNetwork('zero-sequence check');
+  const zsCore = addCoreLayout(zsNet, threeLimbLayout({ ...layoutDimensions, ...(zeroSequence ? { zeroSequence } : {}) }), { material: steel });
+  for (const p of phases) zsNet.winding(`primary ${p.limb}`, { tube: zsCore.windingTube(p.limb), turns: N1, plus: zsNet.node(p.limb), minus: zsNet.ground });
+  const m = inductanceMatrix(zsNet, phases.map((p) => `primary ${p.limb}`), { bias: [0.1, 0.1, 0.1] });
+  const l0 = m.fluxLinkage.reduce((s, x) => s + x, 0) / (3 * 0.1);
+  console.log(`zero-sequence inductance per phase ${label}: ${(l0 * 1e3).toFixed(3)} mH (X0 ${(W * l0).toFixed(2)} ohm)`);
+}
 console.log('\nCaution: engineering estimates from a model; local codes, standards and licensed practice govern.');

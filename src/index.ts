@@ -148,6 +148,7 @@ export {
   type FluxDensitySeries,
 } from './analysis/metrics/flux-density-margin.js';
 export { inrushRatio, type InrushRatio, type InrushRatioOptions } from './analysis/metrics/inrush-ratio.js';
+export { harmonics, type Harmonics, type HarmonicsOptions } from './analysis/metrics/harmonics.js';
 
 // Analysis: core loss post-processing (Steinmetz, iGSE)
 export type { SteinmetzCoefficients } from './analysis/core-loss/steinmetz-coefficients.js';
@@ -199,3 +200,15 @@ export { resultCoreLoss, type ResultCoreLossOptions } from './analysis/core-loss
 export { validateDescription } from './network/validate-description.js';
 export { checkMaterialLaw } from './materials/check-material-law.js';
 export type { WaveformOwner } from './waveforms/waveform-error.js';
+// Analysis: inductances of windings at an operating point
+export {
+  inductanceMatrix,
+  type InductanceMatrix,
+  type InductanceMatrixOptions,
+  type OperatingPointTube,
+} from './analysis/inductance/inductance-matrix.js';
+export { incrementalInductance, type InductanceCurve } from './analysis/inductance/incremental-inductance.js';
+export { worstCase, type WorstCase, type WorstCaseOptions, type WorstCaseParameter } from './analysis/search/worst-case.js';
+export { sanityWarnings, resultSanityWarnings, type SanityWarning } from './analysis/sanity-warnings.js';
+export { zeroSequenceReluctance, type ZeroSequencePath } from './geometry/tank-path.js';
+export type { LayoutTankPath } from './geometry/core-layout.js';

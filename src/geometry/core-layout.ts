@@ -113,14 +113,34 @@ export interface LayoutLeakagePath extends LayoutPathBase {
 }
 
 /**
- * One path of a layout: core material, air gap, or leakage.
+ * The zero-sequence return path of a three-phase core-type core: flux that
+ * the limbs carry in phase (zero sequence, or a DC bias common to the three
+ * phases) has no iron return in a three-limb core and closes from the top
+ * yoke to the bottom yoke through the oil, the tank wall and the clamps.
+ * One such path beside each phase limb, between its top and bottom nodes, as
+ * a constant reluctance; the limbs' paths in parallel make the total
+ * reluctance the layout was given. See docs/geometry.md for the value.
+ *
+ * @example
+ * ```ts
+ * const tank = layout.paths.filter((p): p is LayoutTankPath => p.kind === 'tank'); // 'tank-a', 'tank-b', 'tank-c'
+ * ```
+ */
+export interface LayoutTankPath extends LayoutPathBase {
+  readonly kind: 'tank';
+  /** Reluctance of this limb's share, A/Wb. */
+  readonly reluctance: number;
+}
+
+/**
+ * One path of a layout: core material, air gap, leakage, or the tank return.
  *
  * @example
  * ```ts
  * const r = layout.paths.map((p) => pathReluctance(p, 2000)); // A/Wb, linear estimate
  * ```
  */
-export type LayoutPath = LayoutCorePath | LayoutGapPath | LayoutLeakagePath;
+export type LayoutPath = LayoutCorePath | LayoutGapPath | LayoutLeakagePath | LayoutTankPath;
 
 /**
  * The windings geometry a leg was given, with defaults resolved.

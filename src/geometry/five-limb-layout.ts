@@ -1,4 +1,5 @@
 import type { CoreLayout } from './core-layout.js';
+import { withTankPaths, type ZeroSequencePath } from './tank-path.js';
 import { rowLayout, type LegGap, type LegWindings, type RectangularCoreDimensions } from './row-layout.js';
 import type { PhaseLimb } from './three-limb-layout.js';
 
@@ -24,6 +25,12 @@ export interface FiveLimbInput extends RectangularCoreDimensions {
   readonly gaps?: { readonly [L in PhaseLimb | 'return-left' | 'return-right']?: LegGap };
   /** Concentric windings with a leakage path, by phase limb. */
   readonly windings?: { readonly [L in PhaseLimb]?: LegWindings };
+  /**
+   * A zero-sequence return path through the tank (paths 'tank-a', 'tank-b',
+   * 'tank-c' beside the phase limbs). Without it, flux common to the three
+   * limbs can only return through the iron: see docs/geometry.md.
+   */
+  readonly zeroSequence?: ZeroSequencePath;
 }
 
 /**
@@ -49,7 +56,7 @@ export function fiveLimbLayout(input: FiveLimbInput): CoreLayout {
   const ret = input.returnLimbWidth;
   const retWindow = input.returnWindowWidth ?? input.windowWidth;
   const retWindowName = input.returnWindowWidth === undefined ? 'windowWidth' : 'returnWindowWidth';
-  return rowLayout({
+  const layout = rowLayout({
     shape: 'five-limb',
     owner: 'fiveLimbLayout',
     legs: [
@@ -68,4 +75,5 @@ export function fiveLimbLayout(input: FiveLimbInput): CoreLayout {
     ...(input.windings !== undefined ? { windings: input.windings } : {}),
     constants: 'none',
   });
+  return withTankPaths(layout, ['a', 'b', 'c'], input.zeroSequence, 'fiveLimbLayout');
 }

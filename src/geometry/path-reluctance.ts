@@ -5,7 +5,7 @@ import type { LayoutPath } from './core-layout.js';
 /**
  * Reluctance of one layout path, A/Wb, for a LINEAR core material of relative
  * permeability mu_r: core l/(mu0 mu_r A); gap l/(mu0 A) (fringing already in
- * A); leakage its constant reluctance. For hand checks and first estimates;
+ * A); leakage and tank paths their constant reluctance. For hand checks and first estimates;
  * the simulation uses the material's full H(B) law.
  *
  * @example
@@ -30,6 +30,7 @@ export function pathReluctance(path: LayoutPath, relativePermeability: number): 
     case 'gap':
       return path.length / (MU0 * path.area);
     case 'leakage':
+    case 'tank':
       return path.reluctance;
   }
 }

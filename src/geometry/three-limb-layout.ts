@@ -1,4 +1,5 @@
 import type { CoreLayout } from './core-layout.js';
+import { withTankPaths, type ZeroSequencePath } from './tank-path.js';
 import { rowLayout, type LegGap, type LegWindings, type RectangularCoreDimensions } from './row-layout.js';
 
 /**
@@ -29,6 +30,12 @@ export interface ThreeLimbInput extends RectangularCoreDimensions {
   readonly gaps?: { readonly [L in PhaseLimb]?: LegGap };
   /** Concentric windings (e.g. LV inside HV) with a leakage path, by limb. */
   readonly windings?: { readonly [L in PhaseLimb]?: LegWindings };
+  /**
+   * A zero-sequence return path through the tank (paths 'tank-a', 'tank-b',
+   * 'tank-c' beside the phase limbs). Without it, flux common to the three
+   * limbs can only return through the iron: see docs/geometry.md.
+   */
+  readonly zeroSequence?: ZeroSequencePath;
 }
 
 /**
@@ -51,7 +58,7 @@ export interface ThreeLimbInput extends RectangularCoreDimensions {
  * ```
  */
 export function threeLimbLayout(input: ThreeLimbInput): CoreLayout {
-  return rowLayout({
+  const layout = rowLayout({
     shape: 'three-limb',
     owner: 'threeLimbLayout',
     legs: (['a', 'b', 'c'] as const).map((name) => ({ name, width: input.limbWidth, widthName: 'limbWidth', windable: true })),
@@ -64,4 +71,5 @@ export function threeLimbLayout(input: ThreeLimbInput): CoreLayout {
     ...(input.windings !== undefined ? { windings: input.windings } : {}),
     constants: 'none',
   });
+  return withTankPaths(layout, ['a', 'b', 'c'], input.zeroSequence, 'threeLimbLayout');
 }

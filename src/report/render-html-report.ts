@@ -78,7 +78,9 @@ const STATUS_TEXT = { ok: 'OK', warning: 'Warning', alert: 'Alert' } as const;
 function metricTableHtml(table: MetricTable): string {
   const rows = table.rows
     .map((r) => {
-      const badge = r.status ? `<span class="badge badge-${r.status}">${STATUS_TEXT[r.status]}</span>` : '';
+      // validateReportData admits only the three statuses; look them up by own key and escape anyway.
+      const status = r.status !== undefined && Object.hasOwn(STATUS_TEXT, r.status) ? r.status : undefined;
+      const badge = status ? `<span class="badge badge-${esc(status)}">${esc(STATUS_TEXT[status])}</span>` : '';
       return (
         `<tr><td>${esc(r.name)}</td><td class="num">${esc(valueText(r.value, r.digits))}</td>` +
         `<td class="unit">${esc(r.unit ?? '')}</td><td class="note">${badge}${esc(r.note ?? '')}</td></tr>`

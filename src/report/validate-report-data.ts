@@ -12,6 +12,8 @@ function isNumericArray(a: unknown): a is NumericArray {
   );
 }
 
+const STATUSES = ['ok', 'warning', 'alert'] as const;
+
 function requireText(value: unknown, what: string, owner: string): void {
   if (typeof value !== 'string') {
     throw new InputError('report-bad-text', `${what} must be a string, got ${typeof value}; give plain text`, [owner]);
@@ -47,6 +49,7 @@ export function validatePlotGroup(group: PlotGroup): void {
   const where = `plot "${group.title}"`;
   if (group.xLabel !== undefined) requireText(group.xLabel, `${where}: xLabel`, group.title);
   if (group.xUnit !== undefined) requireText(group.xUnit, `${where}: xUnit`, group.title);
+  if (group.description !== undefined) requireText(group.description, `${where}: description`, group.title);
   if (!Array.isArray(group.series) || group.series.length === 0) {
     throw new InputError('report-no-series', `${where} has no series; give at least one series or leave the plot out`, [
       group.title,
@@ -55,6 +58,7 @@ export function validatePlotGroup(group: PlotGroup): void {
   for (const s of group.series) {
     requireText(s.label, `${where}: series label`, group.title);
     requireText(s.unit, `${where}: unit of series "${s.label}"`, s.label);
+    if (s.quantity !== undefined) requireText(s.quantity, `${where}: quantity of series "${s.label}"`, s.label);
     const name = `${where}, series "${s.label}"`;
     if (!isNumericArray(s.t) || !isNumericArray(s.values)) {
       throw new InputError('report-series-length', `${name}: t and values must be arrays of numbers`, [s.label]);
@@ -102,6 +106,7 @@ export function validatePlotGroup(group: PlotGroup): void {
   }
   for (const r of group.references ?? []) {
     requireText(r.label, `${where}: reference label`, group.title);
+    if (r.unit !== undefined) requireText(r.unit, `${where}: unit of reference "${r.label}"`, r.label);
     if (typeof r.value !== 'number' || !Number.isFinite(r.value)) {
       throw new InputError('report-bad-reference', `${where}: reference "${r.label}" has value ${r.value}; give a finite number`, [
         r.label,
@@ -156,21 +161,49 @@ export function validateReportData(data: ReportData): void {
       throw new InputError('report-bad-option', `"${owner}": digits ${digits} must be an integer from 1 to 15`, [owner]);
     }
   };
+  const optionalText = (value: unknown, what: string, owner: string): void => {
+    if (value !== undefined) requireText(value, what, owner);
+  };
+  const numberOrText = (value: unknown, what: string, owner: string): void => {
+    if (typeof value !== 'number') requireText(value, what, owner);
+  };
   for (const section of data.sections) {
     requireText(section.title, 'section title', 'section');
     if (section.description !== undefined) requireText(section.description, `section "${section.title}" description`, section.title);
     for (const group of section.plots ?? []) validatePlotGroup(group);
     for (const table of section.metrics ?? []) {
+      optionalText(table.title, 'metric table title', 'metrics');
+      if (!Array.isArray(table.rows)) throw new InputError('report-bad-text', `metric table "${table.title ?? ''}": rows must be an array`, ['metrics']);
       for (const row of table.rows) {
         requireText(row.name, 'metric name', table.title ?? 'metrics');
+        numberOrText(row.value, `metric "${row.name}" value`, row.name);
+        optionalText(row.unit, `metric "${row.name}" unit`, row.name);
+        optionalText(row.note, `metric "${row.name}" note`, row.name);
         checkDigits(row.digits, row.name);
+        // The status becomes a class name and a word in the page: only the three known values pass.
+        if (row.status !== undefined && !(STATUSES as readonly unknown[]).includes(row.status)) {
+          throw new InputError(
+            'report-bad-option',
+            `metric "${row.name}": status ${JSON.stringify(row.status)} is not one of ${STATUSES.map((x) => `'${x}'`).join(', ')}; use one of them or leave it out`,
+            [row.name],
+          );
+        }
       }
+    }
+    if (section.network !== undefined) {
+      optionalText(section.network.title, 'network table title', 'network');
+      if (!Array.isArray(section.network.rows)) throw new InputError('report-bad-text', 'network table: rows must be an array', ['network']);
     }
     for (const row of section.network?.rows ?? []) {
       requireText(row.element, 'network element name', 'network');
       requireText(row.kind, `network element "${row.element}" kind`, row.element);
+      optionalText(row.connections, `network element "${row.element}" connections`, row.element);
+      optionalText(row.note, `network element "${row.element}" note`, row.element);
+      if (!Array.isArray(row.parameters)) throw new InputError('report-bad-text', `network element "${row.element}": parameters must be an array`, [row.element]);
       for (const p of row.parameters) {
         requireText(p.name, `parameter of "${row.element}"`, row.element);
+        numberOrText(p.value, `parameter "${p.name}" of "${row.element}"`, row.element);
+        optionalText(p.unit, `unit of parameter "${p.name}" of "${row.element}"`, row.element);
         checkDigits(p.digits, `${row.element}.${p.name}`);
       }
     }

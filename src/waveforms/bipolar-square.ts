@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner, requireSpecKind } from './waveform-error.js';
 import { vertexWaveform } from './vertex-waveform.js';
 
 /**
@@ -95,6 +95,7 @@ export function bipolarSquareOnTimes(spec: BipolarSquareSpec): { positive: numbe
  * ```
  */
 export function bipolarSquareWaveform(spec: BipolarSquareSpec, owner: WaveformOwner = 'waveform'): Waveform {
+  requireSpecKind(spec, 'bipolar-square', 'bipolarSquareWaveform', owner);
   const { amplitude, period } = spec;
   const deadTime = spec.deadTime ?? 0;
   const mismatch = spec.mismatch ?? 0;

@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { waveformError, type WaveformOwner } from './waveform-error.js';
+import { waveformError, type WaveformOwner, requireSpecKind } from './waveform-error.js';
 
 /**
  * Plain-data description of a constant (DC) waveform.
@@ -36,6 +36,7 @@ export function constant(value: number): ConstantSpec {
  * ```
  */
 export function constantWaveform(spec: ConstantSpec, owner: WaveformOwner = 'waveform'): Waveform {
+  requireSpecKind(spec, 'constant', 'constantWaveform', owner);
   if (!Number.isFinite(spec.value)) {
     throw waveformError(owner, `constant value ${spec.value} is not finite; give a finite number`);
   }

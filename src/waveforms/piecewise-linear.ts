@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner, requireSpecKind } from './waveform-error.js';
 import { vertexWaveform } from './vertex-waveform.js';
 
 /**
@@ -75,6 +75,7 @@ export function piecewiseLinear(params: Omit<PiecewiseLinearSpec, 'kind'>): Piec
  * ```
  */
 export function piecewiseLinearWaveform(spec: PiecewiseLinearSpec, owner: WaveformOwner = 'waveform'): Waveform {
+  requireSpecKind(spec, 'piecewise-linear', 'piecewiseLinearWaveform', owner);
   const { times, values, period } = spec;
   const n = times.length;
   if (n === 0) throw waveformError(owner, 'piecewise-linear table is empty; give at least one (time, value) vertex');

@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner, requireSpecKind } from './waveform-error.js';
 import { vertexWaveform } from './vertex-waveform.js';
 
 /**
@@ -77,6 +77,7 @@ export function pulse(params: Omit<PulseSpec, 'kind'>): PulseSpec {
  * ```
  */
 export function pulseWaveform(spec: PulseSpec, owner: WaveformOwner = 'waveform'): Waveform {
+  requireSpecKind(spec, 'pulse', 'pulseWaveform', owner);
   const low = spec.low ?? 0;
   const { high, period, duty } = spec;
   const delay = spec.delay ?? 0;

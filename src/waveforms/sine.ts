@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { waveformError, type WaveformOwner } from './waveform-error.js';
+import { waveformError, type WaveformOwner, requireSpecKind } from './waveform-error.js';
 
 /**
  * Plain-data description of a sine wave switched on at `start`:
@@ -47,6 +47,7 @@ export function sine(params: Omit<SineSpec, 'kind'>): SineSpec {
  * ```
  */
 export function sineWaveform(spec: SineSpec, owner: WaveformOwner = 'waveform'): Waveform {
+  requireSpecKind(spec, 'sine', 'sineWaveform', owner);
   const { amplitude, frequency } = spec;
   const phase = spec.phase ?? 0;
   const offset = spec.offset ?? 0;

@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { requireFinite, waveformError, type WaveformOwner } from './waveform-error.js';
+import { requireFinite, waveformError, type WaveformOwner, requireSpecKind } from './waveform-error.js';
 
 /**
  * Description of a waveform given by a user function of time.
@@ -83,6 +83,7 @@ function functionLabel(spec: UserFunctionSpec): string {
  * ```
  */
 export function userFunctionWaveform(spec: UserFunctionSpec, owner: WaveformOwner = 'waveform'): Waveform {
+  requireSpecKind(spec, 'function', 'userFunctionWaveform', owner);
   const fn = spec.fn;
   const label = functionLabel(spec);
   if (fn === undefined) {

@@ -1,5 +1,5 @@
 import type { Waveform } from './waveform.js';
-import { waveformError, type WaveformOwner } from './waveform-error.js';
+import { waveformError, type WaveformOwner, notASpecMessage } from './waveform-error.js';
 import { constantWaveform, type ConstantSpec } from './constant.js';
 import { sineWaveform, type SineSpec } from './sine.js';
 import { pulseWaveform, type PulseSpec } from './pulse.js';
@@ -48,9 +48,6 @@ export function compileWaveform(spec: WaveformSpec, owner: WaveformOwner = 'wave
     case 'function':
       return userFunctionWaveform(spec, owner);
     default:
-      throw waveformError(
-        owner,
-        `waveform kind ${JSON.stringify((spec as { kind?: unknown }).kind)} is not known; use 'constant', 'sine', 'pulse', 'bipolar-square', 'piecewise-linear' or 'function'`,
-      );
+      throw waveformError(owner, notASpecMessage(spec));
   }
 }

@@ -108,6 +108,8 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
     lines: [/^status: success/m, /^report: .*report\.html$/m],
     check: (stdout) => expectPageOutput(readFileSync(join(ROOT, 'docs', 'guide', 'getting-started.md'), 'utf8'), stdout),
   },
+  'harmonics.ts': { lines: [/^ +0 A +\d+\.\d+ +\d/m, /^ +1 A +\d+\.\d+/m, /^Caution: model estimates/m] },
+  'inductance-matrix.ts': { lines: [/^  coupling factor k = 0\.99\d+$/m, /^ +12 A +\d+\.\d+ uH/m, /^Caution: model estimates/m] },
   'inrush-study.ts': { lines: [/^12 cases in /m, /^CAUTION: engineering estimates/m] },
   'materials.ts': { lines: [/^fit of the brauer law/m] },
   'readme.ts': {
@@ -119,6 +121,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
+  'worst-case.ts': { lines: [/^largest inrush peak: \d+\.\d A at -?\d+\.\d deg, remanence 0\.80 T/m, /^smallest margin to B_sat/m, /^CAUTION/m] },
   'waveforms.ts': { lines: [/^net volt-seconds per period:/m] },
 };
 

@@ -9,6 +9,7 @@ import { pathToFileURL } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEFAULT_CAUTION, formatNumber, renderSvgPlot, writeReport, type ReportData } from '../../src/report/index.js';
+import { HOSTILE, hostileReport } from './hostile-report.js';
 
 const CANDIDATES = [process.env.FLUXSTATE_CHROMIUM, '/usr/bin/chromium', '/usr/bin/chromium-browser'];
 const executablePath = CANDIDATES.find((p): p is string => !!p && existsSync(p));
@@ -241,3 +242,70 @@ describe.skipIf(!executablePath)(
     });
   },
 );
+
+describe.skipIf(!executablePath)('renderHtmlReport in headless Chromium: a hostile string in every field of the data', () => {
+  let browser: Browser;
+  let page: Page;
+  const problems: string[] = [];
+  const requests: string[] = [];
+  const file = resolve('out', 'report-test', 'hostile-report.html');
+
+  beforeAll(async () => {
+    writeReport(file, hostileReport());
+    browser = await chromium.launch({
+      executablePath,
+      args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    });
+    page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+    page.on('dialog', (d) => {
+      problems.push(`dialog: ${d.message()}`);
+      void d.dismiss();
+    });
+    page.on('framenavigated', (f) => {
+      if (f === page.mainFrame() && f.url() !== pathToFileURL(file).href) problems.push(`navigated to ${f.url()}`);
+    });
+    page.on('request', (r) => requests.push(r.url()));
+    await page.goto(pathToFileURL(file).href);
+    await page.waitForSelector('html[data-plots-ready]', { timeout: 10_000 });
+    // Give a meta refresh or a deferred handler the chance to fire, then hover and focus everything.
+    await page.waitForTimeout(300);
+    await page.mouse.move(300, 300);
+    await page.keyboard.press('Tab');
+    await page.keyboard.press('Tab');
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it('runs nothing from the data: no handler fired, no element injected, no navigation, no request', async () => {
+    expect(await page.evaluate(() => (globalThis as unknown as PageGlobals).__injected)).toBeUndefined();
+    expect(await page.$$eval('img, svg, iframe, object, embed, style:not(head style)', (els) => els.length)).toBe(0);
+    expect(await page.$$eval('a', (as) => as.map((a) => a.getAttribute('href')))).toEqual(['#section-1']);
+    expect(await page.$$eval('meta[http-equiv="refresh"]', (els) => els.length)).toBe(0);
+    expect(await page.$$eval('[onerror], [onload], [onmouseover], [onfocus], [autofocus]', (els) => els.length)).toBe(0);
+    expect(await page.$$eval('script', (els) => els.length)).toBe(3);
+    expect(page.url()).toBe(pathToFileURL(file).href);
+    expect(problems).toEqual([]);
+    expect(requests.every((u) => u.startsWith('file://'))).toBe(true);
+    expect(await page.getAttribute('html', 'data-plots-ready')).toBe('1');
+  });
+
+  it('shows every string as plain text (page text without the scripts, plus the page title)', async () => {
+    const text = await page.evaluate(() => {
+      const doc = (globalThis as unknown as { document: { title: string; body: { cloneNode(deep: boolean): { querySelectorAll(s: string): { forEach(f: (e: { remove(): void }) => void): void }; textContent: string | null } } } }).document;
+      const body = doc.body.cloneNode(true);
+      body.querySelectorAll('script').forEach((s) => s.remove());
+      return `${doc.title}\n${body.textContent ?? ''}`;
+    });
+    // Each string appears verbatim as text, except the quantities: they title the y axes, which uPlot paints on
+    // the canvas (inert); there they are the axis labels given to the chart.
+    const axisLabels = await page.evaluate(() =>
+      (globalThis as unknown as { fluxstateCharts: { axes: { label?: string }[] }[] }).fluxstateCharts.flatMap((u) => u.axes.map((a) => a.label ?? '')),
+    );
+    const missing = HOSTILE.filter((s) => !text.includes(s));
+    expect(missing.map((s) => s.replace(/^.*(quantity \d)$/, '$1'))).toEqual(['quantity 1', 'quantity 2']);
+    for (const s of missing) expect(axisLabels.some((label) => label.includes(s)), s).toBe(true);
+  });
+});

@@ -4,6 +4,7 @@ import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/index.js';
 import { DEFAULT_CAUTION, renderHtmlReport, type ReportData } from '../../src/report/index.js';
+import { HOSTILE, hostileReport } from './hostile-report.js';
 
 // Synthetic test data: sine and offset sine (not a simulation).
 function syntheticReport(n = 1001): ReportData {
@@ -99,6 +100,42 @@ describe('renderHtmlReport', () => {
     expect((html.match(/<\/script/gi) ?? []).length).toBe(3);
     // the JSON still carries the label verbatim for the legend (set as text by uPlot)
     expect(embedded(html).plots[0]!.series[0]!.label).toBe(`</script>${evil}`);
+  });
+
+  it('escapes every string of the report data (a hostile string in every field): no element of ours is added', () => {
+    const data = hostileReport();
+    const html = renderHtmlReport(data);
+    for (const text of HOSTILE) {
+      const escaped = text
+        .replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
+      // Every string appears in the page escaped (element text), or only in the JSON data (axis labels, drawn by
+      // the page's script as text), where the script-safe serialisation keeps it inert.
+      const inData = JSON.stringify(embedded(html)).includes(JSON.stringify(text).slice(1, -1));
+      expect(html.includes(escaped) || inData, text).toBe(true);
+    }
+    const outsideData = html.replace(/<script type="application\/json" id="fluxstate-report-data">[\s\S]*?<\/script>/, '');
+    // No tag of the page carries anything from the payloads (no injected attribute, link or element).
+    const tags = [...outsideData.matchAll(/<[a-zA-Z][^>]*>/g)].map((m) => m[0]);
+    expect(tags.filter((tag) => /__injected|example\.invalid|javascript:|^<(img|svg)\b/i.test(tag))).toEqual([]);
+    expect(outsideData).not.toContain('<!--');
+    expect(tags.filter((tag) => /^<style\b/i.test(tag))).toEqual(['<style>', '<style>']); // uPlot's and ours
+    expect((outsideData.match(/<meta\b/gi) ?? []).length).toBe(4); // charset, CSP, viewport, generator: ours only
+    expect((html.match(/<script\b/gi) ?? []).length).toBe(3);
+    expect((outsideData.match(/<a\b/gi) ?? []).length).toBe(1); // the contents link to the one section
+  });
+
+  it('refuses a metric status other than ok, warning or alert (it becomes a class name and a word)', () => {
+    const data = syntheticReport(20);
+    const section = data.sections[0]!;
+    const bad = (status: unknown) =>
+      renderHtmlReport({ ...data, sections: [{ ...section, metrics: [{ rows: [{ name: 'Peak', value: 1, status: status as 'ok' }] }] }] });
+    expect(() => bad('ok"><a href="https://example.invalid">x</a>')).toThrow(expect.objectContaining({ code: 'report-bad-option' }));
+    expect(() => bad('constructor')).toThrow(/status "constructor" is not one of 'ok', 'warning', 'alert'/);
+    expect(() => bad('warning')).not.toThrow();
+    const notText = (field: Record<string, unknown>) =>
+      renderHtmlReport({ ...data, sections: [{ ...section, metrics: [{ rows: [{ name: 'Peak', value: 1, ...field }] }] }] });
+    expect(() => notText({ note: { toString: () => '<b>' } })).toThrow(expect.objectContaining({ code: 'report-bad-text' }));
+    expect(() => notText({ unit: 5 })).toThrow(expect.objectContaining({ code: 'report-bad-text' }));
   });
 
   it('embeds plot data rounded to 7 significant digits', () => {

@@ -20,7 +20,7 @@ export interface FluxDensityMarginOptions extends WindowOptions {
  *
  * @example
  * ```ts
- * const { peak, time, margin, ratio } = fluxDensityMargin(t, b, { saturation: 1.9 });
+ * const { peak, peakTime, margin, ratio } = fluxDensityMargin(t, b, { saturation: 1.9 });
  * ```
  */
 export interface FluxDensityMargin {
@@ -29,6 +29,8 @@ export interface FluxDensityMargin {
   /** Largest |B| over the window, T. */
   readonly peak: number;
   /** Time of the peak, s. */
+  readonly peakTime: number;
+  /** Time of the peak, s. @deprecated Use `peakTime`; this alias goes in the next minor version. */
   readonly time: number;
   /** Saturation flux density used, T. */
   readonly saturation: number;
@@ -62,7 +64,7 @@ export function fluxDensityMargin(t: ArrayLike<number>, b: ArrayLike<number>, op
     throw new InputError('bad-option', `${name}: saturation flux density ${sat} T must be positive and finite`, [name]);
   }
   const p = seriesPeak(t, b, { ...options, name });
-  return { name, peak: p.maxAbs, time: p.timeOfMaxAbs, saturation: sat, margin: sat - p.maxAbs, ratio: p.maxAbs / sat };
+  return { name, peak: p.peak, peakTime: p.peakTime, time: p.peakTime, saturation: sat, margin: sat - p.peak, ratio: p.peak / sat };
 }
 
 /**

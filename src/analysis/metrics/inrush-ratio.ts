@@ -1,6 +1,7 @@
 import { InputError } from '../../errors.js';
 import { seriesPeak } from './series-peak.js';
 import { checkSeries } from './series-options.js';
+import { seriesMean } from './series-mean.js';
 
 /**
  * Options of {@link inrushRatio}.
@@ -19,6 +20,13 @@ export interface InrushRatioOptions {
   readonly at?: (t: number) => number;
   /** Name of the current for messages. Default `'current'`. */
   readonly name?: string;
+  /**
+   * Largest change of the cycle peak across the steady window (and the
+   * cycle before it, with one steady cycle), and largest DC part of a steady
+   * cycle, as fractions of the steady peak, for the window to count as
+   * steady. Default 0.02.
+   */
+  readonly steadyTolerance?: number;
 }
 
 /**
@@ -40,6 +48,10 @@ export interface InrushRatio {
   readonly steadyFrom: number;
   /** peak / steadyPeak. */
   readonly ratio: number;
+  /** Whether the steady window looks steady (cycle peaks and DC part within `steadyTolerance`). */
+  readonly steady: boolean;
+  /** Plain-language warnings when the assumption of a steady window does not hold. Empty when none. */
+  readonly warnings: readonly string[];
 }
 
 /**
@@ -48,8 +60,11 @@ export interface InrushRatio {
  * `steadyCycles` periods of the data (`[end - steadyCycles*T, end]`). Run
  * the simulation long enough for the transient to have died out there; if it
  * has not, the steady-state peak is overestimated and the ratio
- * underestimated (compare with a longer run, or check
- * {@link dcOffsetDecay}).
+ * underestimated. The result says so: `steady` is false and `warnings`
+ * explains when the cycle peaks in the window still change, or a cycle still
+ * carries a DC part, by more than `steadyTolerance` of the steady peak
+ * (compare with a longer run, check {@link dcOffsetDecay}, or start from a
+ * periodic steady state).
  *
  * Caution: the inrush peak is an engineering estimate from a model (core
  * data, remanence, switching instant, source impedance). Do not set
@@ -86,8 +101,43 @@ export function inrushRatio(t: ArrayLike<number>, i: ArrayLike<number>, options:
   const at = options.at !== undefined ? { at: options.at } : {};
   const all = seriesPeak(t, i, { name, ...at });
   const steady = seriesPeak(t, i, { name, from: steadyFrom, ...at });
-  if (steady.maxAbs === 0) {
+  if (steady.peak === 0) {
     throw new InputError('bad-series', `${name}: the current is zero over the last ${cycles} cycles; there is no steady-state peak to compare with`, [name]);
   }
-  return { peak: all.maxAbs, peakTime: all.timeOfMaxAbs, steadyPeak: steady.maxAbs, steadyFrom, ratio: all.maxAbs / steady.maxAbs };
+  const tolerance = options.steadyTolerance ?? 0.02;
+  if (!(tolerance > 0)) throw new InputError('bad-option', `${name}: steadyTolerance ${tolerance} must be positive`, [name]);
+  // Is the window steady? Compare the peaks of its cycles (with the cycle before it when it has only one), and
+  // look for a DC part (a decaying offset) in each cycle.
+  const firstCycle = cycles >= 2 || steadyFrom - period < first ? steadyFrom : steadyFrom - period;
+  const cyclePeaks: number[] = [];
+  let dcPart = 0;
+  for (let from = firstCycle; from < last - 0.5 * period; from += period) {
+    const to = Math.min(last, from + period);
+    cyclePeaks.push(seriesPeak(t, i, { name, from, to, ...at }).peak);
+    dcPart = Math.max(dcPart, Math.abs(seriesMean(t, i, { name, from, to })));
+  }
+  const warnings: string[] = [];
+  const change = cyclePeaks.length >= 2 ? Math.abs(cyclePeaks[cyclePeaks.length - 1]! - cyclePeaks[0]!) / steady.peak : 0;
+  if (change > tolerance) {
+    warnings.push(
+      `${name}: the current is not steady in the last ${cycles} cycle(s): the cycle peak goes from ${cyclePeaks[0]!.toPrecision(4)} to ` +
+        `${cyclePeaks[cyclePeaks.length - 1]!.toPrecision(4)} (${(100 * change).toFixed(1)} % of the steady peak), so the ratio to the true steady state differs; ` +
+        'simulate more cycles (dcOffsetDecay gives the time constant) or start from periodicSteadyState',
+    );
+  }
+  if (dcPart / steady.peak > tolerance) {
+    warnings.push(
+      `${name}: a cycle of the steady window still has a DC part of ${(100 * dcPart / steady.peak).toFixed(1)} % of its peak (a decaying offset); ` +
+        'the steady peak is overestimated and the ratio understated: simulate more cycles',
+    );
+  }
+  return {
+    peak: all.peak,
+    peakTime: all.peakTime,
+    steadyPeak: steady.peak,
+    steadyFrom,
+    ratio: all.peak / steady.peak,
+    steady: warnings.length === 0,
+    warnings,
+  };
 }

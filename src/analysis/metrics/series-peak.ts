@@ -2,25 +2,35 @@ import { checkSeries, resolveWindow, type WindowOptions } from './series-options
 import { interpolateAt, intervalIndex } from './window-integral.js';
 
 /**
- * Extremes of a series over a window, each with its time.
+ * Extremes of a series over a window, each with its time. Names follow the
+ * metrics' one style: a figure and `<figure>Time` (`peak`/`peakTime` here,
+ * in {@link inrushRatio} and {@link fluxDensityMargin}).
  *
  * @example
  * ```ts
- * const { maxAbs, timeOfMaxAbs } = seriesPeak(t, i);
+ * const { peak, peakTime } = seriesPeak(t, i);
  * ```
  */
 export interface SeriesPeak {
   /** Largest |x|. */
-  readonly maxAbs: number;
+  readonly peak: number;
   /** Time of the largest |x|, s. */
-  readonly timeOfMaxAbs: number;
+  readonly peakTime: number;
   /** Largest x. */
   readonly max: number;
   /** Time of the largest x, s. */
-  readonly timeOfMax: number;
+  readonly maxTime: number;
   /** Smallest x. */
   readonly min: number;
   /** Time of the smallest x, s. */
+  readonly minTime: number;
+  /** Largest |x|. @deprecated Use `peak`; this alias goes in the next minor version. */
+  readonly maxAbs: number;
+  /** Time of the largest |x|, s. @deprecated Use `peakTime`; this alias goes in the next minor version. */
+  readonly timeOfMaxAbs: number;
+  /** Time of the largest x, s. @deprecated Use `maxTime`; this alias goes in the next minor version. */
+  readonly timeOfMax: number;
+  /** Time of the smallest x, s. @deprecated Use `minTime`; this alias goes in the next minor version. */
   readonly timeOfMin: number;
 }
 
@@ -68,7 +78,7 @@ function goldenMax(f: (s: number) => number, a: number, b: number): { t: number;
  * ```ts
  * const t = Float64Array.from({ length: 1001 }, (_, i) => i * 2e-5);
  * const i = t.map((s) => 3 * Math.sin(2 * Math.PI * 50 * s));
- * const p = seriesPeak(t, i); // p.max 3 near t = 5 ms, p.min -3 near 15 ms, p.maxAbs 3
+ * const p = seriesPeak(t, i); // p.max 3 near t = 5 ms (p.maxTime), p.min -3 near 15 ms, p.peak 3
  * ```
  */
 export function seriesPeak(t: ArrayLike<number>, x: ArrayLike<number>, options: WindowOptions = {}): SeriesPeak {
@@ -132,12 +142,18 @@ export function seriesPeak(t: ArrayLike<number>, x: ArrayLike<number>, options: 
     }
   }
   const absMaxIsMax = Math.abs(max) >= Math.abs(min);
+  const peak = absMaxIsMax ? Math.abs(max) : Math.abs(min);
+  const peakTime = absMaxIsMax ? tMax : tMin;
   return {
-    maxAbs: absMaxIsMax ? Math.abs(max) : Math.abs(min),
-    timeOfMaxAbs: absMaxIsMax ? tMax : tMin,
+    peak,
+    peakTime,
     max,
-    timeOfMax: tMax,
+    maxTime: tMax,
     min,
+    minTime: tMin,
+    maxAbs: peak,
+    timeOfMaxAbs: peakTime,
+    timeOfMax: tMax,
     timeOfMin: tMin,
   };
 }

@@ -59,6 +59,24 @@ describe('dcOffsetDecay', () => {
     expect(Math.abs(dense.fit.tau / tau - 1)).toBeLessThan(1e-11);
   });
 
+  it("skips the fast first cycles by default ('auto') and warns about a poor fit when told to keep them (derived)", () => {
+    // Two decays: a fast one (tau 5 ms, as while the core saturates) and the slow one (45 ms). After the fast part
+    // has gone (a few cycles), the cycle means are exp(-t / 45 ms) again.
+    const two = (s: number): number => 100 * Math.sin(w * s + 0.7) + 30 * Math.exp(-s / tau) + 400 * Math.exp(-s / 0.005);
+    const t = jitteredGrid(0, 12 * T, 12 * 400);
+    const auto = dcOffsetDecay(t, sample(t, two), { period: T, name: 'B' });
+    expect(auto.skippedCycles).toBeGreaterThan(0);
+    expect(auto.fit.rSquared).toBeGreaterThanOrEqual(0.99);
+    expect(Math.abs(auto.fit.tau / tau - 1)).toBeLessThan(0.02);
+    expect(auto.warnings).toEqual([]);
+    const all = dcOffsetDecay(t, sample(t, two), { period: T, name: 'B', skipCycles: 0, warnBelowRSquared: 0.999 });
+    expect(all.skippedCycles).toBe(0);
+    expect(all.fit.rSquared).toBeLessThan(0.999);
+    expect(all.warnings[0]).toMatch(/^B: the per-cycle DC offset is not a single exponential decay \(R\^2 0\.\d+ over 12 cycles after skipping 0\)/);
+    // A clean exponential needs no skipping.
+    expect(dcOffsetDecay(t, sample(t, x), { period: T }).skippedCycles).toBe(0);
+  });
+
   it('needs at least two fitted cycles', () => {
     const t = jitteredGrid(0, 2.5 * T, 250);
     expect(() => dcOffsetDecay(t, sample(t, x), { period: T, skipCycles: 1, name: 'i' })).toThrow(/2 full cycles .* 1 left after skipping 1/);

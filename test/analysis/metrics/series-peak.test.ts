@@ -39,10 +39,25 @@ describe('seriesPeak', () => {
     const t = Float64Array.of(0, 1, 2, 3, 4);
     const v = Float64Array.of(1, -5, 2, 3, 0);
     const p = seriesPeak(t, v);
-    expect(p).toEqual({ maxAbs: 5, timeOfMaxAbs: 1, max: 3, timeOfMax: 3, min: -5, timeOfMin: 1 });
+    expect(p).toEqual({ peak: 5, peakTime: 1, maxTime: 3, minTime: 1, maxAbs: 5, timeOfMaxAbs: 1, max: 3, timeOfMax: 3, min: -5, timeOfMin: 1 });
     const q = seriesPeak(t, v, { from: 1.5, to: 3.5 });
     expect(q.min).toBe(-1.5); // interpolated at the window start
     expect(q.timeOfMin).toBe(1.5);
     expect(q.max).toBe(3);
+  });
+});
+
+describe('one naming style for a peak and its time (old names kept as deprecated aliases)', () => {
+  it('seriesPeak, fluxDensityMargin and inrushRatio all say peak / peakTime', async () => {
+    const { fluxDensityMargin, inrushRatio } = await import('../../../src/index.js');
+    const t = Float64Array.from({ length: 4001 }, (_, i) => i * 1e-5);
+    const x = t.map((s) => (s < 0.005 ? -3 : 1) * Math.sin(2 * Math.PI * 50 * s));
+    const p = seriesPeak(t, x);
+    expect([p.peak, p.peakTime, p.maxTime, p.minTime]).toEqual([p.maxAbs, p.timeOfMaxAbs, p.timeOfMax, p.timeOfMin]);
+    const m = fluxDensityMargin(t, x, { saturation: 4 });
+    expect([m.peak, m.peakTime]).toEqual([p.peak, p.peakTime]);
+    expect(m.time).toBe(m.peakTime);
+    const r = inrushRatio(t, x, { period: 0.02, steadyCycles: 1 });
+    expect([r.peak, r.peakTime]).toEqual([p.peak, p.peakTime]);
   });
 });
