@@ -55,6 +55,7 @@ export function langevinIntegral(x: number): number {
     const x2 = x * x;
     return x2 * (1 / 6 - x2 * (1 / 180 - x2 / 2835));
   }
+  if (ax < 20) return Math.log(Math.sinh(ax) / ax);
   // ln(sinh x / x) = x - ln 2 - ln x + ln(1 - exp(-2x)) for x > 0 (even function).
   return ax - Math.LN2 - Math.log(ax) + Math.log1p(-Math.exp(-2 * ax));
 }
