@@ -123,9 +123,6 @@ function crossingState(
       return best;
     }
   }
-  throw new InputError(
-    'no-loop-crossing',
-    `loop of '${model.name}': the descending branch does not cross the level sought; raise the peak flux density`,
-    [model.name],
-  );
+  // Unreachable: the branch runs from +peak to -peak, where both b and H change sign.
+  throw new Error(`loop of '${model.name}': internal error, no crossing on the descending branch`);
 }
