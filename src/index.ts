@@ -78,6 +78,7 @@ export {
   type PathState,
 } from './materials/hysteresis/flux-density-path.js';
 export { hysteresisLoopFeatures, type HysteresisLoopFeatures } from './materials/hysteresis/hysteresis-loop-features.js';
+export { residualFluxDensity } from './materials/hysteresis/residual-flux-density.js';
 export {
   fitHysteresisLoop,
   fitLoopFeatures,

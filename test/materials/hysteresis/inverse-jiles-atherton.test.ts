@@ -5,6 +5,7 @@ import { InputError } from '../../../src/errors.js';
 import { inverseJilesAtherton, type JilesAthertonSpec } from '../../../src/materials/hysteresis/inverse-jiles-atherton.js';
 import { traceFluxDensityPath } from '../../../src/materials/hysteresis/flux-density-path.js';
 import { hysteresisLoopFeatures } from '../../../src/materials/hysteresis/hysteresis-loop-features.js';
+import { residualFluxDensity } from '../../../src/materials/hysteresis/residual-flux-density.js';
 import { Solver } from '../../support/odex.js';
 
 // Parameter set attributed to D. C. Jiles, D. L. Atherton, J. Magn. Magn. Mater. 61 (1986) 48-60
@@ -172,5 +173,15 @@ describe('inverseJilesAtherton', () => {
     const i1 = t.turningIndices[t.turningIndices.length - 1]!;
     expect(t.work[i1]! - t.work[i0]!).toBeGreaterThan(0);
     expect(t.magnetisation[i1]).toBeCloseTo(t.magnetisation[i0]!, 6);
+  });
+});
+
+describe('residualFluxDensity', () => {
+  it('at the tip of a settled loop is the loop remanence (1e-7 T), at H = 0 is b itself', () => {
+    const f = hysteresisLoopFeatures(model, 1.5, { stepsPerSegment: 8000 });
+    const tip = f.lastCycleStart;
+    const r = residualFluxDensity(model, f.trace.fluxDensity[tip]!, f.trace.magnetisation[tip]!, 1e-4);
+    expect(Math.abs(r - f.remanence)).toBeLessThan(1e-7);
+    expect(residualFluxDensity(model, 0.4, 0.4 / MU0)).toBe(0.4);
   });
 });
