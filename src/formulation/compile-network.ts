@@ -1,7 +1,8 @@
-import { MU0 } from '../constants.js';
-import { compileMaterial } from '../materials/material-spec.js';
-import type { MaterialLaw } from '../materials/material-law.js';
-import type { NetworkDescription, TubeDescription } from '../network/description.js';
+import type { CompiledElement, ElementGroup, InputView, StampContext } from '../elements/element-kind.js';
+import { elementKind, tubeKind } from '../elements/registry.js';
+import { DenseStampTarget, type StampTarget } from '../elements/stamp-target.js';
+import type { CompiledTube } from '../elements/tube-kind.js';
+import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
 import { NetworkInputs } from './network-inputs.js';
 import { layoutUnknowns, type UnknownLayout } from './unknown-layout.js';
@@ -11,22 +12,7 @@ import { initialState } from './initial-state.js';
 import { algebraicJacobian, massSpaces } from '../solver/consistent-initialization.js';
 import { createDenseLu } from '../solver/dense-lu.js';
 
-/** A flux tube ready for evaluation. */
-export interface CompiledTube {
-  readonly name: string;
-  /** Material law, or undefined for a linear reluctance. */
-  readonly law: MaterialLaw | undefined;
-  /** Length l (material tubes) for F = l H(phi/A). */
-  readonly length: number;
-  /** Area A, m^2; NaN when unknown (a reluctance without area). */
-  readonly area: number;
-  /** Linear reluctance for gaps and reluctances, A/Wb; NaN for material tubes. */
-  readonly reluctance: number;
-  /** Eddy resistance R_e, ohm; 0 for none. */
-  readonly eddyResistance: number;
-  /** Magnetic volume l*A, m^3 (NaN if unknown). */
-  readonly volume: number;
-}
+export type { CompiledTube } from '../elements/tube-kind.js';
 
 /**
  * A network compiled into the pieces of a DAE M y' = f(t, y): the mass
@@ -39,11 +25,17 @@ export interface CompiledNetwork {
   readonly layout: UnknownLayout;
   readonly loops: MagneticLoops;
   readonly tubes: readonly CompiledTube[];
+  /** Every element, compiled by its kind (same order as the description's `elements`). */
+  readonly elements: readonly CompiledElement[];
   /** Row-major n*n constant mass matrix. */
   readonly mass: Float64Array;
-  /** f(t, y) into out. */
+  /** f(t, y) into out, with the inputs in force given explicitly. */
+  evaluate(t: number, y: Float64Array, inputs: InputView, out: Float64Array): void;
+  /** df/dy added into a stamp target (zero-filled by the caller), with the inputs given explicitly. */
+  stampJacobian(t: number, y: Float64Array, inputs: InputView, J: StampTarget): void;
+  /** f(t, y) into out, with the network's own inputs (`inputs`). */
   rhs(t: number, y: Float64Array, out: Float64Array): void;
-  /** df/dy into out (zero-filled by the caller). */
+  /** df/dy into out (row-major n*n, zero-filled by the caller), with the network's own inputs. */
   jacobian(t: number, y: Float64Array, out: Float64Array): void;
   /** Initial state before consistent initialisation of the algebraic unknowns. */
   readonly y0: Float64Array;
@@ -53,10 +45,10 @@ export interface CompiledNetwork {
   readonly inputs: NetworkInputs;
   /** Flux of tube b in the state y, Wb. */
   tubeFlux(y: Float64Array, b: number): number;
-  /** MMF drop F_b(phi) of tube b from its law (eddy term excluded), A. */
-  tubeMmf(b: number, flux: number): number;
-  /** Stored magnetic energy of tube b at flux phi, J. */
-  tubeEnergy(b: number, flux: number): number;
+  /** MMF drop F_b(phi) of tube b from its law (eddy term excluded) at state y, A. */
+  tubeMmf(b: number, flux: number, y: Float64Array): number;
+  /** Stored magnetic energy of tube b at flux phi and state y, J. */
+  tubeEnergy(b: number, flux: number, y: Float64Array): number;
 }
 
 /**
@@ -78,160 +70,79 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   checkTopology(d, loops);
   const layout = layoutUnknowns(d, loops);
   const n = layout.size;
-  const tubes = d.tubes.map(compileTube);
   const inputs = new NetworkInputs(d);
 
-  // Tube -> loop incidence in CSR form, with loop indices already offset into y.
-  const tlStart = new Int32Array(d.tubes.length + 1);
-  const tlIndex: number[] = [];
-  const tlSign: number[] = [];
-  loops.tubeLoops.forEach((entries, b) => {
-    for (const en of entries) {
-      tlIndex.push(layout.loopOffset + en.loop);
-      tlSign.push(en.sign);
-    }
-    tlStart[b + 1] = tlIndex.length;
-  });
-  const tlIdx = Int32Array.from(tlIndex);
-  const tlSgn = Float64Array.from(tlSign);
-
-  const pot = (node: number): number => layout.potential[node]!;
-  const groups = groupElements(d, layout, pot);
+  // Tube -> loop incidence, with loop indices already offset into y.
+  const tubeLoops = loops.tubeLoops.map((entries) => ({
+    index: Int32Array.from(entries, (en) => layout.loopOffset + en.loop),
+    sign: Float64Array.from(entries, (en) => en.sign),
+  }));
+  const tubes: CompiledTube[] = d.tubes.map((t, b) =>
+    tubeKind(t.law).compile(t.law, t, { stateOffset: layout.tubeStates[b]!, loops: tubeLoops[b]! }),
+  );
+  const ctx: StampContext = {
+    potential: (node) => layout.potential[node]!,
+    branchCurrent: (element) => layout.branchCurrent[element]!,
+    tubeLoops: (b) => tubeLoops[b]!,
+    internalStates: (element) => layout.elementStates[element]!,
+  };
+  const groups = compileGroups(d, ctx, n);
+  const elements: CompiledElement[] = new Array<CompiledElement>(d.elements.length);
+  for (const g of groups) for (const e of g.elements) elements[e.index] = e;
+  const tubeStates = tubes.flatMap((t) => (t.states ? [t.states] : []));
   const tubeCount = tubes.length;
-  const phi = new Float64Array(tubeCount);
 
   const fluxOf = (y: Float64Array, b: number): number => {
+    const { index, sign } = tubeLoops[b]!;
     let s = 0;
-    for (let k = tlStart[b]!; k < tlStart[b + 1]!; k++) s += tlSgn[k]! * y[tlIdx[k]!]!;
+    for (let k = 0; k < index.length; k++) s += sign[k]! * y[index[k]!]!;
     return s;
   };
-  const mmfOf = (b: number, flux: number): number => {
-    const tube = tubes[b]!;
-    return tube.law ? tube.length * tube.law.fieldStrength(flux / tube.area) : tube.reluctance * flux;
-  };
-  const mmfSlope = (b: number, flux: number): number => {
-    const tube = tubes[b]!;
-    return tube.law ? (tube.length / tube.area) * tube.law.fieldSlope(flux / tube.area) : tube.reluctance;
-  };
-  const v = (y: Float64Array, i: number): number => (i < 0 ? 0 : y[i]!);
 
-  function rhs(t: number, y: Float64Array, out: Float64Array): void {
+  function evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
     out.fill(0);
-    // Magnetic loops: -sum_b B_lb F_b(phi_b) (+ winding MMFs below).
+    // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
     for (let b = 0; b < tubeCount; b++) {
-      const f = fluxOf(y, b);
-      phi[b] = f;
-      const F = mmfOf(b, f);
-      for (let k = tlStart[b]!; k < tlStart[b + 1]!; k++) out[tlIdx[k]!]! -= tlSgn[k]! * F;
+      const F = tubes[b]!.mmf(fluxOf(y, b), y);
+      const { index, sign } = tubeLoops[b]!;
+      for (let k = 0; k < index.length; k++) out[index[k]!]! -= sign[k]! * F;
     }
-    for (const w of groups.windings) {
-      const i = y[w.branch]!;
-      out[w.branch] = v(y, w.p) - v(y, w.n) - w.resistance * i;
-      if (w.p >= 0) out[w.p]! -= i;
-      if (w.n >= 0) out[w.n]! += i;
-      const mmf = w.orientation * w.turns * i;
-      for (let k = tlStart[w.tube]!; k < tlStart[w.tube + 1]!; k++) out[tlIdx[k]!]! += tlSgn[k]! * mmf;
-    }
-    for (const r of groups.resistors) {
-      const cur = (v(y, r.p) - v(y, r.n)) * r.conductance;
-      if (r.p >= 0) out[r.p]! -= cur;
-      if (r.n >= 0) out[r.n]! += cur;
-    }
-    for (const s of groups.switches) {
-      const g = inputs.switchClosed(s.element, t) ? s.onConductance : s.offConductance;
-      const cur = (v(y, s.p) - v(y, s.n)) * g;
-      if (s.p >= 0) out[s.p]! -= cur;
-      if (s.n >= 0) out[s.n]! += cur;
-    }
-    for (const c of groups.currentSources) {
-      const cur = inputs.sourceValue(c.element, t);
-      if (c.p >= 0) out[c.p]! += cur;
-      if (c.n >= 0) out[c.n]! -= cur;
-    }
-    for (const s of groups.voltageSources) {
-      const i = y[s.branch]!;
-      if (s.p >= 0) out[s.p]! += i;
-      if (s.n >= 0) out[s.n]! -= i;
-      out[s.branch] = v(y, s.p) - v(y, s.n) - inputs.sourceValue(s.element, t);
-    }
-    for (const l of groups.inductors) {
-      const i = y[l.branch]!;
-      if (l.p >= 0) out[l.p]! -= i;
-      if (l.n >= 0) out[l.n]! += i;
-      out[l.branch] = v(y, l.p) - v(y, l.n);
-    }
+    for (const s of tubeStates) s.residual(t, y, inp, out);
+    for (const g of groups) g.residual(t, y, inp, out);
   }
 
-  function jacobian(t: number, y: Float64Array, J: Float64Array): void {
-    const add = (r: number, c: number, x: number): void => {
-      if (r >= 0 && c >= 0) J[r * n + c]! += x;
-    };
+  function stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
     for (let b = 0; b < tubeCount; b++) {
-      const dF = mmfSlope(b, fluxOf(y, b));
-      for (let k1 = tlStart[b]!; k1 < tlStart[b + 1]!; k1++) {
-        for (let k2 = tlStart[b]!; k2 < tlStart[b + 1]!; k2++) {
-          J[tlIdx[k1]! * n + tlIdx[k2]!]! -= tlSgn[k1]! * tlSgn[k2]! * dF;
-        }
+      const dF = tubes[b]!.mmfSlope(fluxOf(y, b), y);
+      const { index, sign } = tubeLoops[b]!;
+      for (let k1 = 0; k1 < index.length; k1++) {
+        for (let k2 = 0; k2 < index.length; k2++) J.add(index[k1]!, index[k2]!, -sign[k1]! * sign[k2]! * dF);
       }
     }
-    for (const w of groups.windings) {
-      add(w.branch, w.branch, -w.resistance);
-      add(w.branch, w.p, 1);
-      add(w.branch, w.n, -1);
-      add(w.p, w.branch, -1);
-      add(w.n, w.branch, 1);
-      const g = w.orientation * w.turns;
-      for (let k = tlStart[w.tube]!; k < tlStart[w.tube + 1]!; k++) J[tlIdx[k]! * n + w.branch]! += tlSgn[k]! * g;
-    }
-    const conductance = (p: number, q: number, g: number): void => {
-      add(p, p, -g);
-      add(p, q, g);
-      add(q, p, g);
-      add(q, q, -g);
-    };
-    for (const r of groups.resistors) conductance(r.p, r.n, r.conductance);
-    for (const s of groups.switches) {
-      conductance(s.p, s.n, inputs.switchClosed(s.element, t) ? s.onConductance : s.offConductance);
-    }
-    for (const s of groups.voltageSources) {
-      add(s.p, s.branch, 1);
-      add(s.n, s.branch, -1);
-      add(s.branch, s.p, 1);
-      add(s.branch, s.n, -1);
-    }
-    for (const l of groups.inductors) {
-      add(l.p, l.branch, -1);
-      add(l.n, l.branch, 1);
-      add(l.branch, l.p, 1);
-      add(l.branch, l.n, -1);
-    }
+    for (const s of tubeStates) s.jacobian(t, y, inp, J);
+    for (const g of groups) g.jacobian(t, y, inp, J);
   }
 
-  const mass = new Float64Array(n * n);
-  const addM = (r: number, c: number, x: number): void => {
-    if (r >= 0 && c >= 0) mass[r * n + c]! += x;
-  };
-  for (const c of groups.capacitors) {
-    addM(c.p, c.p, c.capacitance);
-    addM(c.p, c.n, -c.capacitance);
-    addM(c.n, c.p, -c.capacitance);
-    addM(c.n, c.n, c.capacitance);
-  }
-  for (const l of groups.inductors) addM(l.branch, l.branch, l.inductance);
-  for (const w of groups.windings) {
-    const g = w.orientation * w.turns;
-    for (let k = tlStart[w.tube]!; k < tlStart[w.tube + 1]!; k++) addM(w.branch, tlIdx[k]!, tlSgn[k]! * g);
-  }
+  const jacobianTarget = new DenseStampTarget(n);
+  const massTarget = new DenseStampTarget(n);
+  const mass = massTarget.values;
+  for (const g of groups) g.mass(massTarget);
+  for (const s of tubeStates) s.mass(massTarget);
+  // Eddy term R_e dphi/dt in the MMF drop of every loop through the tube.
   tubes.forEach((tube, b) => {
     if (tube.eddyResistance === 0) return;
-    for (let k1 = tlStart[b]!; k1 < tlStart[b + 1]!; k1++) {
-      for (let k2 = tlStart[b]!; k2 < tlStart[b + 1]!; k2++) {
-        addM(tlIdx[k1]!, tlIdx[k2]!, tlSgn[k1]! * tlSgn[k2]! * tube.eddyResistance);
-      }
+    const { index, sign } = tubeLoops[b]!;
+    for (let k1 = 0; k1 < index.length; k1++) {
+      for (let k2 = 0; k2 < index.length; k2++) massTarget.add(index[k1]!, index[k2]!, sign[k1]! * sign[k2]! * tube.eddyResistance);
     }
   });
 
+  const rhs = (t: number, y: Float64Array, out: Float64Array): void => evaluate(t, y, inputs, out);
+  const jacobian = (t: number, y: Float64Array, out: Float64Array): void => stampJacobian(t, y, inputs, jacobianTarget.bind(out));
+
   const y0 = initialState(d, layout, loops, tubes);
+  for (const g of groups) g.initial?.(y0);
+  for (const s of tubeStates) s.initial(y0);
   const index2 = confirmIndexTwo(findIndexTwoUnknowns(d, layout), mass, n, (y, J) => jacobian(0, y, J), y0);
 
   return {
@@ -239,18 +150,18 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     layout,
     loops,
     tubes,
+    elements,
     mass,
+    evaluate,
+    stampJacobian,
     rhs,
     jacobian,
     y0,
     index2,
     inputs,
     tubeFlux: fluxOf,
-    tubeMmf: mmfOf,
-    tubeEnergy: (b, flux) => {
-      const tube = tubes[b]!;
-      return tube.law ? tube.volume * tube.law.energyDensity(flux / tube.area) : 0.5 * tube.reluctance * flux * flux;
-    },
+    tubeMmf: (b, flux, y) => tubes[b]!.mmf(flux, y),
+    tubeEnergy: (b, flux, y) => tubes[b]!.energy(flux, y),
   };
 }
 
@@ -279,69 +190,13 @@ function confirmIndexTwo(
   return createDenseLu(k).factor(jr) < 0 ? [] : structural;
 }
 
-function compileTube(t: TubeDescription): CompiledTube {
-  const eddyResistance = t.eddyResistance ?? 0;
-  switch (t.law.kind) {
-    case 'material': {
-      const law = compileMaterial(t.law.material);
-      return { name: t.name, law, length: t.law.length, area: t.law.area, reluctance: NaN, eddyResistance, volume: t.law.length * t.law.area };
-    }
-    case 'air-gap': {
-      const reluctance = t.law.length / (MU0 * t.law.fringingFactor * t.law.area);
-      return { name: t.name, law: undefined, length: t.law.length, area: t.law.area, reluctance, eddyResistance, volume: t.law.length * t.law.area };
-    }
-    case 'reluctance':
-      return { name: t.name, law: undefined, length: NaN, area: t.law.area ?? NaN, reluctance: t.law.reluctance, eddyResistance, volume: NaN };
-  }
-}
-
-interface Terminals {
-  readonly element: number;
-  readonly p: number;
-  readonly n: number;
-}
-
-/** Elements sorted by kind, with their unknown indices resolved. */
-interface ElementGroups {
-  readonly windings: (Terminals & { branch: number; tube: number; turns: number; resistance: number; orientation: number })[];
-  readonly resistors: (Terminals & { conductance: number })[];
-  readonly switches: (Terminals & { onConductance: number; offConductance: number })[];
-  readonly capacitors: (Terminals & { capacitance: number })[];
-  readonly inductors: (Terminals & { branch: number; inductance: number })[];
-  readonly voltageSources: (Terminals & { branch: number })[];
-  readonly currentSources: Terminals[];
-}
-
-function groupElements(d: NetworkDescription, layout: UnknownLayout, pot: (node: number) => number): ElementGroups {
-  const g: ElementGroups = {
-    windings: [], resistors: [], switches: [], capacitors: [], inductors: [], voltageSources: [], currentSources: [],
-  };
-  d.elements.forEach((e, element) => {
-    const base = { element, p: pot(e.plus), n: pot(e.minus) };
-    const branch = layout.branchCurrent[element]!;
-    switch (e.kind) {
-      case 'winding':
-        g.windings.push({ ...base, branch, tube: e.tube, turns: e.turns, resistance: e.resistance, orientation: e.orientation });
-        break;
-      case 'resistor':
-        g.resistors.push({ ...base, conductance: 1 / e.resistance });
-        break;
-      case 'switch':
-        g.switches.push({ ...base, onConductance: 1 / e.onResistance, offConductance: 1 / e.offResistance });
-        break;
-      case 'capacitor':
-        g.capacitors.push({ ...base, capacitance: e.capacitance });
-        break;
-      case 'inductor':
-        g.inductors.push({ ...base, branch, inductance: e.inductance });
-        break;
-      case 'voltage-source':
-        g.voltageSources.push({ ...base, branch });
-        break;
-      case 'current-source':
-        g.currentSources.push(base);
-        break;
-    }
+/** Compile the elements kind by kind: one group per kind present, in order of first appearance. */
+function compileGroups(d: NetworkDescription, ctx: StampContext, size: number): ElementGroup[] {
+  const byKind = new Map<ElementDescription['kind'], { d: ElementDescription; index: number }[]>();
+  d.elements.forEach((e, index) => {
+    const list = byKind.get(e.kind) ?? [];
+    list.push({ d: e, index });
+    byKind.set(e.kind, list);
   });
-  return g;
+  return [...byKind.values()].map((list) => elementKind(list[0]!.d).compile(list, ctx, { description: d, size }));
 }

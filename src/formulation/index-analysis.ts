@@ -1,3 +1,4 @@
+import { elementKind } from '../elements/registry.js';
 import type { NetworkDescription } from '../network/description.js';
 import type { UnknownLayout } from './unknown-layout.js';
 import { UnionFind } from './union-find.js';
@@ -31,7 +32,8 @@ export function findIndexTwoUnknowns(d: NetworkDescription, layout: UnknownLayou
   // resulting super-node apart from ground's is bounded by such branches only.
   const uf = new UnionFind(d.electricNodes.length);
   for (const e of d.elements) {
-    if (e.kind !== 'inductor' && e.kind !== 'winding' && e.kind !== 'current-source') uf.union(e.plus, e.minus);
+    const role = elementKind(e).role;
+    if (role !== 'inductive' && role !== 'current-source') uf.union(e.plus, e.minus);
   }
   const groundRoot = uf.find(0);
   d.electricNodes.forEach((_, k) => {
@@ -41,9 +43,9 @@ export function findIndexTwoUnknowns(d: NetworkDescription, layout: UnknownLayou
   // Capacitor / voltage-source loops: a voltage source whose terminals are
   // already joined through capacitors and other sources closes such a loop.
   const cv = new UnionFind(d.electricNodes.length);
-  for (const e of d.elements) if (e.kind === 'capacitor') cv.union(e.plus, e.minus);
+  for (const e of d.elements) if (elementKind(e).role === 'capacitive') cv.union(e.plus, e.minus);
   d.elements.forEach((e, k) => {
-    if (e.kind !== 'voltage-source') return;
+    if (elementKind(e).role !== 'voltage-source') return;
     if (!cv.union(e.plus, e.minus)) out.add(layout.branchCurrent[k]!);
   });
 

@@ -1,5 +1,6 @@
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { TopologyError } from '../errors.js';
+import { elementKind } from '../elements/registry.js';
 import type { NetworkDescription } from '../network/description.js';
 import type { CompiledTube } from './compile-network.js';
 import type { MagneticLoops } from './magnetic-graph.js';
@@ -11,7 +12,8 @@ import type { UnknownLayout } from './unknown-layout.js';
  * - node potentials: the smallest vector meeting every capacitor's initial
  *   voltage (min-norm least squares; capacitor voltages that do not add up
  *   around a loop are an error);
- * - inductor currents as given;
+ * - the states of elements (an inductor's current) are set by their kind
+ *   after this (`ElementGroup.initial`);
  * - loop fluxes: tubes with an initial flux (or flux density) get it exactly
  *   and the other tubes carry the flux that conserves flux at every node with
  *   the least magnetic energy, sum of R_b phi_b^2 with R_b the tube's
@@ -30,9 +32,6 @@ import type { UnknownLayout } from './unknown-layout.js';
 export function initialState(d: NetworkDescription, layout: UnknownLayout, loops: MagneticLoops, tubes: readonly CompiledTube[]): Float64Array {
   const y0 = new Float64Array(layout.size);
   setCapacitorVoltages(d, layout, y0);
-  d.elements.forEach((e, k) => {
-    if (e.kind === 'inductor') y0[layout.branchCurrent[k]!] = e.initialCurrent;
-  });
   setLoopFluxes(d, layout, loops, tubes, y0);
   return y0;
 }
@@ -40,9 +39,11 @@ export function initialState(d: NetworkDescription, layout: UnknownLayout, loops
 const TOL = 1e-9;
 
 function setCapacitorVoltages(d: NetworkDescription, layout: UnknownLayout, y0: Float64Array): void {
-  const caps = d.elements.flatMap((e) => (e.kind === 'capacitor' && e.initialVoltage !== 0 ? [e] : []));
-  if (caps.length === 0) return;
-  const allCaps = d.elements.flatMap((e) => (e.kind === 'capacitor' ? [e] : []));
+  const allCaps = d.elements.flatMap((e) => {
+    const voltage = elementKind(e).initialVoltage?.(e);
+    return voltage === undefined ? [] : [{ name: e.name, plus: e.plus, minus: e.minus, initialVoltage: voltage }];
+  });
+  if (!allCaps.some((c) => c.initialVoltage !== 0)) return;
   const ne = d.electricNodes.length - 1;
   const D = Matrix.zeros(allCaps.length, ne);
   allCaps.forEach((c, r) => {
@@ -101,7 +102,7 @@ function setLoopFluxes(d: NetworkDescription, layout: UnknownLayout, loops: Magn
   if (unspecified.length > 0) {
     const Z = nullSpace(Bs, nl);
     if (Z.columns > 0) {
-      const Bu = new Matrix(unspecified.map((b) => incidence(b).map((x) => x * Math.sqrt(zeroFluxReluctance(tubes[b]!)))));
+      const Bu = new Matrix(unspecified.map((b) => incidence(b).map((x) => x * Math.sqrt(tubes[b]!.zeroFluxReluctance))));
       const z = minNormSolve(Bu.mmul(Z), Bu.mmul(particular).neg());
       psi = particular.add(Z.mmul(z));
     }
@@ -109,10 +110,6 @@ function setLoopFluxes(d: NetworkDescription, layout: UnknownLayout, loops: Magn
   for (let l = 0; l < nl; l++) y0[layout.loopOffset + l] = psi.get(l, 0);
 }
 
-/** Reluctance of a tube at zero flux, A/Wb: l/A dH/dB(0) for material, the constant otherwise. */
-function zeroFluxReluctance(t: CompiledTube): number {
-  return t.law ? (t.length / t.area) * t.law.fieldSlope(0) : t.reluctance;
-}
 
 /** Minimum-norm least-squares solution of A x = b by the SVD. */
 function minNormSolve(A: Matrix, b: Matrix): Matrix {

@@ -1,4 +1,5 @@
-import type { NetworkDescription } from '../network/description.js';
+import { elementKind } from '../elements/registry.js';
+import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { Waveform } from '../waveforms/waveform.js';
 
@@ -53,6 +54,8 @@ export class NetworkInputs {
   private readonly switchOverride: (boolean | undefined)[];
   private readonly switchInitial: boolean[];
   private readonly switchToggles: (readonly number[])[];
+  /** Whether element e follows a switching schedule. */
+  private readonly hasSchedule: boolean[];
   private intervalStart = -Infinity;
   private intervalEnd = Infinity;
   /** Breakpoint kept -> last time merged into it (a cluster of edges that counts as one jump at that time). */
@@ -62,15 +65,19 @@ export class NetworkInputs {
 
   constructor(private readonly description: NetworkDescription) {
     const els = description.elements;
-    this.waveforms = els.map((e) =>
-      e.kind === 'voltage-source' || e.kind === 'current-source'
-        ? compileWaveform(e.waveform, { label: `${e.kind.replace('-', ' ')} "${e.name}"`, element: e.name })
-        : undefined,
-    );
+    this.waveforms = els.map((e) => this.compileOwnWaveform(e));
     this.sourceOverride = els.map(() => undefined);
     this.switchOverride = els.map(() => undefined);
-    this.switchInitial = els.map((e) => (e.kind === 'switch' ? e.initiallyClosed : false));
-    this.switchToggles = els.map((e) => (e.kind === 'switch' ? e.toggleTimes : []));
+    const schedules = els.map((e) => elementKind(e).schedule?.(e));
+    this.switchInitial = schedules.map((s) => s?.initiallyClosed ?? false);
+    this.switchToggles = schedules.map((s) => s?.toggleTimes ?? []);
+    this.hasSchedule = schedules.map((s) => s !== undefined);
+  }
+
+  /** The element's own waveform (sources), compiled; undefined for elements without one. */
+  private compileOwnWaveform(e: ElementDescription): Waveform | undefined {
+    const spec = elementKind(e).waveform?.(e);
+    return spec === undefined ? undefined : compileWaveform(spec, { label: `${elementKind(e).noun} "${e.name}"`, element: e.name });
   }
 
   /** Declare the interval being integrated (see the class comment). */
@@ -129,7 +136,7 @@ export class NetworkInputs {
   /** Replace a source's waveform (embedding: a new duty cycle, amplitude or phase); validated here. */
   replaceWaveform(e: number, spec: WaveformSpec): void {
     const el = this.description.elements[e]!;
-    this.waveforms[e] = compileWaveform(spec, { label: `${el.kind.replace("-", " ")} "${el.name}"`, element: el.name });
+    this.waveforms[e] = compileWaveform(spec, { label: `${elementKind(el).noun} "${el.name}"`, element: el.name });
     this.replaced.set(e, spec);
     this.sourceOverride[e] = undefined;
   }
@@ -149,10 +156,7 @@ export class NetworkInputs {
     state.switchOverride.forEach((v, e) => (this.switchOverride[e] = v));
     for (const e of [...this.replaced.keys()]) {
       if (!state.waveforms.some(([k]) => k === e)) {
-        const el = this.description.elements[e]!;
-        if (el.kind === 'voltage-source' || el.kind === 'current-source') {
-          this.waveforms[e] = compileWaveform(el.waveform, `${el.kind.replace('-', ' ')} "${el.name}"`);
-        }
+        this.waveforms[e] = this.compileOwnWaveform(this.description.elements[e]!);
         this.replaced.delete(e);
       }
     }
@@ -173,10 +177,10 @@ export class NetworkInputs {
    */
   breakpoints(t0: number, t1: number): number[] {
     const all: number[] = [];
-    this.description.elements.forEach((el, e) => {
+    this.description.elements.forEach((_el, e) => {
       const w = this.waveforms[e];
       if (w && this.sourceOverride[e] === undefined) all.push(...w.breakpoints(t0, t1));
-      if (el.kind === 'switch' && this.switchOverride[e] === undefined) {
+      if (this.hasSchedule[e] && this.switchOverride[e] === undefined) {
         for (const t of this.switchToggles[e]!) if (t > t0 && t < t1) all.push(t);
       }
     });

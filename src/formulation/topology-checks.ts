@@ -1,5 +1,6 @@
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { TopologyError } from '../errors.js';
+import { elementKind } from '../elements/registry.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import type { MagneticLoops } from './magnetic-graph.js';
 import { UnionFind } from './union-find.js';
@@ -68,12 +69,13 @@ function checkMagneticNodes(d: NetworkDescription): void {
 
 function checkWindingPaths(d: NetworkDescription, loops: MagneticLoops): void {
   for (const e of d.elements) {
-    if (e.kind !== 'winding') continue;
-    if (loops.tubeLoops[e.tube]!.length === 0) {
-      const tube = d.tubes[e.tube]!;
+    const linked = elementKind(e).linkedFlux?.(e);
+    if (linked === undefined) continue;
+    if (loops.tubeLoops[linked.tube]!.length === 0) {
+      const tube = d.tubes[linked.tube]!;
       throw new TopologyError(
         'winding-on-open-path',
-        `winding "${e.name}" sits on tube "${tube.name}", which is not part of any closed magnetic path, so its flux is always zero; ` +
+        `${elementKind(e).noun} "${e.name}" sits on tube "${tube.name}", which is not part of any closed magnetic path, so its flux is always zero; ` +
           `close the magnetic circuit through tube "${tube.name}"`,
         [e.name, tube.name],
       );
@@ -114,11 +116,11 @@ function checkOpenTerminals(d: NetworkDescription): void {
     if (k === 0 || list.length !== 1) return;
     const e = list[0]!;
     const node = d.electricNodes[k]!.name;
-    if (e.kind === 'winding' || e.kind === 'inductor' || e.kind === 'current-source') {
-      const kind = e.kind.replace('-', ' ');
+    const kind = elementKind(e);
+    if (kind.openTerminalCode !== undefined) {
       throw new TopologyError(
-        e.kind === 'winding' ? 'open-winding' : 'open-terminal',
-        `${kind} "${e.name}" has its terminal node "${node}" connected to nothing else, which forces its current to zero; ` +
+        kind.openTerminalCode === 'open-winding' ? 'open-winding' : 'open-terminal',
+        `${kind.noun} "${e.name}" has its terminal node "${node}" connected to nothing else, which forces its current to zero; ` +
           `connect the terminal, or model an open circuit with a large resistor (for example 1e6 ohm) across it`,
         [e.name, node],
       );
@@ -130,7 +132,7 @@ function checkVoltageSourceLoops(d: NetworkDescription): void {
   const adjacency: { to: number; element: number }[][] = d.electricNodes.map(() => []);
   const uf = new UnionFind(d.electricNodes.length);
   d.elements.forEach((e, k) => {
-    if (e.kind !== 'voltage-source') return;
+    if (elementKind(e).role !== 'voltage-source') return;
     if (!uf.union(e.plus, e.minus)) {
       const path = treePath(adjacency, e.plus, e.minus).map((i) => d.elements[i]!.name);
       const names = [e.name, ...path];
@@ -148,10 +150,11 @@ function checkVoltageSourceLoops(d: NetworkDescription): void {
 
 function checkCurrentSourceCutsets(d: NetworkDescription): void {
   const uf = new UnionFind(d.electricNodes.length);
-  for (const e of d.elements) if (e.kind !== 'current-source') uf.union(e.plus, e.minus);
+  const isCurrentSource = (e: ElementDescription): boolean => elementKind(e).role === 'current-source';
+  for (const e of d.elements) if (!isCurrentSource(e)) uf.union(e.plus, e.minus);
   const groups = new Map<number, string[]>();
   for (const e of d.elements) {
-    if (e.kind !== 'current-source') continue;
+    if (!isCurrentSource(e)) continue;
     const a = uf.find(e.plus);
     const b = uf.find(e.minus);
     if (a === b) continue;
@@ -177,10 +180,14 @@ function checkCurrentSourceCutsets(d: NetworkDescription): void {
  */
 function checkIdealWindingLoops(d: NetworkDescription, loops: MagneticLoops): void {
   const edges: { element: number; a: number; b: number }[] = [];
+  const linkedFlux = (k: number): { readonly tube: number; readonly turns: number } | undefined => {
+    const e = d.elements[k]!;
+    return elementKind(e).linkedFlux?.(e);
+  };
   d.elements.forEach((e, k) => {
-    if (e.kind === 'voltage-source' || (e.kind === 'winding' && e.resistance === 0)) edges.push({ element: k, a: e.plus, b: e.minus });
+    if (elementKind(e).rigidVoltage?.(e)) edges.push({ element: k, a: e.plus, b: e.minus });
   });
-  if (!edges.some((e) => d.elements[e.element]!.kind === 'winding')) return;
+  if (!edges.some((e) => linkedFlux(e.element) !== undefined)) return;
   const adjacency: { to: number; element: number }[][] = d.electricNodes.map(() => []);
   const uf = new UnionFind(d.electricNodes.length);
   const constraints: { vector: Float64Array; windings: string[] }[] = [];
@@ -194,10 +201,10 @@ function checkIdealWindingLoops(d: NetworkDescription, loops: MagneticLoops): vo
     const vector = new Float64Array(loops.loopCount);
     const windings: string[] = [];
     const addWinding = (k: number, sign: number): void => {
-      const w = d.elements[k]!;
-      if (w.kind !== 'winding') return;
-      windings.push(w.name);
-      for (const en of loops.tubeLoops[w.tube]!) vector[en.loop]! += sign * w.orientation * w.turns * en.sign;
+      const linked = linkedFlux(k);
+      if (linked === undefined) return;
+      windings.push(d.elements[k]!.name);
+      for (const en of loops.tubeLoops[linked.tube]!) vector[en.loop]! += sign * linked.turns * en.sign;
     };
     addWinding(edge.element, 1);
     let at = edge.b;

@@ -1,12 +1,14 @@
+import { elementKind, tubeKind } from '../elements/registry.js';
 import type { NetworkDescription } from '../network/description.js';
 import type { MagneticLoops } from './magnetic-graph.js';
 
 /** What an unknown of the DAE stands for. */
-export type UnknownKind = 'potential' | 'current' | 'loop-flux';
+export type UnknownKind = 'potential' | 'current' | 'loop-flux' | 'internal-state';
 
 /**
  * Position of every unknown in the state vector y:
- * [node potentials (ground excluded) | branch currents | loop fluxes].
+ * [node potentials (ground excluded) | branch currents | loop fluxes |
+ * internal states of elements and tubes].
  */
 export interface UnknownLayout {
   readonly size: number;
@@ -17,6 +19,10 @@ export interface UnknownLayout {
   /** Index in y of the first loop flux. */
   readonly loopOffset: number;
   readonly loopCount: number;
+  /** Index in y of element e's first internal state; -1 when it has none. */
+  readonly elementStates: Int32Array;
+  /** Index in y of tube b's first internal state; -1 when it has none. */
+  readonly tubeStates: Int32Array;
   /** Per unknown, its kind. */
   readonly kinds: readonly UnknownKind[];
   /** Per unknown, a phrase naming it for messages, e.g. `current of winding "primary"`. */
@@ -47,10 +53,11 @@ export function layoutUnknowns(d: NetworkDescription, loops: MagneticLoops): Unk
   });
   const branchCurrent = new Int32Array(d.elements.length).fill(-1);
   d.elements.forEach((e, k) => {
-    if (e.kind !== 'voltage-source' && e.kind !== 'inductor' && e.kind !== 'winding') return;
+    const kind = elementKind(e);
+    if (!kind.branchCurrent) return;
     branchCurrent[k] = kinds.length;
     kinds.push('current');
-    labels.push(`current of ${e.kind.replace('-', ' ')} "${e.name}"`);
+    labels.push(`current of ${kind.noun} "${e.name}"`);
     owners.push([e.name]);
   });
   const loopOffset = kinds.length;
@@ -60,12 +67,32 @@ export function layoutUnknowns(d: NetworkDescription, loops: MagneticLoops): Unk
     labels.push(`flux of magnetic loop ${l + 1} (tubes ${tubeNames.map((n) => `"${n}"`).join(', ')})`);
     owners.push(tubeNames);
   });
+  const addStates = (names: readonly string[], owner: string, what: string): number => {
+    if (names.length === 0) return -1;
+    const first = kinds.length;
+    for (const label of names) {
+      kinds.push('internal-state');
+      labels.push(`${label} of ${what} "${owner}"`);
+      owners.push([owner]);
+    }
+    return first;
+  };
+  const elementStates = Int32Array.from(d.elements, (e) => {
+    const kind = elementKind(e);
+    return addStates(kind.internalStates?.(e) ?? [], e.name, kind.noun);
+  });
+  const tubeStates = Int32Array.from(d.tubes, (t) => {
+    const kind = tubeKind(t.law);
+    return addStates(kind.internalStates?.(t.law, t) ?? [], t.name, kind.noun);
+  });
   return {
     size: kinds.length,
     potential,
     branchCurrent,
     loopOffset,
     loopCount: loops.loopCount,
+    elementStates,
+    tubeStates,
     kinds,
     labels,
     owners,

@@ -1,8 +1,10 @@
 import { InputError } from '../errors.js';
-import { compileMaterial, type MaterialSpec } from '../materials/material-spec.js';
+import type { MaterialSpec } from '../materials/material-spec.js';
 import type { MaterialLaw } from '../materials/material-law.js';
-import { compileWaveform, type WaveformSpec } from '../waveforms/waveform-spec.js';
-import { requireFinite, requireName, requireNonNegative, requirePositive } from './argument-checks.js';
+import type { WaveformSpec } from '../waveforms/waveform-spec.js';
+import { elementKind, isElementKind, isTubeKind, tubeKind, ELEMENT_KINDS, TUBE_KINDS } from '../elements/registry.js';
+import { toggleTimesOf } from '../elements/switch.js';
+import { requireFinite, requireName, requirePositive } from './argument-checks.js';
 import { clonePlain, freezePlain } from './clone-plain.js';
 import type {
   ElementDescription,
@@ -20,6 +22,7 @@ import type {
   MagneticNode,
   Resistor,
   Switch,
+  TwoTerminal,
   VoltageSource,
   Winding,
 } from './handles.js';
@@ -250,12 +253,9 @@ export class NetworkBuilder {
   fluxTube(name: string, options: FluxTubeOptions): FluxTube {
     requireName(name, 'flux tube');
     const owner = `tube "${name}"`;
-    const length = requirePositive(options.length, `${owner} length`, name, 'm');
-    const area = requirePositive(options.area, `${owner} area`, name, 'm^2');
-    surfaceMaterialError(options.material, owner, name); // a bad material fails here, at the call that gave it
+    const law = TUBE_KINDS.material.check({ kind: 'material', length: options.length, area: options.area, material: options.material }, owner, name);
     const eddy = options.eddyResistance;
     if (eddy !== undefined) requirePositive(eddy, `${owner} eddy resistance`, name, 'ohm');
-    const law: TubeLaw = { kind: 'material', length, area, material: clonePlain(options.material) };
     return this.addTube(name, options, law, eddy);
   }
 
@@ -269,19 +269,12 @@ export class NetworkBuilder {
    */
   airGap(name: string, options: AirGapOptions): FluxTube {
     requireName(name, 'air gap');
-    const owner = `air gap "${name}"`;
-    const length = requirePositive(options.length, `${owner} length`, name, 'm');
-    const area = requirePositive(options.area, `${owner} area`, name, 'm^2');
-    const fringingFactor = options.fringingFactor ?? 1;
-    requirePositive(fringingFactor, `${owner} fringing factor`, name, '');
-    if (fringingFactor < 1) {
-      throw new InputError(
-        'bad-fringing-factor',
-        `${owner} fringing factor ${fringingFactor} is below 1; fringing only widens the effective area (use 1 for none)`,
-        [name],
-      );
-    }
-    return this.addTube(name, options, { kind: 'air-gap', length, area, fringingFactor }, undefined);
+    const law = TUBE_KINDS['air-gap'].check(
+      { kind: 'air-gap', length: options.length, area: options.area, fringingFactor: options.fringingFactor ?? 1 },
+      `air gap "${name}"`,
+      name,
+    );
+    return this.addTube(name, options, law, undefined);
   }
 
   /**
@@ -295,12 +288,11 @@ export class NetworkBuilder {
    */
   reluctance(name: string, options: ReluctanceOptions): FluxTube {
     requireName(name, 'reluctance');
-    const owner = `reluctance "${name}"`;
-    const reluctance = requirePositive(options.reluctance, `${owner} value`, name, 'A/Wb');
-    const law: TubeLaw =
-      options.area === undefined
-        ? { kind: 'reluctance', reluctance }
-        : { kind: 'reluctance', reluctance, area: requirePositive(options.area, `${owner} area`, name, 'm^2') };
+    const law = TUBE_KINDS.reluctance.check(
+      options.area === undefined ? { kind: 'reluctance', reluctance: options.reluctance } : { kind: 'reluctance', reluctance: options.reluctance, area: options.area },
+      `reluctance "${name}"`,
+      name,
+    );
     return this.addTube(name, options, law, undefined);
   }
 
@@ -315,17 +307,10 @@ export class NetworkBuilder {
    */
   winding(name: string, options: WindingOptions): Winding {
     this.checkElementName(name, 'winding');
-    const owner = `winding "${name}"`;
-    const tube = this.own(options.tube, 'flux-tube', `${owner} tube`, name);
-    const turns = requirePositive(options.turns, `${owner} turns`, name, '');
-    const resistance = requireNonNegative(options.resistance ?? 0, `${owner} resistance`, name, 'ohm');
-    const orientation = options.orientation ?? 1;
-    if (orientation !== 1 && orientation !== -1) {
-      throw new InputError('bad-orientation', `${owner} orientation ${String(orientation)} must be +1 or -1`, [name]);
-    }
-    const [plus, minus] = this.terminals(options.plus, options.minus, owner, name);
-    return this.addElement('winding', {
-      kind: 'winding', name, plus, minus, tube: tube.index, turns, resistance, orientation,
+    const tube = this.own(options.tube, 'flux-tube', `winding "${name}" tube`, name);
+    const [plus, minus] = this.terminals(options.plus, options.minus, `winding "${name}"`, name);
+    return this.add({
+      kind: 'winding', name, plus, minus, tube: tube.index, turns: options.turns, resistance: options.resistance ?? 0, orientation: options.orientation ?? 1,
     });
   }
 
@@ -338,11 +323,8 @@ export class NetworkBuilder {
    * ```
    */
   resistor(name: string, plus: ElectricNode, minus: ElectricNode, resistance: number): Resistor {
-    this.checkElementName(name, 'resistor');
-    const owner = `resistor "${name}"`;
-    const [p, m] = this.terminals(plus, minus, owner, name);
-    const r = requirePositive(resistance, `${owner} resistance`, name, 'ohm');
-    return this.addElement('resistor', { kind: 'resistor', name, plus: p, minus: m, resistance: r });
+    const [p, m] = this.twoTerminal(name, 'resistor', plus, minus);
+    return this.add({ kind: 'resistor', name, plus: p, minus: m, resistance });
   }
 
   /**
@@ -354,12 +336,8 @@ export class NetworkBuilder {
    * ```
    */
   capacitor(name: string, plus: ElectricNode, minus: ElectricNode, capacitance: number, options: { readonly initialVoltage?: number } = {}): Capacitor {
-    this.checkElementName(name, 'capacitor');
-    const owner = `capacitor "${name}"`;
-    const [p, m] = this.terminals(plus, minus, owner, name);
-    const c = requirePositive(capacitance, `${owner} capacitance`, name, 'F');
-    const v0 = requireFinite(options.initialVoltage ?? 0, `${owner} initial voltage`, name, 'V');
-    return this.addElement('capacitor', { kind: 'capacitor', name, plus: p, minus: m, capacitance: c, initialVoltage: v0 });
+    const [p, m] = this.twoTerminal(name, 'capacitor', plus, minus);
+    return this.add({ kind: 'capacitor', name, plus: p, minus: m, capacitance, initialVoltage: options.initialVoltage ?? 0 });
   }
 
   /**
@@ -371,12 +349,8 @@ export class NetworkBuilder {
    * ```
    */
   inductor(name: string, plus: ElectricNode, minus: ElectricNode, inductance: number, options: { readonly initialCurrent?: number } = {}): Inductor {
-    this.checkElementName(name, 'inductor');
-    const owner = `inductor "${name}"`;
-    const [p, m] = this.terminals(plus, minus, owner, name);
-    const l = requirePositive(inductance, `${owner} inductance`, name, 'H');
-    const i0 = requireFinite(options.initialCurrent ?? 0, `${owner} initial current`, name, 'A');
-    return this.addElement('inductor', { kind: 'inductor', name, plus: p, minus: m, inductance: l, initialCurrent: i0 });
+    const [p, m] = this.twoTerminal(name, 'inductor', plus, minus);
+    return this.add({ kind: 'inductor', name, plus: p, minus: m, inductance, initialCurrent: options.initialCurrent ?? 0 });
   }
 
   /**
@@ -389,10 +363,8 @@ export class NetworkBuilder {
    * ```
    */
   voltageSource(name: string, plus: ElectricNode, minus: ElectricNode, waveform: WaveformSpec): VoltageSource {
-    this.checkElementName(name, 'voltage source');
-    const [p, m] = this.terminals(plus, minus, `voltage source "${name}"`, name);
-    compileWaveform(waveform, { label: `voltage source "${name}"`, element: name });
-    return this.addElement('voltage-source', { kind: 'voltage-source', name, plus: p, minus: m, waveform: clonePlain(waveform) });
+    const [p, m] = this.twoTerminal(name, 'voltage source', plus, minus);
+    return this.add({ kind: 'voltage-source', name, plus: p, minus: m, waveform });
   }
 
   /**
@@ -405,10 +377,8 @@ export class NetworkBuilder {
    * ```
    */
   currentSource(name: string, plus: ElectricNode, minus: ElectricNode, waveform: WaveformSpec): CurrentSource {
-    this.checkElementName(name, 'current source');
-    const [p, m] = this.terminals(plus, minus, `current source "${name}"`, name);
-    compileWaveform(waveform, { label: `current source "${name}"`, element: name });
-    return this.addElement('current-source', { kind: 'current-source', name, plus: p, minus: m, waveform: clonePlain(waveform) });
+    const [p, m] = this.twoTerminal(name, 'current source', plus, minus);
+    return this.add({ kind: 'current-source', name, plus: p, minus: m, waveform });
   }
 
   /**
@@ -421,40 +391,97 @@ export class NetworkBuilder {
    * ```
    */
   switch(name: string, plus: ElectricNode, minus: ElectricNode, options: SwitchOptions = {}): Switch {
-    this.checkElementName(name, 'switch');
-    const owner = `switch "${name}"`;
-    const [p, m] = this.terminals(plus, minus, owner, name);
-    const onResistance = requirePositive(options.onResistance ?? 1e-3, `${owner} on-resistance`, name, 'ohm');
-    const offResistance = requirePositive(options.offResistance ?? 1e6, `${owner} off-resistance`, name, 'ohm');
-    if (offResistance <= onResistance) {
-      throw new InputError(
-        'bad-switch-resistance',
-        `${owner} off-resistance ${offResistance} ohm is not above its on-resistance ${onResistance} ohm; swap them`,
-        [name],
-      );
-    }
+    const [p, m] = this.twoTerminal(name, 'switch', plus, minus);
     const initiallyClosed = options.closed ?? false;
-    const toggleTimes: number[] = [];
-    let state = initiallyClosed;
-    let last = -Infinity;
-    for (const [k, entry] of (options.schedule ?? []).entries()) {
-      const time = requireFinite(entry.time, `${owner} schedule entry ${k} time`, name, 's');
-      if (time <= last) {
+    return this.add({
+      kind: 'switch', name, plus: p, minus: m,
+      onResistance: options.onResistance ?? 1e-3,
+      offResistance: options.offResistance ?? 1e6,
+      initiallyClosed,
+      toggleTimes: toggleTimesOf(initiallyClosed, options.schedule ?? [], `switch "${name}"`, name),
+    });
+  }
+
+  /**
+   * Add an element given as plain data (one entry of a description's
+   * `elements`, indices into this builder's lists): the same checks and
+   * codes as the typed methods, plus `bad-description` for what only plain
+   * data can get wrong (an unknown kind, an index out of range). Used to
+   * replay a description; scripts use the typed methods.
+   *
+   * @example
+   * ```ts
+   * net.element({ kind: 'resistor', name: 'load', plus: 1, minus: 0, resistance: 12 });
+   * ```
+   */
+  element(description: ElementDescription): TwoTerminal {
+    const raw = description as unknown as Record<string, unknown>;
+    const name = typeof raw.name === 'string' ? raw.name : `element ${this.elements.length}`;
+    if (!isElementKind(raw.kind)) {
+      throw new InputError('bad-description', `network description: element "${name}" has kind ${JSON.stringify(raw.kind)}; use ${alternatives(Object.keys(ELEMENT_KINDS))}`, [name]);
+    }
+    const kind = elementKind(description);
+    const node = (field: 'plus' | 'minus'): ElectricNode => {
+      const k = raw[field];
+      const handle = typeof k === 'number' && Number.isInteger(k) && k >= 0 && k < this.electricNodes.length
+        ? this.handle('electric-node', this.electricNodes[k]!.name, k) : undefined;
+      if (handle === undefined) {
         throw new InputError(
-          'unsorted-schedule',
-          `${owner} schedule entry ${k} at t = ${time} s does not come after the previous entry (${last} s); sort the schedule by time`,
+          'bad-description',
+          `network description: "${name}" field "${field}" = ${String(k)} is not the index of an electric node (0..${this.electricNodes.length - 1}); give the index in the description's list`,
           [name],
         );
       }
-      last = time;
-      if (entry.closed !== state) {
-        toggleTimes.push(time);
-        state = entry.closed;
-      }
+      return handle;
+    };
+    const [p, m] = this.twoTerminal(raw.name as string, kind.noun, node('plus'), node('minus'));
+    return this.add({ ...description, plus: p, minus: m });
+  }
+
+  /**
+   * Add a flux tube given as plain data (one entry of a description's
+   * `tubes`): the same checks and codes as the typed methods, plus
+   * `bad-description` for an unknown law kind or an index out of range.
+   *
+   * @example
+   * ```ts
+   * net.tube({ name: 'gap', from: 0, to: 1, law: { kind: 'air-gap', length: 1e-3, area: 4e-4, fringingFactor: 1 } });
+   * ```
+   */
+  tube(description: TubeDescription): FluxTube {
+    const raw = description as unknown as Record<string, unknown>;
+    const name = typeof raw.name === 'string' ? raw.name : `tube ${this.tubes.length}`;
+    const law = (raw.law !== null && typeof raw.law === 'object' ? raw.law : {}) as Record<string, unknown>;
+    if (!isTubeKind(law.kind)) {
+      return bad(`tube "${name}" has law kind ${JSON.stringify(law.kind)}; use ${alternatives(Object.keys(TUBE_KINDS))}`, [name]);
     }
-    return this.addElement('switch', {
-      kind: 'switch', name, plus: p, minus: m, onResistance, offResistance, initiallyClosed, toggleTimes,
-    });
+    const kind = tubeKind(description.law);
+    const node = (field: 'from' | 'to'): MagneticNode => {
+      const k = raw[field];
+      const handle = typeof k === 'number' && Number.isInteger(k) && k >= 0 && k < this.magneticNodes.length
+        ? this.handle('magnetic-node', this.magneticNodes[k]!.name, k) : undefined;
+      if (handle === undefined) {
+        const range = this.magneticNodes.length === 0 ? 'there are none' : `0..${this.magneticNodes.length - 1}`;
+        return bad(`"${name}" field "${field}" = ${String(k)} is not the index of a magnetic node (${range}); give the index in the description's list`, [name]);
+      }
+      return handle;
+    };
+    const from = node('from');
+    const to = node('to');
+    requireName(raw.name, kind.noun);
+    const owner = kind.kind === 'material' ? `tube "${name}"` : `${kind.noun} "${name}"`;
+    const clean = kind.check(description.law, owner, name);
+    const eddy = description.eddyResistance;
+    if (eddy !== undefined) {
+      if (!kind.allowsEddy) bad(`tube "${name}" has an eddy resistance but is not a tube of material; drop eddyResistance`, [name]);
+      requirePositive(eddy, `${owner} eddy resistance`, name, 'ohm');
+    }
+    const ic = {
+      from, to,
+      ...(description.initialFlux !== undefined ? { initialFlux: description.initialFlux } : {}),
+      ...(description.initialFluxDensity !== undefined ? { initialFluxDensity: description.initialFluxDensity } : {}),
+    };
+    return this.addTube(name, ic, clean, eddy);
   }
 
   /**
@@ -523,7 +550,7 @@ export class NetworkBuilder {
     if (ic.initialFlux !== undefined) requireFinite(ic.initialFlux, `${owner} initial flux`, name, 'Wb');
     if (ic.initialFluxDensity !== undefined) {
       requireFinite(ic.initialFluxDensity, `${owner} initial flux density`, name, 'T');
-      if (law.kind === 'reluctance' && law.area === undefined) {
+      if (!tubeKind(law).hasArea(law)) {
         this.tubeNames.delete(name);
         throw new InputError(
           'missing-area',
@@ -546,6 +573,19 @@ export class NetworkBuilder {
     this.elementNames.set(element.name, this.elements.length);
     this.elements.push(element);
     return this.handle(kind, element.name, this.elements.length - 1) as Extract<AnyHandle, { kind: K }>;
+  }
+
+  /** Check an element's data by its kind and add it. */
+  private add<D extends ElementDescription>(d: D): Extract<AnyHandle, { kind: D['kind'] }> {
+    const kind = elementKind(d);
+    const clean = kind.check(d, { owner: `${kind.noun} "${d.name}"`, tubeCount: this.tubes.length });
+    return this.addElement(clean.kind, clean as unknown as Extract<ElementDescription, { kind: D['kind'] }>) as Extract<AnyHandle, { kind: D['kind'] }>;
+  }
+
+  /** Name and terminal checks of a two-terminal element: node indices [plus, minus]. */
+  private twoTerminal(name: string, noun: string, plus: ElectricNode, minus: ElectricNode): [number, number] {
+    this.checkElementName(name, noun);
+    return this.terminals(plus, minus, `${noun} "${name}"`, name);
   }
 
   private checkElementName(name: string, kind: string): void {
@@ -600,14 +640,14 @@ export function createNetwork(name = 'network'): NetworkBuilder {
   return new NetworkBuilder(name);
 }
 
-/** Compile a tube's material; its error keeps its code and gains the tube's name (message and elements). */
-function surfaceMaterialError(material: MaterialSpec | MaterialLaw, owner: string, name: string): void {
-  try {
-    compileMaterial(material);
-  } catch (e) {
-    if (e instanceof InputError) throw new InputError(e.code, `${owner}: ${e.message}`, [name, ...e.elements]);
-    throw e;
-  }
+/** `'a', 'b' or 'c'`. */
+function alternatives(names: readonly string[]): string {
+  const quoted = names.map((k) => `'${k}'`);
+  return quoted.length < 2 ? quoted.join('') : `${quoted.slice(0, -1).join(', ')} or ${quoted[quoted.length - 1]!}`;
+}
+
+function bad(text: string, elements: readonly string[]): never {
+  throw new InputError('bad-description', `network description: ${text}`, elements);
 }
 
 function describeValue(value: unknown): string {

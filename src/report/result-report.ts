@@ -1,3 +1,5 @@
+import type { ListingParameter } from '../elements/element-kind.js';
+import { elementKind, tubeKind } from '../elements/registry.js';
 import { compileMaterial } from '../materials/material-spec.js';
 import type { NetworkDescription, TubeDescription } from '../network/description.js';
 import type { ExportColumn } from '../result/export.js';
@@ -194,73 +196,16 @@ function networkRows(d: NetworkDescription): NetworkRow[] {
   const node = (k: number): string => d.electricNodes[k]!.name;
   const mnode = (k: number): string => d.magneticNodes[k]!.name;
   const rows: NetworkRow[] = d.tubes.map((t) => {
-    const law = t.law;
-    const parameters =
-      law.kind === 'material'
-        ? [
-            { name: 'length', value: law.length, unit: 'm' },
-            { name: 'area', value: law.area, unit: 'm^2' },
-            { name: 'material', value: compileMaterial(law.material).name },
-          ]
-        : law.kind === 'air-gap'
-          ? [
-              { name: 'length', value: law.length, unit: 'm' },
-              { name: 'area', value: law.area, unit: 'm^2' },
-              { name: 'fringing factor', value: law.fringingFactor },
-            ]
-          : [{ name: 'reluctance', value: law.reluctance, unit: 'A/Wb' }];
+    const kind = tubeKind(t.law);
+    const parameters: ListingParameter[] = kind.listing(t.law);
     if (t.eddyResistance !== undefined) parameters.push({ name: 'eddy resistance', value: t.eddyResistance, unit: 'ohm' });
     if (t.initialFluxDensity !== undefined) parameters.push({ name: 'initial B', value: t.initialFluxDensity, unit: 'T' });
     if (t.initialFlux !== undefined) parameters.push({ name: 'initial flux', value: t.initialFlux, unit: 'Wb' });
-    const kind = law.kind === 'material' ? 'flux tube' : law.kind === 'air-gap' ? 'air gap' : 'reluctance';
-    return { element: t.name, kind, connections: `${mnode(t.from)} -> ${mnode(t.to)}`, parameters };
+    return { element: t.name, kind: kind.noun, connections: `${mnode(t.from)} -> ${mnode(t.to)}`, parameters };
   });
   for (const e of d.elements) {
-    const connections = `${node(e.plus)} -> ${node(e.minus)}`;
-    switch (e.kind) {
-      case 'winding':
-        rows.push({
-          element: e.name, kind: 'winding', connections,
-          parameters: [
-            { name: 'tube', value: d.tubes[e.tube]!.name },
-            { name: 'turns', value: e.turns, digits: 6 },
-            { name: 'resistance', value: e.resistance, unit: 'ohm' },
-            { name: 'orientation', value: e.orientation > 0 ? 'along tube' : 'against tube' },
-          ],
-        });
-        break;
-      case 'resistor':
-        rows.push({ element: e.name, kind: 'resistor', connections, parameters: [{ name: 'resistance', value: e.resistance, unit: 'ohm' }] });
-        break;
-      case 'capacitor':
-        rows.push({ element: e.name, kind: 'capacitor', connections, parameters: [{ name: 'capacitance', value: e.capacitance, unit: 'F' }, { name: 'initial voltage', value: e.initialVoltage, unit: 'V' }] });
-        break;
-      case 'inductor':
-        rows.push({ element: e.name, kind: 'inductor', connections, parameters: [{ name: 'inductance', value: e.inductance, unit: 'H' }, { name: 'initial current', value: e.initialCurrent, unit: 'A' }] });
-        break;
-      case 'voltage-source':
-      case 'current-source':
-        rows.push({ element: e.name, kind: e.kind.replace('-', ' '), connections, parameters: [{ name: 'waveform', value: describeWaveform(e.waveform) }] });
-        break;
-      case 'switch':
-        rows.push({
-          element: e.name, kind: 'switch', connections,
-          parameters: [
-            { name: 'on resistance', value: e.onResistance, unit: 'ohm' },
-            { name: 'off resistance', value: e.offResistance, unit: 'ohm' },
-            { name: 'initially', value: e.initiallyClosed ? 'closed' : 'open' },
-            { name: 'toggles at', value: e.toggleTimes.length ? e.toggleTimes.join(', ') + ' s' : 'never' },
-          ],
-        });
-        break;
-    }
+    const kind = elementKind(e);
+    rows.push({ element: e.name, kind: kind.noun, connections: `${node(e.plus)} -> ${node(e.minus)}`, parameters: kind.listing(e, d) });
   }
   return rows;
-}
-
-function describeWaveform(w: { readonly kind: string }): string {
-  const parts = Object.entries(w as Record<string, unknown>)
-    .filter(([k, v]) => k !== 'kind' && (typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean'))
-    .map(([k, v]) => `${k} ${String(v)}`);
-  return `${w.kind}${parts.length ? ` (${parts.join(', ')})` : ''}`;
 }

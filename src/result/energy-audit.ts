@@ -1,3 +1,4 @@
+import type { LossCategory, RateReader } from '../elements/element-kind.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
 
@@ -65,82 +66,47 @@ const MAX_DEPTH = 8;
  *
  * @example
  * ```ts
- * const audit = computeEnergyAudit(compiled, { steps, intervals, start, end }, dphi);
+ * const audit = computeEnergyAudit(compiled, { steps, intervals, start, end }, dphi, reader);
  * ```
  */
 export function computeEnergyAudit(
   c: CompiledNetwork,
   run: AuditInput,
   fluxDerivative: (tube: number, y: Float64Array, t: number) => number,
+  rates: RateReader,
 ): EnergyAudit {
-  const d = c.description;
-  const L = c.layout;
-  const volt = (y: Float64Array, node: number): number => {
-    const i = L.potential[node]!;
-    return i < 0 ? 0 : y[i]!;
-  };
+  const inputs = c.inputs;
   const eddyTubes = c.tubes.flatMap((t, b) => (t.eddyResistance > 0 ? [b] : []));
+  const sources = c.elements.filter((e) => e.sourcePower !== undefined);
+  const lossy = c.elements.filter((e) => e.loss !== undefined);
+  const storing = c.elements.filter((e) => e.storedEnergy !== undefined);
+  const slot: Record<LossCategory, number> = { resistors: 1, windings: 2, eddy: 3 };
 
-  const powers = (t: number, y: Float64Array): [number, number, number, number, number] => {
-    let source = 0;
-    let gross = 0;
-    let resistive = 0;
-    let copper = 0;
-    let eddy = 0;
-    d.elements.forEach((e, k) => {
-      const u = volt(y, e.plus) - volt(y, e.minus);
-      switch (e.kind) {
-        case 'voltage-source': {
-          const p = u * y[L.branchCurrent[k]!]!;
-          source += p;
-          gross += Math.abs(p);
-          break;
-        }
-        case 'current-source': {
-          const p = u * c.inputs.sourceValue(k, t);
-          source += p;
-          gross += Math.abs(p);
-          break;
-        }
-        case 'resistor':
-          resistive += (u * u) / e.resistance;
-          break;
-        case 'switch':
-          resistive += (u * u) / (c.inputs.switchClosed(k, t) ? e.onResistance : e.offResistance);
-          break;
-        case 'winding': {
-          const i = y[L.branchCurrent[k]!]!;
-          copper += e.resistance * i * i;
-          break;
-        }
-        default:
-          break;
-      }
-    });
+  /** [source, resistors, windings, eddy, |source|] power at (t, y), W. */
+  const powers = (t: number, y: Float64Array): number[] => {
+    const p = [0, 0, 0, 0, 0];
+    for (const e of sources) {
+      const w = e.sourcePower!(t, y, inputs, rates);
+      p[0]! += w;
+      p[4]! += Math.abs(w);
+    }
+    for (const e of lossy) p[slot[e.loss!.category]]! += e.loss!.power(t, y, inputs);
     for (const b of eddyTubes) {
       const dphi = fluxDerivative(b, y, t);
-      eddy += c.tubes[b]!.eddyResistance * dphi * dphi;
+      p[3]! += c.tubes[b]!.eddyResistance * dphi * dphi;
     }
-    return [source, resistive, copper, eddy, gross];
+    return p;
   };
 
   const stored = (y: Float64Array): number => {
     let w = 0;
-    for (let b = 0; b < c.tubes.length; b++) w += c.tubeEnergy(b, c.tubeFlux(y, b));
-    d.elements.forEach((e, k) => {
-      if (e.kind === 'capacitor') {
-        const u = volt(y, e.plus) - volt(y, e.minus);
-        w += 0.5 * e.capacitance * u * u;
-      } else if (e.kind === 'inductor') {
-        const i = y[L.branchCurrent[k]!]!;
-        w += 0.5 * e.inductance * i * i;
-      }
-    });
+    for (let b = 0; b < c.tubes.length; b++) w += c.tubeEnergy(b, c.tubeFlux(y, b), y);
+    for (const e of storing) w += e.storedEnergy!(y);
     return w;
   };
 
   const sum = [0, 0, 0, 0, 0];
-  const y = new Float64Array(L.size);
+  const y = new Float64Array(c.layout.size);
   /** 4-point Gauss-Legendre of the five power integrands over [a, b] of a step. */
   const gauss = (step: RecordedStep, a: number, b: number): number[] => {
     const out = [0, 0, 0, 0, 0];

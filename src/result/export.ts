@@ -1,3 +1,4 @@
+import { tubeKind } from '../elements/registry.js';
 import type { NetworkDescription } from '../network/description.js';
 import type { AnyHandle, TwoTerminal } from '../network/handles.js';
 import { QUANTITY_UNITS, type QuantityRequest } from './state-reader.js';
@@ -22,7 +23,7 @@ export function defaultColumns(network: NetworkDescription, networkId: number): 
     ({ kind, name, index, network: networkId }) as unknown as Extract<AnyHandle, { kind: K }>;
   const cols: ExportColumn[] = [];
   network.tubes.forEach((t, b) => {
-    const hasArea = t.law.kind !== 'reluctance' || t.law.area !== undefined;
+    const hasArea = tubeKind(t.law).hasArea(t.law);
     cols.push({ quantity: hasArea ? 'fluxDensity' : 'flux', handle: h('flux-tube', t.name, b) });
   });
   network.elements.forEach((e, k) => {

@@ -311,6 +311,7 @@ export class SimulationResult {
       this.compiled,
       { steps: this.steps, intervals: this.intervals, start: this.initialState, end: this.finalState, ...(this.project ? { project: this.project } : {}) },
       (b, y, t) => this.reader.fluxDerivative(b, y, t),
+      this.reader,
     );
     return this.audit;
   }

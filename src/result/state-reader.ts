@@ -1,7 +1,8 @@
 import { InputError } from '../errors.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { derivativeFunctional } from '../formulation/derivative-functional.js';
-import type { ElementDescription } from '../network/description.js';
+import type { InputView, RateReader } from '../elements/element-kind.js';
+import { elementKind, isElementKind } from '../elements/registry.js';
 import type { AnyHandle, ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from '../network/handles.js';
 
 /** A quantity that can be read from a state, with the handle kind it applies to. */
@@ -41,15 +42,20 @@ export type StateFunction = (y: Float64Array, t: number) => number;
  * b(y, t); // T
  * ```
  */
-export class StateReader {
+export class StateReader implements RateReader {
   private readonly functionals = new Map<string, Float64Array | undefined>();
   private readonly f: Float64Array;
+  private readonly u: Float64Array;
+  /** The inputs quantities are evaluated with. */
+  private readonly inputs: InputView;
 
   constructor(
     private readonly compiled: CompiledNetwork,
     private readonly networkId: number | undefined,
   ) {
     this.f = new Float64Array(compiled.layout.size);
+    this.u = new Float64Array(compiled.layout.size);
+    this.inputs = compiled.inputs;
   }
 
   /** A function evaluating the requested quantity; throws InputError for a handle of the wrong kind or network. */
@@ -75,7 +81,7 @@ export class StateReader {
         if (!Number.isFinite(length)) {
           throw new InputError('no-length', `tube "${request.handle.name}" is a reluctance without a length, so it has no field strength; read its mmf instead`, [request.handle.name]);
         }
-        return (y) => c.tubeMmf(b, c.tubeFlux(y, b)) / length;
+        return (y) => c.tubeMmf(b, c.tubeFlux(y, b), y) / length;
       }
       case 'mmf': {
         const b = this.checkHandle(request.handle, 'flux-tube').index;
@@ -99,7 +105,7 @@ export class StateReader {
           for (let at = k; loops.parentTube[at]! >= 0; ) {
             const b = loops.parentTube[at]!;
             const tube = d.tubes[b]!;
-            const drop = this.tubeDrop(b, y, t) - this.windingMmf(b, y);
+            const drop = this.tubeDrop(b, y, t) - this.windingMmf(b, y, t);
             // u(from) - u(to) = drop. If `at` is the tube's `to` end, u(at) = u(parent) - drop.
             u += loops.parentIsTo[at] ? -drop : drop;
             at = loops.parentIsTo[at] ? tube.from : tube.to;
@@ -124,22 +130,15 @@ export class StateReader {
         const e = this.elementIndex(request.handle);
         return (y, t) => this.elementVoltage(e, y) * this.elementCurrent(e, y, t);
       }
-      case 'emf': {
-        const e = this.checkHandle(request.handle, 'winding').index;
-        const w = d.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
-        const bi = c.layout.branchCurrent[e]!;
-        return (y) => this.elementVoltage(e, y) - w.resistance * y[bi]!;
-      }
-      case 'copperLoss': {
-        const e = this.checkHandle(request.handle, 'winding').index;
-        const w = d.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
-        const bi = c.layout.branchCurrent[e]!;
-        return (y) => w.resistance * y[bi]! * y[bi]!;
-      }
+      case 'emf':
+      case 'copperLoss':
       case 'fluxLinkage': {
         const e = this.checkHandle(request.handle, 'winding').index;
-        const w = d.elements[e] as Extract<ElementDescription, { kind: 'winding' }>;
-        return (y) => w.orientation * w.turns * c.tubeFlux(y, w.tube);
+        const read = c.elements[e]!.extra?.[request.quantity];
+        if (!read) {
+          throw new InputError('wrong-handle-kind', `${request.handle.name} has no ${request.quantity}; read it from a winding`, [request.handle.name]);
+        }
+        return (y, t) => read(t, y);
       }
     }
   }
@@ -147,9 +146,9 @@ export class StateReader {
   /** dphi_b/dt from the state, for tubes whose flux derivative M y' = f determines (wound or eddy tubes); NaN otherwise. */
   fluxDerivative(b: number, y: Float64Array, t: number): number {
     const c = this.compiled;
-    const u = new Float64Array(c.layout.size);
-    for (const en of c.loops.tubeLoops[b]!) u[c.layout.loopOffset + en.loop] = en.sign;
-    return this.applyFunctional(`dphi:${b}`, u, y, t);
+    return this.rate(`dphi:${b}`, (u) => {
+      for (const en of c.loops.tubeLoops[b]!) u[c.layout.loopOffset + en.loop] = en.sign;
+    }, t, y, this.inputs);
   }
 
   /** Check that a handle names an element of the compiled network (and of the right builder, when known). */
@@ -175,8 +174,7 @@ export class StateReader {
   }
 
   private elementIndex(element: TwoTerminal): number {
-    const kinds = ['resistor', 'capacitor', 'inductor', 'voltage-source', 'current-source', 'switch', 'winding'];
-    if (!element || typeof element !== 'object' || !kinds.includes(element.kind)) {
+    if (!element || typeof element !== 'object' || !isElementKind(element.kind)) {
       throw new InputError('wrong-handle-kind', `expected a two-terminal element or winding handle, got ${describe(element)}`, []);
     }
     return this.checkHandle(element, element.kind).index;
@@ -190,36 +188,16 @@ export class StateReader {
   }
 
   private elementCurrent(e: number, y: Float64Array, t: number): number {
-    const c = this.compiled;
-    const el = c.description.elements[e]!;
-    switch (el.kind) {
-      case 'resistor':
-        return this.elementVoltage(e, y) / el.resistance;
-      case 'switch':
-        return this.elementVoltage(e, y) / (c.inputs.switchClosed(e, t) ? el.onResistance : el.offResistance);
-      case 'current-source':
-        return c.inputs.sourceValue(e, t);
-      case 'capacitor': {
-        const u = new Float64Array(c.layout.size);
-        const ip = c.layout.potential[el.plus]!;
-        const im = c.layout.potential[el.minus]!;
-        if (ip >= 0) u[ip] = el.capacitance;
-        if (im >= 0) u[im] = -el.capacitance;
-        return this.applyFunctional(`cap:${e}`, u, y, t);
-      }
-      case 'voltage-source':
-      case 'inductor':
-      case 'winding':
-        return y[c.layout.branchCurrent[e]!]!;
-    }
+    return this.compiled.elements[e]!.current(t, y, this.inputs, this);
   }
 
   /** MMF of the windings on tube b (orientation * N * i summed), A. */
-  private windingMmf(b: number, y: Float64Array): number {
+  private windingMmf(b: number, y: Float64Array, t: number): number {
     const c = this.compiled;
     let s = 0;
     c.description.elements.forEach((el, e) => {
-      if (el.kind === 'winding' && el.tube === b) s += el.orientation * el.turns * y[c.layout.branchCurrent[e]!]!;
+      const linked = elementKind(el).linkedFlux?.(el);
+      if (linked !== undefined && linked.tube === b) s += linked.turns * this.elementCurrent(e, y, t);
     });
     return s;
   }
@@ -228,15 +206,20 @@ export class StateReader {
     const c = this.compiled;
     const phi = c.tubeFlux(y, b);
     const re = c.tubes[b]!.eddyResistance;
-    return c.tubeMmf(b, phi) + (re === 0 ? 0 : re * this.fluxDerivative(b, y, t));
+    return c.tubeMmf(b, phi, y) + (re === 0 ? 0 : re * this.fluxDerivative(b, y, t));
   }
 
-  private applyFunctional(key: string, u: Float64Array, y: Float64Array, t: number): number {
+  /** u^T y' at (t, y) for the u that `fill` writes (see {@link RateReader}); NaN when M y' = f does not fix it. */
+  rate(key: string, fill: (u: Float64Array) => void, t: number, y: Float64Array, inputs: InputView): number {
     const c = this.compiled;
-    if (!this.functionals.has(key)) this.functionals.set(key, derivativeFunctional(c.mass, c.layout.size, u));
+    if (!this.functionals.has(key)) {
+      this.u.fill(0);
+      fill(this.u);
+      this.functionals.set(key, derivativeFunctional(c.mass, c.layout.size, this.u));
+    }
     const w = this.functionals.get(key);
     if (!w) return NaN;
-    c.rhs(t, y, this.f);
+    c.evaluate(t, y, inputs, this.f);
     let s = 0;
     for (let i = 0; i < this.f.length; i++) s += w[i]! * this.f[i]!;
     return s;

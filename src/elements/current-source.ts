@@ -1,0 +1,53 @@
+import { clonePlain } from '../network/clone-plain.js';
+import type { CurrentSourceDescription } from '../network/description.js';
+import { compileWaveform } from '../waveforms/waveform-spec.js';
+import type { ElementKind } from './element-kind.js';
+import { stateValue } from './state-value.js';
+import { describeWaveform } from './voltage-source.js';
+
+/**
+ * An ideal current source driving waveform(t) out of its plus terminal into
+ * the circuit; it adds no unknown.
+ *
+ * @example
+ * ```ts
+ * net.currentSource('bias', a, net.ground, constant(1.5));
+ * ```
+ */
+export const currentSourceKind: ElementKind<CurrentSourceDescription> = {
+  kind: 'current-source',
+  noun: 'current source',
+  role: 'current-source',
+  branchCurrent: false,
+  openTerminalCode: 'open-terminal',
+  check(d, ctx) {
+    compileWaveform(d.waveform, { label: ctx.owner, element: d.name });
+    return { kind: 'current-source', name: d.name, plus: d.plus, minus: d.minus, waveform: clonePlain(d.waveform) };
+  },
+  compile(list, ctx) {
+    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
+    const element = Int32Array.from(list, (e) => e.index);
+    return {
+      residual(t, _y, inputs, f) {
+        for (let k = 0; k < p.length; k++) {
+          const i = inputs.sourceValue(element[k]!, t);
+          if (p[k]! >= 0) f[p[k]!]! += i;
+          if (q[k]! >= 0) f[q[k]!]! -= i;
+        }
+      },
+      jacobian() {},
+      mass() {},
+      elements: list.map((e, k) => ({
+        name: e.d.name,
+        index: e.index,
+        role: 'current-source' as const,
+        current: (t: number, _y: Float64Array, inputs) => inputs.sourceValue(e.index, t),
+        sourcePower: (t: number, y: Float64Array, inputs) =>
+          (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * inputs.sourceValue(e.index, t),
+      })),
+    };
+  },
+  listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform) }],
+  waveform: (d) => d.waveform,
+};

@@ -1,0 +1,261 @@
+import type { ElementDescription, NetworkDescription } from '../network/description.js';
+import type { WaveformSpec } from '../waveforms/waveform-spec.js';
+import type { StampTarget } from './stamp-target.js';
+
+/**
+ * The inputs in force for one evaluation: source values and switch states.
+ * Passed explicitly to every stamp and quantity, never read from shared
+ * state, so a reader of a past step cannot disturb a live run.
+ *
+ * @example
+ * ```ts
+ * const held: InputView = { sourceValue: () => 10, switchClosed: () => true };
+ * ```
+ */
+export interface InputView {
+  /** Value of source element `element` (V or A) at time t. */
+  sourceValue(element: number, t: number): number;
+  /** Whether switch element `element` is closed at time t. */
+  switchClosed(element: number, t: number): boolean;
+}
+
+/**
+ * How an element takes part in the circuit's topology and index analysis.
+ * - `conductive`: a resistance (resistor, switch): joins its nodes, fixes nothing;
+ * - `capacitive`: its voltage is a state (capacitor);
+ * - `inductive`: its current is a state (inductor, winding);
+ * - `voltage-source`: fixes its voltage;
+ * - `current-source`: fixes its current.
+ *
+ * @example
+ * ```ts
+ * const role: TopologicalRole = ELEMENT_KINDS.capacitor.role; // 'capacitive'
+ * ```
+ */
+export type TopologicalRole = 'conductive' | 'capacitive' | 'inductive' | 'voltage-source' | 'current-source';
+
+/**
+ * Where an element's loss goes in the energy audit.
+ *
+ * @example
+ * ```ts
+ * const where: LossCategory = 'windings';
+ * ```
+ */
+export type LossCategory = 'resistors' | 'windings' | 'eddy';
+
+/**
+ * What the element kinds need from the network while checking one
+ * element's data (from a builder call or a plain description).
+ *
+ * @example
+ * ```ts
+ * const ctx: CheckContext = { owner: 'winding "primary"', tubeCount: 3 };
+ * ```
+ */
+export interface CheckContext {
+  /** The element as messages name it, e.g. `winding "primary"`. */
+  readonly owner: string;
+  /** Number of flux tubes declared so far (windings refer to one). */
+  readonly tubeCount: number;
+}
+
+/**
+ * Unknown positions and magnetic incidence that element stamps need.
+ *
+ * @example
+ * ```ts
+ * const p = ctx.potential(element.plus); // -1 for ground
+ * ```
+ */
+export interface StampContext {
+  /** Index in y of an electric node's potential; -1 for ground. */
+  potential(node: number): number;
+  /** Index in y of an element's branch current; -1 when it has none. */
+  branchCurrent(element: number): number;
+  /** Loops through tube b: indices in y of their loop fluxes and the signs (flux of b = sum sign * y[index]). */
+  tubeLoops(b: number): { readonly index: Int32Array; readonly sign: Float64Array };
+  /** Index in y of the first internal state of element `element` (see {@link ElementKind.internalStates}); -1 if none. */
+  internalStates(element: number): number;
+}
+
+/**
+ * Reads u^T y' from the state for a vector u in the row space of the mass
+ * matrix (a capacitor's current C dv/dt): u^T y' = w^T f(t, y), M^T w = u.
+ *
+ * @example
+ * ```ts
+ * const i = rates.rate(`cap:${k}`, (u) => { u[p] = c; u[n] = -c; }, t, y, inputs);
+ * ```
+ */
+export interface RateReader {
+  /** u^T y' at (t, y); `key` caches the functional; NaN when u^T y' is not determined by M y' = f. */
+  rate(key: string, fill: (u: Float64Array) => void, t: number, y: Float64Array, inputs: InputView): number;
+}
+
+/**
+ * One element of a compiled network: everything the results, the energy
+ * audit and the report need to know about it, asked of the element itself.
+ *
+ * @example
+ * ```ts
+ * const i = compiled.elements[k]!.current(t, y, inputs, rates);
+ * ```
+ */
+export interface CompiledElement {
+  readonly name: string;
+  /** Index in the description's `elements`. */
+  readonly index: number;
+  readonly role: TopologicalRole;
+  /** Current from plus to minus through the element, A (for sources: delivered out of plus). */
+  current(t: number, y: Float64Array, inputs: InputView, rates: RateReader): number;
+  /** Power the element delivers into the circuit (sources only), W. */
+  sourcePower?(t: number, y: Float64Array, inputs: InputView, rates: RateReader): number;
+  /** Power it dissipates, W, and where the audit books it. */
+  readonly loss?: {
+    readonly category: LossCategory;
+    power(t: number, y: Float64Array, inputs: InputView): number;
+  };
+  /** Energy it stores at state y, J. */
+  storedEnergy?(y: Float64Array): number;
+  /** Quantities only this kind has (a winding's EMF, copper loss, flux linkage). */
+  readonly extra?: Readonly<Partial<Record<ExtraQuantity, (t: number, y: Float64Array) => number>>>;
+}
+
+/**
+ * Quantities that only some element kinds have.
+ *
+ * @example
+ * ```ts
+ * const q: ExtraQuantity = 'emf';
+ * ```
+ */
+export type ExtraQuantity = 'emf' | 'fluxLinkage' | 'copperLoss';
+
+/**
+ * All elements of one kind, compiled together so that the hot loops (f and
+ * its Jacobian) run once per kind over flat data.
+ *
+ * @example
+ * ```ts
+ * group.residual(t, y, inputs, f); // adds this kind's currents and branch equations
+ * ```
+ */
+export interface ElementGroup {
+  /** Add this kind's terms of f(t, y) into f (rows set by the group are added to, never overwritten). */
+  residual(t: number, y: Float64Array, inputs: InputView, f: Float64Array): void;
+  /** Add df/dy into J. */
+  jacobian(t: number, y: Float64Array, inputs: InputView, J: StampTarget): void;
+  /** Add the constant mass-matrix entries. */
+  mass(M: StampTarget): void;
+  /** Write initial values of this kind's states into y0 (before consistent initialisation). */
+  initial?(y0: Float64Array): void;
+  /** One compiled element per instance, in the order given to `compile`. */
+  readonly elements: readonly CompiledElement[];
+  /**
+   * Event functions of elements that switch on their own (a diode's
+   * current or voltage crossing zero): located on the dense output, the
+   * run restarts there. Absent for elements driven only by schedules.
+   */
+  readonly events?: readonly ElementEvent[];
+}
+
+/**
+ * A state function whose zero crossing changes an element's state.
+ *
+ * @example
+ * ```ts
+ * const turnOff: ElementEvent = { element: 3, direction: -1, value: (t, y) => y[7]! };
+ * ```
+ */
+export interface ElementEvent {
+  /** Index of the element in the description. */
+  readonly element: number;
+  /** +1: only rising crossings count, -1: only falling, 0: both. */
+  readonly direction: -1 | 0 | 1;
+  value(t: number, y: Float64Array, inputs: InputView): number;
+}
+
+/**
+ * A parameter row of the report's network listing.
+ *
+ * @example
+ * ```ts
+ * const row: ListingParameter = { name: 'resistance', value: 12, unit: 'ohm' };
+ * ```
+ */
+export interface ListingParameter {
+  readonly name: string;
+  readonly value: number | string;
+  readonly unit?: string;
+  /** Significant digits to print (default: the report's). */
+  readonly digits?: number;
+}
+
+/**
+ * Everything about one electric element kind, behind one interface: checks
+ * of its data, the unknowns it adds, its stamps, its quantities, its role
+ * in the topology and index checks, its inputs and its listing. The
+ * registry ({@link ELEMENT_KINDS}) holds one per kind; nothing else in the
+ * library switches on an element's kind.
+ *
+ * @example
+ * ```ts
+ * const kind = ELEMENT_KINDS[element.kind] as ElementKind<typeof element>;
+ * kind.noun; // 'voltage source'
+ * ```
+ */
+export interface ElementKind<D extends ElementDescription = ElementDescription> {
+  readonly kind: D['kind'];
+  /** The kind in messages: 'voltage source'. */
+  readonly noun: string;
+  readonly role: TopologicalRole;
+  /** Whether the element adds its branch current as an unknown. */
+  readonly branchCurrent: boolean;
+  /**
+   * Check the element's data (terminals and tube indices are already
+   * checked) and return the clean description; throws `InputError` naming
+   * the element and the fix. The builder and the description replay both
+   * call this, so the rules and codes are the same.
+   */
+  check(d: D, ctx: CheckContext): D;
+  /** Compile every element of this kind. */
+  compile(elements: readonly { readonly d: D; readonly index: number }[], ctx: StampContext, network: NetworkCompileInfo): ElementGroup;
+  /** Parameter rows for the report's network listing. */
+  listing(d: D, network: NetworkDescription): ListingParameter[];
+  /** Error code when one terminal is connected to nothing else and that forces the current to zero; absent: allowed. */
+  readonly openTerminalCode?: 'open-winding' | 'open-terminal';
+  /** The element's waveform input (sources). */
+  waveform?(d: D): WaveformSpec;
+  /** The element's switching schedule (switches). */
+  schedule?(d: D): { readonly initiallyClosed: boolean; readonly toggleTimes: readonly number[] };
+  /** Initial voltage plus - minus (capacitive elements), V. */
+  initialVoltage?(d: D): number;
+  /**
+   * Whether the element holds its terminal voltage rigidly (a voltage
+   * source; a winding without resistance): used to find over-constrained
+   * flux loops.
+   */
+  rigidVoltage?(d: D): boolean;
+  /** Flux the element links: tube and signed turns (windings). */
+  linkedFlux?(d: D): { readonly tube: number; readonly turns: number };
+  /**
+   * Labels of internal state unknowns the element adds (a device with
+   * memory); their positions come from {@link StampContext.internalStates}.
+   */
+  internalStates?(d: D): readonly string[];
+}
+
+/**
+ * Network-level facts an element group may need while compiling.
+ *
+ * @example
+ * ```ts
+ * const info: NetworkCompileInfo = { description, size: 12 };
+ * ```
+ */
+export interface NetworkCompileInfo {
+  readonly description: NetworkDescription;
+  /** Number of unknowns. */
+  readonly size: number;
+}

@@ -1,0 +1,62 @@
+import { requireFinite, requirePositive } from '../network/argument-checks.js';
+import type { InductorDescription } from '../network/description.js';
+import type { ElementKind } from './element-kind.js';
+import { stampBranch } from './stamp-target.js';
+import { stateValue } from './state-value.js';
+
+/**
+ * A linear inductor: L di/dt = v_plus - v_minus, with its branch current as
+ * an unknown (a state: its initial value is the initial current).
+ *
+ * @example
+ * ```ts
+ * net.inductor('line', a, b, 2e-3, { initialCurrent: 0 });
+ * ```
+ */
+export const inductorKind: ElementKind<InductorDescription> = {
+  kind: 'inductor',
+  noun: 'inductor',
+  role: 'inductive',
+  branchCurrent: true,
+  openTerminalCode: 'open-terminal',
+  check(d, ctx) {
+    const inductance = requirePositive(d.inductance, `${ctx.owner} inductance`, d.name, 'H');
+    const initialCurrent = requireFinite(d.initialCurrent ?? 0, `${ctx.owner} initial current`, d.name, 'A');
+    return { kind: 'inductor', name: d.name, plus: d.plus, minus: d.minus, inductance, initialCurrent };
+  },
+  compile(list, ctx) {
+    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
+    const b = Int32Array.from(list, (e) => ctx.branchCurrent(e.index));
+    return {
+      residual(_t, y, _inputs, f) {
+        for (let k = 0; k < b.length; k++) {
+          const i = y[b[k]!]!;
+          if (p[k]! >= 0) f[p[k]!]! -= i;
+          if (q[k]! >= 0) f[q[k]!]! += i;
+          f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!);
+        }
+      },
+      jacobian(_t, _y, _inputs, J) {
+        for (let k = 0; k < b.length; k++) stampBranch(J, p[k]!, q[k]!, b[k]!, 1);
+      },
+      mass(M) {
+        list.forEach((e, k) => M.add(b[k]!, b[k]!, e.d.inductance));
+      },
+      initial(y0) {
+        list.forEach((e, k) => (y0[b[k]!] = e.d.initialCurrent));
+      },
+      elements: list.map((e, k) => ({
+        name: e.d.name,
+        index: e.index,
+        role: 'inductive' as const,
+        current: (_t: number, y: Float64Array) => y[b[k]!]!,
+        storedEnergy: (y: Float64Array) => 0.5 * e.d.inductance * y[b[k]!]! ** 2,
+      })),
+    };
+  },
+  listing: (d) => [
+    { name: 'inductance', value: d.inductance, unit: 'H' },
+    { name: 'initial current', value: d.initialCurrent, unit: 'A' },
+  ],
+};

@@ -1,0 +1,81 @@
+/**
+ * Where element stamps add their entries of the Jacobian or the mass
+ * matrix. Elements never index the storage themselves, so the storage can
+ * change (dense today, a fixed sparse pattern for large networks) without
+ * touching an element. A row or column of -1 (ground) is ignored.
+ *
+ * @example
+ * ```ts
+ * J.add(p, p, -g); J.add(p, q, g); // a conductance between nodes p and q
+ * ```
+ */
+export interface StampTarget {
+  add(row: number, col: number, value: number): void;
+}
+
+/**
+ * A stamp target over a dense row-major n x n array.
+ *
+ * @example
+ * ```ts
+ * const target = new DenseStampTarget(n);
+ * target.bind(J); // stamps now add into J
+ * target.add(0, 1, 2.5);
+ * ```
+ */
+export class DenseStampTarget implements StampTarget {
+  private data: Float64Array;
+
+  constructor(private readonly n: number) {
+    this.data = new Float64Array(n * n);
+  }
+
+  /** Make stamps add into `data` (row-major n x n). */
+  bind(data: Float64Array): this {
+    this.data = data;
+    return this;
+  }
+
+  /** The array stamps add into. */
+  get values(): Float64Array {
+    return this.data;
+  }
+
+  add(row: number, col: number, value: number): void {
+    if (row >= 0 && col >= 0) this.data[row * this.n + col]! += value;
+  }
+}
+
+/**
+ * Stamp a conductance g between the unknowns of two node potentials p and q
+ * (either may be -1 for ground) into df/dy, with f the KCL residual
+ * (current into the node): the usual MNA pattern.
+ *
+ * @example
+ * ```ts
+ * stampConductance(J, p, q, 1 / 12);
+ * ```
+ */
+export function stampConductance(J: StampTarget, p: number, q: number, g: number): void {
+  J.add(p, p, -g);
+  J.add(p, q, g);
+  J.add(q, p, g);
+  J.add(q, q, -g);
+}
+
+/**
+ * Stamp a branch current unknown b flowing from node p to node q through
+ * the element into the KCL rows (leaving p, entering q) and the branch row's
+ * dependence on v_p - v_q (coefficient `voltageSign`).
+ *
+ * @example
+ * ```ts
+ * stampBranch(J, p, q, b, 1); // v_p - v_q appears with +1 in row b
+ * ```
+ */
+export function stampBranch(J: StampTarget, p: number, q: number, b: number, voltageSign: number): void {
+  J.add(p, b, -1);
+  J.add(q, b, 1);
+  J.add(b, p, voltageSign);
+  J.add(b, q, -voltageSign);
+}

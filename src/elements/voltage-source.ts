@@ -1,0 +1,75 @@
+import { clonePlain } from '../network/clone-plain.js';
+import type { VoltageSourceDescription } from '../network/description.js';
+import { compileWaveform } from '../waveforms/waveform-spec.js';
+import type { ElementKind } from './element-kind.js';
+import { stateValue } from './state-value.js';
+
+/**
+ * An ideal voltage source: v_plus - v_minus = waveform(t), with its current
+ * (delivered out of the plus terminal) as an unknown.
+ *
+ * @example
+ * ```ts
+ * net.voltageSource('mains', line, net.ground, sine({ amplitude: 325, frequency: 50 }));
+ * ```
+ */
+export const voltageSourceKind: ElementKind<VoltageSourceDescription> = {
+  kind: 'voltage-source',
+  noun: 'voltage source',
+  role: 'voltage-source',
+  branchCurrent: true,
+  check(d, ctx) {
+    compileWaveform(d.waveform, { label: ctx.owner, element: d.name });
+    return { kind: 'voltage-source', name: d.name, plus: d.plus, minus: d.minus, waveform: clonePlain(d.waveform) };
+  },
+  compile(list, ctx) {
+    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
+    const b = Int32Array.from(list, (e) => ctx.branchCurrent(e.index));
+    const element = Int32Array.from(list, (e) => e.index);
+    return {
+      residual(t, y, inputs, f) {
+        for (let k = 0; k < b.length; k++) {
+          const i = y[b[k]!]!;
+          if (p[k]! >= 0) f[p[k]!]! += i;
+          if (q[k]! >= 0) f[q[k]!]! -= i;
+          f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - inputs.sourceValue(element[k]!, t);
+        }
+      },
+      jacobian(_t, _y, _inputs, J) {
+        for (let k = 0; k < b.length; k++) {
+          J.add(p[k]!, b[k]!, 1);
+          J.add(q[k]!, b[k]!, -1);
+          J.add(b[k]!, p[k]!, 1);
+          J.add(b[k]!, q[k]!, -1);
+        }
+      },
+      mass() {},
+      elements: list.map((e, k) => ({
+        name: e.d.name,
+        index: e.index,
+        role: 'voltage-source' as const,
+        current: (_t: number, y: Float64Array) => y[b[k]!]!,
+        sourcePower: (_t: number, y: Float64Array) => (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * y[b[k]!]!,
+      })),
+    };
+  },
+  listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform) }],
+  waveform: (d) => d.waveform,
+  rigidVoltage: () => true,
+};
+
+/**
+ * A waveform spec in one line for listings: its kind and its scalar fields.
+ *
+ * @example
+ * ```ts
+ * describeWaveform(sine({ amplitude: 325, frequency: 50 })); // 'sine (amplitude 325, frequency 50, ...)'
+ * ```
+ */
+export function describeWaveform(w: { readonly kind: string }): string {
+  const parts = Object.entries(w as Record<string, unknown>)
+    .filter(([k, v]) => k !== 'kind' && (typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean'))
+    .map(([k, v]) => `${k} ${String(v)}`);
+  return `${w.kind}${parts.length ? ` (${parts.join(', ')})` : ''}`;
+}

@@ -1,0 +1,102 @@
+import { InputError } from '../errors.js';
+import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
+import type { WindingDescription } from '../network/description.js';
+import type { ElementKind } from './element-kind.js';
+import { stampBranch } from './stamp-target.js';
+import { stateValue } from './state-value.js';
+
+/**
+ * A winding of N turns on a flux tube: v_plus - v_minus = R i + s N dphi/dt
+ * (s the orientation), and the MMF s N i in every magnetic loop through its
+ * tube. The N dphi/dt terms are mass-matrix entries on the loop fluxes, so
+ * the winding voltage is integrated into flux, never differentiated out of it.
+ *
+ * @example
+ * ```ts
+ * net.winding('primary', { tube: leg, turns: 240, resistance: 1.2, plus: a, minus: net.ground });
+ * ```
+ */
+export const windingKind: ElementKind<WindingDescription> = {
+  kind: 'winding',
+  noun: 'winding',
+  role: 'inductive',
+  branchCurrent: true,
+  openTerminalCode: 'open-winding',
+  check(d, ctx) {
+    if (typeof d.tube !== 'number' || !Number.isInteger(d.tube) || d.tube < 0 || d.tube >= ctx.tubeCount) {
+      throw new InputError('bad-description', `network description: "${d.name}" field "tube" = ${String(d.tube)} is not the index of a flux tube`, [d.name]);
+    }
+    const turns = requirePositive(d.turns, `${ctx.owner} turns`, d.name, '');
+    const resistance = requireNonNegative(d.resistance ?? 0, `${ctx.owner} resistance`, d.name, 'ohm');
+    const orientation = d.orientation ?? 1;
+    if (orientation !== 1 && orientation !== -1) {
+      throw new InputError('bad-orientation', `${ctx.owner} orientation ${String(orientation)} must be +1 or -1`, [d.name]);
+    }
+    return { kind: 'winding', name: d.name, plus: d.plus, minus: d.minus, tube: d.tube, turns, resistance, orientation };
+  },
+  compile(list, ctx) {
+    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
+    const b = Int32Array.from(list, (e) => ctx.branchCurrent(e.index));
+    const r = Float64Array.from(list, (e) => e.d.resistance);
+    const sN = Float64Array.from(list, (e) => e.d.orientation * e.d.turns);
+    const loops = list.map((e) => ctx.tubeLoops(e.d.tube));
+    const flux = (k: number, y: Float64Array): number => {
+      const { index, sign } = loops[k]!;
+      let s = 0;
+      for (let j = 0; j < index.length; j++) s += sign[j]! * y[index[j]!]!;
+      return s;
+    };
+    return {
+      residual(_t, y, _inputs, f) {
+        for (let k = 0; k < b.length; k++) {
+          const i = y[b[k]!]!;
+          f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - r[k]! * i;
+          if (p[k]! >= 0) f[p[k]!]! -= i;
+          if (q[k]! >= 0) f[q[k]!]! += i;
+          const { index, sign } = loops[k]!;
+          const mmf = sN[k]! * i;
+          for (let j = 0; j < index.length; j++) f[index[j]!]! += sign[j]! * mmf;
+        }
+      },
+      jacobian(_t, _y, _inputs, J) {
+        for (let k = 0; k < b.length; k++) {
+          J.add(b[k]!, b[k]!, -r[k]!);
+          stampBranch(J, p[k]!, q[k]!, b[k]!, 1);
+          const { index, sign } = loops[k]!;
+          for (let j = 0; j < index.length; j++) J.add(index[j]!, b[k]!, sign[j]! * sN[k]!);
+        }
+      },
+      mass(M) {
+        for (let k = 0; k < b.length; k++) {
+          const { index, sign } = loops[k]!;
+          for (let j = 0; j < index.length; j++) M.add(b[k]!, index[j]!, sign[j]! * sN[k]!);
+        }
+      },
+      elements: list.map((e, k) => {
+        const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
+        const copper = (_t: number, y: Float64Array): number => r[k]! * y[b[k]!]! ** 2;
+        return {
+          name: e.d.name,
+          index: e.index,
+          role: 'inductive' as const,
+          current: (_t: number, y: Float64Array) => y[b[k]!]!,
+          loss: { category: 'windings' as const, power: copper },
+          extra: {
+            emf: (_t: number, y: Float64Array) => voltage(y) - r[k]! * y[b[k]!]!,
+            copperLoss: copper,
+            fluxLinkage: (_t: number, y: Float64Array) => sN[k]! * flux(k, y),
+          },
+        };
+      }),
+    };
+  },
+  listing: (d, network) => [
+    { name: 'tube', value: network.tubes[d.tube]!.name },
+    { name: 'turns', value: d.turns, digits: 6 },
+    { name: 'resistance', value: d.resistance, unit: 'ohm' },
+    { name: 'orientation', value: d.orientation > 0 ? 'along tube' : 'against tube' },
+  ],
+  rigidVoltage: (d) => d.resistance === 0,
+  linkedFlux: (d) => ({ tube: d.tube, turns: d.orientation * d.turns }),
+};
