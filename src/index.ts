@@ -95,6 +95,7 @@ export {
   type HystereticReactorSpec,
 } from './materials/hysteresis/hysteretic-reactor-problem.js';
 export { demoHystereticMaterials, type DemoHystereticMaterials } from './materials/hysteresis/demo-hysteretic-materials.js';
+export { hystereticTubeReadings, type HystereticTubeReadings } from './elements/hysteretic-tube-readings.js';
 export type { Waveform } from './waveforms/waveform.js';
 export { constant, constantWaveform, type ConstantSpec } from './waveforms/constant.js';
 export { sine, sineWaveform, type SineSpec } from './waveforms/sine.js';
@@ -140,6 +141,7 @@ export type {
   NetworkDescription,
   TubeDescription,
   TubeLaw,
+  HystereticTubeLaw,
   ElementDescription,
   ResistorDescription,
   CapacitorDescription,

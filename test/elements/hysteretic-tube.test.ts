@@ -222,4 +222,23 @@ describe('hysteretic tube in a network', () => {
     }
     expect(code).toBe('hysteretic-tube-needs-eddy');
   });
+
+  it("reads no hysteresis from a tube of another kind: 'not-hysteretic'", () => {
+    const net = createNetwork('plain');
+    net.magneticNode('a');
+    net.magneticNode('b');
+    const linear = { kind: 'material' as const, length: 0.1, area: AREA, material: { kind: 'linear' as const, relativePermeability: 1000 } };
+    const core = net.tube({ name: 'core', from: 0, to: 1, law: linear });
+    net.tube({ name: 'back', from: 1, to: 0, law: linear });
+    const line = net.node('line');
+    net.voltageSource('supply', line, net.ground, sine({ amplitude: 1, frequency: 50 }));
+    net.winding('coil', { tube: core, turns: 10, resistance: 1, plus: line, minus: net.ground });
+    const r = simulate(net, { stopTime: 0.001 });
+    expect(() => hystereticTubeReadings(r, core)).toThrow(/not a hysteretic tube/);
+    try {
+      hystereticTubeReadings(r, core);
+    } catch (e) {
+      expect((e as { code: string }).code).toBe('not-hysteretic');
+    }
+  });
 });
