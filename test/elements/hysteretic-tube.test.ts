@@ -242,3 +242,14 @@ describe('hysteretic tube in a network', () => {
     }
   });
 });
+
+describe('hysteretic tube as plain data', () => {
+  it('survives describe -> JSON -> simulate(description) with the same result as the builder run', () => {
+    const { net, leg } = network({ phase: Math.PI / 2, schedule: [], stopTime: 0.01 });
+    const description = JSON.parse(JSON.stringify(net.describe()));
+    const a = simulate(net, { stopTime: 0.01, sampling: { times: [0.01] } });
+    const b = simulate(description, { stopTime: 0.01, sampling: { times: [0.01] } });
+    expect(b.status).toBe('success');
+    expect(b.fluxDensity(leg).at(-1)).toBe(a.fluxDensity(leg).at(-1));
+  });
+});
