@@ -62,6 +62,40 @@ export {
   type LevenbergMarquardtStatus,
 } from './materials/levenberg-marquardt.js';
 export { demoMaterials, type DemoMaterials } from './materials/demo-materials.js';
+// Hysteresis (issue 13): inverse Jiles-Atherton material, loops, fits, the constant-mass reactor form
+export {
+  inverseJilesAtherton,
+  checkJilesAthertonSpec,
+  type JilesAthertonSpec,
+  type JilesAthertonPoint,
+  type HystereticMaterial,
+} from './materials/hysteresis/inverse-jiles-atherton.js';
+export {
+  traceFluxDensityPath,
+  advanceAlongPath,
+  type FluxDensityPathOptions,
+  type FluxDensityTrace,
+  type PathState,
+} from './materials/hysteresis/flux-density-path.js';
+export { hysteresisLoopFeatures, type HysteresisLoopFeatures } from './materials/hysteresis/hysteresis-loop-features.js';
+export { residualFluxDensity } from './materials/hysteresis/residual-flux-density.js';
+export {
+  fitHysteresisLoop,
+  fitLoopFeatures,
+  type JilesAthertonParameters,
+  type MeasuredLoopBranch,
+  type LoopFeatureData,
+  type JilesAthertonFit,
+  type JilesAthertonFitOptions,
+} from './materials/hysteresis/fit-jiles-atherton.js';
+export { magnetisationRate, magnetisationRatePartials } from './materials/hysteresis/magnetisation-rate.js';
+export {
+  hystereticReactorProblem,
+  HYSTERETIC_REACTOR_UNKNOWNS,
+  type HystereticReactorSpec,
+} from './materials/hysteresis/hysteretic-reactor-problem.js';
+export { demoHystereticMaterials, type DemoHystereticMaterials } from './materials/hysteresis/demo-hysteretic-materials.js';
+export { hystereticTubeReadings, type HystereticTubeReadings } from './elements/hysteretic-tube-readings.js';
 export type { Waveform } from './waveforms/waveform.js';
 export { constant, constantWaveform, type ConstantSpec } from './waveforms/constant.js';
 export { sine, sineWaveform, type SineSpec } from './waveforms/sine.js';
@@ -107,6 +141,7 @@ export type {
   NetworkDescription,
   TubeDescription,
   TubeLaw,
+  HystereticTubeLaw,
   ElementDescription,
   ResistorDescription,
   CapacitorDescription,

@@ -4,6 +4,7 @@ import { capacitorKind } from './capacitor.js';
 import { constantReluctanceKind } from './constant-reluctance.js';
 import { currentSourceKind } from './current-source.js';
 import type { ElementKind } from './element-kind.js';
+import { hystereticTubeKind } from './hysteretic-tube.js';
 import { inductorKind } from './inductor.js';
 import { materialTubeKind } from './material-tube.js';
 import { resistorKind } from './resistor.js';
@@ -44,6 +45,7 @@ export const TUBE_KINDS: { readonly [K in TubeLaw['kind']]: TubeKind<Extract<Tub
   material: materialTubeKind,
   'air-gap': airGapKind,
   reluctance: constantReluctanceKind,
+  hysteretic: hystereticTubeKind,
 };
 
 /**

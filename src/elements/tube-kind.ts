@@ -1,3 +1,4 @@
+import type { HystereticMaterial } from '../materials/hysteresis/inverse-jiles-atherton.js';
 import type { MaterialLaw } from '../materials/material-law.js';
 import type { TubeDescription, TubeLaw } from '../network/description.js';
 import type { InputView, ListingParameter } from './element-kind.js';
@@ -34,6 +35,14 @@ export interface CompiledTube {
   mmfSlope(flux: number, y: Float64Array): number;
   /** Stored magnetic energy at flux phi, J. */
   energy(flux: number, y: Float64Array): number;
+  /** Power dissipated inside the material (hysteresis), W; absent for lossless laws. */
+  lossPower?(flux: number, y: Float64Array): number;
+  /** The hysteretic material of a tube with memory (results read its state through it). */
+  readonly material?: HystereticMaterial;
+  /** Index in y of the tube's first internal state (hysteretic tubes: m, then u = db/dt). */
+  readonly stateOffset?: number;
+  /** Absolute tolerance of each internal state per tesla of flux-density tolerance. */
+  readonly stateScales?: readonly number[];
   /**
    * Stamps of the tube's internal states (a material with memory), and
    * their coupling into the loop rows; absent for single-valued laws.

@@ -1,3 +1,4 @@
+import type { JilesAthertonSpec } from '../materials/hysteresis/inverse-jiles-atherton.js';
 import type { MaterialSpec } from '../materials/material-spec.js';
 import type { MaterialLaw } from '../materials/material-law.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
@@ -40,7 +41,28 @@ export type TubeLaw =
   /** An air gap: F = length * phi / (mu0 * area * fringingFactor). */
   | { readonly kind: 'air-gap'; readonly length: number; readonly area: number; readonly fringingFactor: number }
   /** A constant reluctance (A/Wb), e.g. a leakage path: F = reluctance * phi. */
-  | { readonly kind: 'reluctance'; readonly reluctance: number; readonly area?: number };
+  | { readonly kind: 'reluctance'; readonly reluctance: number; readonly area?: number }
+  /** A body of hysteretic material (inverse Jiles-Atherton): F = length * (phi/area / mu0 - m), m an internal state. */
+  | HystereticTubeLaw;
+
+/**
+ * Law of a hysteretic flux tube (see docs/materials.md, "Hysteresis"). The
+ * tube must carry an eddy resistance (its flux then has a derivative the
+ * model can follow: index 1).
+ *
+ * @example
+ * ```ts
+ * const core: TubeLaw = { kind: 'hysteretic', length: 0.3, area: 1e-3, material: demoHystereticMaterials.steel };
+ * ```
+ */
+export interface HystereticTubeLaw {
+  readonly kind: 'hysteretic';
+  readonly length: number;
+  readonly area: number;
+  readonly material: JilesAthertonSpec;
+  /** Magnetisation at the start, A/m; default: the tube's initial flux density / mu0 (H = 0, a remanent state). */
+  readonly initialMagnetisation?: number;
+}
 
 /**
  * One flux tube (leg, yoke, gap, leakage path).

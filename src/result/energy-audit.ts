@@ -31,6 +31,8 @@ export interface EnergyAudit {
     readonly windings: number;
     /** Eddy-current resistance of tubes. */
     readonly eddy: number;
+    /** Hysteresis loss inside hysteretic tubes (loop area x volume per cycle). */
+    readonly hysteresis: number;
   };
   /** Stored energy (magnetic + capacitors + inductors) at the start and end. */
   readonly storedStart: number;
@@ -81,11 +83,12 @@ export function computeEnergyAudit(
   const sources = c.elements.filter((e) => e.sourcePower !== undefined);
   const lossy = c.elements.filter((e) => e.loss !== undefined);
   const storing = c.elements.filter((e) => e.storedEnergy !== undefined);
+  const hysteretic = c.tubes.flatMap((t, b) => (t.lossPower !== undefined ? [b] : []));
   const slot: Record<LossCategory, number> = { resistors: 1, windings: 2, eddy: 3 };
 
-  /** [source, resistors, windings, eddy, |source|] power at (t, y), W. */
+  /** [source, resistors, windings, eddy, |source|, hysteresis] power at (t, y), W. */
   const powers = (t: number, y: Float64Array): number[] => {
-    const p = [0, 0, 0, 0, 0];
+    const p = [0, 0, 0, 0, 0, 0];
     for (const e of sources) {
       const w = e.sourcePower!(t, y, inputs, rates);
       p[0]! += w;
@@ -96,6 +99,7 @@ export function computeEnergyAudit(
       const dphi = fluxDerivative(b, y, t);
       p[3]! += c.tubes[b]!.eddyResistance * dphi * dphi;
     }
+    for (const b of hysteretic) p[5]! += c.tubes[b]!.lossPower!(c.tubeFlux(y, b), y);
     return p;
   };
 
@@ -106,18 +110,18 @@ export function computeEnergyAudit(
     return w;
   };
 
-  const sum = [0, 0, 0, 0, 0];
+  const sum = [0, 0, 0, 0, 0, 0];
   const y = new Float64Array(c.layout.size);
-  /** 4-point Gauss-Legendre of the five power integrands over [a, b] of a step. */
+  /** 4-point Gauss-Legendre of the six power integrands over [a, b] of a step. */
   const gauss = (step: RecordedStep, a: number, b: number): number[] => {
-    const out = [0, 0, 0, 0, 0];
+    const out = [0, 0, 0, 0, 0, 0];
     const h = b - a;
     for (let g = 0; g < 4; g++) {
       const t = a + NODES[g]! * h;
       evaluateRecordedStep(step, t, c.index2, y);
       run.project?.(t, y);
       const pw = powers(t, y);
-      for (let q = 0; q < 5; q++) out[q]! += WEIGHTS[g]! * h * pw[q]!;
+      for (let q = 0; q < 6; q++) out[q]! += WEIGHTS[g]! * h * pw[q]!;
     }
     return out;
   };
@@ -145,17 +149,17 @@ export function computeEnergyAudit(
     if (step.t - step.tOld <= 0) continue;
     // The inputs recorded for the step's interval, for this step only (a live run keeps its own).
     const part = c.inputs.during(run.intervals[step.interval]!, () => adaptive(step, step.tOld, step.t, gauss(step, step.tOld, step.t), 0));
-    for (let q = 0; q < 5; q++) sum[q]! += part[q]!;
+    for (let q = 0; q < 6; q++) sum[q]! += part[q]!;
   }
   const storedStart = run.start ? stored(run.start) : 0;
   const storedEnd = run.end ? stored(run.end) : 0;
-  const [sourceEnergy, resistors, windings, eddy, throughput] = sum as [number, number, number, number, number];
-  const total = resistors + windings + eddy;
+  const [sourceEnergy, resistors, windings, eddy, throughput, hysteresis] = sum as [number, number, number, number, number, number];
+  const total = resistors + windings + eddy + hysteresis;
   const imbalance = sourceEnergy - total - (storedEnd - storedStart);
   const scale = Math.max(throughput, total, Math.abs(storedStart), Math.abs(storedEnd), Number.MIN_VALUE);
   return {
     sourceEnergy,
-    dissipated: { total, resistors, windings, eddy },
+    dissipated: { total, resistors, windings, eddy, hysteresis },
     storedStart,
     storedEnd,
     imbalance,

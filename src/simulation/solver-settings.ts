@@ -150,9 +150,15 @@ export function absoluteTolerances(c: CompiledNetwork, atol: SolverSettings['ato
   const voltage = atol?.voltage ?? 1e-6;
   const current = atol?.current ?? 1e-6;
   const fluxDensity = atol?.fluxDensity ?? 1e-7;
+  // Internal states of tubes scale with the flux-density tolerance (a hysteretic tube: m per tesla, db/dt per tesla).
+  const stateTolerance = new Map<number, number>();
+  for (const tube of c.tubes) {
+    tube.stateScales?.forEach((scale, k) => stateTolerance.set(tube.stateOffset! + k, fluxDensity * scale));
+  }
   return Float64Array.from(c.layout.kinds, (kind, i) => {
     if (kind === 'potential') return voltage;
     if (kind === 'current') return current;
+    if (kind === 'internal-state') return stateTolerance.get(i) ?? current;
     const entries = c.loops.loops[i - c.layout.loopOffset]!;
     const area = Math.min(...entries.map((en) => {
       const a = c.tubes[en.tube]!.area;

@@ -79,6 +79,22 @@ const tubeLaw = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('material'), length: num, area: num, material: materialSchema }),
   z.strictObject({ kind: z.literal('air-gap'), length: num, area: num, fringingFactor: num }),
   z.strictObject({ kind: z.literal('reluctance'), reluctance: num, area: optNum }),
+  z.strictObject({
+    kind: z.literal('hysteretic'),
+    length: num,
+    area: num,
+    material: z.strictObject({
+      kind: z.literal('jiles-atherton'),
+      name: z.string().optional(),
+      saturationMagnetisation: num,
+      anhystereticShape: num,
+      pinning: num,
+      reversibility: num,
+      interdomainCoupling: num,
+      saturationFluxDensity: optNum,
+    }),
+    initialMagnetisation: optNum,
+  }),
 ]);
 
 const tube = z.strictObject({

@@ -117,6 +117,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
     check: (stdout) => expectPageOutput(readFileSync(join(ROOT, 'README.md'), 'utf8'), stdout, 'examples/readme.ts'),
   },
   'report.ts': { lines: [/^report: .*report\.html$/m] },
+  'residual-flux.ts': { lines: [/^ +45\.0 ms( +0\.9\d{3}){4}$/m, /^ +0 deg +\d+\.\d A +\d+\.\d A$/m, /^Caution: engineering estimates/m] },
   'solver-robertson.ts': { lines: [/^DAE form: success/m] },
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },

@@ -1,7 +1,6 @@
-import { MU0 } from '../../constants.js';
-import { FluxstateError } from '../../errors.js';
+import { tubeKind } from '../../elements/registry.js';
+import { FluxstateError, InputError } from '../../errors.js';
 import { fundamentalLoops, type MagneticLoops } from '../../formulation/magnetic-graph.js';
-import { compileMaterial } from '../../materials/material-spec.js';
 import type { NetworkDescription, TubeDescription, WindingDescription } from '../../network/description.js';
 import { createDenseLu } from '../../solver/dense-lu.js';
 
@@ -30,19 +29,24 @@ export interface MagnetostaticModel {
 export function magnetostaticModel(description: NetworkDescription): MagnetostaticModel {
   const tubes = description.tubes;
   const loops = fundamentalLoops(description.magneticNodes.length, tubes);
+  const noState = new Float64Array(0);
   const laws = tubes.map((t) => {
-    const law = t.law;
-    if (law.kind === 'material') {
-      const m = compileMaterial(law.material);
-      const { length, area } = law;
-      return {
-        mmf: (phi: number) => length * m.fieldStrength(phi / area),
-        slope: (phi: number) => (length * m.fieldSlope(phi / area)) / area,
-        energy: (phi: number) => length * area * m.energyDensity(phi / area),
-      };
+    const kind = tubeKind(t.law);
+    if ((kind.internalStates?.(t.law, t) ?? []).length > 0) {
+      // A material with memory has no single flux-MMF curve: its inductance depends on the path taken.
+      throw new InputError(
+        'tube-with-memory',
+        `tube "${t.name}" is of a material with memory (${t.law.kind}), which has no single B-H curve to linearise; ` +
+          `give the tube a single-valued law (for example the material's anhysteretic or initial curve) for this study`,
+        [t.name],
+      );
     }
-    const r = law.kind === 'air-gap' ? law.length / (MU0 * law.area * law.fringingFactor) : law.reluctance;
-    return { mmf: (phi: number) => r * phi, slope: () => r, energy: (phi: number) => 0.5 * r * phi * phi };
+    const c = kind.compile(t.law, t, { stateOffset: -1, loops: { index: new Int32Array(0), sign: new Float64Array(0) } });
+    return {
+      mmf: (phi: number) => c.mmf(phi, noState),
+      slope: (phi: number) => c.mmfSlope(phi, noState),
+      energy: (phi: number) => c.energy(phi, noState),
+    };
   });
   return {
     loops,

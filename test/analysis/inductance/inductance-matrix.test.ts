@@ -6,6 +6,7 @@ import {
   mm,
   createNetwork,
   demoMaterials,
+  demoHystereticMaterials,
   harmonics,
   incrementalInductance,
   inductanceMatrix,
@@ -199,6 +200,17 @@ describe('inductanceMatrix', () => {
     const coil = ring.winding('coil', { tube: leg, turns: 100, plus: ring.node('x'), minus: ring.ground });
     expect(() => inductanceMatrix(ring, [coil], { bias: [1e200] })).toThrow(expect.objectContaining({ code: 'no-operating-point' }));
     expect(inductanceMatrix(net, [primary], { bias: [1e6] }).inductance[0]![0]).toBeGreaterThan(0); // linear: any sane bias
+  });
+
+  it('refuses a tube of a material with memory: it has no single B-H curve to linearise', () => {
+    const net = createNetwork('hysteretic ring');
+    const a = net.magneticNode('a');
+    const b = net.magneticNode('b');
+    const law = { kind: 'hysteretic' as const, length: 0.15, area: 1e-3, material: demoHystereticMaterials.steel };
+    const leg = net.tube({ name: 'leg', from: a.index, to: b.index, eddyResistance: 0.01, law });
+    net.tube({ name: 'yoke', from: b.index, to: a.index, eddyResistance: 0.01, law });
+    const coil = net.winding('coil', { tube: leg, turns: 100, plus: net.node('x'), minus: net.ground });
+    expect(() => inductanceMatrix(net, [coil])).toThrow(expect.objectContaining({ code: 'tube-with-memory', elements: ['leg'] }));
   });
 
   it('refuses unknown windings, handles of another network and a bias of the wrong length', () => {

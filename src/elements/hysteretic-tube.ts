@@ -1,0 +1,133 @@
+import { InputError } from '../errors.js';
+import { MU0 } from '../constants.js';
+import { requirePositive } from '../network/argument-checks.js';
+import type { HystereticTubeLaw } from '../network/description.js';
+import { checkJilesAthertonSpec, inverseJilesAtherton } from '../materials/hysteresis/inverse-jiles-atherton.js';
+import { magnetisationRate, magnetisationRatePartials } from '../materials/hysteresis/magnetisation-rate.js';
+import type { TubeKind } from './tube-kind.js';
+
+/**
+ * A body of hysteretic material (inverse Jiles-Atherton, driven by the
+ * tube's flux density b = phi/A). Two internal unknowns per tube, in this
+ * order: the magnetisation m (A/m) and the rate u = db/dt (T/s). Rows, all
+ * with constant mass entries (docs/materials.md, "Hysteresis"):
+ *
+ *   rate row:           (1/A) sum_k s_k phi_k' = u      (phi_k: loop fluxes through the tube)
+ *   magnetisation row:  m' = g(b, m, sign u) u
+ *   loop rows:          MMF drop F = l (b/mu0 - m) (+ R_e phi' from the eddy term)
+ *
+ * The tube must carry an eddy resistance: then its flux derivative is fixed
+ * by its loop rows wherever it sits and the DAE stays index 1 (a tube whose
+ * flux is fixed only algebraically would make u index 2). Stored energy:
+ * volume x W(b, m); hysteresis loss: volume x the model's dissipation rate,
+ * booked by the energy audit as dissipation (`hysteresis`).
+ *
+ * @example
+ * ```ts
+ * net.tube({ name: 'core', from: 0, to: 1, eddyResistance: 0.01,
+ *   law: { kind: 'hysteretic', length: 0.3, area: 1e-3, material: demoHystereticMaterials.steel } });
+ * ```
+ */
+export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
+  kind: 'hysteretic',
+  noun: 'flux tube',
+  allowsEddy: true,
+  check(law, owner, name) {
+    const length = requirePositive(law.length, `${owner} length`, name, 'm');
+    const area = requirePositive(law.area, `${owner} area`, name, 'm^2');
+    try {
+      checkJilesAthertonSpec(law.material);
+    } catch (e) {
+      if (e instanceof InputError) throw new InputError(e.code, `${owner}: ${e.message}`, [name, ...e.elements]);
+      throw e;
+    }
+    const m0 = law.initialMagnetisation;
+    if (m0 !== undefined && !(Math.abs(m0) < law.material.saturationMagnetisation)) {
+      throw new InputError(
+        'bad-hysteresis-parameters',
+        `${owner}: initialMagnetisation must be finite and below the saturation magnetisation in size (got ${m0}); fix the tube's law`,
+        [name],
+      );
+    }
+    return {
+      kind: 'hysteretic',
+      length,
+      area,
+      material: Object.freeze({ ...law.material }),
+      ...(m0 !== undefined ? { initialMagnetisation: m0 } : {}),
+    };
+  },
+  hasArea: () => true,
+  internalStates: () => ['magnetisation', 'flux-density-rate'],
+  compile(law, tube, ctx) {
+    if (!(tube.eddyResistance !== undefined && tube.eddyResistance > 0)) {
+      throw new InputError(
+        'hysteretic-tube-needs-eddy',
+        `tube "${tube.name}" is hysteretic but has no eddy resistance; give it eddyResistance (ohm, as a shorted turn; a small value such as 1e-3 is enough) so its flux has a derivative the model can follow`,
+        [tube.name],
+      );
+    }
+    const model = inverseJilesAtherton(law.material);
+    const { length, area } = law;
+    const volume = length * area;
+    const s = ctx.stateOffset;
+    const { index, sign } = ctx.loops;
+    const fluxOf = (y: Float64Array): number => {
+      let f = 0;
+      for (let k = 0; k < index.length; k++) f += sign[k]! * y[index[k]!]!;
+      return f;
+    };
+    const startB = tube.initialFluxDensity ?? (tube.initialFlux !== undefined ? tube.initialFlux / area : 0);
+    const m0 = law.initialMagnetisation ?? startB / MU0;
+    return {
+      name: tube.name,
+      law: undefined,
+      length,
+      area,
+      reluctance: NaN,
+      eddyResistance: tube.eddyResistance,
+      volume,
+      // Initial flux division weight: the slope at the demagnetised state.
+      zeroFluxReluctance: (length / area) * (1 / MU0 - model.magnetisationSlope(0, 0, 0)),
+      mmf: (flux, y) => length * model.fieldStrength(flux / area, y[s]!),
+      mmfSlope: () => length / (area * MU0),
+      energy: (flux, y) => volume * model.storedEnergyDensity(flux / area, y[s]!),
+      lossPower: (flux, y) => volume * model.dissipationRate(flux / area, y[s]!, y[s + 1]!),
+      material: model,
+      stateOffset: s,
+      // m in A/m: 1/mu0 per tesla; u = db/dt: a tesla per millisecond.
+      stateScales: [1 / MU0, 1e3],
+      states: {
+        residual(_t, y, _inputs, f) {
+          const u = y[s + 1]!;
+          f[s]! += magnetisationRate(model, fluxOf(y) / area, y[s]!, u);
+          f[s + 1]! += u;
+        },
+        jacobian(_t, y, _inputs, J) {
+          const p = magnetisationRatePartials(model, fluxOf(y) / area, y[s]!, y[s + 1]!);
+          for (let k = 0; k < index.length; k++) {
+            J.add(s, index[k]!, (sign[k]! * p.db) / area);
+            // Loop rows hold -sign * F with F = l (b/mu0 - m): d/dm = sign * l.
+            J.add(index[k]!, s, sign[k]! * length);
+          }
+          J.add(s, s, p.dm);
+          J.add(s, s + 1, p.du);
+          J.add(s + 1, s + 1, 1);
+        },
+        mass(M) {
+          M.add(s, s, 1);
+          for (let k = 0; k < index.length; k++) M.add(s + 1, index[k]!, sign[k]! / area);
+        },
+        initial(y0) {
+          y0[s] = m0;
+          y0[s + 1] = 0;
+        },
+      },
+    };
+  },
+  listing: (law) => [
+    { name: 'length', value: law.length, unit: 'm' },
+    { name: 'area', value: law.area, unit: 'm^2' },
+    { name: 'material', value: law.material.name ?? 'Jiles-Atherton material' },
+  ],
+};
