@@ -314,7 +314,7 @@ function networkRows(d: NetworkDescription): NetworkRow[] {
         break;
       case 'voltage-source':
       case 'current-source':
-        rows.push({ element: e.name, kind: e.kind.replace('-', ' '), connections, parameters: [{ name: 'waveform', value: describeWaveform(e.waveform) }] });
+        rows.push({ element: e.name, kind: e.kind.replace('-', ' '), connections, parameters: [{ name: 'waveform', value: describeWaveform(e.waveform, e.kind === 'voltage-source' ? 'V' : 'A') }] });
         break;
       case 'switch':
         rows.push({
@@ -332,9 +332,20 @@ function networkRows(d: NetworkDescription): NetworkRow[] {
   return rows;
 }
 
-function describeWaveform(w: { readonly kind: string }): string {
+/** Units of the numeric fields of the waveform specs; `signal` is V or A by the source. */
+const WAVEFORM_FIELD_UNITS: Readonly<Record<string, 'signal' | string>> = {
+  amplitude: 'signal', offset: 'signal', value: 'signal', low: 'signal', high: 'signal',
+  frequency: 'Hz', phase: 'rad', period: 's', start: 's', delay: 's', rise: 's', fall: 's', deadTime: 's', width: 's',
+};
+
+function describeWaveform(w: { readonly kind: string }, signalUnit: string): string {
   const parts = Object.entries(w as Record<string, unknown>)
     .filter(([k, v]) => k !== 'kind' && (typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean'))
-    .map(([k, v]) => `${k} ${String(v)}`);
+    .map(([k, v]) => {
+      if (typeof v !== 'number') return `${k} ${String(v)}`;
+      const unit = WAVEFORM_FIELD_UNITS[k];
+      const u = unit === 'signal' ? signalUnit : unit;
+      return `${k} ${formatNumber(v, 4)}${u ? ` ${u}` : ''}`;
+    });
   return `${w.kind}${parts.length ? ` (${parts.join(', ')})` : ''}`;
 }

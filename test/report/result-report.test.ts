@@ -60,6 +60,13 @@ describe('resultReport', () => {
     expect(straight.sections[0]!.plots![0]!.series[0]!.t.length).toBe(r.length);
   });
 
+  it('lists waveform parameters in the network listing with 4 significant digits and their units', () => {
+    const { net } = transformer();
+    const data = resultReport(simulate(net, { stopTime: 0.02 }), { title: 'x' });
+    const mains = data.sections[2]!.network!.rows.find((r) => r.element === 'mains')!;
+    expect(mains.parameters[0]!.value).toBe('sine (amplitude 325 V, frequency 50 Hz, phase 1.571 rad)');
+  });
+
   it('lists the sanity warnings of a core given in metres instead of millimetres', () => {
     const { net } = transformer(150, 900);
     const data = resultReport(simulate(net, { stopTime: 0.02 }), { title: 'slip' });
