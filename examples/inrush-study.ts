@@ -86,6 +86,7 @@ const ratedPeak = (RATED_POWER / U_RMS) * Math.SQRT2;
 const header = ['angle', 'B_r', 'peak i', 'x rated', 'x steady', 'peak|B| left', 'peak|B| right', 'peak|B| yokes', 'worst margin', 'DC B cyc 1', 'tau'];
 const units = ['deg', 'T', 'A', '', '', 'T', 'T', 'T', 'T', 'T', 'ms'];
 const rows: string[][] = [];
+const unsteady: string[] = []; // inrushRatio's warnings: the last cycles were not yet steady
 const started = Date.now();
 for (const remanence of remanences) {
   for (const angle of angles) {
@@ -95,6 +96,7 @@ for (const remanence of remanences) {
 
     const current = result.current(primary);
     const inrush = inrushRatio(result.time, current, { period: PERIOD, steadyCycles: 2, name: 'primary' });
+    if (!inrush.steady) unsteady.push(`angle ${angle} deg, B_r ${remanence} T: ${inrush.warnings[0]}`);
     const tubes = [
       { name: 'left leg', b: result.fluxDensity(core.windingTube('left')), saturation: B_SAT },
       { name: 'right leg', b: result.fluxDensity(core.windingTube('right')), saturation: B_SAT },
@@ -129,6 +131,9 @@ console.log(
     'the last two cycles simulated, when the DC offset has not yet died out (see tau): it understates the ratio\n' +
     'to the true steady state.',
 );
+if (unsteady.length > 0) {
+  console.log(`\ninrushRatio warned in ${unsteady.length} of ${rows.length} cases that its steady window was not steady; the first:\n  ${unsteady[0]}`);
+}
 console.log(
   '\nCAUTION: engineering estimates from a model and its inputs (material curve, remanence, switching instant,\n' +
     'source impedance). Verify against measurements; local codes, standards and licensed practice govern protection\n' +

@@ -3,6 +3,7 @@
  * circuits, with flux as a state variable.
  *
  * @packageDocumentation
+ * @module fluxstate
  */
 export { FluxstateError, InputError, TopologyError } from './errors.js';
 export { MU0 } from './constants.js';

@@ -21,6 +21,9 @@ export interface SanityWarning {
   readonly message: string;
 }
 
+/** A value as a person would type it (6 significant digits, no trailing rounding noise). */
+const typed = (v: number): string => String(Number(v.toPrecision(6)));
+
 /** Longest magnetic path that occurs in practice, m (the largest power-transformer cores are a few metres). */
 const MAX_LENGTH = 10;
 /** Largest cross-section that occurs in practice, m^2. */
@@ -60,7 +63,7 @@ export function sanityWarnings(description: NetworkDescription): SanityWarning[]
         element: tube.name,
         quantity: 'length',
         value: law.length,
-        message: `${where}: magnetic path length ${law.length} m is longer than ${MAX_LENGTH} m; was it given in millimetres? write mm(${law.length})`,
+        message: `${where}: magnetic path length ${typed(law.length)} m is longer than ${MAX_LENGTH} m; was it given in millimetres? write mm(${typed(law.length)})`,
       });
     }
     const area = law.area;
@@ -69,7 +72,7 @@ export function sanityWarnings(description: NetworkDescription): SanityWarning[]
         element: tube.name,
         quantity: 'area',
         value: area,
-        message: `${where}: cross-section ${area} m^2 is larger than ${MAX_AREA} m^2; was it given in mm^2? write mm2(${area})`,
+        message: `${where}: cross-section ${typed(area)} m^2 is larger than ${MAX_AREA} m^2; was it given in mm^2? write mm2(${typed(area)})`,
       });
     }
     if (law.kind === 'material') {
@@ -134,7 +137,7 @@ export function resultSanityWarnings(result: SimulationResult): SanityWarning[] 
         value: peak,
         message:
           `tube "${tube.name}": |B| reaches ${peak.toPrecision(4)} T at t = ${at.toPrecision(4)} s, above ${MAX_FLUX_DENSITY} T, which no core material carries; ` +
-          `check the area (${area} m^2: mm2() for mm^2), the turns and the source amplitude`,
+          `check the area (${typed(area)} m^2: mm2() for mm^2), the turns and the source amplitude`,
       });
     }
   });

@@ -3,7 +3,7 @@ import type { CurrentSourceDescription } from '../network/description.js';
 import { compileWaveform } from '../waveforms/waveform-spec.js';
 import type { ElementKind } from './element-kind.js';
 import { stateValue } from './state-value.js';
-import { describeWaveform } from './voltage-source.js';
+import { describeWaveform } from './describe-waveform.js';
 
 /**
  * An ideal current source driving waveform(t) out of its plus terminal into
@@ -48,6 +48,6 @@ export const currentSourceKind: ElementKind<CurrentSourceDescription> = {
       })),
     };
   },
-  listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform) }],
+  listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform, 'A') }],
   waveform: (d) => d.waveform,
 };

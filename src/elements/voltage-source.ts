@@ -1,6 +1,7 @@
 import { clonePlain } from '../network/clone-plain.js';
 import type { VoltageSourceDescription } from '../network/description.js';
 import { compileWaveform } from '../waveforms/waveform-spec.js';
+import { describeWaveform } from './describe-waveform.js';
 import type { ElementKind } from './element-kind.js';
 import { stateValue } from './state-value.js';
 
@@ -54,22 +55,7 @@ export const voltageSourceKind: ElementKind<VoltageSourceDescription> = {
       })),
     };
   },
-  listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform) }],
+  listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform, 'V') }],
   waveform: (d) => d.waveform,
   rigidVoltage: () => true,
 };
-
-/**
- * A waveform spec in one line for listings: its kind and its scalar fields.
- *
- * @example
- * ```ts
- * describeWaveform(sine({ amplitude: 325, frequency: 50 })); // 'sine (amplitude 325, frequency 50, ...)'
- * ```
- */
-export function describeWaveform(w: { readonly kind: string }): string {
-  const parts = Object.entries(w as Record<string, unknown>)
-    .filter(([k, v]) => k !== 'kind' && (typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean'))
-    .map(([k, v]) => `${k} ${String(v)}`);
-  return `${w.kind}${parts.length ? ` (${parts.join(', ')})` : ''}`;
-}

@@ -19,23 +19,25 @@ export const REPORT_CSS = `
 * { box-sizing: border-box; }
 html { -webkit-text-size-adjust: 100%; }
 body { margin: 0; background: var(--page); color: var(--fg); font: 15px/1.55 var(--font); }
-.page { max-width: 1200px; margin: 0 auto; padding: 28px 24px 40px; }
+.page { max-width: 1200px; margin: 0 auto; padding: 16px 24px 40px; }
 a { color: var(--accent); text-decoration: none; }
 a:hover { text-decoration: underline; }
 
-.report-header h1 { font-size: 28px; line-height: 1.2; margin: 0 0 6px; letter-spacing: -0.01em; font-weight: 700; }
-.report-header .subtitle { font-size: 17px; color: var(--muted); margin: 0 0 14px; }
-.report-header dl { display: grid; grid-template-columns: max-content 1fr; gap: 2px 18px; margin: 0; font-size: 13.5px; }
+.report-header h1 { font-size: 25px; line-height: 1.2; margin: 0 0 2px; letter-spacing: -0.01em; font-weight: 700; }
+.report-header .subtitle { font-size: 16px; color: var(--muted); margin: 0 0 6px; }
+/* The run's facts on one wrapping line, so that the first plot starts on the first screen. */
+.report-header dl { display: flex; flex-wrap: wrap; gap: 2px 6px; margin: 0; font-size: 13.5px; }
+.report-header dt::after { content: ':'; }
 .report-header dt { color: var(--faint); }
-.report-header dd { margin: 0; font-variant-numeric: tabular-nums; }
+.report-header dd { margin: 0 16px 0 0; font-variant-numeric: tabular-nums; }
 
-.caution { display: flex; gap: 14px; align-items: flex-start; margin: 22px 0; padding: 14px 18px;
+.caution { display: flex; gap: 12px; align-items: flex-start; margin: 12px 0; padding: 9px 16px;
   background: var(--caution-bg); border: 1px solid var(--caution-border); border-left: 6px solid var(--caution-edge);
   border-radius: 8px; color: var(--fg); }
 .caution-icon { flex: none; width: 26px; height: 26px; border-radius: 50%; background: var(--caution-edge); color: #fff;
   font-weight: 800; font-size: 17px; line-height: 26px; text-align: center; }
 .caution-title { margin: 0 0 2px; font-size: 12.5px; font-weight: 700; letter-spacing: 0.06em; text-transform: uppercase; color: var(--caution-fg); }
-.caution-text { margin: 0; font-size: 15px; }
+.caution-text { margin: 0; font-size: 14px; line-height: 1.45; }
 
 nav.toc { display: flex; flex-wrap: wrap; align-items: center; gap: 6px 18px; margin: 0 0 8px; font-size: 14px; }
 nav.toc .toc-label { color: var(--faint); font-size: 12.5px; text-transform: uppercase; letter-spacing: 0.06em; }
@@ -44,14 +46,14 @@ nav.toc ol { display: flex; flex-wrap: wrap; gap: 4px 18px; list-style: none; ma
 .controls label { cursor: pointer; user-select: none; }
 
 .report-section { background: var(--card); border: 1px solid var(--border); border-radius: 10px;
-  padding: 22px 26px 12px; margin: 18px 0; box-shadow: 0 1px 2px rgba(17, 24, 39, 0.04); }
-.report-section > h2 { font-size: 21px; line-height: 1.3; margin: 0 0 6px; font-weight: 650; }
+  padding: 14px 26px 10px; margin: 12px 0; box-shadow: 0 1px 2px rgba(17, 24, 39, 0.04); }
+.report-section > h2 { font-size: 19px; line-height: 1.3; margin: 0 0 4px; font-weight: 650; }
 .section-desc p { margin: 0 0 10px; color: var(--muted); max-width: 80ch; }
 
-figure.plot { margin: 18px 0 26px; }
+figure.plot { margin: 8px 0 26px; }
 figure.plot h3 { font-size: 16.5px; margin: 0; font-weight: 600; }
 .plot-desc { margin: 2px 0 0; color: var(--muted); font-size: 14px; max-width: 80ch; }
-.plot-hint { margin: 4px 0 6px; color: var(--faint); font-size: 12.5px; }
+.plot-hint { margin: 2px 0 4px; color: var(--faint); font-size: 12.5px; }
 .plot-area { width: 100%; min-height: 120px; }
 .plot-error { padding: 16px; border: 1px solid #fca5a5; background: #fef2f2; color: #991b1b; border-radius: 6px; }
 .plot-meta { margin: 6px 0 0; color: var(--faint); font-size: 12.5px; }

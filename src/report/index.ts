@@ -12,6 +12,7 @@
  * ```
  *
  * @packageDocumentation
+ * @module fluxstate/report
  */
 export {
   DEFAULT_CAUTION,

@@ -253,7 +253,7 @@ export interface MetricRow {
  * ```ts
  * const net: NetworkTable = {
  *   rows: [
- *     { element: 'P1', kind: 'winding', connections: 'a -> b on leg1',
+ *     { element: 'primary', kind: 'winding', connections: 'line -> ground on wound leg',
  *       parameters: [{ name: 'turns', value: 240 }, { name: 'R', value: 0.35, unit: 'ohm' }] },
  *   ],
  * };

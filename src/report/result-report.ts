@@ -5,6 +5,8 @@ import type { NetworkDescription, TubeDescription } from '../network/description
 import type { ExportColumn } from '../result/export.js';
 import type { SimulationResult } from '../result/simulation-result.js';
 import { QUANTITY_UNITS } from '../result/state-reader.js';
+import { resultSanityWarnings } from '../analysis/sanity-warnings.js';
+import { formatNumber } from './format-number.js';
 import type { MetricRow, MetricTable, NetworkRow, PlotGroup, PlotSeries, ReportData, ReportInfoItem, ReportSection } from './report-data.js';
 
 /**
@@ -53,6 +55,14 @@ export interface ResultReportOptions {
   readonly description?: string;
   /** Replaces the default caution wording (it cannot be removed). */
   readonly caution?: string;
+  /**
+   * Points drawn inside each solver step, from the solver's dense output, so
+   * that curves are smooth between steps (a sine's crest is not faceted).
+   * 0 draws straight lines between the samples. Default 4; densification is
+   * skipped for results of more than 100,000 samples (they are dense enough)
+   * and for results without recorded steps.
+   */
+  readonly pointsPerStep?: number;
 }
 
 /** Axis names of the quantities (their units come from QUANTITY_UNITS). */
@@ -79,16 +89,23 @@ export function resultReport(result: SimulationResult, options: ResultReportOpti
   const handle = <K extends ExportColumn['handle']['kind']>(kind: K, name: string, index: number) =>
     ({ kind, name, index, network: result.networkId ?? -1 }) as unknown as Extract<ExportColumn['handle'], { kind: K }>;
   const plots = options.plots ?? defaultPlots(d, handle);
-  const plotGroups = plots.map((p) => plotGroup(result, p));
+  const time = timeAxis(result);
+  const plotGroups = plots.map((p) => plotGroup(result, p, time, options.pointsPerStep ?? 4));
   const sections: ReportSection[] = [
     { title: 'Waveforms', ...(options.description ? { description: options.description } : {}), plots: plotGroups },
     { title: 'Figures', metrics: [...(options.metrics ?? []), ...standardMetrics(result, handle)] },
     { title: 'Network', network: { title: `Network "${d.name}" (SI units)`, rows: networkRows(d) } },
   ];
+  // The status in the API's own words: 'success' only for a run that reached its stop time.
+  const warnings = [...result.warnings, ...resultSanityWarnings(result).map((w) => w.message)];
   const info: ReportInfoItem[] = [
-    { label: 'Status', value: result.status === 'success' ? 'completed' : `${result.status}: ${result.message}` },
-    { label: 'Simulated time', value: `${result.time[0] ?? 0} s to ${result.time[result.time.length - 1] ?? 0} s` },
+    { label: 'Status', value: result.status === 'success' ? 'success' : `${result.status}: ${result.message}` },
+    {
+      label: 'Simulated time',
+      value: `${formatNumber((result.time[0] ?? 0) * time.scale, 4)} ${time.unit} to ${formatNumber((result.time[result.time.length - 1] ?? 0) * time.scale, 4)} ${time.unit}`,
+    },
     { label: 'Solver', value: `Radau IIA (order 5); ${result.stats.acceptedSteps} steps, ${result.stats.rejectedSteps} rejected` },
+    ...(warnings.length ? [{ label: warnings.length === 1 ? 'Warning' : `Warnings (${warnings.length})`, value: warnings.join(' \u2022 ') }] : []),
     ...(options.info ?? []),
   ];
   return {
@@ -112,11 +129,61 @@ function defaultPlots(
   return plots;
 }
 
-function plotGroup(r: SimulationResult, p: ResultPlot): PlotGroup {
+/**
+ * The time unit of the plots: s, ms or us by the run's span, so that a
+ * 500 us run reads 0 to 500 us rather than 0 to 0.0005 s.
+ */
+function timeAxis(r: SimulationResult): { unit: string; scale: number } {
+  const span = Math.abs((r.time[r.time.length - 1] ?? 0) - (r.time[0] ?? 0));
+  const end = Math.max(Math.abs(r.time[0] ?? 0), Math.abs(r.time[r.time.length - 1] ?? 0));
+  const size = Math.max(span, end);
+  if (size > 0 && size < 2e-3) return { unit: '\u00B5s', scale: 1e6 };
+  if (size > 0 && size < 2) return { unit: 'ms', scale: 1e3 };
+  return { unit: 's', scale: 1 };
+}
+
+/**
+ * Times and values of a quantity for drawing: the samples themselves, plus
+ * `perStep` points inside every sample interval from the dense output (the
+ * solver's collocation polynomial), so curves are not faceted between steps.
+ * Falls back to the samples when the result has no dense output.
+ */
+function plotSamples(r: SimulationResult, c: ExportColumn, perStep: number): { t: Float64Array; values: Float64Array } {
+  const t = r.time;
+  const x = r.read(c);
+  if (perStep <= 0 || t.length < 2 || t.length > 100_000) return { t, values: x };
+  let at: (s: number) => number;
+  try {
+    at = r.evaluator(c);
+    at(t[0]!);
+  } catch {
+    return { t, values: x };
+  }
+  const times: number[] = [];
+  const values: number[] = [];
+  for (let i = 0; i < t.length; i++) {
+    times.push(t[i]!);
+    values.push(x[i]!);
+    const t0 = t[i]!;
+    const t1 = t[i + 1];
+    if (t1 === undefined || !(t1 > t0)) continue;
+    for (let k = 1; k <= perStep; k++) {
+      const s = t0 + ((t1 - t0) * k) / (perStep + 1);
+      const v = at(s);
+      if (!Number.isFinite(v)) return { t, values: x };
+      times.push(s);
+      values.push(v);
+    }
+  }
+  return { t: Float64Array.from(times), values: Float64Array.from(values) };
+}
+
+function plotGroup(r: SimulationResult, p: ResultPlot, time: { unit: string; scale: number }, perStep: number): PlotGroup {
   const series: PlotSeries[] = p.series.map((c) => {
     const quantity = QUANTITY_NAMES[c.quantity];
     const unit = QUANTITY_UNITS[c.quantity];
-    return { label: c.label ?? c.handle.name, unit, quantity, t: r.time, values: r.read(c) };
+    const samples = plotSamples(r, c, perStep);
+    return { label: c.label ?? c.handle.name, unit, quantity, t: samples.t.map((v) => v * time.scale), values: samples.values };
   });
   const saturation = new Set<number>();
   if (p.saturationLines ?? true) {
@@ -126,11 +193,18 @@ function plotGroup(r: SimulationResult, p: ResultPlot): PlotGroup {
       if (bs !== undefined) saturation.add(bs);
     }
   }
+  // The page prints a reference as "label = value unit": the label carries no value of its own.
   const references = [...saturation].flatMap((bs) => [
-    { label: `+B_sat ${bs} T`, value: bs, unit: 'T' },
-    { label: `-B_sat ${bs} T`, value: -bs, unit: 'T' },
+    { label: saturation.size > 1 ? `+B_sat (${bs} T material)` : '+B_sat', value: bs, unit: 'T' },
+    { label: saturation.size > 1 ? `-B_sat (${bs} T material)` : '-B_sat', value: -bs, unit: 'T' },
   ]);
-  return { title: p.title, ...(p.description ? { description: p.description } : {}), series, ...(references.length ? { references } : {}) };
+  return {
+    title: p.title,
+    ...(p.description ? { description: p.description } : {}),
+    xUnit: time.unit,
+    series,
+    ...(references.length ? { references } : {}),
+  };
 }
 
 function saturationOf(t: TubeDescription): number | undefined {

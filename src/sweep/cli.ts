@@ -3,10 +3,12 @@
 // job into shard files, merge shard results. Small on purpose: it is what a batch
 // system or job queue calls on each machine (docs/sweeps.md).
 //
-//   node dist/sweep/cli.js run job.json [--concurrency N] [--in-process] [--base DIR] [--allow-modules DIR]...
-//                              [--case-time-limit MS] [--worker-memory MB] [--journal FILE] [--out result.json]
-//   node dist/sweep/cli.js shard job.json --shards N [--out-dir DIR] [--reference]
-//   node dist/sweep/cli.js merge result-0.json result-1.json ... [--out merged.json]
+//   fluxstate-sweep run job.json [--concurrency N] [--in-process] [--base DIR] [--allow-modules DIR]...
+//                                [--case-time-limit MS] [--worker-memory MB] [--journal FILE] [--out result.json]
+//   fluxstate-sweep shard job.json --shards N [--out-dir DIR] [--reference]
+//   fluxstate-sweep merge result-0.json result-1.json ... [--out merged.json]
+//   fluxstate-sweep --help
+// (the package's bin; in a clone, node dist/sweep/cli.js after npm run build)
 //
 // Exit codes: 0 every case succeeded; 1 the sweep ran but some cases did not
 // succeed (the JSON says which); 2 bad usage or an invalid job / result file
@@ -168,6 +170,15 @@ function merge(args: string[]): number {
 
 async function main(argv: string[]): Promise<number> {
   const [command, ...rest] = argv;
+  // Asking for help is not a mistake: usage on stdout, exit 0.
+  if (command === undefined || command === '--help' || command === '-h' || command === 'help' || rest.includes('--help') || rest.includes('-h')) {
+    if (command === undefined) {
+      process.stderr.write(`no command\n${USAGE}\n`);
+      return 2;
+    }
+    process.stdout.write(`${USAGE}\n`);
+    return 0;
+  }
   try {
     if (command === 'run') return await run(rest);
     if (command === 'shard') return shard(rest);

@@ -21,6 +21,7 @@
  * ```
  *
  * @packageDocumentation
+ * @module fluxstate/sweep
  */
 export {
   SWEEP_JOB_FORMAT,

@@ -69,7 +69,7 @@ export function piecewiseLinear(params: Omit<PiecewiseLinearSpec, 'kind'>): Piec
  *
  * @example
  * ```ts
- * const w = piecewiseLinearWaveform(piecewiseLinear({ times: [0, 1, 3], values: [0, 2, 0] }), 'I1');
+ * const w = piecewiseLinearWaveform(piecewiseLinear({ times: [0, 1, 3], values: [0, 2, 0] }), 'ramp current');
  * w.value(2); // 1
  * w.breakpoints(0, 10); // [0, 1, 3]
  * ```

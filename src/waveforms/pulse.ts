@@ -58,7 +58,7 @@ export interface PulseSpec {
  * ```ts
  * // 0/15 V gate drive, 20 kHz, 30 % duty, first pulse at 10 us
  * const gate = pulse({ low: 0, high: 15, period: 50e-6, duty: 0.3, delay: 10e-6 });
- * compileWaveform(gate, 'Vg').value(20e-6); // 15
+ * compileWaveform(gate, 'gate drive').value(20e-6); // 15
  * ```
  */
 export function pulse(params: Omit<PulseSpec, 'kind'>): PulseSpec {
@@ -72,7 +72,7 @@ export function pulse(params: Omit<PulseSpec, 'kind'>): PulseSpec {
  *
  * @example
  * ```ts
- * const w = pulseWaveform(pulse({ high: 1, period: 1e-3, duty: 0.5 }), 'V1');
+ * const w = pulseWaveform(pulse({ high: 1, period: 1e-3, duty: 0.5 }), 'gate drive');
  * w.breakpoints(0, 2e-3); // [0, 0.0005, 0.001, 0.0015, 0.002]
  * ```
  */

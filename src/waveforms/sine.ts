@@ -43,7 +43,7 @@ export function sine(params: Omit<SineSpec, 'kind'>): SineSpec {
  *
  * @example
  * ```ts
- * sineWaveform(sine({ amplitude: 10, frequency: 50 }), 'V1').value(0.005); // 10
+ * sineWaveform(sine({ amplitude: 10, frequency: 50 }), 'mains').value(0.005); // 10
  * ```
  */
 export function sineWaveform(spec: SineSpec, owner: WaveformOwner = 'waveform'): Waveform {

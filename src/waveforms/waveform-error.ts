@@ -1,7 +1,7 @@
 import { InputError } from '../errors.js';
 
 /**
- * Who a waveform belongs to, for error messages: a plain name (`'V1'`), or a
+ * Who a waveform belongs to, for error messages: a plain name (`'mains'`), or a
  * phrase for the message with the element's name for `error.elements`
  * (the network builder passes `{ label: 'voltage source "mains"', element: 'mains' }`).
  *

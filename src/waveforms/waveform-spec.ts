@@ -27,7 +27,7 @@ export type WaveformSpec = ConstantSpec | SineSpec | PulseSpec | BipolarSquareSp
  *
  * @example
  * ```ts
- * const w = compileWaveform({ kind: 'constant', value: 5 }, 'V1');
+ * const w = compileWaveform({ kind: 'constant', value: 5 }, 'bias supply');
  * ```
  */
 export function compileWaveform(spec: WaveformSpec, owner: WaveformOwner = 'waveform'): Waveform {

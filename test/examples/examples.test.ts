@@ -120,6 +120,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'residual-flux.ts': { lines: [/^ +45\.0 ms( +0\.9\d{3}){4}$/m, /^ +0 deg +\d+\.\d A +\d+\.\d A$/m, /^Caution: engineering estimates/m] },
   'solver-robertson.ts': { lines: [/^DAE form: success/m] },
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
+  'sanity-checks.ts': { lines: [/^unit slip: status success, peak \|B\| \d\.\d+e-\d T$/m, /^  warning: tube "wound leg": magnetic path length 150 m/m, /^as meant: 0 warnings$/m, /^after the run: tube "wound leg": \|B\| reaches \d+\.\d+ T/m] },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
   'worst-case.ts': { lines: [/^largest inrush peak: \d+\.\d A at -?\d+\.\d deg, remanence 0\.80 T/m, /^smallest margin to B_sat/m, /^CAUTION/m] },

@@ -309,3 +309,35 @@ describe.skipIf(!executablePath)('renderHtmlReport in headless Chromium: a hosti
     for (const s of missing) expect(axisLabels.some((label) => label.includes(s)), s).toBe(true);
   });
 });
+
+describe.skipIf(!executablePath)('resultReport in headless Chromium on a laptop screen (1366 x 768)', () => {
+  it('shows the whole first plot in the first screen, its time axis in ms', async () => {
+    const { createNetwork, demoMaterials, mm, mm2, simulate, sine } = await import('../../src/index.js');
+    const { resultReport } = await import('../../src/report/index.js');
+    const net = createNetwork('first transformer');
+    const bottom = net.magneticNode('bottom');
+    const top = net.magneticNode('top');
+    const steel = demoMaterials.grainOrientedSteel;
+    const leg = net.fluxTube('wound leg', { from: bottom, to: top, length: mm(150), area: mm2(900), material: steel });
+    net.fluxTube('rest of core', { from: top, to: bottom, length: mm(350), area: mm2(900), material: steel });
+    const line = net.node('line');
+    net.voltageSource('mains', line, net.ground, sine({ amplitude: 325, frequency: 50, phase: Math.PI / 2 }));
+    net.winding('primary', { tube: leg, turns: 820, resistance: 2.5, plus: line, minus: net.ground });
+    const file = resolve('out', 'report-test', 'laptop-report.html');
+    writeReport(file, resultReport(simulate(net, { stopTime: 0.1 }), { title: 'First transformer', subtitle: 'Invented design' }));
+    const browser = await chromium.launch({ executablePath, args: ['--headless', '--no-sandbox', '--disable-gpu'] });
+    try {
+      const page = await browser.newPage({ viewport: { width: 1366, height: 768 } });
+      await page.goto(pathToFileURL(file).href);
+      await page.waitForSelector('html[data-plots-ready]', { timeout: 10_000 });
+      const plot = (await page.locator('.plot-area').first().boundingBox())!;
+      expect(plot.y + plot.height).toBeLessThanOrEqual(768);
+      const caution = (await page.locator('.caution').boundingBox())!;
+      expect(caution.y + caution.height).toBeLessThan(plot.y); // the caution still comes first
+      const axis = await page.evaluate(() => (globalThis as unknown as { fluxstateCharts: { axes: { label?: string }[] }[] }).fluxstateCharts[0]!.axes[0]!.label);
+      expect(axis).toBe('Time (ms)');
+    } finally {
+      await browser.close();
+    }
+  });
+});

@@ -95,4 +95,16 @@ describe('sweep CLI (built JavaScript, plain node)', () => {
     expect(usage.code).toBe(2);
     expect(usage.stderr).toMatch(/unknown command "launch"[\s\S]*usage:/);
   });
+
+  it('prints the usage on stdout and exits 0 for --help (asking for help is not an error)', async () => {
+    for (const args of [['--help'], ['-h'], ['help'], ['run', '--help']]) {
+      const help = await cli(root, args);
+      expect(help.code).toBe(0);
+      expect(help.stdout).toMatch(/^usage:\n {2}fluxstate-sweep run <job\.json>/);
+      expect(help.stderr).toBe('');
+    }
+    const none = await cli(root, []);
+    expect(none.code).toBe(2);
+    expect(none.stderr).toMatch(/no command/);
+  });
 });

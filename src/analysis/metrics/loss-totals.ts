@@ -7,7 +7,7 @@ import { identity, windowIntegral } from './window-integral.js';
  *
  * @example
  * ```ts
- * lossTotals(t, { R1: p1 }, { from: 0.08, to: 0.1 }); // the last cycle of a 50 Hz run
+ * lossTotals(t, { load: pLoad }, { from: 0.08, to: 0.1 }); // the last cycle of a 50 Hz run
  * ```
  */
 export interface LossTotalsOptions {
@@ -26,7 +26,7 @@ export interface LossTotalsOptions {
  *
  * @example
  * ```ts
- * const { energies, total, averagePower } = lossTotals(t, { R1: p1, R2: p2 });
+ * const { energies, total, averagePower } = lossTotals(t, { load: pLoad, 'primary copper': pCopper });
  * ```
  */
 export interface LossTotals {
