@@ -117,6 +117,9 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'report.ts': { lines: [/^report: .*report\.html$/m] },
   'solver-robertson.ts': { lines: [/^DAE form: success/m] },
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
+  'stepper-set-points.ts': {
+    lines: [/^supply energy from the record (0\.5487[0-9]{2}) J, closed form \1 J$/m, /^Engineering estimate/m],
+  },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
   'waveforms.ts': { lines: [/^net volt-seconds per period:/m] },
