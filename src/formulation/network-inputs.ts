@@ -313,7 +313,8 @@ export class NetworkInputs implements InputView {
 
   constructor(description: NetworkDescription) {
     this.schedule = InputSchedule.of(description);
-    this.current = openInterval(this.schedule, -Infinity, Infinity, 0);
+    // Before any run: the description's schedule at t itself (no interval, so no side to choose).
+    this.current = new InputsInForce(this.schedule, -Infinity, Infinity, -Infinity, Infinity);
   }
 
   /** The inputs every evaluation sees now. */

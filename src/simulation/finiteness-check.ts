@@ -36,7 +36,21 @@ function everyRequest(c: CompiledNetwork): QuantityRequest[] {
  * @internal
  */
 export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array) => NonFiniteValue | undefined {
-  const reader = new StateReader(c, undefined);
+  // Quantities that need a derivative of the state evaluate f(t, y); within one check (one t, one y,
+  // one set of inputs) it is the same f, so it is evaluated once per check instead of once per quantity.
+  const f = new Float64Array(c.layout.size);
+  let fresh = false;
+  const once: CompiledNetwork = {
+    ...c,
+    evaluate: (t, y, inputs, out) => {
+      if (!fresh) {
+        c.evaluate(t, y, inputs, f);
+        fresh = true;
+      }
+      out.set(f);
+    },
+  };
+  const reader = new StateReader(once, undefined);
   const checks: { readonly quantity: string; readonly name: string; readonly fn: StateFunction }[] = [];
   for (const request of everyRequest(c)) {
     try {
@@ -46,6 +60,7 @@ export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array
     }
   }
   return (t, y) => {
+    fresh = false;
     for (const check of checks) {
       const value = check.fn(y, t);
       if (!Number.isFinite(value)) return { quantity: check.quantity, name: check.name, value };

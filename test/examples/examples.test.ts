@@ -121,6 +121,9 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'solver-robertson.ts': { lines: [/^DAE form: success/m] },
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
   'sanity-checks.ts': { lines: [/^unit slip: status success, peak \|B\| \d\.\d+e-\d T$/m, /^  warning: tube "wound leg": magnetic path length 150 m/m, /^as meant: 0 warnings$/m, /^after the run: tube "wound leg": \|B\| reaches \d+\.\d+ T/m] },
+  'stepper-set-points.ts': {
+    lines: [/^supply energy from the record (0\.5487[0-9]{2}) J, closed form \1 J$/m, /^Engineering estimate/m],
+  },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
   'worst-case.ts': { lines: [/^largest inrush peak: \d+\.\d A at -?\d+\.\d deg, remanence 0\.80 T/m, /^smallest margin to B_sat/m, /^CAUTION/m] },
