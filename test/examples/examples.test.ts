@@ -116,6 +116,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   },
   'report.ts': { lines: [/^report: .*report\.html$/m] },
   'solver-robertson.ts': { lines: [/^DAE form: success/m] },
+  'solver-sparse-ladder.ts': { lines: [/^dense: success, (\d+) steps; sparse: success, \1 steps$/m, /^largest difference between the two: (0\.0e\+0|\d\.\de-1[0-9]) V$/m, /^square drive, 20 edges: success, \d+ steps, \d+ Jacobian evaluations/m] },
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
