@@ -27,6 +27,29 @@ function cpuMedian<T>(fn: () => T, repeats: number): { ms: number; result: T } {
   return { ms: times[Math.floor(times.length / 2)]!, result: result as T };
 }
 
+/** CPU medians of two functions run alternately (after one warm-up each), and their last results. */
+function interleavedCpuMedians<A, B>(a: () => A, b: () => B, repeats: number): [{ ms: number; result: A }, { ms: number; result: B }] {
+  let ra = a();
+  let rb = b();
+  const ta: number[] = [];
+  const tb: number[] = [];
+  for (let r = 0; r < repeats; r++) {
+    let c0 = process.cpuUsage();
+    ra = a();
+    let c = process.cpuUsage(c0);
+    ta.push((c.user + c.system) / 1000);
+    c0 = process.cpuUsage();
+    rb = b();
+    c = process.cpuUsage(c0);
+    tb.push((c.user + c.system) / 1000);
+  }
+  const med = (x: number[]) => x.sort((p, q) => p - q)[Math.floor(x.length / 2)]!;
+  return [
+    { ms: med(ta), result: ra },
+    { ms: med(tb), result: rb },
+  ];
+}
+
 /** Median CPU microseconds per call of fn, each sample a loop of at least 20 ms. */
 function perCall(fn: () => void): number {
   let reps = 1;
@@ -88,12 +111,14 @@ export function benchSparseSwitch(): void {
   for (const n of [20, 40, 80, 160]) {
     const base = rcLadder(n);
     const withPattern: DaeProblem = { ...base, jacobianPattern: ladderPattern(n) };
-    const reps = n <= 40 ? 5 : 3;
-    const d = cpuMedian(() => solveDae(base, { rtol: 1e-6, atol: 1e-6, denseOutput: false }), reps);
-    const s = cpuMedian(() => solveDae(withPattern, { rtol: 1e-6, atol: 1e-6, denseOutput: false, linearAlgebra: 'sparse' }), reps);
-    solverRows.push([`RC ladder n = ${n}`, d.result.stats.acceptedSteps, s.result.stats.acceptedSteps, d.ms, s.ms, d.ms / s.ms]);
+    // Interleaved, 9 of each: the machine is shared and single runs of a few ms vary several-fold.
+    const dense = () => solveDae(base, { rtol: 1e-6, atol: 1e-6, denseOutput: false });
+    const sparse = () => solveDae(withPattern, { rtol: 1e-6, atol: 1e-6, denseOutput: false, linearAlgebra: 'sparse' });
+    const [d, s] = interleavedCpuMedians(dense, sparse, 9);
+    solverRows.push([`RC ladder n = ${n}`, d.result.stats.acceptedSteps, s.result.stats.acceptedSteps, d.result.stats.luFactorizations, d.ms, s.ms, d.ms / s.ms]);
   }
-  printTable(['problem', 'dense steps', 'sparse steps', 'dense ms', 'sparse ms', 'dense/sparse'], solverRows);
+  printTable(['problem', 'dense steps', 'sparse steps', 'LU', 'dense ms', 'sparse ms', 'dense/sparse'], solverRows);
+  console.log('(the whole run includes the set-up: a dense SVD of M and the first y\' solve, O(n^3) on either path)');
 }
 
 /**
@@ -157,8 +182,7 @@ function restartRun(full: boolean, periods: number): { jacobians: number; steps:
 export function benchRestarts(): void {
   console.log('\n## Restart at every input edge: kept Jacobian/LU/h (cheap) against full re-initialisation; 1000 periods, CPU ms, medians');
   const periods = 1000;
-  const cheap = cpuMedian(() => restartRun(false, periods), 5);
-  const full = cpuMedian(() => restartRun(true, periods), 5);
+  const [cheap, full] = interleavedCpuMedians(() => restartRun(false, periods), () => restartRun(true, periods), 7);
   printTable(
     ['restart', 'steps', 'Jacobians', 'CPU ms', 'phi end (Wb)'],
     [
