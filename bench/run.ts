@@ -12,6 +12,7 @@ import { benchLinearAlgebra } from './linear-algebra.js';
 import { hires, maxRelativeError, rcLadder, ringModulator, robertsonDae, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
 import { benchScipy } from './scipy.js';
 import { benchPeriodicSteadyState } from './pss.js';
+import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
 import { printTable, timeMedian } from './timing.js';
 
@@ -135,6 +136,8 @@ const started = performance.now();
 console.log(`# fluxstate solver benchmark (node ${process.version}, ${new Date().toISOString()})`);
 benchLinearAlgebra();
 benchKernelsInSolver();
+benchSparseSwitch();
+benchRestarts();
 benchAgainstOdex();
 benchScipy();
 benchPeriodicSteadyState();

@@ -21,6 +21,7 @@ export type {
   JacobianFunction,
   MassMatrixInput,
 } from './solver/types.js';
+export { SPARSE_MIN_SIZE } from './solver/types.js';
 // --- solver (generic DAE integrator) ---
 export { solveDae } from './solver/solve-dae.js';
 export {
@@ -37,6 +38,11 @@ export { consistentInitialValues, type ConsistentInitialValues } from './solver/
 export type { RealLinearSolver, ComplexLinearSolver } from './solver/linear-solver.js';
 export { createDenseLu } from './solver/dense-lu.js';
 export { createComplexLu } from './solver/complex-lu.js';
+export { createSparseLu, type SparseRealLinearSolver } from './solver/sparse-lu.js';
+export { createSparseComplexLu, type SparseComplexLinearSolver } from './solver/sparse-complex-lu.js';
+export { createSparseMatrix, sparsePattern, patternOfDense, type SparseMatrix, type SparsePattern } from './solver/sparse-pattern.js';
+export { analyseBand, type BandStructure } from './solver/band-structure.js';
+export { reverseCuthillMcKee } from './solver/reverse-cuthill-mckee.js';
 export { createMlMatrixLu, createEmbeddedComplexLu } from './solver/ml-matrix-lu.js';
 export type { MaterialLaw } from './materials/material-law.js';
 export { linearMaterial, type LinearMaterialSpec } from './materials/linear.js';

@@ -26,6 +26,8 @@ import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
 import { radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
+import { createSparseComplexLu } from './sparse-complex-lu.js';
+import { createSparseLu } from './sparse-lu.js';
 import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
@@ -396,8 +398,14 @@ class RadauIntegrator implements DaeIntegrator {
     }
     // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
     this.fnewt = Math.max((10 * UROUND) / rmin, Math.min(0.03, Math.sqrt(rmin)));
-    this.luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n);
-    this.luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n);
+    if (p.iterationPattern) {
+      const real = createSparseLu(p.iterationPattern);
+      this.luReal = real;
+      this.luComplex = createSparseComplexLu(p.iterationPattern, real.structure);
+    } else {
+      this.luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n);
+      this.luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n);
+    }
     this.work = createCollocationWork(n);
     this.errorWork = { err: new Float64Array(n), mz: new Float64Array(n), ez: new Float64Array(n), ys: new Float64Array(n), fy: new Float64Array(n) };
     this.countedRhs = (t, y, out) => this.callRhs(t, y, out);
@@ -887,9 +895,15 @@ class RadauIntegrator implements DaeIntegrator {
       }
     }
     this.statsCur.luFactorizations++;
-    const real = this.luReal.factor(e1);
-    const complex = real >= 0 ? -1 : this.luComplex.factor(e2r, e2i);
-    return { real, complex };
+    try {
+      const real = this.luReal.factor(e1);
+      const complex = real >= 0 ? -1 : this.luComplex.factor(e2r, e2i);
+      return { real, complex };
+    } catch (e) {
+      // The sparse kernels refuse an entry outside the declared pattern rather than drop it.
+      if (e instanceof RangeError && this.p.iterationPattern) throw new UserCodeError(e, 'the Jacobian (an entry outside jacobianPattern)', this.tCur);
+      throw e;
+    }
   }
 
   private ensureJacobian(): void {

@@ -1,6 +1,7 @@
 import { InputError } from '../errors.js';
 import { compressedJacobian, compressedMass, compressedRhs, massRowCompression } from './mass-row-compression.js';
-import type { DaeEvent, DaeProblem, JacobianFunction, RhsFunction, SolveDaeOptions, DaeProgress } from './types.js';
+import { sparsePattern, type SparsePattern } from './sparse-pattern.js';
+import { SPARSE_MIN_SIZE, type DaeEvent, type DaeProblem, type JacobianFunction, type RhsFunction, type SolveDaeOptions, type DaeProgress } from './types.js';
 
 /**
  * A validated copy of a {@link DaeProblem} and its options, in the shapes
@@ -39,7 +40,9 @@ export interface NormalizedDae {
   readonly consistentInit: boolean;
   readonly denseOutput: boolean;
   readonly outputTimes: Float64Array;
-  readonly linearAlgebra: 'flat' | 'ml-matrix';
+  readonly linearAlgebra: 'flat' | 'ml-matrix' | 'sparse';
+  /** Pattern of (gamma/h) M - J (J's declared pattern, M, the diagonal), when the sparse LU is used. */
+  readonly iterationPattern: SparsePattern | undefined;
 }
 
 function bad(code: string, message: string, elements: string[] = []): never {
@@ -167,8 +170,30 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   if (!(progressIntervalMs >= 0) || !finite(progressIntervalMs)) bad('bad-option', `progressIntervalMs = ${progressIntervalMs} must be a finite number >= 0`, ['progressIntervalMs']);
   const eventTolerance = positive(options.eventTolerance, 'eventTolerance');
   if (options.onProgress !== undefined && typeof options.onProgress !== 'function') bad('bad-option', 'onProgress must be a function', ['onProgress']);
-  const la = options.linearAlgebra ?? 'flat';
-  if (la !== 'flat' && la !== 'ml-matrix') bad('bad-option', `linearAlgebra = ${String(la)} must be 'flat' or 'ml-matrix'`, ['linearAlgebra']);
+  const jp = problem.jacobianPattern;
+  const la = options.linearAlgebra ?? (jp && n >= SPARSE_MIN_SIZE ? 'sparse' : 'flat');
+  if (la !== 'flat' && la !== 'ml-matrix' && la !== 'sparse') bad('bad-option', `linearAlgebra = ${String(la)} must be 'flat', 'ml-matrix' or 'sparse'`, ['linearAlgebra']);
+  if (la === 'sparse' && !jp) bad('bad-option', `linearAlgebra = 'sparse' needs problem.jacobianPattern (the structural non-zeros of df/dy)`, ['linearAlgebra']);
+  let iterationPattern: SparsePattern | undefined;
+  if (jp) {
+    if (jp.rows.length !== jp.cols.length) bad('bad-problem', `jacobianPattern has ${jp.rows.length} rows but ${jp.cols.length} columns; give one (row, col) pair per entry`, ['jacobianPattern']);
+    const rows: number[] = [];
+    const cols: number[] = [];
+    const perRow: number[][] = Array.from({ length: n }, () => []);
+    for (let k = 0; k < jp.rows.length; k++) {
+      const i = jp.rows[k]!;
+      const j = jp.cols[k]!;
+      if (!(Number.isInteger(i) && Number.isInteger(j) && i >= 0 && j >= 0 && i < n && j < n)) {
+        bad('bad-problem', `jacobianPattern entry ${k} = (${i}, ${j}) is not a position in the ${n} x ${n} Jacobian`, ['jacobianPattern']);
+      }
+      perRow[i]!.push(j);
+    }
+    for (let i = 0; i < n; i++) for (const j of perRow[i]!) rows.push(i), cols.push(j);
+    // Recombined rows of a hidden algebraic equation take the pattern of the rows they combine.
+    for (const d of compression?.dependent ?? []) for (const r of d.rows) for (const j of perRow[r]!) rows.push(d.row), cols.push(j);
+    if (mass) for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (mass[i * n + j] !== 0) rows.push(i), cols.push(j);
+    iterationPattern = sparsePattern(n, rows, cols);
+  }
 
   const ot: number[] = [];
   for (const v of Array.from(options.outputTimes ?? [])) {
@@ -205,5 +230,6 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     denseOutput: options.denseOutput ?? true,
     outputTimes: Float64Array.from(ot),
     linearAlgebra: la,
+    iterationPattern: la === 'sparse' ? iterationPattern : undefined,
   };
 }

@@ -26,7 +26,7 @@ export interface SparseRealLinearSolver extends RealLinearSolver {
  * equilibrated matrix (the algorithm of LAPACK's DGBTRF/DGBTRS, unblocked;
  * Golub and Van Loan, Matrix Computations, sect. 4.3), O(n b^2) for
  * bandwidth b instead of O(n^3). Equilibration and the singular-pivot test
- * are those of the dense kernels ({@link PIVOT_RELATIVE_TOLERANCE}), so
+ * are those of the dense kernels (pivot below 64 n eps of the equilibrated matrix), so
  * both report the same matrices as singular. Checked against the dense LU on
  * random sparse systems in test/solver/sparse-lu.test.ts.
  *

@@ -116,7 +116,28 @@ export interface DaeProblem {
    * sect. VI.6 and the radau5 code.
    */
   readonly index2?: readonly number[];
+  /**
+   * Structural non-zeros of df/dy: entry k is (rows[k], cols[k]). With it
+   * the iteration matrices are factored by the sparse LU (reordered band LU,
+   * `sparse-lu.ts`) from {@link SPARSE_MIN_SIZE} unknowns on, or always with
+   * `linearAlgebra: 'sparse'`. Every entry the Jacobian may ever make
+   * non-zero must be listed; one outside it stops the run with
+   * `'rhs-error'` naming the row. (Added field.)
+   */
+  readonly jacobianPattern?: { readonly rows: ArrayLike<number>; readonly cols: ArrayLike<number> };
 }
+
+/**
+ * Size from which a problem with a {@link DaeProblem.jacobianPattern} is
+ * solved with the sparse LU by default (chosen by `npm run bench`, section
+ * "dense against sparse LU": below it the dense kernels are as fast).
+ *
+ * @example
+ * ```ts
+ * const sparse = problem.size >= SPARSE_MIN_SIZE;
+ * ```
+ */
+export const SPARSE_MIN_SIZE = 32;
 
 /**
  * Progress report passed to {@link SolveDaeOptions.onProgress}.
@@ -191,9 +212,11 @@ export interface SolveDaeOptions {
    * a complex one); `'ml-matrix'` uses ml-matrix's LuDecomposition for the
    * real system and for the complex system embedded as a real 2n x 2n one.
    * Both give the same results to round-off; `npm run bench` compares them.
-   * (Added field.)
+   * `'sparse'` uses the sparse LU on the problem's `jacobianPattern`
+   * (required); by default a problem with a pattern and at least
+   * {@link SPARSE_MIN_SIZE} unknowns uses it. (Added field.)
    */
-  readonly linearAlgebra?: 'flat' | 'ml-matrix';
+  readonly linearAlgebra?: 'flat' | 'ml-matrix' | 'sparse';
 }
 
 /**
