@@ -92,6 +92,7 @@ interface Expectation {
 }
 const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'core-loss.ts': { lines: [/^total core loss: iGSE \d/m, /^Caution: engineering estimates/m] },
+  'current-transformer.ts': { lines: [/^aiding the offset +0\.9\d{2} T +\d+\.\d{2} ms +\d+\.\d{2} ms$/m, /^Caution: engineering estimates/m] },
   'demo.ts': {
     args: (dir) => [dir],
     lines: [/^== Energising a 230 V mains transformer/m, /^== Flux walk in a push-pull transformer/m, /^== Three-leg core/m, /three-leg-loads\.html$/m, /^Engineering estimates/m],
