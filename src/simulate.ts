@@ -5,6 +5,7 @@ import { finitenessCheck } from './simulation/finiteness-check.js';
 import { NetworkRun, timeTolerance } from './simulation/network-run.js';
 import { checkSolverSettings, resolveSolverSettings, type SolverSettings } from './simulation/solver-settings.js';
 import { resultFromRun, type SimulationResult } from './result/simulation-result.js';
+import { sanityWarnings } from './analysis/sanity-warnings.js';
 
 export type { AbsoluteTolerances, SolverSettings } from './simulation/solver-settings.js';
 export type { NetworkInput } from './simulation/accept-network.js';
@@ -116,7 +117,9 @@ export function simulate(network: NetworkInput, options: SimulateOptions): Simul
   if (options.onProgress) {
     options.onProgress({ time: run.t, stopTime: tEnd, fraction: (run.t - t0) / (tEnd - t0), steps: run.stats.acceptedSteps });
   }
-  return resultFromRun(compiled, networkId, run, `reached t = ${tEnd} s`);
+  // Values far outside practical ranges (a core given in metres where millimetres were meant) run, but say so.
+  const sanity = sanityWarnings(compiled.description).map((w) => w.message);
+  return resultFromRun(compiled, networkId, run, `reached t = ${tEnd} s`, sanity);
 }
 
 function checkOptions(o: SimulateOptions, t0: number, tEnd: number): void {

@@ -50,6 +50,8 @@ export interface SimulationResultInit {
   readonly failure: DaeFailure | undefined;
   /** Differential unknowns the initialisation moved to meet index-2 hidden constraints. */
   readonly adjustedAtStart: readonly number[];
+  /** Further warnings on the model (sanity checks of values far outside practical ranges). */
+  readonly modelWarnings?: readonly string[];
   /** Projection of interpolated states onto the algebraic equations (for the energy audit). */
   readonly project?: (t: number, y: Float64Array) => void;
   /** The non-finite value that stopped the run, if that is why it stopped. */
@@ -131,11 +133,12 @@ export class SimulationResult {
     this.states = init.samples.map((x) => x.y);
     this.sampleInterval = Int32Array.from(init.samples, (x) => x.interval);
     const layout = init.compiled.layout;
-    this.warnings = Object.freeze(
-      init.adjustedAtStart.map(
+    this.warnings = Object.freeze([
+      ...init.adjustedAtStart.map(
         (i) => `initial ${layout.labels[i]} was changed to agree with the sources (an index-2 structure fixes it); set it in the model to silence this`,
       ),
-    );
+      ...(init.modelWarnings ?? []),
+    ]);
     if (init.failure) {
       this.failure = {
         time: init.steps.length > 0 ? init.steps[init.steps.length - 1]!.t : this.time[0] ?? NaN,
@@ -454,7 +457,13 @@ export class SimulationResult {
  *
  * @internal
  */
-export function resultFromRun(compiled: CompiledNetwork, networkId: number | undefined, run: NetworkRun, successMessage: string): SimulationResult {
+export function resultFromRun(
+  compiled: CompiledNetwork,
+  networkId: number | undefined,
+  run: NetworkRun,
+  successMessage: string,
+  modelWarnings: readonly string[] = [],
+): SimulationResult {
   // A terminal event is handled by the stepper (it resumes); it is not an outcome of the record.
   const status = run.status === 'running' || run.status === 'terminal-event' ? 'success' : run.status;
   return new SimulationResult({
@@ -470,6 +479,7 @@ export function resultFromRun(compiled: CompiledNetwork, networkId: number | und
     message: status === 'success' ? successMessage : run.message,
     failure: status === 'success' ? undefined : run.failure,
     adjustedAtStart: run.adjustedAtStart,
+    modelWarnings,
     project: run.project,
     ...(status !== 'success' && run.nonFinite ? { nonFinite: run.nonFinite } : {}),
   });

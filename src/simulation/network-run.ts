@@ -185,6 +185,7 @@ export class NetworkRun {
       {
         rtol: settings.rtol,
         atol: settings.atol,
+        ...(settings.atolFollowsRtol !== undefined ? { atolFollowsRtol: settings.atolFollowsRtol } : {}),
         ...(settings.maxStep !== undefined ? { maxStep: settings.maxStep } : {}),
         ...(settings.initialStep !== undefined ? { initialStep: settings.initialStep } : {}),
         ...(settings.maxSteps !== undefined ? { maxSteps: settings.maxSteps } : {}),

@@ -69,6 +69,13 @@ export interface ResolvedSolverSettings {
   readonly maxSteps: number;
   readonly maxWallTimeMs?: number;
   readonly signal?: AbortSignal;
+  /**
+   * Whether the absolute tolerances follow rtol through radau5's map
+   * (atol' = rtol'/rtol atol, looser as rtol tightens): only when the user
+   * gave atol; the per-quantity defaults stay put, so tightening rtol never
+   * loosens them.
+   */
+  readonly atolFollowsRtol?: boolean;
 }
 
 /**
@@ -127,6 +134,7 @@ export function resolveSolverSettings(
   return {
     rtol: o.rtol ?? defaults.rtol,
     atol: absoluteTolerances(c, o.atol),
+    atolFollowsRtol: o.atol !== undefined,
     maxSteps: o.maxSteps ?? defaults.maxSteps,
     ...(o.maxStep !== undefined ? { maxStep: o.maxStep } : {}),
     ...(o.initialStep !== undefined ? { initialStep: o.initialStep } : {}),

@@ -335,6 +335,15 @@ class RadauIntegrator implements DaeIntegrator {
   /** y' at the last cheap restart: the first step's Newton starts from the tangent instead of zero. */
   private readonly restartSlope: Float64Array;
   private slopeStart = false;
+  /**
+   * A cheap restart whose first step has not been accepted yet: should that
+   * step's Newton iteration fail for good, the full re-initialisation is
+   * tried once before reporting a failure (a jump that changes the algebraic
+   * structure, such as a hysteretic tube's db/dt reversing at a switch-off,
+   * can defeat the kept factorisation and the tangent start).
+   */
+  private cheapRestartUnproven = false;
+  private cheapRestartCap = false;
   private readonly stepWork: { scale: Float64Array; y1: Float64Array; f1: Float64Array };
   private interp: DaeStepInterpolant | undefined;
   private eventValues: Float64Array;
@@ -533,7 +542,13 @@ class RadauIntegrator implements DaeIntegrator {
     this.pendingFailure = undefined;
     this.interp = undefined;
     const capByEstimate = options.capStepByEstimate ?? false;
-    if (!(y === undefined && healthy && this.restartCheaply(capByEstimate))) this.initialise(false, capByEstimate);
+    this.cheapRestartUnproven = false;
+    if (y === undefined && healthy && this.restartCheaply(capByEstimate)) {
+      this.cheapRestartUnproven = true;
+      this.cheapRestartCap = capByEstimate;
+    } else {
+      this.initialise(false, capByEstimate);
+    }
     return this.statusCur;
   }
 
@@ -1033,6 +1048,14 @@ class RadauIntegrator implements DaeIntegrator {
           continue;
         }
         newtonFailCount++;
+        if (newtonFailCount >= MAX_NEWTON_FAILURES && this.cheapRestartUnproven) {
+          this.cheapRestartUnproven = false;
+          this.yCur.set(this.ySaved);
+          this.initialise(false, this.cheapRestartCap);
+          if (this.statusCur !== 'running') return { status: this.statusCur, events: [] };
+          newtonFailCount = 0;
+          continue;
+        }
         if (newtonFailCount >= MAX_NEWTON_FAILURES) {
           this.hCur = h;
           return this.fail(
@@ -1126,6 +1149,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.first = false;
     this.extrapolate = true;
     this.slopeStart = false;
+    this.cheapRestartUnproven = false;
     try {
       this.callRhs(tNew, y, this.fCur);
     } catch (e) {

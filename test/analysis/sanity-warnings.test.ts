@@ -49,4 +49,11 @@ describe('sanityWarnings', () => {
     const fine = simulate(transformer(mm(150), mm2(900)), { stopTime: 0.02 });
     expect(resultSanityWarnings(fine)).toEqual([]);
   });
+
+  it('puts the model warnings on the result of simulate, so a unit slip is seen without asking', () => {
+    const slip = simulate(transformer(150, 900), { stopTime: 0.002 });
+    expect(slip.warnings).toContain('tube "wound leg": magnetic path length 150 m is longer than 10 m; was it given in millimetres? write mm(150)');
+    const fine = simulate(transformer(mm(150), mm2(900)), { stopTime: 0.002 });
+    expect(fine.warnings.some((w) => /longer than|larger than/.test(w))).toBe(false);
+  });
 });
