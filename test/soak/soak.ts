@@ -10,7 +10,7 @@
 // node above 1e-12 of the largest flux (Kirchhoff's flux law); and, on success, an energy audit
 // error above 5e-3 (conservation of energy: source energy = losses + change of stored energy; the
 // tolerance of test/reliability/random-networks.test.ts) or a run that does not end at the stop
-// time. The summary is rewritten every 50 cases, so a run stopped at its time cap keeps its counts.
+// time. The summary is rewritten every 10 cases, so a run stopped at its time cap keeps its counts.
 // The energy audit costs about ten simulations (measured: 337 ms against 26 ms per case, mean of
 // 30 cases); --audit-every n audits one case in n (the others are checked for status, finite
 // series and flux balance only), and the summary says how many were audited.
@@ -28,6 +28,7 @@ const { values } = parseArgs({
     minutes: { type: 'string', default: '90' },
     out: { type: 'string', default: 'soak.json' },
     'audit-every': { type: 'string', default: '1' },
+    progress: { type: 'string' },
   },
 });
 const count = Number(values.count);
@@ -79,6 +80,8 @@ for (let k = 0; k < count; k++) {
     break;
   }
   const caseSeed = seed + k;
+  // The case about to run, so that a driver can tell which one hangs (test/soak/soak-driver.ts).
+  if (values.progress !== undefined) writeFileSync(values.progress, `${caseSeed}\n`);
   const plan = fc.sample(networkPlanArb, { seed: caseSeed, numRuns: 1 })[0]!;
   summary.run++;
   if (plan.tubes.some((t) => t.eddy > 0 && t.material.kind !== 'gap')) summary.withEddy++;
@@ -117,7 +120,7 @@ for (let k = 0; k < count; k++) {
     summary.threw++;
     note(caseSeed, `threw ${e instanceof Error ? `${e.name}: ${e.message}` : String(e)}`);
   }
-  if (summary.run % 50 === 0) save();
+  if (summary.run % 10 === 0) save();
 }
 save();
 console.log(JSON.stringify(summary, null, 2));
