@@ -3,6 +3,7 @@ import type { CompiledNetwork } from '../formulation/compile-network.js';
 import type { InputsInForce } from '../formulation/network-inputs.js';
 import type { NetworkDescription } from '../network/description.js';
 import type { ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from '../network/handles.js';
+import { elementKind } from '../elements/registry.js';
 import { StateReader, type QuantityRequest } from './state-reader.js';
 import type { DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
@@ -133,10 +134,20 @@ export class SimulationResult {
     this.states = init.samples.map((x) => x.y);
     this.sampleInterval = Int32Array.from(init.samples, (x) => x.interval);
     const layout = init.compiled.layout;
+    const d = init.compiled.description;
     this.warnings = Object.freeze([
-      ...init.adjustedAtStart.map(
-        (i) => `initial ${layout.labels[i]} was changed to agree with the sources (an index-2 structure fixes it); set it in the model to silence this`,
-      ),
+      ...init.adjustedAtStart.flatMap((i) => {
+        // A node potential fixed by ideal voltage sources overrides the initial voltage of capacitors on it: name them.
+        const node = layout.potential.indexOf(i);
+        const caps = node < 0 ? [] : d.elements.filter((e) => (elementKind(e).initialVoltage?.(e) ?? 0) !== 0 && (e.plus === node || e.minus === node));
+        const named = caps.map(
+          (c) => `${elementKind(c).noun} "${c.name}": its initial voltage was overridden, because ideal voltage sources fix the potential of its node ` +
+            `"${d.electricNodes[node]!.name}" (a loop of capacitors and voltage sources); drop initialVoltage or give the source's value`,
+        );
+        return named.length > 0
+          ? named
+          : [`initial ${layout.labels[i]} was changed to agree with the sources (an index-2 structure fixes it); set it in the model to silence this`];
+      }),
       ...(init.modelWarnings ?? []),
     ]);
     if (init.failure) {

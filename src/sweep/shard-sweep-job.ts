@@ -98,7 +98,14 @@ export function mergeSweepResults(results: readonly SweepResult[]): SweepResult 
   };
 }
 
-/** Format tag of a shard file that references its job instead of copying it. */
+/**
+ * Format tag of a shard file that references its job instead of copying it.
+ *
+ * @example
+ * ```ts
+ * const isReference = JSON.parse(text).format === SWEEP_SHARD_FORMAT;
+ * ```
+ */
 export const SWEEP_SHARD_FORMAT = 'fluxstate-sweep-shard/1';
 
 /**

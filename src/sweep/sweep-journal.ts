@@ -7,7 +7,14 @@ import type { SweepJob } from './sweep-job.js';
 import { sweepCaseResultFromJson, sweepCaseResultToJson, sweepResultToJson } from './sweep-result-json.js';
 import type { SweepCaseResult, SweepResult } from './sweep-result.js';
 
-/** Format tag of the first line of a journal. */
+/**
+ * Format tag of the first line of a journal.
+ *
+ * @example
+ * ```ts
+ * const isJournal = JSON.parse(firstLine).format === SWEEP_JOURNAL_FORMAT;
+ * ```
+ */
 export const SWEEP_JOURNAL_FORMAT = 'fluxstate-sweep-journal/1';
 
 /**

@@ -3,13 +3,17 @@
  * This test keeps it honest against the code: every `code` passed to an
  * error constructor in src/ has an entry (and every entry still has a raise
  * site), each entry names the class the code is raised with, each entry's
- * test files exist and mention the code, and the statuses documented are
- * exactly the members of `DaeStatus`.
+ * test files exist and mention the code, each code with a scenario in
+ * error-triggers.ts is really raised by it (the others are listed there and
+ * may only become fewer), and the statuses documented are exactly the
+ * members of `DaeStatus`.
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { FluxstateError } from '../../src/index.js';
 import { scanErrorCodes } from './error-codes.js';
+import { TRIGGERS, UNTRIGGERED } from './error-triggers.js';
 
 const root = join(import.meta.dirname, '..', '..');
 const doc = readFileSync(join(root, 'docs', 'errors.md'), 'utf8');
@@ -72,6 +76,28 @@ describe('docs/errors.md', () => {
         expect(readFileSync(path, 'utf8').includes(`'${e.code}'`), `${e.code}: ${file} does not mention '${e.code}'`).toBe(true);
       }
     }
+  });
+
+  it('triggers each code of its scenario table through the public API (the code thrown is the code documented)', () => {
+    const raised: Record<string, string> = {};
+    for (const [code, trigger] of Object.entries(TRIGGERS)) {
+      try {
+        trigger();
+        raised[code] = '(returned)';
+      } catch (e) {
+        raised[code] = e instanceof FluxstateError ? e.code : `(${e instanceof Error ? e.name : 'non-error'})`;
+      }
+    }
+    expect(raised).toEqual(Object.fromEntries(Object.keys(TRIGGERS).map((c) => [c, c])));
+  });
+
+  it('has a trigger for every documented code, except those listed as not yet triggered (a list that only shrinks)', () => {
+    const documented = new Set(entries().map((e) => e.code));
+    const triggered = new Set(Object.keys(TRIGGERS));
+    expect([...triggered].filter((c) => !documented.has(c)).sort()).toEqual([]);
+    expect(UNTRIGGERED.filter((c) => triggered.has(c)).sort()).toEqual([]);
+    expect(UNTRIGGERED.filter((c) => !documented.has(c)).sort()).toEqual([]);
+    expect([...documented].filter((c) => !triggered.has(c) && !UNTRIGGERED.includes(c)).sort()).toEqual([]);
   });
 
   it('documents exactly the numerical statuses of DaeStatus', () => {

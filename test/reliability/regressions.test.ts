@@ -9,6 +9,7 @@ import {
   createNetwork,
   demoMaterials,
   InputError,
+  constant,
   pulse,
   simulate,
   sine,
@@ -128,4 +129,31 @@ describe('regressions (defects found by the reliability tests, fixed)', () => {
     net.winding('coil', { tube: leg, turns: 12, resistance: 1, plus: a, minus: net.ground });
     expect(simulate(net, { stopTime: 4e-3 }).status).toBe('success');
   });
+
+  it('simulate: a capacitor across an ideal source with another initial voltage is named in a warning, not reset silently', () => {
+    // A 1 uF capacitor with an initial voltage of 5 V directly across a 10 V source: the source fixes the
+    // voltage (Kirchhoff's voltage law around the loop), so the 5 V cannot hold. It used to be replaced by
+    // 10 V with only a note about the node's potential; the warning now names the capacitor.
+    const build = (initialVoltage: number) => {
+      const net = createNetwork('dc link');
+      const a = net.magneticNode('a');
+      const b = net.magneticNode('b');
+      const leg = net.fluxTube('leg', { from: a, to: b, length: 0.1, area: 1e-4, material: { kind: 'linear', relativePermeability: 1000 } });
+      net.fluxTube('yoke', { from: b, to: a, length: 0.1, area: 1e-4, material: { kind: 'linear', relativePermeability: 1000 } });
+      const p = net.node('p');
+      net.voltageSource('dc', p, net.ground, constant(10));
+      const link = net.capacitor('dc link', p, net.ground, 1e-6, { initialVoltage });
+      net.winding('coil', { tube: leg, turns: 50, resistance: 5, plus: p, minus: net.ground });
+      return { net, link };
+    };
+    const { net, link } = build(5);
+    const r = simulate(net, { stopTime: 1e-3 });
+    expect(r.voltage(link)[0]).toBe(10);
+    expect(r.warnings).toHaveLength(1);
+    expect(r.warnings[0]).toMatch(/capacitor "dc link": its initial voltage was overridden/);
+    expect(r.warnings[0]).toMatch(/drop initialVoltage or give the source's value/);
+    // An initial voltage equal to the source's needs no warning.
+    expect(simulate(build(10).net, { stopTime: 1e-3 }).warnings).toEqual([]);
+  });
 });
+

@@ -16,6 +16,14 @@ const executablePath = CANDIDATES.find((p): p is string => !!p && existsSync(p))
 const SKIP_REASON =
   'SKIPPED: no Chromium found (looked for $FLUXSTATE_CHROMIUM, /usr/bin/chromium, /usr/bin/chromium-browser); install the Debian package "chromium" (.ci/run does) to run it';
 if (!executablePath) console.warn(`test/report/browser.test.ts ${SKIP_REASON}`);
+/** In CI (CI=true or 1, as CI services and .ci/run set it) a missing browser is a failure, not a skip. */
+const IN_CI = process.env.CI === 'true' || process.env.CI === '1';
+
+describe('browser test setup', () => {
+  it.runIf(IN_CI)('finds Chromium in CI (a missing browser must not pass as a skipped test)', () => {
+    expect(executablePath, SKIP_REASON.replace('SKIPPED: ', '')).toBeDefined();
+  });
+});
 
 // The project compiles without the DOM library; these are the few browser
 // shapes the page-side callbacks below use.

@@ -4,8 +4,11 @@
  * case only; a killed run keeps its finished cases (previous results are not
  * rerun). No assertion here bounds how long anything takes.
  */
+import { appendFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { runSweep, type SweepJob } from '../../src/sweep/index.js';
+import { openSweepJournal, parseSweepJob, runSweep, type SweepJob } from '../../src/sweep/index.js';
 import { angleJob } from './rl-network.js';
 
 /** The RL job whose source function is an axis: one value per export of sweep-faulty-drives.ts. */
@@ -61,5 +64,30 @@ describe('sweep robustness', () => {
   it('refuses bad limits', async () => {
     await expect(runSweep(angleJob([0]), { caseTimeLimitMs: 0 })).rejects.toMatchObject({ code: 'sweep-bad-option' });
     await expect(runSweep(angleJob([0]), { workerMemoryLimitMb: Number.NaN })).rejects.toMatchObject({ code: 'sweep-bad-option' });
+  });
+
+  it('keeps a journal that resumes a run, ignores a last line cut short, and refuses another job\'s journal', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fluxstate-journal-'));
+    try {
+      const file = join(dir, 'run.jsonl');
+      const job = parseSweepJob(angleJob([0, 0.5, 1]));
+      const first = openSweepJournal(file, job);
+      expect(first.previous).toEqual([]);
+      const partial = await runSweep({ ...job, range: { start: 0, end: 2 } }, { inProcess: true, onCase: first.append });
+      // A kill in the middle of writing the next line.
+      appendFileSync(file, '{"type":"case","case":{"index":2,"param');
+      const again = openSweepJournal(file, job);
+      expect(again.previous).toEqual(partial.cases);
+      const ran: number[] = [];
+      const whole = await runSweep(job, { inProcess: true, previous: again.previous, onCase: (c) => ran.push(c.index) });
+      expect(ran).toEqual([2]);
+      expect(whole.counts.success).toBe(3);
+      expect(() => openSweepJournal(file, parseSweepJob(angleJob([0, 2])))).toThrow(expect.objectContaining({ code: 'sweep-bad-journal' }));
+      writeFileSync(join(dir, 'not.jsonl'), 'hello\n');
+      expect(() => openSweepJournal(join(dir, 'not.jsonl'), job)).toThrow(expect.objectContaining({ code: 'sweep-bad-journal' }));
+      expect(readFileSync(file, 'utf8').split('\n')[0]).toMatch(/^\{"type":"header","format":"fluxstate-sweep-journal\/1"/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
