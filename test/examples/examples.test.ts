@@ -128,7 +128,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
-  'worst-case.ts': { lines: [/^largest inrush peak: \d+\.\d A at -?\d+\.\d deg, remanence 0\.80 T/m, /^smallest margin to B_sat/m, /^CAUTION/m] },
+  'worst-case.ts': { lines: [/^largest inrush peak: \d+\.\d A at -?\d+\.\d deg, remanence -?0\.80 T/m, /^smallest margin to B_sat/m, /^CAUTION/m] },
   'waveforms.ts': { lines: [/^net volt-seconds per period:/m] },
 };
 
