@@ -68,8 +68,11 @@ describe('restart after an input jump (kept Jacobian and factorisation)', () => 
     const full = run(true);
     expect(cheap.worst).toBeLessThan(1e-6);
     expect(full.worst).toBeLessThan(1e-6);
-    // Measured: 43 against 201 (the full path evaluates J for the algebraic Newton, y' and the first step).
-    expect(cheap.jacobians).toBeLessThan(full.jacobians / 3);
+    // Measured: 83 against 201. The cheap path evaluates J once per restart with the new inputs (a kept J
+    // across a switching jump filtered the error estimate through the wrong matrix: a 5 % energy error in
+    // test/reliability/known-defects.test.ts); the full path evaluates J for the algebraic Newton, y' and
+    // the first step.
+    expect(cheap.jacobians).toBeLessThan(full.jacobians / 2);
   });
 
   it('a restart with a new state takes the full path and still gives a consistent start', () => {
