@@ -4,7 +4,8 @@ import { runOnWorkers } from '../../src/sweep/worker-pool.js';
 
 // Workers for the pool's protocol (ready, then one `done` per `run`), as eval'd
 // JavaScript. A task is a number: its result is task * 10, except:
-//   -1: wait (Atomics.wait) until another task has finished, then answer -10;
+//   -1: wait (Atomics.wait) until the pool has reported another task's result, then answer -10
+//       (the flag is set by the main thread on that report, so the order does not race);
 //   -2: end the thread with exit code 5;
 //   -3: loop forever.
 const WORKER = `
@@ -14,7 +15,6 @@ parentPort.on('message', (m) => {
   if (m.task === -1) Atomics.wait(flag, 0, 0);
   if (m.task === -2) process.exit(5);
   if (m.task === -3) for (;;) {}
-  if (m.task !== -1) { Atomics.store(flag, 0, 1); Atomics.notify(flag, 0); }
   parentPort.postMessage({ type: 'done', result: m.task * 10 });
 });
 parentPort.postMessage({ type: 'ready' });
@@ -34,6 +34,11 @@ function pool(tasks: number[], size: number, signal?: AbortSignal, extra: { task
     ...(extra.taskTimeLimitMs !== undefined ? { taskTimeLimitMs: extra.taskTimeLimitMs, onTimeout: (task: number, ms: number) => timeouts.push([task, ms]) } : {}),
     onResult: (task, result) => {
       results.push([task, result]);
+      if (task !== -1) {
+        const flag = new Int32Array(shared);
+        Atomics.store(flag, 0, 1);
+        Atomics.notify(flag, 0);
+      }
       extra.onResult?.(results.length);
     },
     onCrash: (task, reason) => crashes.push([task, reason]),
