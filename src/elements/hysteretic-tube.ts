@@ -5,6 +5,7 @@ import type { HystereticTubeLaw } from '../network/description.js';
 import { checkJilesAthertonSpec, inverseJilesAtherton } from '../materials/hysteresis/inverse-jiles-atherton.js';
 import { magnetisationRate, magnetisationRatePartials } from '../materials/hysteresis/magnetisation-rate.js';
 import type { TubeKind } from './tube-kind.js';
+import { checkTubeMaterial } from './tube-material-check.js';
 
 /**
  * A body of hysteretic material (inverse Jiles-Atherton, driven by the
@@ -35,12 +36,7 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
   check(law, owner, name) {
     const length = requirePositive(law.length, `${owner} length`, name, 'm');
     const area = requirePositive(law.area, `${owner} area`, name, 'm^2');
-    try {
-      checkJilesAthertonSpec(law.material);
-    } catch (e) {
-      if (e instanceof InputError) throw new InputError(e.code, `${owner}: ${e.message}`, [name, ...e.elements]);
-      throw e;
-    }
+    checkTubeMaterial(() => checkJilesAthertonSpec(law.material), owner, name);
     const m0 = law.initialMagnetisation;
     if (m0 !== undefined && !(Math.abs(m0) < law.material.saturationMagnetisation)) {
       throw new InputError(

@@ -1,10 +1,10 @@
-import { InputError } from '../errors.js';
 import { compileMaterial, type MaterialSpec } from '../materials/material-spec.js';
 import type { MaterialLaw } from '../materials/material-law.js';
 import { requirePositive } from '../network/argument-checks.js';
 import { clonePlain } from '../network/clone-plain.js';
 import type { TubeLaw } from '../network/description.js';
 import type { TubeKind } from './tube-kind.js';
+import { checkTubeMaterial } from './tube-material-check.js';
 
 type MaterialTubeLaw = Extract<TubeLaw, { kind: 'material' }>;
 
@@ -25,13 +25,7 @@ export const materialTubeKind: TubeKind<MaterialTubeLaw> = {
   check(law, owner, name) {
     const length = requirePositive(law.length, `${owner} length`, name, 'm');
     const area = requirePositive(law.area, `${owner} area`, name, 'm^2');
-    try {
-      compileMaterial(law.material);
-    } catch (e) {
-      // A bad material fails at the call that gave it; its error keeps its code and gains the tube's name.
-      if (e instanceof InputError) throw new InputError(e.code, `${owner}: ${e.message}`, [name, ...e.elements]);
-      throw e;
-    }
+    checkTubeMaterial(() => compileMaterial(law.material), owner, name);
     return { kind: 'material', length, area, material: clonePlain(law.material) };
   },
   hasArea: () => true,

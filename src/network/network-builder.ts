@@ -646,9 +646,23 @@ function alternatives(names: readonly string[]): string {
   return quoted.length < 2 ? quoted.join('') : `${quoted.slice(0, -1).join(', ')} or ${quoted[quoted.length - 1]!}`;
 }
 
-function bad(text: string, elements: readonly string[]): never {
+/**
+ * Throw the `bad-description` error of a plain-data description (what only
+ * plain data can get wrong: a missing list, an index out of range, an
+ * unknown kind).
+ *
+ * @example
+ * ```ts
+ * badDescription('"elements" is missing; give a list (possibly empty)', ['elements']);
+ * ```
+ *
+ * @internal
+ */
+export function badDescription(text: string, elements: readonly string[]): never {
   throw new InputError('bad-description', `network description: ${text}`, elements);
 }
+
+const bad = badDescription;
 
 function describeValue(value: unknown): string {
   if (value !== null && typeof value === 'object' && 'kind' in value) {

@@ -1,6 +1,5 @@
-import { InputError } from '../errors.js';
 import type { ElementDescription, NetworkDescription, TubeDescription } from './description.js';
-import { NetworkBuilder } from './network-builder.js';
+import { NetworkBuilder, badDescription as bad } from './network-builder.js';
 
 type Fields = Record<string, unknown>;
 
@@ -62,6 +61,3 @@ export function replayDescription(description: NetworkDescription): NetworkBuild
   return net;
 }
 
-function bad(text: string, elements: readonly string[]): never {
-  throw new InputError('bad-description', `network description: ${text}`, elements);
-}
