@@ -95,7 +95,7 @@ export {
   type JilesAthertonFit,
   type JilesAthertonFitOptions,
 } from './materials/hysteresis/fit-jiles-atherton.js';
-export { magnetisationRate, magnetisationRatePartials } from './materials/hysteresis/magnetisation-rate.js';
+export { REVERSAL_BAND, hysteresisLossRate, magnetisationRate, magnetisationRatePartials } from './materials/hysteresis/magnetisation-rate.js';
 export {
   hystereticReactorProblem,
   HYSTERETIC_REACTOR_UNKNOWNS,

@@ -3,7 +3,7 @@ import { MU0 } from '../constants.js';
 import { requirePositive } from '../network/argument-checks.js';
 import type { HystereticTubeLaw } from '../network/description.js';
 import { checkJilesAthertonSpec, inverseJilesAtherton } from '../materials/hysteresis/inverse-jiles-atherton.js';
-import { magnetisationRate, magnetisationRatePartials } from '../materials/hysteresis/magnetisation-rate.js';
+import { hysteresisLossRate, magnetisationRate, magnetisationRatePartials } from '../materials/hysteresis/magnetisation-rate.js';
 import type { TubeKind } from './tube-kind.js';
 import { checkTubeMaterial } from './tube-material-check.js';
 
@@ -88,7 +88,7 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
       mmf: (flux, y) => length * model.fieldStrength(flux / area, y[s]!),
       mmfSlope: () => length / (area * MU0),
       energy: (flux, y) => volume * model.storedEnergyDensity(flux / area, y[s]!),
-      lossPower: (flux, y) => volume * model.dissipationRate(flux / area, y[s]!, y[s + 1]!),
+      lossPower: (flux, y) => volume * hysteresisLossRate(model, flux / area, y[s]!, y[s + 1]!),
       material: model,
       stateOffset: s,
       // m in A/m: 1/mu0 per tesla; u = db/dt: a tesla per millisecond.

@@ -1067,7 +1067,9 @@ class RadauIntegrator implements DaeIntegrator {
             newton.components,
           );
         }
-        this.hCur = h * newton.shrink;
+        // First step after a (re)start with a contracting Newton predicted too slow: an algebraic unknown
+        // jumped (its first increment stays large however small h is), so shrink as for a rejected first step.
+        this.hCur = h * (this.first && newton.theta < 0.5 ? Math.min(newton.shrink, FIRST_STEP_REJECT_SHRINK) : newton.shrink);
         continue;
       }
       lastNonFinite = undefined;
