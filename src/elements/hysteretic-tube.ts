@@ -59,7 +59,11 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     if (!(tube.eddyResistance !== undefined && tube.eddyResistance > 0)) {
       throw new InputError(
         'hysteretic-tube-needs-eddy',
-        `tube "${tube.name}" is hysteretic but has no eddy resistance; give it eddyResistance (ohm, as a shorted turn; a small value such as 1e-3 is enough) so its flux has a derivative the model can follow`,
+        `tube "${tube.name}" is hysteretic but has no eddy resistance; give it eddyResistance > 0 (ohm, as a shorted turn). ` +
+          `Why: the model follows db/dt, and where the tube's flux is fixed only by the MMF balance (no winding on its loop, ` +
+          `or a winding driven by a current source) db/dt has no equation of its own (index 2); the eddy term gives it one. ` +
+          `Size: at most ${formatSuggestion(suggestedEddyCeiling(law))} ohm keeps the eddy MMF below 1 % of the pinning MMF ` +
+          `at 50 Hz and saturation (0.01 l k / (omega B_sat A)); values down to 1e-6 of that only add a fast mode the solver handles`,
         [tube.name],
       );
     }
@@ -127,3 +131,23 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     { name: 'material', value: law.material.name ?? 'Jiles-Atherton material' },
   ],
 };
+
+/**
+ * Largest eddy resistance that keeps a hysteretic tube's eddy MMF R_e dphi/dt
+ * below 1 % of its pinning MMF l k at 50 Hz and saturation (our rule of
+ * thumb; k is of the order of the coercive field): 0.01 l k / (omega B_sat A).
+ *
+ * @example
+ * ```ts
+ * suggestedEddyCeiling({ kind: 'hysteretic', length: 0.3, area: 1e-3, material: demoHystereticMaterials.steel });
+ * ```
+ */
+export function suggestedEddyCeiling(law: HystereticTubeLaw): number {
+  const saturation = law.material.saturationFluxDensity ?? MU0 * law.material.saturationMagnetisation;
+  return (0.01 * law.length * law.material.pinning) / (2 * Math.PI * 50 * saturation * law.area);
+}
+
+/** Two significant digits for a message. */
+function formatSuggestion(value: number): string {
+  return Number(value.toPrecision(2)).toString();
+}

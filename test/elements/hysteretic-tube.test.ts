@@ -220,6 +220,9 @@ describe('hysteretic tube in a network', () => {
     } catch (e) {
       code = (e as { code: string }).code;
       expect(String(e)).toMatch(/bare/);
+      // The message says why and how large: 0.01 l k / (omega B_sat A) = 0.01 x 0.1 x 400 / (100 pi x 2.0106 x 1e-3).
+      expect(String(e)).toMatch(/index 2/);
+      expect(String(e)).toMatch(/at most 0\.63 ohm/);
     }
     expect(code).toBe('hysteretic-tube-needs-eddy');
   });
