@@ -102,7 +102,7 @@ export {
   type HystereticReactorSpec,
 } from './materials/hysteresis/hysteretic-reactor-problem.js';
 export { demoHystereticMaterials, type DemoHystereticMaterials } from './materials/hysteresis/demo-hysteretic-materials.js';
-export { hystereticTubeReadings, type HystereticTubeReadings } from './elements/hysteretic-tube-readings.js';
+export { hystereticTubeReadings, residualFluxDensityAtEnd, type HystereticTubeReadings } from './elements/hysteretic-tube-readings.js';
 export type { Waveform } from './waveforms/waveform.js';
 export { constant, constantWaveform, type ConstantSpec } from './waveforms/constant.js';
 export { sine, sineWaveform, type SineSpec } from './waveforms/sine.js';
@@ -163,7 +163,7 @@ export { simulate } from './simulate.js';
 export type { SimulateOptions, AbsoluteTolerances, SolverSettings, NetworkInput, Sampling, SimulationProgress } from './simulate.js';
 export { SimulationResult } from './result/simulation-result.js';
 export type { SimulationFailure } from './result/simulation-result.js';
-export type { EnergyAudit } from './result/energy-audit.js';
+export type { EnergyAudit, TubeLosses } from './result/energy-audit.js';
 export type { ExportColumn, CsvOptions, ResultJson } from './result/export.js';
 // Analysis: metrics on sampled time series
 export type { WindowOptions, CycleOptions } from './analysis/metrics/series-options.js';

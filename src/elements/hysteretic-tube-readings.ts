@@ -46,27 +46,67 @@ export function hystereticTubeReadings(result: SimulationResult, tube: FluxTube)
   const b = compiled.description.tubes.findIndex((t) => t.name === tube.name);
   const compiledTube = b < 0 ? undefined : compiled.tubes[b];
   const model = compiledTube?.material;
-  if (compiledTube === undefined || model === undefined || compiledTube.stateOffset === undefined) {
-    throw new InputError(
-      'not-hysteretic',
-      `tube "${tube.name}" is not a hysteretic tube of this result's network; read its flux density instead, or give it a law of kind 'hysteretic'`,
-      [tube.name],
-    );
-  }
+  if (compiledTube === undefined || model === undefined || compiledTube.stateOffset === undefined) throw notHysteretic(tube);
   const s = compiledTube.stateOffset;
   const n = result.length;
   const magnetisation = new Float64Array(n);
   const fluxDensityRate = new Float64Array(n);
-  const residual = new Float64Array(n);
+  const fluxDensity = new Float64Array(n);
   const power = new Float64Array(n);
   for (let k = 0; k < n; k++) {
     const y = result.state(k);
     const flux = compiled.tubeFlux(y, b);
-    const bk = flux / compiledTube.area;
+    fluxDensity[k] = flux / compiledTube.area;
     magnetisation[k] = y[s]!;
     fluxDensityRate[k] = y[s + 1]!;
-    residual[k] = residualFluxDensity(model, bk, y[s]!, 1e-3);
     power[k] = compiledTube.lossPower!(flux, y);
   }
-  return { magnetisation, fluxDensityRate, residualFluxDensity: residual, hysteresisPower: power };
+  // The residual needs an integration per sample: computed on first use only.
+  let residual: Float64Array | undefined;
+  return {
+    magnetisation,
+    fluxDensityRate,
+    get residualFluxDensity(): Float64Array {
+      residual ??= fluxDensity.map((bk, k) => residualFluxDensity(model, bk, magnetisation[k]!, 1e-3));
+      return residual;
+    },
+    hysteresisPower: power,
+  };
+}
+
+/**
+ * Residual flux density of a hysteretic tube at the last sample of a result
+ * (where b would settle if H relaxed to zero from there), T; one integration
+ * instead of one per sample. Throws `not-hysteretic` as
+ * {@link hystereticTubeReadings} does.
+ *
+ * @example
+ * ```ts
+ * const br = residualFluxDensityAtEnd(result, core); // T
+ * ```
+ */
+export function residualFluxDensityAtEnd(result: SimulationResult, tube: FluxTube): number {
+  const { magnetisation, fluxDensity, model } = lastState(result, tube);
+  if (!Number.isFinite(fluxDensity) || !Number.isFinite(magnetisation)) return Number.NaN;
+  return residualFluxDensity(model, fluxDensity, magnetisation, 1e-3);
+}
+
+/** b and m of a hysteretic tube at the last sample. */
+function lastState(result: SimulationResult, tube: FluxTube) {
+  const compiled = compileNetwork(result.network);
+  const b = compiled.description.tubes.findIndex((t) => t.name === tube.name);
+  const compiledTube = b < 0 ? undefined : compiled.tubes[b];
+  const model = compiledTube?.material;
+  if (compiledTube === undefined || model === undefined || compiledTube.stateOffset === undefined) throw notHysteretic(tube);
+  if (result.length === 0) return { model, fluxDensity: Number.NaN, magnetisation: Number.NaN };
+  const y = result.state(result.length - 1);
+  return { model, fluxDensity: compiled.tubeFlux(y, b) / compiledTube.area, magnetisation: y[compiledTube.stateOffset]! };
+}
+
+function notHysteretic(tube: FluxTube): InputError {
+  return new InputError(
+    'not-hysteretic',
+    `tube "${tube.name}" is not a hysteretic tube of this result's network; read its flux density instead, or give it a law of kind 'hysteretic'`,
+    [tube.name],
+  );
 }

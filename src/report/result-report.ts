@@ -1,6 +1,8 @@
 import type { ListingParameter } from '../elements/element-kind.js';
 import { elementKind, tubeKind } from '../elements/registry.js';
 import { compileMaterial } from '../materials/material-spec.js';
+import { MU0 } from '../constants.js';
+import { residualFluxDensityAtEnd } from '../elements/hysteretic-tube-readings.js';
 import type { NetworkDescription, TubeDescription } from '../network/description.js';
 import type { ExportColumn } from '../result/export.js';
 import type { SimulationResult } from '../result/simulation-result.js';
@@ -122,7 +124,7 @@ function defaultPlots(
   handle: <K extends ExportColumn['handle']['kind']>(kind: K, name: string, index: number) => Extract<ExportColumn['handle'], { kind: K }>,
 ): ResultPlot[] {
   const plots: ResultPlot[] = [];
-  const tubes = d.tubes.flatMap((t, b) => (t.law.kind === 'material' ? [{ quantity: 'fluxDensity' as const, handle: handle('flux-tube', t.name, b) }] : []));
+  const tubes = d.tubes.flatMap((t, b) => (hasFluxDensityRow(t) ? [{ quantity: 'fluxDensity' as const, handle: handle('flux-tube', t.name, b) }] : []));
   if (tubes.length > 0) plots.push({ title: 'Flux density per tube', series: tubes });
   const windings = d.elements.flatMap((e, k) => (e.kind === 'winding' ? [{ quantity: 'current' as const, handle: handle('winding', e.name, k) }] : []));
   if (windings.length > 0) plots.push({ title: 'Winding currents', series: windings });
@@ -208,8 +210,14 @@ function plotGroup(r: SimulationResult, p: ResultPlot, time: { unit: string; sca
 }
 
 function saturationOf(t: TubeDescription): number | undefined {
+  if (t.law.kind === 'hysteretic') return t.law.material.saturationFluxDensity ?? MU0 * t.law.material.saturationMagnetisation;
   if (t.law.kind !== 'material') return undefined;
   return compileMaterial(t.law.material).saturationFluxDensity;
+}
+
+/** Tubes of a material (single-valued or hysteretic) get flux-density plots and rows. */
+function hasFluxDensityRow(t: TubeDescription): boolean {
+  return t.law.kind === 'material' || t.law.kind === 'hysteretic';
 }
 
 function standardMetrics(
@@ -219,7 +227,7 @@ function standardMetrics(
   const d = r.network;
   const peakAbs = (x: Float64Array): number => x.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
   const bRows: MetricRow[] = d.tubes.flatMap((t, b) => {
-    if (t.law.kind !== 'material') return [];
+    if (!hasFluxDensityRow(t)) return [];
     const peak = peakAbs(r.fluxDensity(handle('flux-tube', t.name, b)));
     const bs = saturationOf(t);
     const rows: MetricRow[] = [{ name: `peak |B| ${t.name}`, value: peak, unit: 'T' }];
@@ -228,6 +236,12 @@ function standardMetrics(
       rows.push({
         name: `margin to B_sat ${t.name}`, value: margin, unit: 'T', note: `B_sat = ${bs} T`,
         status: margin < 0 ? 'alert' : margin < 0.1 * bs ? 'warning' : 'ok',
+      });
+    }
+    if (t.law.kind === 'hysteretic') {
+      rows.push({
+        name: `residual B ${t.name}`, value: residualFluxDensityAtEnd(r, handle('flux-tube', t.name, b)), unit: 'T',
+        note: 'where B settles if H relaxes to zero from the last sample (remanence a re-energisation starts from)',
       });
     }
     return rows;
@@ -243,6 +257,7 @@ function standardMetrics(
     { name: 'dissipated (resistors, switches)', value: audit.dissipated.resistors, unit: 'J' },
     { name: 'dissipated (winding copper)', value: audit.dissipated.windings, unit: 'J' },
     { name: 'dissipated (eddy currents)', value: audit.dissipated.eddy, unit: 'J' },
+    ...(audit.byTube.some((t) => t.hysteresis > 0) ? [{ name: 'dissipated (hysteresis)', value: audit.dissipated.hysteresis, unit: 'J' }] : []),
     { name: 'stored energy change', value: audit.storedEnd - audit.storedStart, unit: 'J' },
     {
       name: 'energy audit relative error', value: audit.relativeError, digits: 2,
@@ -250,6 +265,14 @@ function standardMetrics(
       note: 'sources - losses - change of stored energy, over the energy exchanged',
     },
   ];
+  // Eddy loss of every tube with an eddy resistance, hysteresis loss beside it for hysteretic tubes.
+  const lossRows: MetricRow[] = audit.byTube.flatMap((t) => {
+    const tube = d.tubes.find((x) => x.name === t.tube);
+    const rows: MetricRow[] = [];
+    if (tube?.eddyResistance !== undefined && tube.eddyResistance > 0) rows.push({ name: `eddy loss ${t.tube}`, value: t.eddy, unit: 'J' });
+    if (tube?.law.kind === 'hysteretic') rows.push({ name: `hysteresis loss ${t.tube}`, value: t.hysteresis, unit: 'J', note: 'loop area x volume per cycle' });
+    return rows;
+  });
   const s = r.stats;
   const solverRows: MetricRow[] = [
     { name: 'accepted steps', value: s.acceptedSteps, digits: 15 },
@@ -262,6 +285,7 @@ function standardMetrics(
     ...(bRows.length ? [{ title: 'Flux density', rows: bRows }] : []),
     ...(iRows.length ? [{ title: 'Currents', rows: iRows }] : []),
     { title: 'Energy audit', rows: energyRows },
+    ...(lossRows.length ? [{ title: 'Losses per tube', rows: lossRows }] : []),
     { title: 'Solver', rows: solverRows },
   ];
 }

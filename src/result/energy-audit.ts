@@ -47,6 +47,29 @@ export interface EnergyAudit {
   readonly throughput: number;
   /** |imbalance| / max(throughput, dissipated.total, storedStart, storedEnd). */
   readonly relativeError: number;
+  /**
+   * Eddy and hysteresis loss of every tube that has either, J (the same
+   * quadrature as the totals; their sums are `dissipated.eddy` and
+   * `dissipated.hysteresis`).
+   */
+  readonly byTube: readonly TubeLosses[];
+}
+
+/**
+ * Losses of one flux tube over a run, J.
+ *
+ * @example
+ * ```ts
+ * const core: TubeLosses | undefined = result.energy().byTube.find((t) => t.tube === 'core');
+ * ```
+ */
+export interface TubeLosses {
+  /** The tube's name. */
+  readonly tube: string;
+  /** Eddy-current loss (R_e dphi/dt squared, integrated). */
+  readonly eddy: number;
+  /** Hysteresis loss (the tube's loss rate, integrated; loop area x volume per cycle). */
+  readonly hysteresis: number;
 }
 
 // 4-point Gauss-Legendre nodes and weights on [0, 1] (Abramowitz and Stegun, Handbook of
@@ -85,10 +108,15 @@ export function computeEnergyAudit(
   const storing = c.elements.filter((e) => e.storedEnergy !== undefined);
   const hysteretic = c.tubes.flatMap((t, b) => (t.lossPower !== undefined ? [b] : []));
   const slot: Record<LossCategory, number> = { resistors: 1, windings: 2, eddy: 3 };
+  // Per-tube entries follow the six totals: eddy then hysteresis of each lossy tube (not in the
+  // subdivision test, so the totals are integrated exactly as before).
+  const lossyTubes = c.tubes.flatMap((t, b) => (t.eddyResistance > 0 || t.lossPower !== undefined ? [b] : []));
+  const tubeSlot = new Map(lossyTubes.map((b, k) => [b, 6 + 2 * k]));
+  const width = 6 + 2 * lossyTubes.length;
 
-  /** [source, resistors, windings, eddy, |source|, hysteresis] power at (t, y), W. */
+  /** [source, resistors, windings, eddy, |source|, hysteresis, per-tube eddy and hysteresis...] power at (t, y), W. */
   const powers = (t: number, y: Float64Array): number[] => {
-    const p = [0, 0, 0, 0, 0, 0];
+    const p = new Array<number>(width).fill(0);
     for (const e of sources) {
       const w = e.sourcePower!(t, y, inputs, rates);
       p[0]! += w;
@@ -97,9 +125,15 @@ export function computeEnergyAudit(
     for (const e of lossy) p[slot[e.loss!.category]]! += e.loss!.power(t, y, inputs);
     for (const b of eddyTubes) {
       const dphi = fluxDerivative(b, y, t);
-      p[3]! += c.tubes[b]!.eddyResistance * dphi * dphi;
+      const w = c.tubes[b]!.eddyResistance * dphi * dphi;
+      p[3]! += w;
+      p[tubeSlot.get(b)!]! += w;
     }
-    for (const b of hysteretic) p[5]! += c.tubes[b]!.lossPower!(c.tubeFlux(y, b), y);
+    for (const b of hysteretic) {
+      const w = c.tubes[b]!.lossPower!(c.tubeFlux(y, b), y);
+      p[5]! += w;
+      p[tubeSlot.get(b)! + 1]! += w;
+    }
     return p;
   };
 
@@ -110,18 +144,18 @@ export function computeEnergyAudit(
     return w;
   };
 
-  const sum = [0, 0, 0, 0, 0, 0];
+  const sum = new Array<number>(width).fill(0);
   const y = new Float64Array(c.layout.size);
   /** 4-point Gauss-Legendre of the six power integrands over [a, b] of a step. */
   const gauss = (step: RecordedStep, a: number, b: number): number[] => {
-    const out = [0, 0, 0, 0, 0, 0];
+    const out = new Array<number>(width).fill(0);
     const h = b - a;
     for (let g = 0; g < 4; g++) {
       const t = a + NODES[g]! * h;
       evaluateRecordedStep(step, t, c.index2, y);
       run.project?.(t, y);
       const pw = powers(t, y);
-      for (let q = 0; q < 6; q++) out[q]! += WEIGHTS[g]! * h * pw[q]!;
+      for (let q = 0; q < width; q++) out[q]! += WEIGHTS[g]! * h * pw[q]!;
     }
     return out;
   };
@@ -132,8 +166,9 @@ export function computeEnergyAudit(
     const left = gauss(step, a, m);
     const right = gauss(step, m, b);
     const halves = left.map((x, q) => x + right[q]!);
-    const size = Math.max(...halves.map(Math.abs), Number.MIN_VALUE);
-    const change = Math.max(...halves.map((x, q) => Math.abs(x - whole[q]!)));
+    const totals = halves.slice(0, 6);
+    const size = Math.max(...totals.map(Math.abs), Number.MIN_VALUE);
+    const change = Math.max(...totals.map((x, q) => Math.abs(x - whole[q]!)));
     panels += 2;
     // Stop on agreement, at the depth limit, when the work budget is spent, or on non-finite values
     // (a run that failed towards overflow: no subdivision makes those agree).
@@ -149,11 +184,12 @@ export function computeEnergyAudit(
     if (step.t - step.tOld <= 0) continue;
     // The inputs recorded for the step's interval, for this step only (a live run keeps its own).
     const part = c.inputs.during(run.intervals[step.interval]!, () => adaptive(step, step.tOld, step.t, gauss(step, step.tOld, step.t), 0));
-    for (let q = 0; q < 6; q++) sum[q]! += part[q]!;
+    for (let q = 0; q < width; q++) sum[q]! += part[q]!;
   }
   const storedStart = run.start ? stored(run.start) : 0;
   const storedEnd = run.end ? stored(run.end) : 0;
   const [sourceEnergy, resistors, windings, eddy, throughput, hysteresis] = sum as [number, number, number, number, number, number];
+  const byTube = lossyTubes.map((b, k) => ({ tube: c.tubes[b]!.name, eddy: sum[6 + 2 * k]!, hysteresis: sum[7 + 2 * k]! }));
   const total = resistors + windings + eddy + hysteresis;
   const imbalance = sourceEnergy - total - (storedEnd - storedStart);
   const scale = Math.max(throughput, total, Math.abs(storedStart), Math.abs(storedEnd), Number.MIN_VALUE);
@@ -165,5 +201,6 @@ export function computeEnergyAudit(
     imbalance,
     throughput,
     relativeError: Math.abs(imbalance) / scale,
+    byTube,
   };
 }

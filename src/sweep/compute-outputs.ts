@@ -2,6 +2,7 @@ import { cycleMeans } from '../analysis/metrics/cycle-means.js';
 import { seriesMean } from '../analysis/metrics/series-mean.js';
 import { seriesPeak } from '../analysis/metrics/series-peak.js';
 import { seriesRms } from '../analysis/metrics/series-rms.js';
+import { hystereticTubeReadings } from '../elements/hysteretic-tube-readings.js';
 import type { DescriptionHandles } from '../network/handles-of.js';
 import type { SimulationResult } from '../result/simulation-result.js';
 import { outputName, outputTargetName } from './parse-sweep-job.js';
@@ -21,6 +22,10 @@ function readQuantity(result: SimulationResult, h: DescriptionHandles, o: SweepO
       return result.mmf(h.tube(name));
     case 'eddyPower':
       return result.eddyPower(h.tube(name));
+    case 'residualFluxDensity':
+      return hystereticTubeReadings(result, h.tube(name)).residualFluxDensity;
+    case 'hysteresisPower':
+      return hystereticTubeReadings(result, h.tube(name)).hysteresisPower;
     case 'current':
       return result.current(h.element(name));
     case 'voltage':

@@ -42,7 +42,7 @@ const outputTarget = z
 
 /** Quantities a sweep output may read. @internal */
 export const SWEEP_QUANTITIES = [
-  'flux', 'fluxDensity', 'fieldStrength', 'mmf', 'eddyPower',
+  'flux', 'fluxDensity', 'fieldStrength', 'mmf', 'eddyPower', 'residualFluxDensity', 'hysteresisPower',
   'current', 'voltage', 'power', 'emf', 'fluxLinkage', 'potential', 'magneticPotential',
 ] as const;
 

@@ -14,6 +14,8 @@ const QUANTITY_HOLDERS: Readonly<Record<SweepQuantity, 'tube' | 'element' | 'win
   fieldStrength: 'tube',
   mmf: 'tube',
   eddyPower: 'tube',
+  residualFluxDensity: 'tube',
+  hysteresisPower: 'tube',
   current: 'element',
   voltage: 'element',
   power: 'element',
@@ -67,6 +69,9 @@ function checkOutputs(job: SweepJob): void {
     const tube = holder === 'tube' ? d.tubes.find((x) => x.name === target) : undefined;
     if (tube && o.quantity === 'fluxDensity' && tube.law.kind === 'reluctance' && tube.law.area === undefined) {
       throw jobError('sweep-bad-output', `${field}.quantity`, `tube "${target}" is a reluctance without an area, so it has no flux density; read its "flux" or give it an area`, [target]);
+    }
+    if (tube && (o.quantity === 'residualFluxDensity' || o.quantity === 'hysteresisPower') && tube.law.kind !== 'hysteretic') {
+      throw jobError('sweep-bad-output', `${field}.quantity`, `tube "${target}" is not hysteretic (law kind "${tube.law.kind}"), so it has no "${o.quantity}"; read its "fluxDensity" or "eddyPower"`, [target]);
     }
     if (tube && o.quantity === 'fieldStrength' && tube.law.kind === 'reluctance') {
       throw jobError('sweep-bad-output', `${field}.quantity`, `tube "${target}" is a reluctance without a length, so it has no field strength; read its "mmf"`, [target]);

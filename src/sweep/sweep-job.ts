@@ -101,7 +101,9 @@ export type SweepOutputTarget =
 /**
  * Quantities a sweep output can read, named like the `SimulationResult`
  * accessors. Tubes: `flux`, `fluxDensity`, `fieldStrength`, `mmf`,
- * `eddyPower`; elements and windings: `current`, `voltage`, `power`;
+ * `eddyPower`; hysteretic tubes also `residualFluxDensity` (T, where b
+ * settles if H relaxes to zero from each sample) and `hysteresisPower` (W;
+ * its cycle mean x period is the loss per cycle); elements and windings: `current`, `voltage`, `power`;
  * windings only: `emf`, `fluxLinkage`; electric nodes: `potential`;
  * magnetic nodes: `magneticPotential`.
  *
@@ -111,7 +113,7 @@ export type SweepOutputTarget =
  * ```
  */
 export type SweepQuantity =
-  | 'flux' | 'fluxDensity' | 'fieldStrength' | 'mmf' | 'eddyPower'
+  | 'flux' | 'fluxDensity' | 'fieldStrength' | 'mmf' | 'eddyPower' | 'residualFluxDensity' | 'hysteresisPower'
   | 'current' | 'voltage' | 'power'
   | 'emf' | 'fluxLinkage'
   | 'potential' | 'magneticPotential';
