@@ -167,7 +167,9 @@ describe('hysteretic reactor discharged through a large resistance after switch-
 
   it('known defect, pinned: 1 Mohm opened at the flux peak still stops with newton-failure (reported, finite, never success)', () => {
     // Relaxation time about 1e-9 s: the run stops a few microseconds after the opening, after the flux
-    // has already settled. The failure is reported with its status and the components; nothing is hidden.
+    // has already settled. There u = -kappa H with kappa = R l / (N^2 A) = 7500 T/s per A/m, and H = b/mu0 - m
+    // carries about 1e-10 A/m of round-off: u is known only to about the 1e-6 T/s asked for, and the Newton
+    // iteration stalls on noise. The failure is reported with its status; nothing is hidden.
     const s = run(1e6, 0.045);
     console.log(`1 Mohm: ${s.status} at t = ${s.t.at(-1)}: ${s.message.slice(0, 120)}`);
     expect(s.status).toBe('newton-failure');
