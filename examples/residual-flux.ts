@@ -20,7 +20,7 @@
 import {
   createNetwork,
   demoHystereticMaterials,
-  hystereticTubeReadings,
+  residualFluxDensityAtEnd,
   simulate,
   sine,
   type FluxTube,
@@ -74,14 +74,19 @@ function peakCurrent(core: Core, stopTime: number, from: number): number {
 // Switch-off at three instants of the third cycle (voltage cos: flux peaks at 45 ms).
 console.log('switch-off    residual flux density per tube (T)');
 console.log(`instant       ${['wound leg', 'top yoke', 'return leg', 'bottom yoke'].map((n) => n.padStart(12)).join('')}`);
+const losses: string[] = [];
 for (const tOpen of [0.045, 0.0475, 0.05]) {
   const core = build(Math.PI / 2, [{ time: tOpen, closed: false }]);
   const r = simulate(core.net, { stopTime: 0.09, rtol: 1e-7, sampling: { times: [0.09] } });
   if (r.status !== 'success') throw new Error(`run failed: ${r.message}`);
-  const last = r.length - 1;
-  const residuals = core.tubes.map((t) => hystereticTubeReadings(r, t).residualFluxDensity[last]!);
+  const residuals = core.tubes.map((t) => residualFluxDensityAtEnd(r, t));
   console.log(`${(tOpen * 1e3).toFixed(1).padStart(6)} ms  ${residuals.map((b) => b.toFixed(4).padStart(12)).join('')}`);
+  // Loop loss per tube from the energy audit, beside the eddy loss (0 to 90 ms).
+  const byTube = r.energy().byTube.map((t) => `${(t.hysteresis * 1e3).toFixed(1)}/${(t.eddy * 1e3).toFixed(2)}`);
+  losses.push(`${(tOpen * 1e3).toFixed(1).padStart(6)} ms  ${byTube.map((x) => x.padStart(12)).join('')}`);
 }
+console.log('hysteresis/eddy loss per tube to 90 ms (mJ):');
+for (const line of losses) console.log(line);
 
 // Energised at a voltage peak (cos) and opened at the flux peak (45 ms, residual about +Br); closed again
 // at an instant in the sixth cycle where the voltage angle (after a rising zero) is `degrees`.
