@@ -6,6 +6,7 @@ import { inverseJilesAtherton } from '../../src/materials/hysteresis/inverse-jil
 import { magnetisationRate } from '../../src/materials/hysteresis/magnetisation-rate.js';
 import { residualFluxDensity } from '../../src/materials/hysteresis/residual-flux-density.js';
 import { hystereticTubeReadings } from '../../src/elements/hysteretic-tube-readings.js';
+import { suggestedEddyCeiling } from '../../src/elements/hysteretic-tube.js';
 import { Solver } from '../support/odex.js';
 
 // Parameter set attributed to Jiles and Atherton 1986 (REFERENCES.md section 5, read secondary).
@@ -225,6 +226,34 @@ describe('hysteretic tube in a network', () => {
       expect(String(e)).toMatch(/at most 0\.63 ohm/);
     }
     expect(code).toBe('hysteretic-tube-needs-eddy');
+  });
+
+  it('runs alike with eddy resistances from 1e-6 of the suggested ceiling up to the ceiling (the sizes the error message names)', () => {
+    // Ceiling 0.01 l k / (omega B_sat A) for these tubes (l = 0.15 m, A = 1e-3 m^2, k = 400 A/m).
+    const ceiling = suggestedEddyCeiling({ kind: 'hysteretic', length: LENGTH / 2, area: AREA, material: JA });
+    expect(ceiling).toBeCloseTo(0.95, 2);
+    const runs = [1e-6, 1e-3, 1].map((fraction) => {
+      const net = createNetwork('eddy size');
+      net.magneticNode('a');
+      net.magneticNode('b');
+      const law = { kind: 'hysteretic' as const, length: LENGTH / 2, area: AREA, material: JA };
+      const leg = net.tube({ name: 'leg', from: 0, to: 1, eddyResistance: fraction * ceiling, law });
+      net.tube({ name: 'yoke', from: 1, to: 0, eddyResistance: fraction * ceiling, law });
+      const line = net.node('line');
+      const coil = net.node('coil');
+      net.voltageSource('supply', line, net.ground, sine({ amplitude: AMPLITUDE, frequency: 50, phase: Math.PI / 2 }));
+      net.switch('breaker', line, coil, { onResistance: ON, offResistance: OFF, closed: true, schedule: [{ time: 0.045, closed: false }] });
+      net.resistor('discharge', coil, net.ground, R_DISCHARGE);
+      net.winding('coil', { tube: leg, turns: TURNS, resistance: R_WINDING, plus: coil, minus: net.ground });
+      const r = simulate(net, { stopTime: 0.07 });
+      expect(r.status).toBe('success');
+      const audit = r.energy();
+      return { b: r.fluxDensity(leg).at(-1)!, eddy: audit.dissipated.eddy, hysteresis: audit.dissipated.hysteresis };
+    });
+    console.log(`eddy 1e-6 / 1e-3 / 1 x ceiling: residual ${runs.map((x) => x.b.toFixed(6)).join(' / ')} T, eddy/hysteresis loss ${runs.map((x) => (x.eddy / x.hysteresis).toExponential(1)).join(' / ')}`);
+    for (const run of runs) expect(Math.abs(run.b - runs[0]!.b)).toBeLessThan(1e-5);
+    // At the ceiling the eddy loss stays near 1 % of the loop loss (measured 1.3 %).
+    expect(runs[2]!.eddy / runs[2]!.hysteresis).toBeLessThan(0.02);
   });
 
   it("reads no hysteresis from a tube of another kind: 'not-hysteretic'", () => {
