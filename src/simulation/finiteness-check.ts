@@ -76,10 +76,11 @@ export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array
     },
   };
   // Built on the first state that needs them (most runs never do).
-  let checks: { readonly quantity: string; readonly name: string; readonly fn: StateFunction }[] | undefined;
-  const build = (): typeof checks => {
+  type Check = { readonly quantity: string; readonly name: string; readonly fn: StateFunction };
+  let checks: Check[] | undefined;
+  const build = (): Check[] => {
     const reader = new StateReader(once, undefined);
-    const list: NonNullable<typeof checks> = [];
+    const list: Check[] = [];
     for (const request of everyRequest(c)) {
       try {
         list.push({ quantity: request.quantity, name: request.handle.name, fn: reader.build(request) });
@@ -97,8 +98,8 @@ export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array
     } else {
       fresh = false;
     }
-    checks ??= build();
-    for (const check of checks) {
+    const list = (checks ??= build());
+    for (const check of list) {
       const value = check.fn(y, t);
       if (!Number.isFinite(value)) return { quantity: check.quantity, name: check.name, value };
     }

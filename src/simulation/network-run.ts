@@ -457,8 +457,9 @@ export class NetworkRun {
     return last !== undefined && last.interval !== this.intervals.length - 1;
   }
 
+  /** Keep a sample; y becomes the sample's own (every caller passes a fresh array). */
   private pushSample(t: number, y: Float64Array): void {
-    this.samples.push({ t, y: Float64Array.from(y), interval: this.intervals.length - 1 });
+    this.samples.push({ t, y, interval: this.intervals.length - 1 });
   }
 
   /** Record a sample after the finiteness check; false when the check stopped the run. */

@@ -34,6 +34,10 @@ import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm
 
 /** The events of a step without events (shared, frozen: steps without events allocate no array). */
 const NO_EVENTS: readonly DaeEventRecord[] = Object.freeze([]);
+/** The outcome of a plain accepted step (shared, frozen: such a step allocates no result). */
+const ACCEPTED: DaeStepResult = Object.freeze({ status: 'accepted', events: NO_EVENTS });
+/** No components to name (shared; never written). */
+const NO_COMPONENTS: number[] = [];
 
 /**
  * When atol does not follow rtol it is mapped as radau5 maps it at this rtol
@@ -319,6 +323,8 @@ class RadauIntegrator implements DaeIntegrator {
   private first = true;
   private extrapolate = false;
   private jac: Float64Array;
+  /** A fresh Jacobian at a cheap restart, compared with the held one before it replaces it. */
+  private readonly jacScratch: Float64Array;
   private jacValid = false;
   private jacCurrent = false;
   private luH = NaN;
@@ -448,6 +454,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.derivativeWork = createDerivativeWork(n);
     }
     this.jac = new Float64Array(n * n);
+    this.jacScratch = new Float64Array(n * n);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
 
@@ -573,8 +580,7 @@ class RadauIntegrator implements DaeIntegrator {
       // conductance by nine orders of magnitude), and a stale one both slows the algebraic re-solve and,
       // worse, filters the first steps' error estimates through the wrong matrix, so that they accept
       // wrong steps (an energy audit off by 5 % across a switch-off was measured with the kept one).
-      this.jacValid = false;
-      this.ensureJacobian();
+      this.refreshJacobianKeepingEqual();
       let yp: Float64Array | undefined;
       if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
         const solver = this.algebraic!;
@@ -876,8 +882,8 @@ class RadauIntegrator implements DaeIntegrator {
     }
   }
 
-  /** Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J. Returns the bad pivot or -1. */
-  private factorIterationMatrices(h: number): { real: number; complex: number } {
+  /** Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J. Returns the bad pivot (real system first) or -1. */
+  private factorIterationMatrices(h: number): number {
     const n = this.n;
     const fac1 = MU_REAL / h;
     const alphn = MU_COMPLEX_RE / h;
@@ -915,13 +921,43 @@ class RadauIntegrator implements DaeIntegrator {
     this.statsCur.luFactorizations++;
     try {
       const real = this.luReal.factor(e1);
-      const complex = real >= 0 ? -1 : this.luComplex.factor(e2r, e2i);
-      return { real, complex };
+      return real >= 0 ? real : this.luComplex.factor(e2r, e2i);
     } catch (e) {
       // The sparse kernels refuse an entry outside the declared pattern rather than drop it.
       if (e instanceof RangeError && this.p.iterationPattern) throw new UserCodeError(e, 'the Jacobian (an entry outside jacobianPattern)', this.tCur);
       throw e;
     }
+  }
+
+  /**
+   * Evaluate J afresh at the present state; when it equals the one held
+   * entry for entry (a linear network whose inputs jumped), keep the held
+   * one with its version, so the LU factors of the iteration matrices and of
+   * the algebraic block stay valid (the same matrices, factored again, would
+   * give the same factors).
+   */
+  private refreshJacobianKeepingEqual(): void {
+    if (!this.jacValid) {
+      this.ensureJacobian();
+      return;
+    }
+    const fresh = this.jacScratch;
+    this.jacValid = false;
+    this.callJacobian(this.tCur, this.yCur, this.fCur, fresh);
+    const J = this.jac;
+    let same = true;
+    for (let k = 0; k < fresh.length; k++) {
+      if (fresh[k] !== J[k]) {
+        same = false;
+        break;
+      }
+    }
+    this.jacValid = true;
+    this.jacCurrent = true;
+    if (same) return;
+    J.set(fresh);
+    this.jacVersion++;
+    this.luH = NaN;
   }
 
   private ensureJacobian(): void {
@@ -977,8 +1013,8 @@ class RadauIntegrator implements DaeIntegrator {
     let singularCount = 0;
     let newtonFailCount = 0;
     let lastNonFinite: number[] | undefined;
-    let lastNewtonComponents: number[] = [];
-    let lastErrorComponents: number[] = [];
+    let lastNewtonComponents: number[] = NO_COMPONENTS;
+    let lastErrorComponents: number[] = NO_COMPONENTS;
     const hMin = 10 * UROUND * Math.max(Math.abs(t), 1e-10 * (p.tEnd - p.t0));
 
     for (;;) {
@@ -1004,8 +1040,7 @@ class RadauIntegrator implements DaeIntegrator {
       if (h !== this.luH) {
         // The LU is rebuilt for a new h; the Jacobian is refreshed only when it is missing.
         if (!this.jacValid) this.ensureJacobian();
-        const bad = this.factorIterationMatrices(h);
-        const pivot = bad.real >= 0 ? bad.real : bad.complex;
+        const pivot = this.factorIterationMatrices(h);
         if (pivot >= 0) {
           singularCount++;
           if (singularCount >= MAX_SINGULAR_RETRIES) {
@@ -1183,7 +1218,8 @@ class RadauIntegrator implements DaeIntegrator {
       this.messageCur = `terminal event "${events[events.length - 1]!.name}" at t = ${this.tCur}`;
       return jumpFrom ? { status: 'terminal-event', events, jumpFrom } : { status: 'terminal-event', events };
     }
-    return jumpFrom ? { status: 'accepted', events, jumpFrom } : { status: 'accepted', events };
+    if (jumpFrom) return { status: 'accepted', events, jumpFrom };
+    return events === NO_EVENTS ? ACCEPTED : { status: 'accepted', events };
   }
 
   /**
