@@ -351,7 +351,11 @@ class RadauIntegrator implements DaeIntegrator {
   private cheapRestartUnproven = false;
   private cheapRestartCap = false;
   private readonly stepWork: { scale: Float64Array; y1: Float64Array; f1: Float64Array };
-  private interp: DaeStepInterpolant | undefined;
+  /** The last step's polynomial in buffers reused from step to step (meaningful while hasPiece). */
+  private readonly piece: { tOld: number; t: number; h: number; readonly yOld: Float64Array; readonly q: Float64Array };
+  private hasPiece = false;
+  /** The public copy of the piece ({@link DaeIntegrator.interpolant}), made on the first request after a step. */
+  private pieceCopy: DaeStepInterpolant | undefined;
   private eventValues: Float64Array;
   private readonly statsCur: SolverStats = emptyStats();
   private statusCur: 'running' | DaeStatus = 'running';
@@ -453,6 +457,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.algebraic = createAlgebraicSolver(n, this.spaces.k);
       this.derivativeWork = createDerivativeWork(n);
     }
+    this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: new Float64Array(n), q: new Float64Array(3 * n) };
     this.jac = new Float64Array(n * n);
     this.jacScratch = new Float64Array(n * n);
     this.eventValues = new Float64Array(p.events.length);
@@ -497,7 +502,8 @@ class RadauIntegrator implements DaeIntegrator {
     return this.adjustedCur;
   }
   get interpolant(): DaeStepInterpolant | undefined {
-    return this.interp;
+    if (!this.hasPiece) return undefined;
+    return (this.pieceCopy ??= copyPiece(this.piece));
   }
 
   step(tStop?: number): DaeStepResult {
@@ -547,7 +553,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.failureCur = undefined;
     this.pendingError = undefined;
     this.pendingFailure = undefined;
-    this.interp = undefined;
+    this.forgetPiece();
     const capByEstimate = options.capStepByEstimate ?? false;
     this.cheapRestartUnproven = false;
     if (y === undefined && healthy && this.restartCheaply(capByEstimate)) {
@@ -628,8 +634,12 @@ class RadauIntegrator implements DaeIntegrator {
     return false;
   }
 
+  private forgetPiece(): void {
+    this.hasPiece = false;
+    this.pieceCopy = undefined;
+  }
+
   snapshot(): DaeIntegratorSnapshot {
-    const it = this.interp;
     return {
       t: this.tCur,
       y: Float64Array.from(this.yCur),
@@ -642,7 +652,7 @@ class RadauIntegrator implements DaeIntegrator {
       extrapolate: this.extrapolate,
       jacobian: this.jacValid ? Float64Array.from(this.jac) : undefined,
       jacobianCurrent: this.jacCurrent,
-      interpolant: it && { tOld: it.tOld, t: it.t, h: it.h, yOld: Float64Array.from(it.yOld), q: Float64Array.from(it.q) },
+      interpolant: this.hasPiece ? copyPiece(this.piece) : undefined,
       eventValues: Float64Array.from(this.eventValues),
       stats: { ...this.statsCur },
     };
@@ -673,7 +683,16 @@ class RadauIntegrator implements DaeIntegrator {
     }
     this.luH = NaN;
     const it = s.interpolant;
-    this.interp = it && { tOld: it.tOld, t: it.t, h: it.h, yOld: Float64Array.from(it.yOld), q: Float64Array.from(it.q) };
+    this.forgetPiece();
+    if (it) {
+      const piece = this.piece;
+      piece.tOld = it.tOld;
+      piece.t = it.t;
+      piece.h = it.h;
+      piece.yOld.set(it.yOld);
+      piece.q.set(it.q);
+      this.hasPiece = true;
+    }
     this.eventValues = Float64Array.from(s.eventValues);
     Object.assign(this.statsCur, s.stats); // the same object: the Newton kernel counts into it
     this.pendingError = undefined;
@@ -685,7 +704,7 @@ class RadauIntegrator implements DaeIntegrator {
 
   interpolate(t: number, out?: Float64Array): Float64Array {
     const res = out ?? new Float64Array(this.n);
-    const it = this.interp;
+    const it = this.hasPiece ? this.piece : undefined;
     if (!it) {
       if (t === this.tCur) {
         res.set(this.yCur);
@@ -1142,8 +1161,8 @@ class RadauIntegrator implements DaeIntegrator {
     const n = this.n;
     const z = this.work.z;
     const y = this.yCur;
-    const it = this.interp;
-    if (this.extrapolate && it) {
+    if (this.extrapolate && this.hasPiece) {
+      const it = this.piece;
       const u = this.errorWork.ez;
       for (let s = 0; s < 3; s++) {
         evaluateCollocation(it, t + (s === 0 ? C1 : s === 1 ? C2 : 1) * h, u);
@@ -1175,14 +1194,19 @@ class RadauIntegrator implements DaeIntegrator {
     this.errAcc = Math.max(1e-2, err);
     this.statsCur.acceptedSteps++;
 
-    // Dense output coefficients Q = Z^T P, before z is reused.
-    const q = new Float64Array(3 * n);
+    // Dense output coefficients Q = Z^T P, before z is reused (into the reused piece buffers).
+    const piece = this.piece;
+    const q = piece.q;
     for (let k = 0; k < 3; k++) {
       for (let i = 0; i < n; i++) q[k * n + i] = z[i]! * P[k]! + z[n + i]! * P[3 + k]! + z[2 * n + i]! * P[6 + k]!;
     }
-    const yOld = Float64Array.from(y);
+    piece.yOld.set(y);
     for (let i = 0; i < n; i++) y[i] = y[i]! + z[2 * n + i]!;
-    this.interp = { tOld: t, t: tNew, h, yOld, q };
+    piece.tOld = t;
+    piece.t = tNew;
+    piece.h = h;
+    this.hasPiece = true;
+    this.pieceCopy = undefined;
     this.tCur = tNew;
     this.first = false;
     this.extrapolate = true;
@@ -1269,7 +1293,7 @@ class RadauIntegrator implements DaeIntegrator {
     const evs = p.events;
     const gNew = new Float64Array(evs.length);
     this.evaluateEventsAt(tNew, this.yCur, gNew);
-    const it = this.interp!;
+    const it = this.piece;
     const yb = new Float64Array(this.n);
     const found: { index: number; t: number }[] = [];
     for (let e = 0; e < evs.length; e++) {
@@ -1310,7 +1334,8 @@ class RadauIntegrator implements DaeIntegrator {
       if (last.t < tNew) {
         this.tCur = last.t;
         this.yCur.set(last.y);
-        this.interp = { ...it, t: last.t };
+        it.t = last.t;
+        this.pieceCopy = undefined;
         this.callRhs(this.tCur, this.yCur, this.fCur);
         this.jacCurrent = false;
         if (this.statusCur === 'success') this.statusCur = 'running';
@@ -1322,6 +1347,11 @@ class RadauIntegrator implements DaeIntegrator {
     }
     return { events: records, terminal };
   }
+}
+
+/** A step's polynomial with arrays of its own (the public, immutable form). */
+function copyPiece(p: DaeStepInterpolant): DaeStepInterpolant {
+  return { tOld: p.tOld, t: p.t, h: p.h, yOld: Float64Array.from(p.yOld), q: Float64Array.from(p.q) };
 }
 
 /**
