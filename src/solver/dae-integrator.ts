@@ -475,7 +475,7 @@ class RadauIntegrator implements DaeIntegrator {
     return this.tCur;
   }
   get y(): Float64Array {
-    return Float64Array.from(this.yCur);
+    return this.yCur.slice();
   }
   get h(): number {
     return this.hCur;
@@ -642,8 +642,8 @@ class RadauIntegrator implements DaeIntegrator {
   snapshot(): DaeIntegratorSnapshot {
     return {
       t: this.tCur,
-      y: Float64Array.from(this.yCur),
-      f: Float64Array.from(this.fCur),
+      y: this.yCur.slice(),
+      f: this.fCur.slice(),
       h: this.hCur,
       hAcc: this.hAcc,
       errAcc: this.errAcc,
@@ -1257,7 +1257,7 @@ class RadauIntegrator implements DaeIntegrator {
     const y = this.yCur;
     this.restartHistory();
     if (!(this.spaces && this.spaces.k > 0 && p.consistentInit && !this.pendingError)) return undefined;
-    const before = Float64Array.from(y);
+    const before = y.slice();
     const res = makeConsistent(this.consistencyContext(), tNew, y);
     if (!res.ok) {
       y.set(before);
@@ -1351,7 +1351,7 @@ class RadauIntegrator implements DaeIntegrator {
 
 /** A step's polynomial with arrays of its own (the public, immutable form). */
 function copyPiece(p: DaeStepInterpolant): DaeStepInterpolant {
-  return { tOld: p.tOld, t: p.t, h: p.h, yOld: Float64Array.from(p.yOld), q: Float64Array.from(p.q) };
+  return { tOld: p.tOld, t: p.t, h: p.h, yOld: p.yOld.slice(), q: p.q.slice() };
 }
 
 /**
