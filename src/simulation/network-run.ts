@@ -129,6 +129,8 @@ export class NetworkRun {
   /** Events located so far. */
   readonly events: DaeEventRecord[] = [];
   private inputsChanged = false;
+  /** False once a step was recorded without keeping its interpolant (streaming: only samples kept). */
+  private everyStepKept = true;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
   private pendingStartSample: number | undefined;
   /** The state at the start of the run (after initialisation; index-2 values from the first step). */
@@ -197,6 +199,11 @@ export class NetworkRun {
     // The integrator initialised at t0 with the inputs of no interval yet; redo it on the right side.
     this.startInterval(settings.t0);
     this.statusCur = this.integ.status;
+  }
+
+  /** Whether every step's interpolant so far is in {@link NetworkRun.steps} (false once a step was streamed past). */
+  get keptEveryStep(): boolean {
+    return this.everyStepKept;
   }
 
   /** Present time, s: the end of the last step kept. */
@@ -447,8 +454,12 @@ export class NetworkRun {
     }
     this.pendingStartSample = undefined;
     this.startStatePending = false;
+    // Streaming: without interpolants only the step in hand is kept (the samples inside it are taken from it).
     if (record.interpolants) this.steps.push(step);
-    else this.steps.splice(0, this.steps.length, step);
+    else {
+      this.everyStepKept = false;
+      this.steps.splice(0, this.steps.length, step);
+    }
     return step;
   }
 
