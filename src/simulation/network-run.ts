@@ -131,6 +131,8 @@ export class NetworkRun {
   private inputsChanged = false;
   /** False once a step was recorded without keeping its interpolant (streaming: only samples kept). */
   private everyStepKept = true;
+  /** What replaces an interval no sample refers to when streaming (see releaseUnreferencedInterval). */
+  private standIn: InputsInForce | undefined;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
   private pendingStartSample: number | undefined;
   /** The state at the start of the run (after initialisation; index-2 values from the first step). */
@@ -407,12 +409,28 @@ export class NetworkRun {
    */
   private startInterval(t: number): 'running' | DaeStatus {
     this.live = openInterval(this.schedule, t, this.horizon, this.span);
+    this.releaseUnreferencedInterval();
     this.intervals.push(this.live);
     this.compiled.inputs.use(this.live);
     this.statusCur = this.integ.restart(undefined, { capStepByEstimate: true });
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     this.restartPending = true;
     return this.statusCur;
+  }
+
+  /**
+   * Streaming (steps not kept): the interval that just ended gives way to one
+   * shared stand-in when no sample refers to it, so a long run on a coarse
+   * grid holds inputs in proportion to its samples, not to its edges. Only
+   * samples and kept steps read intervals, by index; the stand-in (no sides)
+   * is never read.
+   */
+  private releaseUnreferencedInterval(): void {
+    const k = this.intervals.length - 1;
+    if (this.everyStepKept || k < 0) return;
+    const last = this.samples[this.samples.length - 1];
+    if (last !== undefined && last.interval === k) return;
+    this.intervals[k] = this.standIn ??= new InputsInForce(this.schedule, NaN, NaN, NaN, NaN);
   }
 
   /** State at the start of the run, after consistent initialisation (undefined before the first advance). */
