@@ -4,6 +4,7 @@ import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } f
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { createProjector } from './projection.js';
+import { Float64Chunks } from './float64-chunks.js';
 import type { InputView } from '../elements/element-kind.js';
 import { DenseStampTarget } from '../elements/stamp-target.js';
 import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
@@ -133,6 +134,11 @@ export class NetworkRun {
   private everyStepKept = true;
   /** What replaces an interval no sample refers to when streaming (see releaseUnreferencedInterval). */
   private standIn: InputsInForce | undefined;
+  /** Storage of kept states and step polynomials: views into chunks, not a typed array each. */
+  private readonly chunks = new Float64Chunks();
+  private readonly take = (length: number): Float64Array => this.chunks.take(length);
+  /** A state checked but not kept. */
+  private readonly scratch: Float64Array;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
   private pendingStartSample: number | undefined;
   /** The state at the start of the run (after initialisation; index-2 values from the first step). */
@@ -164,6 +170,7 @@ export class NetworkRun {
   constructor(compiled: CompiledNetwork, settings: RunSettings) {
     this.compiled = compiled;
     this.index2 = compiled.index2;
+    this.scratch = new Float64Array(compiled.layout.size);
     this.horizon = settings.horizon;
     this.span = settings.horizon - settings.t0;
     this.check = settings.check;
@@ -322,7 +329,7 @@ export class NetworkRun {
         // Samples inside the step first (time order), then the step's end.
         while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
-          const y = evaluateRecordedStep(step, ts, this.index2);
+          const y = evaluateRecordedStep(step, ts, this.index2, this.sampleArray(record));
           // An input that throws here (a user function failing exactly at a sampling instant) ends the run as 'rhs-error'.
           try {
             this.projector(ts, y, this.live);
@@ -335,8 +342,8 @@ export class NetworkRun {
         const endIsSample = nextSample < samples.length && samples[nextSample] === this.t;
         if (endIsSample) nextSample++;
         if (record.steps || endIsSample) {
-          if (!this.pushChecked(this.t, this.integ.y, step, kept)) return this.statusCur;
-        } else if (record.interpolants && !this.checked(this.t, this.integ.y, step, kept)) {
+          if (!this.pushChecked(this.t, this.integ.readState(this.sampleArray(record)), step, kept)) return this.statusCur;
+        } else if (record.interpolants && !this.checked(this.t, this.integ.readState(this.scratch), step, kept)) {
           return this.statusCur;
         }
         this.endState = undefined;
@@ -446,7 +453,7 @@ export class NetworkRun {
       this.startStatePending = true;
     }
     if (record.steps || (record.sampleTimes ?? []).includes(this.t)) {
-      this.pushSample(this.t, this.integ.y);
+      this.pushSample(this.t, this.integ.readState(this.sampleArray(record)));
       this.pendingStartSample = this.samples.length - 1;
     } else {
       this.pendingStartSample = undefined;
@@ -454,7 +461,7 @@ export class NetworkRun {
   }
 
   private recordStep(record: RecordOptions): RecordedStep {
-    const it = this.integ.interpolant!;
+    const it = this.integ.copyInterpolant(this.take)!;
     const first = this.steps.length === 0 || this.steps[this.steps.length - 1]!.t !== it.tOld || this.lastStepEndedInterval();
     const step: RecordedStep = {
       tOld: it.tOld, t: it.t, h: it.h, yOld: it.yOld, q: it.q,
@@ -484,6 +491,17 @@ export class NetworkRun {
   private lastStepEndedInterval(): boolean {
     const last = this.steps[this.steps.length - 1];
     return last !== undefined && last.interval !== this.intervals.length - 1;
+  }
+
+  /**
+   * The array for a sample to keep: a chunk view when samples come with every
+   * step or every step is kept (many, kept together); an array of its own
+   * when streaming on a grid (few, far apart: a view would keep its whole
+   * chunk alive).
+   */
+  private sampleArray(record: RecordOptions): Float64Array {
+    const n = this.scratch.length;
+    return record.steps || record.interpolants ? this.chunks.take(n) : new Float64Array(n);
   }
 
   /** Keep a sample; y becomes the sample's own (every caller passes a fresh array). */

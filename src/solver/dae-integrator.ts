@@ -210,6 +210,14 @@ export interface DaeIntegrator {
   restore(snapshot: DaeIntegratorSnapshot): void;
   /** State at time t within the last step [tOld, t] from the collocation polynomial. */
   interpolate(t: number, out?: Float64Array): Float64Array;
+  /**
+   * The last step's interpolant with its two arrays drawn from `take`
+   * (called for n, then 3n numbers), or undefined before the first step:
+   * for callers that keep many steps in storage of their own.
+   */
+  copyInterpolant(take: (length: number) => Float64Array): DaeStepInterpolant | undefined;
+  /** Copy the present state into `out` (length n) without allocating; returns `out`. */
+  readState(out: Float64Array): Float64Array;
 }
 
 /**
@@ -475,7 +483,7 @@ class RadauIntegrator implements DaeIntegrator {
     return this.tCur;
   }
   get y(): Float64Array {
-    return this.yCur.slice();
+    return this.readState(new Float64Array(this.n));
   }
   get h(): number {
     return this.hCur;
@@ -700,6 +708,21 @@ class RadauIntegrator implements DaeIntegrator {
     this.failureCur = undefined;
     this.messageCur = '';
     this.statusCur = this.tCur >= this.p.tEnd ? 'success' : 'running';
+  }
+
+  copyInterpolant(take: (length: number) => Float64Array): DaeStepInterpolant | undefined {
+    if (!this.hasPiece) return undefined;
+    const p = this.piece;
+    const yOld = take(this.n);
+    yOld.set(p.yOld);
+    const q = take(3 * this.n);
+    q.set(p.q);
+    return { tOld: p.tOld, t: p.t, h: p.h, yOld, q };
+  }
+
+  readState(out: Float64Array): Float64Array {
+    out.set(this.yCur);
+    return out;
   }
 
   interpolate(t: number, out?: Float64Array): Float64Array {
@@ -1351,7 +1374,11 @@ class RadauIntegrator implements DaeIntegrator {
 
 /** A step's polynomial with arrays of its own (the public, immutable form). */
 function copyPiece(p: DaeStepInterpolant): DaeStepInterpolant {
-  return { tOld: p.tOld, t: p.t, h: p.h, yOld: p.yOld.slice(), q: p.q.slice() };
+  const yOld = new Float64Array(p.yOld.length);
+  yOld.set(p.yOld);
+  const q = new Float64Array(p.q.length);
+  q.set(p.q);
+  return { tOld: p.tOld, t: p.t, h: p.h, yOld, q };
 }
 
 /**

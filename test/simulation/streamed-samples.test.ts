@@ -5,7 +5,7 @@
  * what needs every step refuses instead of answering over part of the run.
  */
 import { describe, expect, it } from 'vitest';
-import { constant, createNetwork, MU0, pulse, simulate } from '../../src/index.js';
+import { constant, createNetwork, MU0, pulse, simulate, type WaveformSpec } from '../../src/index.js';
 
 // A winding on a linear core in series with its resistance, switched onto 10 V: an RL circuit with
 // L = N^2 / R_m (magnetic circuit law, R_m = l / (mu0 mu_r A)); test values of our own. Its step response
@@ -19,7 +19,7 @@ const L = (N * N) / (PATH / (MU0 * MUR * AREA));
 const R = 2;
 const V = 10;
 
-function rl(drive = constant(V)) {
+function rl(drive: WaveformSpec = constant(V)) {
   const net = createNetwork('rl step');
   const [top, bottom] = [net.magneticNode('top'), net.magneticNode('bottom')];
   const material = { kind: 'linear', relativePermeability: MUR } as const;
