@@ -4,7 +4,7 @@ import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } f
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { createProjector } from './projection.js';
-import { Float64Chunks } from './float64-chunks.js';
+import { Float64Chunks } from '../solver/float64-chunks.js';
 import type { InputView } from '../elements/element-kind.js';
 import { DenseStampTarget } from '../elements/stamp-target.js';
 import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
