@@ -11,7 +11,7 @@ import {
   T,
   TI,
 } from './radau-tableau.js';
-import { largestScaled } from './weighted-norm.js';
+import { keepLargest } from './weighted-norm.js';
 
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
@@ -286,7 +286,11 @@ function overflowedIncrement(dw: Float64Array, n: number, scale: Float64Array): 
 
 /** Components with the largest scaled increment over the three stages. */
 function worstIncrement(dw: Float64Array, n: number, scale: Float64Array): number[] {
-  const m = new Float64Array(n);
-  for (let i = 0; i < n; i++) m[i] = Math.max(Math.abs(dw[i]!), Math.abs(dw[n + i]!), Math.abs(dw[2 * n + i]!));
-  return largestScaled(m, scale);
+  const top: number[] = [];
+  const size: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const m = Math.max(Math.abs(dw[i]!), Math.abs(dw[n + i]!), Math.abs(dw[2 * n + i]!));
+    keepLargest(top, size, 3, i, Math.abs(m / scale[i]!));
+  }
+  return top;
 }

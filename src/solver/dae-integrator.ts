@@ -332,7 +332,7 @@ class RadauIntegrator implements DaeIntegrator {
   private extrapolate = false;
   private jac: Float64Array;
   /** A fresh Jacobian at a cheap restart, compared with the held one before it replaces it. */
-  private readonly jacScratch: Float64Array;
+  private jacScratch: Float64Array | undefined;
   private jacValid = false;
   private jacCurrent = false;
   private luH = NaN;
@@ -467,7 +467,6 @@ class RadauIntegrator implements DaeIntegrator {
     }
     this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: new Float64Array(n), q: new Float64Array(3 * n) };
     this.jac = new Float64Array(n * n);
-    this.jacScratch = new Float64Array(n * n);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
 
@@ -983,7 +982,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.ensureJacobian();
       return;
     }
-    const fresh = this.jacScratch;
+    const fresh = (this.jacScratch ??= new Float64Array(this.jac.length));
     this.jacValid = false;
     this.callJacobian(this.tCur, this.yCur, this.fCur, fresh);
     const J = this.jac;
