@@ -441,6 +441,7 @@ class RadauIntegrator implements DaeIntegrator {
       n,
       rhs: this.countedRhs,
       multiplyMass: this.multiplyMass,
+      identityMass: !p.mass,
       luReal: this.luReal,
       luComplex: this.luComplex,
       fnewt: this.fnewt,
