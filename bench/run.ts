@@ -3,12 +3,16 @@
  * non-stiff extrapolation code) on the stiff test set at the same
  * tolerances, the linear-algebra kernels, the kernels inside the solver, and,
  * when SciPy is importable, SciPy's solve_ivp (Radau, BDF), and the sweep
- * speedup on worker threads (bench/sweep.ts). Prints tables;
+ * speedup on worker threads (bench/sweep.ts), first-run against warm cost,
+ * memory against steps (bench/memory.ts) and the ratios to compiled RADAU5
+ * when the bench-anchor yardstick is at hand (bench/anchor.ts). Prints tables;
  * wall times are medians of a few repeats. Total run time about a minute.
  */
 import { solveDae, type DaeProblem, type SolveDaeOptions } from '../src/index.js';
 import { Solver } from '../test/support/odex.js';
+import { benchAgainstRadau5, benchColdWarm } from './anchor.js';
 import { benchLinearAlgebra } from './linear-algebra.js';
+import { benchMemory } from './memory.js';
 import { hires, maxRelativeError, rcLadder, ringModulator, robertsonDae, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
 import { benchScipy } from './scipy.js';
 import { benchPeriodicSteadyState } from './pss.js';
@@ -142,4 +146,7 @@ benchAgainstOdex();
 benchScipy();
 benchPeriodicSteadyState();
 await benchSweep();
+benchColdWarm();
+benchMemory();
+benchAgainstRadau5();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);

@@ -63,6 +63,15 @@ export interface SimulateOptions extends SolverSettings {
    * steady state); its algebraic part is made consistent.
    */
   readonly initialState?: ArrayLike<number>;
+  /**
+   * Keep every solver step's polynomial (default true): the result can then
+   * be evaluated at any time (`evaluator`) and audited (`energy`). With
+   * false only the samples are kept, computed as the run goes from the step
+   * that contains them, so memory follows the sampling grid instead of the
+   * number of steps (a long run on a coarse grid); `energy` and `evaluator`
+   * then refuse with `steps-not-kept`.
+   */
+  readonly keepSteps?: boolean;
 }
 
 /**
@@ -111,7 +120,7 @@ export function simulate(network: NetworkInput, options: SimulateOptions): Simul
     steps: includeSteps(options.sampling),
     sampleTimes,
     exact: exactSampling(options.sampling),
-    interpolants: true,
+    interpolants: options.keepSteps ?? true,
     onStep: progress,
   });
   if (options.onProgress) {
@@ -131,6 +140,7 @@ function checkOptions(o: SimulateOptions, t0: number, tEnd: number): void {
   checkSolverSettings(o, 'simulate options');
   if (o.onProgress !== undefined && typeof o.onProgress !== 'function') bad('bad-option', `onProgress must be a function, got ${typeof o.onProgress}`);
   if (o.progressIntervalMs !== undefined && !(o.progressIntervalMs >= 0)) bad('bad-option', `progressIntervalMs ${o.progressIntervalMs} must be >= 0`);
+  if (o.keepSteps !== undefined && typeof o.keepSteps !== 'boolean') bad('bad-option', `keepSteps must be true or false, got ${String(o.keepSteps)}`);
   const s = o.sampling;
   if (s !== undefined && s !== 'steps' && (typeof s !== 'object' || s === null || (!('interval' in s) && !('times' in s)))) {
     bad('bad-option', `sampling must be 'steps', { interval } or { times }, got ${JSON.stringify(s)}`);

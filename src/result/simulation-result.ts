@@ -57,6 +57,8 @@ export interface SimulationResultInit {
   readonly project?: (t: number, y: Float64Array) => void;
   /** The non-finite value that stopped the run, if that is why it stopped. */
   readonly nonFinite?: SimulationFailure['nonFinite'];
+  /** False when the run kept only its samples (simulate's `keepSteps: false`); default true. */
+  readonly stepsKept?: boolean;
 }
 
 /**
@@ -105,6 +107,7 @@ export class SimulationResult {
   private readonly sampleInterval: Int32Array;
   private readonly intervals: readonly InputsInForce[];
   private readonly steps: readonly RecordedStep[];
+  private readonly stepsKept: boolean;
   private readonly finalState: Float64Array;
   private readonly initialState: Float64Array | undefined;
   private readonly project: ((t: number, y: Float64Array) => void) | undefined;
@@ -124,6 +127,7 @@ export class SimulationResult {
     this.network = init.compiled.description;
     this.intervals = init.intervals;
     this.steps = init.steps;
+    this.stepsKept = init.stepsKept ?? true;
     this.finalState = init.finalState;
     this.initialState = init.initialState;
     this.project = init.project;
@@ -163,6 +167,13 @@ export class SimulationResult {
       };
       const named = this.failure.unknowns.map((u) => u.label).join('; ');
       if (named) this.message = `${init.message} (involved: ${named})`;
+    }
+  }
+
+  /** Refuse what needs every step's polynomial when the run kept only its samples (an audit over part of the run would be wrong). */
+  private needSteps(what: string): void {
+    if (!this.stepsKept) {
+      throw new InputError('steps-not-kept', `${what} needs every solver step, but this run kept only its samples (keepSteps: false); simulate again with keepSteps: true`, []);
     }
   }
 
@@ -331,6 +342,7 @@ export class SimulationResult {
    * ```
    */
   energy(): EnergyAudit {
+    this.needSteps('energy()');
     // Each step is audited with the inputs recorded for its interval (never those in force now).
     this.audit ??= computeEnergyAudit(
       this.compiled,
@@ -408,6 +420,7 @@ export class SimulationResult {
    * ```
    */
   evaluator(request: QuantityRequest): (t: number) => number {
+    this.needSteps('evaluator()');
     const fn = this.reader.build(request);
     const steps = this.steps;
     const y = new Float64Array(this.compiled.layout.size);
@@ -493,5 +506,6 @@ export function resultFromRun(
     modelWarnings,
     project: run.project,
     ...(status !== 'success' && run.nonFinite ? { nonFinite: run.nonFinite } : {}),
+    ...(run.keptEveryStep ? {} : { stepsKept: false }),
   });
 }

@@ -3,6 +3,17 @@ import { handlesOf } from '../network/handles-of.js';
 import { StateReader, type QuantityRequest, type StateFunction } from '../result/state-reader.js';
 import type { NonFiniteValue } from './network-run.js';
 
+/**
+ * Largest |y_i| and |f_i| for which a recorded state is passed without
+ * evaluating its quantities. Every quantity a result reads is the state, f,
+ * or a product of two of them with the network's coefficients (turns,
+ * lengths, areas, resistances, the derivative functional's entries), so with
+ * both at most 1e100 a product stays below 1e200 times such a coefficient:
+ * far from overflow. Above it (a run heading for overflow) every quantity is
+ * evaluated, so the first one to overflow is still named. Our choice.
+ */
+const QUICK_PASS_BOUND = 1e100;
+
 /** Every quantity a result can read, by handle: what the finiteness check evaluates. */
 function everyRequest(c: CompiledNetwork): QuantityRequest[] {
   const h = handlesOf(c.description);
@@ -19,14 +30,28 @@ function everyRequest(c: CompiledNetwork): QuantityRequest[] {
   return out;
 }
 
+/** Whether every entry of v is finite and at most `bound` in magnitude (NaN fails the comparison). */
+function finiteWithin(v: Float64Array, bound: number): boolean {
+  for (let i = 0; i < v.length; i++) {
+    const a = Math.abs(v[i]!);
+    if (!(a <= bound)) return false;
+  }
+  return true;
+}
+
 /**
- * The finiteness check of a run: evaluates every quantity a result can read
- * (per tube, element, winding and node) at a recorded state and returns the
- * first that is not finite, named by quantity and element, or undefined.
- * So a run never reports `success` over data that reads as NaN: the run
- * stops there with status `'non-finite'` and keeps what came before.
- * Quantities a handle does not have (the flux density of a reluctance
- * without an area) are skipped.
+ * The finiteness check of a run: returns the first quantity a result can
+ * read (per tube, element, winding and node) that is not finite at a
+ * recorded state, named by quantity and element, or undefined. So a run
+ * never reports `success` over data that reads as NaN: the run stops there
+ * with status `'non-finite'` and keeps what came before.
+ *
+ * Cheap in the common case: when the state y and f(t, y) are finite and
+ * moderate (see QUICK_PASS_BOUND) no quantity can be non-finite, and one
+ * evaluation of f is all it costs; otherwise every quantity is evaluated
+ * to name the culprit. Quantities a handle does not have (the flux density
+ * of a reluctance without an area) are skipped. Must be called with the
+ * inputs in force for the state (`compiled.inputs.during`).
  *
  * @example
  * ```ts
@@ -50,18 +75,31 @@ export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array
       out.set(f);
     },
   };
-  const reader = new StateReader(once, undefined);
-  const checks: { readonly quantity: string; readonly name: string; readonly fn: StateFunction }[] = [];
-  for (const request of everyRequest(c)) {
-    try {
-      checks.push({ quantity: request.quantity, name: request.handle.name, fn: reader.build(request) });
-    } catch {
-      // A quantity this handle does not have (no area, no length): nothing to check.
+  // Built on the first state that needs them (most runs never do).
+  type Check = { readonly quantity: string; readonly name: string; readonly fn: StateFunction };
+  let checks: Check[] | undefined;
+  const build = (): Check[] => {
+    const reader = new StateReader(once, undefined);
+    const list: Check[] = [];
+    for (const request of everyRequest(c)) {
+      try {
+        list.push({ quantity: request.quantity, name: request.handle.name, fn: reader.build(request) });
+      } catch {
+        // A quantity this handle does not have (no area, no length): nothing to check.
+      }
     }
-  }
+    return list;
+  };
   return (t, y) => {
-    fresh = false;
-    for (const check of checks) {
+    if (finiteWithin(y, QUICK_PASS_BOUND)) {
+      c.evaluate(t, y, c.inputs, f);
+      if (finiteWithin(f, QUICK_PASS_BOUND)) return undefined;
+      fresh = true; // f at (t, y) is in hand for the quantities below
+    } else {
+      fresh = false;
+    }
+    const list = (checks ??= build());
+    for (const check of list) {
       const value = check.fn(y, t);
       if (!Number.isFinite(value)) return { quantity: check.quantity, name: check.name, value };
     }

@@ -4,6 +4,7 @@ import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } f
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { createProjector } from './projection.js';
+import { Float64Chunks } from '../solver/float64-chunks.js';
 import type { InputView } from '../elements/element-kind.js';
 import { DenseStampTarget } from '../elements/stamp-target.js';
 import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
@@ -129,6 +130,15 @@ export class NetworkRun {
   /** Events located so far. */
   readonly events: DaeEventRecord[] = [];
   private inputsChanged = false;
+  /** False once a step was recorded without keeping its interpolant (streaming: only samples kept). */
+  private everyStepKept = true;
+  /** What replaces an interval no sample refers to when streaming (see releaseUnreferencedInterval). */
+  private standIn: InputsInForce | undefined;
+  /** Storage of kept states and step polynomials: views into chunks, not a typed array each. */
+  private readonly chunks = new Float64Chunks();
+  private readonly take = (length: number): Float64Array => this.chunks.take(length);
+  /** A state checked but not kept. */
+  private readonly scratch: Float64Array;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
   private pendingStartSample: number | undefined;
   /** The state at the start of the run (after initialisation; index-2 values from the first step). */
@@ -160,6 +170,7 @@ export class NetworkRun {
   constructor(compiled: CompiledNetwork, settings: RunSettings) {
     this.compiled = compiled;
     this.index2 = compiled.index2;
+    this.scratch = new Float64Array(compiled.layout.size);
     this.horizon = settings.horizon;
     this.span = settings.horizon - settings.t0;
     this.check = settings.check;
@@ -197,6 +208,11 @@ export class NetworkRun {
     // The integrator initialised at t0 with the inputs of no interval yet; redo it on the right side.
     this.startInterval(settings.t0);
     this.statusCur = this.integ.status;
+  }
+
+  /** Whether every step's interpolant so far is in {@link NetworkRun.steps} (false once a step was streamed past). */
+  get keptEveryStep(): boolean {
+    return this.everyStepKept;
   }
 
   /** Present time, s: the end of the last step kept. */
@@ -313,7 +329,7 @@ export class NetworkRun {
         // Samples inside the step first (time order), then the step's end.
         while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
-          const y = evaluateRecordedStep(step, ts, this.index2);
+          const y = evaluateRecordedStep(step, ts, this.index2, this.sampleArray(record));
           // An input that throws here (a user function failing exactly at a sampling instant) ends the run as 'rhs-error'.
           try {
             this.projector(ts, y, this.live);
@@ -326,8 +342,8 @@ export class NetworkRun {
         const endIsSample = nextSample < samples.length && samples[nextSample] === this.t;
         if (endIsSample) nextSample++;
         if (record.steps || endIsSample) {
-          if (!this.pushChecked(this.t, this.integ.y, step, kept)) return this.statusCur;
-        } else if (record.interpolants && !this.checked(this.t, this.integ.y, step, kept)) {
+          if (!this.pushChecked(this.t, this.integ.readState(this.sampleArray(record)), step, kept)) return this.statusCur;
+        } else if (record.interpolants && !this.checked(this.t, this.integ.readState(this.scratch), step, kept)) {
           return this.statusCur;
         }
         this.endState = undefined;
@@ -400,12 +416,28 @@ export class NetworkRun {
    */
   private startInterval(t: number): 'running' | DaeStatus {
     this.live = openInterval(this.schedule, t, this.horizon, this.span);
+    this.releaseUnreferencedInterval();
     this.intervals.push(this.live);
     this.compiled.inputs.use(this.live);
     this.statusCur = this.integ.restart(undefined, { capStepByEstimate: true });
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     this.restartPending = true;
     return this.statusCur;
+  }
+
+  /**
+   * Streaming (steps not kept): the interval that just ended gives way to one
+   * shared stand-in when no sample refers to it, so a long run on a coarse
+   * grid holds inputs in proportion to its samples, not to its edges. Only
+   * samples and kept steps read intervals, by index; the stand-in (no sides)
+   * is never read.
+   */
+  private releaseUnreferencedInterval(): void {
+    const k = this.intervals.length - 1;
+    if (this.everyStepKept || k < 0) return;
+    const last = this.samples[this.samples.length - 1];
+    if (last !== undefined && last.interval === k) return;
+    this.intervals[k] = this.standIn ??= new InputsInForce(this.schedule, NaN, NaN, NaN, NaN);
   }
 
   /** State at the start of the run, after consistent initialisation (undefined before the first advance). */
@@ -421,7 +453,7 @@ export class NetworkRun {
       this.startStatePending = true;
     }
     if (record.steps || (record.sampleTimes ?? []).includes(this.t)) {
-      this.pushSample(this.t, this.integ.y);
+      this.pushSample(this.t, this.integ.readState(this.sampleArray(record)));
       this.pendingStartSample = this.samples.length - 1;
     } else {
       this.pendingStartSample = undefined;
@@ -429,7 +461,7 @@ export class NetworkRun {
   }
 
   private recordStep(record: RecordOptions): RecordedStep {
-    const it = this.integ.interpolant!;
+    const it = this.integ.copyInterpolant(this.take)!;
     const first = this.steps.length === 0 || this.steps[this.steps.length - 1]!.t !== it.tOld || this.lastStepEndedInterval();
     const step: RecordedStep = {
       tOld: it.tOld, t: it.t, h: it.h, yOld: it.yOld, q: it.q,
@@ -447,8 +479,12 @@ export class NetworkRun {
     }
     this.pendingStartSample = undefined;
     this.startStatePending = false;
+    // Streaming: without interpolants only the step in hand is kept (the samples inside it are taken from it).
     if (record.interpolants) this.steps.push(step);
-    else this.steps.splice(0, this.steps.length, step);
+    else {
+      this.everyStepKept = false;
+      this.steps.splice(0, this.steps.length, step);
+    }
     return step;
   }
 
@@ -457,8 +493,20 @@ export class NetworkRun {
     return last !== undefined && last.interval !== this.intervals.length - 1;
   }
 
+  /**
+   * The array for a sample to keep: a chunk view when samples come with every
+   * step or every step is kept (many, kept together); an array of its own
+   * when streaming on a grid (few, far apart: a view would keep its whole
+   * chunk alive).
+   */
+  private sampleArray(record: RecordOptions): Float64Array {
+    const n = this.scratch.length;
+    return record.steps || record.interpolants ? this.chunks.take(n) : new Float64Array(n);
+  }
+
+  /** Keep a sample; y becomes the sample's own (every caller passes a fresh array). */
   private pushSample(t: number, y: Float64Array): void {
-    this.samples.push({ t, y: Float64Array.from(y), interval: this.intervals.length - 1 });
+    this.samples.push({ t, y, interval: this.intervals.length - 1 });
   }
 
   /** Record a sample after the finiteness check; false when the check stopped the run. */

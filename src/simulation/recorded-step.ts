@@ -50,7 +50,7 @@ export function evaluateRecordedStep(step: RecordedStep, t: number, index2: read
 
 /** The step's start state with its index-2 unknowns extrapolated from the stages (s = 0). */
 export function stageExtrapolation(step: RecordedStep, index2: readonly number[]): Float64Array {
-  const y = Float64Array.from(step.yOld);
+  const y = step.yOld.slice();
   for (const i of index2) y[i] = stageQuadratic(step, 0, i);
   return y;
 }

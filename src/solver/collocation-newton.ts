@@ -11,7 +11,7 @@ import {
   T,
   TI,
 } from './radau-tableau.js';
-import { largestScaled } from './weighted-norm.js';
+import { keepLargest } from './weighted-norm.js';
 
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
@@ -36,6 +36,8 @@ export interface CollocationSystem {
   readonly rhs: (t: number, y: Float64Array, out: Float64Array) => void;
   /** out = M v[vOff .. vOff + n). */
   readonly multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void;
+  /** M is the identity (an ODE): M W is W itself, read in place instead of copied. */
+  readonly identityMass?: boolean;
   readonly luReal: RealLinearSolver;
   readonly luComplex: ComplexLinearSolver;
   /** radau5's FNEWT. */
@@ -180,6 +182,7 @@ export function solveCollocation(
   const alphn = MU_COMPLEX_RE / h;
   const betan = MU_COMPLEX_IM / h;
   const fnewt = sys.fnewt;
+  const identity = sys.identityMass === true;
   // w = T^-1 z
   for (let i = 0; i < n; i++) {
     const z1 = z[i]!;
@@ -205,19 +208,35 @@ export function solveCollocation(
     for (let k = 0; k < 3 * n; k++) {
       if (!Number.isFinite(fz[k]!)) return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, NO_COMPONENTS, nonFiniteStages(fz, n));
     }
-    // Right-hand sides of the transformed system.
-    sys.multiplyMass(w, 0, m1);
-    sys.multiplyMass(w, n, m2);
-    sys.multiplyMass(w, 2 * n, m3);
+    // Right-hand sides of the transformed system: M W_k in m1, m2, m3 at offset 0, or W itself
+    // (stage k at offset k n) when M is the identity.
+    let o1 = 0;
+    let o2 = 0;
+    let o3 = 0;
+    let mw1 = m1;
+    let mw2 = m2;
+    let mw3 = m3;
+    if (identity) {
+      mw1 = mw2 = mw3 = w;
+      o2 = n;
+      o3 = 2 * n;
+    } else {
+      sys.multiplyMass(w, 0, m1);
+      sys.multiplyMass(w, n, m2);
+      sys.multiplyMass(w, 2 * n, m3);
+    }
     for (let i = 0; i < n; i++) {
       const f1 = fz[i]!;
       const f2 = fz[n + i]!;
       const f3 = fz[2 * n + i]!;
-      dw[i] = TI[0]! * f1 + TI[1]! * f2 + TI[2]! * f3 - fac1 * m1[i]!;
+      const a1 = mw1[o1 + i]!;
+      const a2 = mw2[o2 + i]!;
+      const a3 = mw3[o3 + i]!;
+      dw[i] = TI[0]! * f1 + TI[1]! * f2 + TI[2]! * f3 - fac1 * a1;
       const cr = TI[3]! * f1 + TI[4]! * f2 + TI[5]! * f3;
       const ci = TI[6]! * f1 + TI[7]! * f2 + TI[8]! * f3;
-      dw[n + i] = cr - (alphn * m2[i]! - betan * m3[i]!);
-      dw[2 * n + i] = ci - (alphn * m3[i]! + betan * m2[i]!);
+      dw[n + i] = cr - (alphn * a2 - betan * a3);
+      dw[2 * n + i] = ci - (alphn * a3 + betan * a2);
     }
     sys.luReal.solve(work.dwReal);
     sys.luComplex.solve(work.dwRe, work.dwIm);
@@ -286,7 +305,11 @@ function overflowedIncrement(dw: Float64Array, n: number, scale: Float64Array): 
 
 /** Components with the largest scaled increment over the three stages. */
 function worstIncrement(dw: Float64Array, n: number, scale: Float64Array): number[] {
-  const m = new Float64Array(n);
-  for (let i = 0; i < n; i++) m[i] = Math.max(Math.abs(dw[i]!), Math.abs(dw[n + i]!), Math.abs(dw[2 * n + i]!));
-  return largestScaled(m, scale);
+  const top: number[] = [];
+  const size: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const m = Math.max(Math.abs(dw[i]!), Math.abs(dw[n + i]!), Math.abs(dw[2 * n + i]!));
+    keepLargest(top, size, 3, i, Math.abs(m / scale[i]!));
+  }
+  return top;
 }

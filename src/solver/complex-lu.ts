@@ -1,4 +1,5 @@
-import { equilibrationScales, PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
+import { equilibrateComplex } from './dense-equilibration.js';
+import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
 
 /**
  * Complex LU factorisation with partial pivoting on split real/imaginary
@@ -28,7 +29,7 @@ export function createComplexLu(n: number): ComplexLinearSolver {
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function factor(re: Float64Array, im: Float64Array): number {
-    const nonFinite = equilibrationScales(n, (i, j) => Math.abs(re[i * n + j]!) + Math.abs(im[i * n + j]!), rowScale, colScale);
+    const nonFinite = equilibrateComplex(n, re, im, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
     for (let i = 0; i < n; i++) {
       perm[i] = i;

@@ -34,6 +34,10 @@ import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm
 
 /** The events of a step without events (shared, frozen: steps without events allocate no array). */
 const NO_EVENTS: readonly DaeEventRecord[] = Object.freeze([]);
+/** The outcome of a plain accepted step (shared, frozen: such a step allocates no result). */
+const ACCEPTED: DaeStepResult = Object.freeze({ status: 'accepted', events: NO_EVENTS });
+/** No components to name (shared; never written). */
+const NO_COMPONENTS: number[] = [];
 
 /**
  * When atol does not follow rtol it is mapped as radau5 maps it at this rtol
@@ -206,6 +210,14 @@ export interface DaeIntegrator {
   restore(snapshot: DaeIntegratorSnapshot): void;
   /** State at time t within the last step [tOld, t] from the collocation polynomial. */
   interpolate(t: number, out?: Float64Array): Float64Array;
+  /**
+   * The last step's interpolant with its two arrays drawn from `take`
+   * (called for n, then 3n numbers), or undefined before the first step:
+   * for callers that keep many steps in storage of their own.
+   */
+  copyInterpolant(take: (length: number) => Float64Array): DaeStepInterpolant | undefined;
+  /** Copy the present state into `out` (length n) without allocating; returns `out`. */
+  readState(out: Float64Array): Float64Array;
 }
 
 /**
@@ -319,6 +331,8 @@ class RadauIntegrator implements DaeIntegrator {
   private first = true;
   private extrapolate = false;
   private jac: Float64Array;
+  /** A fresh Jacobian at a cheap restart, compared with the held one before it replaces it. */
+  private jacScratch: Float64Array | undefined;
   private jacValid = false;
   private jacCurrent = false;
   private luH = NaN;
@@ -345,7 +359,11 @@ class RadauIntegrator implements DaeIntegrator {
   private cheapRestartUnproven = false;
   private cheapRestartCap = false;
   private readonly stepWork: { scale: Float64Array; y1: Float64Array; f1: Float64Array };
-  private interp: DaeStepInterpolant | undefined;
+  /** The last step's polynomial in buffers reused from step to step (meaningful while hasPiece). */
+  private readonly piece: { tOld: number; t: number; h: number; readonly yOld: Float64Array; readonly q: Float64Array };
+  private hasPiece = false;
+  /** The public copy of the piece ({@link DaeIntegrator.interpolant}), made on the first request after a step. */
+  private pieceCopy: DaeStepInterpolant | undefined;
   private eventValues: Float64Array;
   private readonly statsCur: SolverStats = emptyStats();
   private statusCur: 'running' | DaeStatus = 'running';
@@ -423,6 +441,7 @@ class RadauIntegrator implements DaeIntegrator {
       n,
       rhs: this.countedRhs,
       multiplyMass: this.multiplyMass,
+      identityMass: !p.mass,
       luReal: this.luReal,
       luComplex: this.luComplex,
       fnewt: this.fnewt,
@@ -447,6 +466,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.algebraic = createAlgebraicSolver(n, this.spaces.k);
       this.derivativeWork = createDerivativeWork(n);
     }
+    this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: new Float64Array(n), q: new Float64Array(3 * n) };
     this.jac = new Float64Array(n * n);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
@@ -463,7 +483,7 @@ class RadauIntegrator implements DaeIntegrator {
     return this.tCur;
   }
   get y(): Float64Array {
-    return Float64Array.from(this.yCur);
+    return this.readState(new Float64Array(this.n));
   }
   get h(): number {
     return this.hCur;
@@ -490,7 +510,8 @@ class RadauIntegrator implements DaeIntegrator {
     return this.adjustedCur;
   }
   get interpolant(): DaeStepInterpolant | undefined {
-    return this.interp;
+    if (!this.hasPiece) return undefined;
+    return (this.pieceCopy ??= copyPiece(this.piece));
   }
 
   step(tStop?: number): DaeStepResult {
@@ -540,7 +561,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.failureCur = undefined;
     this.pendingError = undefined;
     this.pendingFailure = undefined;
-    this.interp = undefined;
+    this.forgetPiece();
     const capByEstimate = options.capStepByEstimate ?? false;
     this.cheapRestartUnproven = false;
     if (y === undefined && healthy && this.restartCheaply(capByEstimate)) {
@@ -573,8 +594,7 @@ class RadauIntegrator implements DaeIntegrator {
       // conductance by nine orders of magnitude), and a stale one both slows the algebraic re-solve and,
       // worse, filters the first steps' error estimates through the wrong matrix, so that they accept
       // wrong steps (an energy audit off by 5 % across a switch-off was measured with the kept one).
-      this.jacValid = false;
-      this.ensureJacobian();
+      this.refreshJacobianKeepingEqual();
       let yp: Float64Array | undefined;
       if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
         const solver = this.algebraic!;
@@ -622,12 +642,16 @@ class RadauIntegrator implements DaeIntegrator {
     return false;
   }
 
+  private forgetPiece(): void {
+    this.hasPiece = false;
+    this.pieceCopy = undefined;
+  }
+
   snapshot(): DaeIntegratorSnapshot {
-    const it = this.interp;
     return {
       t: this.tCur,
-      y: Float64Array.from(this.yCur),
-      f: Float64Array.from(this.fCur),
+      y: this.yCur.slice(),
+      f: this.fCur.slice(),
       h: this.hCur,
       hAcc: this.hAcc,
       errAcc: this.errAcc,
@@ -636,7 +660,7 @@ class RadauIntegrator implements DaeIntegrator {
       extrapolate: this.extrapolate,
       jacobian: this.jacValid ? Float64Array.from(this.jac) : undefined,
       jacobianCurrent: this.jacCurrent,
-      interpolant: it && { tOld: it.tOld, t: it.t, h: it.h, yOld: Float64Array.from(it.yOld), q: Float64Array.from(it.q) },
+      interpolant: this.hasPiece ? copyPiece(this.piece) : undefined,
       eventValues: Float64Array.from(this.eventValues),
       stats: { ...this.statsCur },
     };
@@ -667,7 +691,16 @@ class RadauIntegrator implements DaeIntegrator {
     }
     this.luH = NaN;
     const it = s.interpolant;
-    this.interp = it && { tOld: it.tOld, t: it.t, h: it.h, yOld: Float64Array.from(it.yOld), q: Float64Array.from(it.q) };
+    this.forgetPiece();
+    if (it) {
+      const piece = this.piece;
+      piece.tOld = it.tOld;
+      piece.t = it.t;
+      piece.h = it.h;
+      piece.yOld.set(it.yOld);
+      piece.q.set(it.q);
+      this.hasPiece = true;
+    }
     this.eventValues = Float64Array.from(s.eventValues);
     Object.assign(this.statsCur, s.stats); // the same object: the Newton kernel counts into it
     this.pendingError = undefined;
@@ -677,9 +710,24 @@ class RadauIntegrator implements DaeIntegrator {
     this.statusCur = this.tCur >= this.p.tEnd ? 'success' : 'running';
   }
 
+  copyInterpolant(take: (length: number) => Float64Array): DaeStepInterpolant | undefined {
+    if (!this.hasPiece) return undefined;
+    const p = this.piece;
+    const yOld = take(this.n);
+    yOld.set(p.yOld);
+    const q = take(3 * this.n);
+    q.set(p.q);
+    return { tOld: p.tOld, t: p.t, h: p.h, yOld, q };
+  }
+
+  readState(out: Float64Array): Float64Array {
+    out.set(this.yCur);
+    return out;
+  }
+
   interpolate(t: number, out?: Float64Array): Float64Array {
     const res = out ?? new Float64Array(this.n);
-    const it = this.interp;
+    const it = this.hasPiece ? this.piece : undefined;
     if (!it) {
       if (t === this.tCur) {
         res.set(this.yCur);
@@ -876,8 +924,8 @@ class RadauIntegrator implements DaeIntegrator {
     }
   }
 
-  /** Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J. Returns the bad pivot or -1. */
-  private factorIterationMatrices(h: number): { real: number; complex: number } {
+  /** Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J. Returns the bad pivot (real system first) or -1. */
+  private factorIterationMatrices(h: number): number {
     const n = this.n;
     const fac1 = MU_REAL / h;
     const alphn = MU_COMPLEX_RE / h;
@@ -915,13 +963,43 @@ class RadauIntegrator implements DaeIntegrator {
     this.statsCur.luFactorizations++;
     try {
       const real = this.luReal.factor(e1);
-      const complex = real >= 0 ? -1 : this.luComplex.factor(e2r, e2i);
-      return { real, complex };
+      return real >= 0 ? real : this.luComplex.factor(e2r, e2i);
     } catch (e) {
       // The sparse kernels refuse an entry outside the declared pattern rather than drop it.
       if (e instanceof RangeError && this.p.iterationPattern) throw new UserCodeError(e, 'the Jacobian (an entry outside jacobianPattern)', this.tCur);
       throw e;
     }
+  }
+
+  /**
+   * Evaluate J afresh at the present state; when it equals the one held
+   * entry for entry (a linear network whose inputs jumped), keep the held
+   * one with its version, so the LU factors of the iteration matrices and of
+   * the algebraic block stay valid (the same matrices, factored again, would
+   * give the same factors).
+   */
+  private refreshJacobianKeepingEqual(): void {
+    if (!this.jacValid) {
+      this.ensureJacobian();
+      return;
+    }
+    const fresh = (this.jacScratch ??= new Float64Array(this.jac.length));
+    this.jacValid = false;
+    this.callJacobian(this.tCur, this.yCur, this.fCur, fresh);
+    const J = this.jac;
+    let same = true;
+    for (let k = 0; k < fresh.length; k++) {
+      if (fresh[k] !== J[k]) {
+        same = false;
+        break;
+      }
+    }
+    this.jacValid = true;
+    this.jacCurrent = true;
+    if (same) return;
+    J.set(fresh);
+    this.jacVersion++;
+    this.luH = NaN;
   }
 
   private ensureJacobian(): void {
@@ -977,8 +1055,8 @@ class RadauIntegrator implements DaeIntegrator {
     let singularCount = 0;
     let newtonFailCount = 0;
     let lastNonFinite: number[] | undefined;
-    let lastNewtonComponents: number[] = [];
-    let lastErrorComponents: number[] = [];
+    let lastNewtonComponents: number[] = NO_COMPONENTS;
+    let lastErrorComponents: number[] = NO_COMPONENTS;
     const hMin = 10 * UROUND * Math.max(Math.abs(t), 1e-10 * (p.tEnd - p.t0));
 
     for (;;) {
@@ -1004,8 +1082,7 @@ class RadauIntegrator implements DaeIntegrator {
       if (h !== this.luH) {
         // The LU is rebuilt for a new h; the Jacobian is refreshed only when it is missing.
         if (!this.jacValid) this.ensureJacobian();
-        const bad = this.factorIterationMatrices(h);
-        const pivot = bad.real >= 0 ? bad.real : bad.complex;
+        const pivot = this.factorIterationMatrices(h);
         if (pivot >= 0) {
           singularCount++;
           if (singularCount >= MAX_SINGULAR_RETRIES) {
@@ -1109,8 +1186,8 @@ class RadauIntegrator implements DaeIntegrator {
     const n = this.n;
     const z = this.work.z;
     const y = this.yCur;
-    const it = this.interp;
-    if (this.extrapolate && it) {
+    if (this.extrapolate && this.hasPiece) {
+      const it = this.piece;
       const u = this.errorWork.ez;
       for (let s = 0; s < 3; s++) {
         evaluateCollocation(it, t + (s === 0 ? C1 : s === 1 ? C2 : 1) * h, u);
@@ -1142,14 +1219,19 @@ class RadauIntegrator implements DaeIntegrator {
     this.errAcc = Math.max(1e-2, err);
     this.statsCur.acceptedSteps++;
 
-    // Dense output coefficients Q = Z^T P, before z is reused.
-    const q = new Float64Array(3 * n);
+    // Dense output coefficients Q = Z^T P, before z is reused (into the reused piece buffers).
+    const piece = this.piece;
+    const q = piece.q;
     for (let k = 0; k < 3; k++) {
       for (let i = 0; i < n; i++) q[k * n + i] = z[i]! * P[k]! + z[n + i]! * P[3 + k]! + z[2 * n + i]! * P[6 + k]!;
     }
-    const yOld = Float64Array.from(y);
+    piece.yOld.set(y);
     for (let i = 0; i < n; i++) y[i] = y[i]! + z[2 * n + i]!;
-    this.interp = { tOld: t, t: tNew, h, yOld, q };
+    piece.tOld = t;
+    piece.t = tNew;
+    piece.h = h;
+    this.hasPiece = true;
+    this.pieceCopy = undefined;
     this.tCur = tNew;
     this.first = false;
     this.extrapolate = true;
@@ -1185,7 +1267,8 @@ class RadauIntegrator implements DaeIntegrator {
       this.messageCur = `terminal event "${events[events.length - 1]!.name}" at t = ${this.tCur}`;
       return jumpFrom ? { status: 'terminal-event', events, jumpFrom } : { status: 'terminal-event', events };
     }
-    return jumpFrom ? { status: 'accepted', events, jumpFrom } : { status: 'accepted', events };
+    if (jumpFrom) return { status: 'accepted', events, jumpFrom };
+    return events === NO_EVENTS ? ACCEPTED : { status: 'accepted', events };
   }
 
   /**
@@ -1199,7 +1282,7 @@ class RadauIntegrator implements DaeIntegrator {
     const y = this.yCur;
     this.restartHistory();
     if (!(this.spaces && this.spaces.k > 0 && p.consistentInit && !this.pendingError)) return undefined;
-    const before = Float64Array.from(y);
+    const before = y.slice();
     const res = makeConsistent(this.consistencyContext(), tNew, y);
     if (!res.ok) {
       y.set(before);
@@ -1235,7 +1318,7 @@ class RadauIntegrator implements DaeIntegrator {
     const evs = p.events;
     const gNew = new Float64Array(evs.length);
     this.evaluateEventsAt(tNew, this.yCur, gNew);
-    const it = this.interp!;
+    const it = this.piece;
     const yb = new Float64Array(this.n);
     const found: { index: number; t: number }[] = [];
     for (let e = 0; e < evs.length; e++) {
@@ -1276,7 +1359,8 @@ class RadauIntegrator implements DaeIntegrator {
       if (last.t < tNew) {
         this.tCur = last.t;
         this.yCur.set(last.y);
-        this.interp = { ...it, t: last.t };
+        it.t = last.t;
+        this.pieceCopy = undefined;
         this.callRhs(this.tCur, this.yCur, this.fCur);
         this.jacCurrent = false;
         if (this.statusCur === 'success') this.statusCur = 'running';
@@ -1288,6 +1372,15 @@ class RadauIntegrator implements DaeIntegrator {
     }
     return { events: records, terminal };
   }
+}
+
+/** A step's polynomial with arrays of its own (the public, immutable form). */
+function copyPiece(p: DaeStepInterpolant): DaeStepInterpolant {
+  const yOld = new Float64Array(p.yOld.length);
+  yOld.set(p.yOld);
+  const q = new Float64Array(p.q.length);
+  q.set(p.q);
+  return { tOld: p.tOld, t: p.t, h: p.h, yOld, q };
 }
 
 /**

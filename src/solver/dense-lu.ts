@@ -1,4 +1,5 @@
-import { equilibrationScales, PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
+import { equilibrateReal } from './dense-equilibration.js';
+import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
 
 /**
  * Real LU factorisation with partial pivoting on a flat row-major
@@ -25,7 +26,7 @@ export function createDenseLu(n: number): RealLinearSolver {
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function factor(a: Float64Array): number {
-    const nonFinite = equilibrationScales(n, (i, j) => Math.abs(a[i * n + j]!), rowScale, colScale);
+    const nonFinite = equilibrateReal(n, a, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
     for (let i = 0; i < n; i++) {
       perm[i] = i;

@@ -58,22 +58,23 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
   while (integ.status === 'running') {
     const r = integ.step();
     if (r.status !== 'accepted' && r.status !== 'terminal-event') break;
-    const step = integ.interpolant!;
+    // The step's polynomial only when something reads it (its arrays are copied for us per request).
+    const step = p.denseOutput || (outK < outT.length && outT[outK]! <= integ.t) ? integ.interpolant! : undefined;
     // Share the previous point's array as the piece's yOld (same values): saves n numbers per step.
-    const it: DaeStepInterpolant = { tOld: step.tOld, t: step.t, h: step.h, yOld: ys[ys.length - 1]!, q: step.q };
+    const it: DaeStepInterpolant | undefined = step && { tOld: step.tOld, t: step.t, h: step.h, yOld: ys[ys.length - 1]!, q: step.q };
     if (r.jumpFrom) {
       // Re-initialised at a breakpoint: keep the left limit, then the right limit, at the same time.
       ts.push(integ.t);
       ys.push(r.jumpFrom);
-      if (p.denseOutput) pieces.push(it, { tOld: integ.t, t: integ.t, h: 1, yOld: integ.y, q: new Float64Array(3 * p.n) });
+      if (p.denseOutput) pieces.push(it!, { tOld: integ.t, t: integ.t, h: 1, yOld: integ.y, q: new Float64Array(3 * p.n) });
     } else if (p.denseOutput) {
-      pieces.push(it);
+      pieces.push(it!);
     }
     ts.push(integ.t);
     ys.push(integ.y);
     for (const e of r.events) events.push(e);
     while (outK < outT.length && outT[outK]! <= integ.t) {
-      outY.push(evaluateCollocation(it, outT[outK]!, new Float64Array(p.n)));
+      outY.push(evaluateCollocation(it!, outT[outK]!, new Float64Array(p.n)));
       outK++;
     }
     if (p.onProgress) {

@@ -31,13 +31,32 @@ export function errorScale(y: Float64Array, rtol: Float64Array, atol: Float64Arr
  * @internal
  */
 export function largestScaled(v: Float64Array, scale: Float64Array | undefined, count = 3): number[] {
-  const idx: number[] = [];
-  for (let i = 0; i < v.length; i++) {
-    const a = Math.abs(v[i]! / (scale ? scale[i]! : 1));
-    if (!Number.isNaN(a) && a > 0) idx.push(i);
+  const top: number[] = [];
+  const size: number[] = [];
+  for (let i = 0; i < v.length; i++) keepLargest(top, size, count, i, Math.abs(v[i]! / (scale ? scale[i]! : 1)));
+  return top;
+}
+
+/**
+ * Selection of the `count` largest: insert index i with magnitude a into
+ * `top` (indices, largest first; `size` their magnitudes) when it ranks,
+ * after every entry at least as large, so ties keep index order as a stable
+ * descending sort would (what an earlier version did, sorting every index:
+ * this allocates no more than the answer). NaN and zero never rank.
+ *
+ * @internal
+ */
+export function keepLargest(top: number[], size: number[], count: number, i: number, a: number): void {
+  if (!(a > 0)) return;
+  let p = top.length;
+  while (p > 0 && size[p - 1]! < a) p--;
+  if (p >= count) return;
+  top.splice(p, 0, i);
+  size.splice(p, 0, a);
+  if (top.length > count) {
+    top.pop();
+    size.pop();
   }
-  idx.sort((a, b) => Math.abs(v[b]! / (scale ? scale[b]! : 1)) - Math.abs(v[a]! / (scale ? scale[a]! : 1)));
-  return idx.slice(0, count);
 }
 
 /**

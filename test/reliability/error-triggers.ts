@@ -108,6 +108,7 @@ export const TRIGGERS: Readonly<Record<string, () => unknown>> = {
     return validateDescription(d as unknown as NetworkDescription);
   },
   'bad-time-span': () => simulate(base().net, { stopTime: -1 }),
+  'steps-not-kept': () => simulate(base().net, { stopTime: 1e-3, sampling: { interval: 1e-4 }, keepSteps: false }).energy(),
   'bad-tolerance': () => simulate(base().net, { stopTime: 1e-3, rtol: 2 }),
   'no-area': () => {
     const { net, m1, m2 } = base();

@@ -1,0 +1,42 @@
+/**
+ * Storage for many small Float64Arrays (the states and step polynomials a
+ * run keeps): views into chunks of CHUNK_LENGTH numbers instead of one typed
+ * array each. A typed array of its own costs an ArrayBuffer, about ten times
+ * the time of a view, and a few hundred bytes of bookkeeping; a chunk is
+ * freed when no view into it is left, so views of dropped steps do not pin
+ * memory for long (a streaming run drops its steps one by one).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const chunks = new Float64Chunks();
+ * const y = chunks.copy(Float64Array.of(1, 2, 3)); // a view of length 3
+ * ```
+ */
+export class Float64Chunks {
+  private chunk = new Float64Array(0);
+  private used = 0;
+
+  constructor(private readonly chunkLength = CHUNK_LENGTH) {}
+
+  /** A zero-filled view of `length` numbers. */
+  take(length: number): Float64Array {
+    if (this.used + length > this.chunk.length) {
+      this.chunk = new Float64Array(Math.max(this.chunkLength, length));
+      this.used = 0;
+    }
+    const view = this.chunk.subarray(this.used, this.used + length);
+    this.used += length;
+    return view;
+  }
+
+  /** A view holding a copy of `values`. */
+  copy(values: Float64Array): Float64Array {
+    const view = this.take(values.length);
+    view.set(values);
+    return view;
+  }
+}
+
+/** Numbers per chunk (32 KiB): a few hundred steps of a small network, few enough that a streaming run frees them soon. */
+const CHUNK_LENGTH = 4096;
