@@ -190,4 +190,5 @@ export const diodeKind: ElementKind<DiodeDescription> = {
     ...(d.capacitance > 0 ? [{ name: 'capacitance', value: d.capacitance, unit: 'F' }] : []),
   ],
   deviceState: (d) => (d.junction === 'ideal' ? d.initiallyOn : undefined),
+  capsStepBySources: true,
 };

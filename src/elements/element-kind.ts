@@ -248,6 +248,13 @@ export interface ElementKind<D extends ElementDescription = ElementDescription> 
   waveform?(d: D): WaveformSpec;
   /** The element's gate waveform (gate-driven switches): closed while above 0.5; undefined when a schedule drives it. */
   gate?(d: D): WaveformSpec | undefined;
+  /**
+   * Whether its conduction changes faster than the states around it (a
+   * diode, ideal or exponential): a run of a network with one caps its step
+   * by the periods of the sine sources, so that the solver, whose error
+   * control follows the states, does not step over a conduction window.
+   */
+  readonly capsStepBySources?: boolean;
   /** The initial discrete state of a device that switches on its own (an ideal diode: on or off); undefined for none. */
   deviceState?(d: D): boolean | undefined;
   /** The element's switching schedule (switches). */

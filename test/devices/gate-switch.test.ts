@@ -6,7 +6,7 @@
  * invented for the test.
  */
 import { describe, expect, it } from 'vitest';
-import { constant, createNetwork, createStepper, finiteDifferenceJacobian, piecewiseLinear, pulse, simulate } from '../../src/index.js';
+import { constant, createNetwork, createStepper, finiteDifferenceJacobian, piecewiseLinear, pulse, simulate, type WaveformSpec } from '../../src/index.js';
 import { compileNetwork } from '../../src/formulation/compile-network.js';
 import { openInterval } from '../../src/formulation/network-inputs.js';
 
@@ -15,7 +15,7 @@ const R = 5;
 const Ron = 0.05;
 const T = 100e-6;
 
-function chopper(gate = pulse({ high: 1, period: T, duty: 0.3, delay: 10e-6 })) {
+function chopper(gate: WaveformSpec = pulse({ high: 1, period: T, duty: 0.3, delay: 10e-6 })) {
   const net = createNetwork('chopper');
   const a = net.node('a');
   const b = net.node('b');

@@ -1,0 +1,10 @@
+const lib = process.argv[2] === 'main' ? await import('/work/main/src/index.js') : await import('../src/index.js');
+const { createNetwork, simulate, sine } = lib as typeof import('../src/index.js');
+const net = createNetwork('x'); const s = net.node('s'); const n1 = net.node('n1');
+net.voltageSource('source', s, net.ground, sine({ amplitude: 1, frequency: 50 }));
+net.resistor('rs', s, n1, 0.5);
+net.capacitor('c', n1, net.ground, 1e-7);
+net.resistor('b2', net.node('n2'), net.ground, 200);
+net.resistor('b3', net.node('n3'), net.ground, 1e3);
+const r = simulate(net, { stopTime: 0.04, atol: 1e-9 });
+console.log(r.status, r.stats.acceptedSteps, r.energy().relativeError);
