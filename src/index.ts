@@ -117,6 +117,7 @@ export { piecewiseLinear, piecewiseLinearWaveform, type PiecewiseLinearSpec } fr
 export { userFunction, userFunctionWaveform, type UserFunctionSpec } from './waveforms/user-function.js';
 export { resolveFunctionWaveform, type ResolveFunctionOptions } from './waveforms/resolve-function-waveform.js';
 export { compileWaveform, type WaveformSpec } from './waveforms/waveform-spec.js';
+export { GATE_THRESHOLD } from './formulation/network-inputs.js';
 
 // Network builder, simulation and results
 export { createNetwork, NetworkBuilder } from './network/network-builder.js';
