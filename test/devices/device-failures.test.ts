@@ -6,7 +6,9 @@
  * builder's checks. The contract is our own (docs/errors.md, docs/devices.md).
  */
 import { describe, expect, it } from 'vitest';
-import { constant, createNetwork, createStepper, InputError, pulse, simulate } from '../../src/index.js';
+import { constant, createNetwork, createStepper, InputError, pulse, simulate, sine } from '../../src/index.js';
+import { acceptNetwork } from '../../src/simulation/accept-network.js';
+import { NetworkRun } from '../../src/simulation/network-run.js';
 import type { ElementEvent, InputView } from '../../src/elements/element-kind.js';
 import { settleDeviceStates, type SettleProblem } from '../../src/simulation/device-settle.js';
 import { expectError } from '../reliability/expect-error.js';
@@ -115,6 +117,28 @@ describe('no consistent set of device states', () => {
     const r = settleDeviceStates({ ...problem, solve: () => false }, 0.5, new Float64Array(1), states, base);
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.message).toMatch(/"D1" off, "D2" off/);
+  });
+
+  it("a run whose search fails stops at the jump with 'no-consistent-device-states', keeping the data before", () => {
+    const net = createNetwork('half wave');
+    const a = net.node('a');
+    const out = net.node('out');
+    net.voltageSource('V', a, net.ground, sine({ amplitude: 10, frequency: 50 }));
+    net.diode('D1', a, out, { forwardVoltage: 0.7, onResistance: 0.1 });
+    net.resistor('R', out, net.ground, 10);
+    const run = new NetworkRun(acceptNetwork(net, 'test').compiled, { t0: 0, horizon: 0.02, rtol: 1e-6, atol: 1e-6 });
+    run.advanceTo(1e-4, { steps: true, interpolants: false });
+    // White box: the algebraic solve of the search fails from now on (no circuit of positive
+    // resistances makes it fail, see settleDeviceStates), so the next commutation cannot settle.
+    (run as unknown as { settleProblem: { solve: () => boolean } }).settleProblem.solve = () => false;
+    run.advanceTo(0.02, { steps: true, interpolants: false });
+    expect(run.status).toBe('inconsistent-init');
+    const cause = run.failure?.cause as InputError;
+    expect(cause.code).toBe('no-consistent-device-states');
+    expect(cause.elements).toEqual(['D1']);
+    expect(run.message).toMatch(/no consistent state of the devices at t = 0\.000\d+ s/);
+    expect(run.t).toBeCloseTo(Math.asin(0.07) / (2 * Math.PI * 50), 9);
+    expect(run.samples.every((x) => x.y.every(Number.isFinite))).toBe(true);
   });
 
   it('a consistent circuit settles in one trial, and a forward-biased diode is switched on by the search', () => {
