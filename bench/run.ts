@@ -14,6 +14,7 @@ import { benchScipy } from './scipy.js';
 import { benchPeriodicSteadyState } from './pss.js';
 import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
+import { benchDevices } from './devices.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -141,5 +142,6 @@ benchRestarts();
 benchAgainstOdex();
 benchScipy();
 benchPeriodicSteadyState();
+benchDevices();
 await benchSweep();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);
