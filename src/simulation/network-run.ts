@@ -170,6 +170,8 @@ export class NetworkRun {
   /** The state settled at the last jump (algebraic unknowns solved with the new inputs), and whether it is valid. */
   private readonly settled: Float64Array;
   private settledValid = false;
+  /** Whether jumps need settling: ideal diodes, or a switching element beside an inductive one (the freewheeling check). */
+  private readonly settlesAtJumps: boolean;
   private readonly atol: number | Float64Array;
   private readonly rtol: number;
   private inputsChanged = false;
@@ -268,6 +270,8 @@ export class NetworkRun {
       ? { devices: compiled.events, names: compiled.description.elements.map((e) => e.name), solve: this.solveAlgebraic }
       : undefined;
     this.freewheel = freewheelCheck(compiled, settings.atol);
+    this.settlesAtJumps = compiled.events.length > 0
+      || (compiled.elements.some((e) => e.conducting !== undefined) && compiled.elements.some((e) => e.role === 'inductive'));
     this.trialStates = [...this.schedule.deviceStates];
     // Diodes fed by a sine: a step must not jump over a conduction window (see deviceStepCap).
     const maxStep = settings.maxStep ?? deviceStepCap(compiled.description);
