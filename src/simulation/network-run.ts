@@ -170,6 +170,8 @@ export class NetworkRun {
   /** The state settled at the last jump (algebraic unknowns solved with the new inputs), and whether it is valid. */
   private readonly settled: Float64Array;
   private settledValid = false;
+  /** Whether a restart far from the settled state starts again from it (networks with diodes only). */
+  private readonly restartsFromSettled: boolean;
   /** Whether jumps need settling: ideal diodes, or a switching element beside an inductive one (the freewheeling check). */
   private readonly settlesAtJumps: boolean;
   private readonly atol: number | Float64Array;
@@ -270,6 +272,7 @@ export class NetworkRun {
       ? { devices: compiled.events, names: compiled.description.elements.map((e) => e.name), solve: this.solveAlgebraic }
       : undefined;
     this.freewheel = freewheelCheck(compiled, settings.atol);
+    this.restartsFromSettled = compiled.description.elements.some((e) => elementKind(e).capsStepBySources);
     this.settlesAtJumps = compiled.events.length > 0
       || (compiled.elements.some((e) => e.conducting !== undefined) && compiled.elements.some((e) => e.role === 'inductive'));
     this.trialStates = [...this.schedule.deviceStates];
@@ -527,7 +530,7 @@ export class NetworkRun {
     // proposed still suits it (a fresh estimate from y' would see the stiff modes a commutation
     // excites and start from steps of 1e-18 s, costing some 25 steps per event to grow back).
     this.statusCur = this.integ.restart(undefined, { capStepByEstimate: !fromEvent });
-    if (this.statusCur === 'running' && this.settledValid && this.farFromSettled()) {
+    if (this.statusCur === 'running' && this.restartsFromSettled && this.settledValid && this.farFromSettled()) {
       // The cheap restart's simplified Newton (a Jacobian taken before the jump) can land on a wrong
       // point when a smooth junction swings from blocking to conducting; the settled state was solved
       // with a fresh Jacobian at every iteration: start from it (full re-initialisation, rare).
