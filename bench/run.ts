@@ -18,6 +18,7 @@ import { benchScipy } from './scipy.js';
 import { benchPeriodicSteadyState } from './pss.js';
 import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
+import { benchDevices } from './devices.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -145,6 +146,7 @@ benchRestarts();
 benchAgainstOdex();
 benchScipy();
 benchPeriodicSteadyState();
+benchDevices();
 await benchSweep();
 benchColdWarm();
 benchMemory();

@@ -117,6 +117,7 @@ export { piecewiseLinear, piecewiseLinearWaveform, type PiecewiseLinearSpec } fr
 export { userFunction, userFunctionWaveform, type UserFunctionSpec } from './waveforms/user-function.js';
 export { resolveFunctionWaveform, type ResolveFunctionOptions } from './waveforms/resolve-function-waveform.js';
 export { compileWaveform, type WaveformSpec } from './waveforms/waveform-spec.js';
+export { GATE_THRESHOLD } from './formulation/network-inputs.js';
 
 // Network builder, simulation and results
 export { createNetwork, NetworkBuilder } from './network/network-builder.js';
@@ -126,6 +127,7 @@ export type {
   ReluctanceOptions,
   WindingOptions,
   SwitchOptions,
+  DiodeOptions,
   TubeInitialCondition,
 } from './network/network-builder.js';
 export type {
@@ -140,6 +142,7 @@ export type {
   VoltageSource,
   CurrentSource,
   Switch,
+  Diode,
   TwoTerminal,
   Source,
   AnyHandle,
@@ -156,6 +159,7 @@ export type {
   VoltageSourceDescription,
   CurrentSourceDescription,
   SwitchDescription,
+  DiodeDescription,
   WindingDescription,
 } from './network/description.js';
 export { handlesOf, type DescriptionHandles } from './network/handles-of.js';

@@ -109,6 +109,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
     lines: [/^status: success/m, /^report: .*report\.html$/m],
     check: (stdout) => expectPageOutput(readFileSync(join(ROOT, 'docs', 'guide', 'getting-started.md'), 'utf8'), stdout),
   },
+  'half-wave-rectifier.ts': { lines: [/^output peak 11\.2\d+ V/m, /^ripple 1\.\d+ V peak to peak/m, /^energy audit: relative imbalance \d\.\de-(\d\d|[6-9])/m, /^Caution: model estimates/m] },
   'harmonics.ts': { lines: [/^ +0 A +\d+\.\d+ +\d/m, /^ +1 A +\d+\.\d+/m, /^Caution: model estimates/m] },
   'inductance-matrix.ts': { lines: [/^  coupling factor k = 0\.99\d+$/m, /^ +12 A +\d+\.\d+ uH/m, /^Caution: model estimates/m] },
   'inrush-study.ts': { lines: [/^12 cases in /m, /^CAUTION: engineering estimates/m] },
