@@ -559,7 +559,6 @@ export class NetworkRun {
   }
 
   /**
-<<<<<<< HEAD
    * Streaming (steps not kept): the interval that just ended gives way to one
    * shared stand-in when no sample refers to it, so a long run on a coarse
    * grid holds inputs in proportion to its samples, not to its edges. Only
@@ -572,7 +571,9 @@ export class NetworkRun {
     const last = this.samples[this.samples.length - 1];
     if (last !== undefined && last.interval === k) return;
     this.intervals[k] = this.standIn ??= new InputsInForce(this.schedule, NaN, NaN, NaN, NaN);
-=======
+  }
+
+  /**
    * A device's own event at the present time: the device flips as the
    * trial, every device is settled together, and the integrator restarts
    * here (cheaply: the step size and the Jacobian's shape are kept).
@@ -660,7 +661,6 @@ export class NetworkRun {
     this.stop = { message: cause.message, failure: { t, h: 0, components: [], cause } };
     this.statusCur = 'inconsistent-init';
     return this.statusCur;
->>>>>>> devices
   }
 
   /** State at the start of the run, after consistent initialisation (undefined before the first advance). */
