@@ -126,6 +126,7 @@ export type {
   ReluctanceOptions,
   WindingOptions,
   SwitchOptions,
+  DiodeOptions,
   TubeInitialCondition,
 } from './network/network-builder.js';
 export type {
@@ -140,6 +141,7 @@ export type {
   VoltageSource,
   CurrentSource,
   Switch,
+  Diode,
   TwoTerminal,
   Source,
   AnyHandle,
@@ -156,6 +158,7 @@ export type {
   VoltageSourceDescription,
   CurrentSourceDescription,
   SwitchDescription,
+  DiodeDescription,
   WindingDescription,
 } from './network/description.js';
 export { handlesOf, type DescriptionHandles } from './network/handles-of.js';

@@ -3,13 +3,14 @@ import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { StampTarget } from './stamp-target.js';
 
 /**
- * The inputs in force for one evaluation: source values and switch states.
- * Passed explicitly to every stamp and quantity, never read from shared
- * state, so a reader of a past step cannot disturb a live run.
+ * The inputs in force for one evaluation: source values, switch states and
+ * the discrete states of devices that switch on their own (an ideal diode
+ * on or off). Passed explicitly to every stamp and quantity, never read
+ * from shared state, so a reader of a past step cannot disturb a live run.
  *
  * @example
  * ```ts
- * const held: InputView = { sourceValue: () => 10, switchClosed: () => true };
+ * const held: InputView = { sourceValue: () => 10, switchClosed: () => true, deviceOn: () => false };
  * ```
  */
 export interface InputView {
@@ -17,6 +18,8 @@ export interface InputView {
   sourceValue(element: number, t: number): number;
   /** Whether switch element `element` is closed at time t. */
   switchClosed(element: number, t: number): boolean;
+  /** Whether device element `element` (an ideal diode) is in its conducting state; held over an input interval. */
+  deviceOn(element: number): boolean;
 }
 
 /**
@@ -118,6 +121,12 @@ export interface CompiledElement {
   };
   /** Energy it stores at state y, J. */
   storedEnergy?(y: Float64Array): number;
+  /**
+   * Whether the element offers a path to a current right now (an open
+   * switch or a blocking diode without capacitance does not): used to find
+   * an inductive current cut off with no freewheeling path. Absent: always.
+   */
+  conducting?(t: number, inputs: InputView): boolean;
   /** Quantities only this kind has (a winding's EMF, copper loss, flux linkage). */
   readonly extra?: Readonly<Partial<Record<ExtraQuantity, (t: number, y: Float64Array) => number>>>;
 }
@@ -161,7 +170,10 @@ export interface ElementGroup {
 }
 
 /**
- * A state function whose zero crossing changes an element's state.
+ * A state function whose zero crossing changes an element's state: for a
+ * device with a discrete state ({@link InputView.deviceOn}) it is the margin
+ * of the present state (positive while the state is right), crossing zero
+ * downwards when the device must change state.
  *
  * @example
  * ```ts
@@ -174,6 +186,13 @@ export interface ElementEvent {
   /** +1: only rising crossings count, -1: only falling, 0: both. */
   readonly direction: -1 | 0 | 1;
   value(t: number, y: Float64Array, inputs: InputView): number;
+  /**
+   * Whether the device's present state is consistent at (t, y) (the
+   * consistent-state search flips it otherwise). It must hold wherever
+   * `value` is positive, with a margin, so that a state just settled never
+   * fires its own event at once. Absent: `value >= 0`.
+   */
+  consistent?(t: number, y: Float64Array, inputs: InputView): boolean;
 }
 
 /**
@@ -227,6 +246,10 @@ export interface ElementKind<D extends ElementDescription = ElementDescription> 
   readonly openTerminalCode?: 'open-winding' | 'open-terminal';
   /** The element's waveform input (sources). */
   waveform?(d: D): WaveformSpec;
+  /** The element's gate waveform (gate-driven switches): closed while above 0.5; undefined when a schedule drives it. */
+  gate?(d: D): WaveformSpec | undefined;
+  /** The initial discrete state of a device that switches on its own (an ideal diode: on or off); undefined for none. */
+  deviceState?(d: D): boolean | undefined;
   /** The element's switching schedule (switches). */
   schedule?(d: D): { readonly initiallyClosed: boolean; readonly toggleTimes: readonly number[] };
   /** Initial voltage plus - minus (capacitive elements), V. */

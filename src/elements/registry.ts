@@ -3,6 +3,7 @@ import { airGapKind } from './air-gap.js';
 import { capacitorKind } from './capacitor.js';
 import { constantReluctanceKind } from './constant-reluctance.js';
 import { currentSourceKind } from './current-source.js';
+import { diodeKind } from './diode.js';
 import type { ElementKind } from './element-kind.js';
 import { hystereticTubeKind } from './hysteretic-tube.js';
 import { inductorKind } from './inductor.js';
@@ -30,6 +31,7 @@ export const ELEMENT_KINDS: { readonly [K in ElementDescription['kind']]: Elemen
   'voltage-source': voltageSourceKind,
   'current-source': currentSourceKind,
   switch: switchKind,
+  diode: diodeKind,
   winding: windingKind,
 };
 
@@ -77,7 +79,7 @@ export function tubeKind<L extends TubeLaw>(law: L): TubeKind<L> {
  *
  * @example
  * ```ts
- * isElementKind('diode'); // false until a diode file is registered
+ * isElementKind('diode'); // true: src/elements/diode.ts is registered
  * ```
  */
 export function isElementKind(kind: unknown): kind is ElementDescription['kind'] {

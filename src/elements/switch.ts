@@ -1,18 +1,54 @@
 import { InputError } from '../errors.js';
-import { requireFinite, requirePositive } from '../network/argument-checks.js';
+import { requireFinite, requireNonNegative, requirePositive } from '../network/argument-checks.js';
+import { clonePlain } from '../network/clone-plain.js';
 import type { SwitchDescription } from '../network/description.js';
-import type { ElementKind } from './element-kind.js';
-import { stampConductance } from './stamp-target.js';
+import { compileWaveform } from '../waveforms/waveform-spec.js';
+import { describeWaveform } from './describe-waveform.js';
+import type { ElementKind, InputView, RateReader } from './element-kind.js';
+import { stampConductance, type StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 
 /**
- * A scheduled switch: a conductance 1/onResistance when closed and
- * 1/offResistance when open, changing state at its toggle times (exact
- * breakpoints of the run).
+ * Stamp a capacitance c between node potentials p and q into the mass matrix.
+ *
+ * @example
+ * ```ts
+ * stampCapacitance(M, p, q, 100e-12); // a switch's output capacitance
+ * ```
+ */
+export function stampCapacitance(M: StampTarget, p: number, q: number, c: number): void {
+  M.add(p, p, c);
+  M.add(p, q, -c);
+  M.add(q, p, -c);
+  M.add(q, q, c);
+}
+
+/**
+ * The current C d(v_p - v_q)/dt of a capacitance between two nodes, read
+ * from the state through M y' = f (see {@link RateReader}).
+ *
+ * @example
+ * ```ts
+ * const i = capacitorCurrent(rates, 'switch:4', p, q, 100e-12, t, y, inputs);
+ * ```
+ */
+export function capacitorCurrent(rates: RateReader, key: string, p: number, q: number, c: number, t: number, y: Float64Array, inputs: InputView): number {
+  return rates.rate(key, (u) => {
+    if (p >= 0) u[p] = c;
+    if (q >= 0) u[q] = -c;
+  }, t, y, inputs);
+}
+
+/**
+ * A switch: a conductance 1/onResistance when closed and 1/offResistance
+ * when open, changing state at its toggle times (a schedule) or at the
+ * edges of its gate waveform (closed while the gate is above 0.5); both are
+ * exact breakpoints of the run. An optional capacitance sits across it.
  *
  * @example
  * ```ts
  * net.switch('breaker', a, b, { closed: false, schedule: [{ time: 0.005, closed: true }] });
+ * net.switch('Q1', drain, net.ground, { gate: pulse({ high: 1, period: 10e-6, duty: 0.4 }), onResistance: 0.05 });
  * ```
  */
 export const switchKind: ElementKind<SwitchDescription> = {
@@ -37,7 +73,19 @@ export const switchKind: ElementKind<SwitchDescription> = {
       throw new InputError('bad-description', `network description: switch "${d.name}" field "toggleTimes" must be a list of times`, [d.name]);
     }
     const toggleTimes = increasingTimes(d.toggleTimes, ctx.owner, d.name);
-    return { kind: 'switch', name: d.name, plus: d.plus, minus: d.minus, onResistance, offResistance, initiallyClosed: d.initiallyClosed, toggleTimes };
+    const capacitance = d.capacitance === undefined ? undefined : requireNonNegative(d.capacitance, `${ctx.owner} capacitance`, d.name, 'F');
+    if (d.gate !== undefined) {
+      if (toggleTimes.length > 0) {
+        throw new InputError('gate-with-schedule', `${ctx.owner} has both a gate and a schedule; drive it by one of them (drop the schedule or the gate)`, [d.name]);
+      }
+      // Validated here (the same checks as a source's waveform), so a bad gate fails at the builder call.
+      compileWaveform(d.gate, { label: `${ctx.owner} gate`, element: d.name });
+    }
+    return {
+      kind: 'switch', name: d.name, plus: d.plus, minus: d.minus, onResistance, offResistance, initiallyClosed: d.initiallyClosed, toggleTimes,
+      ...(d.gate !== undefined ? { gate: clonePlain(d.gate) } : {}),
+      ...(capacitance ? { capacitance } : {}),
+    };
   },
   compile(list, ctx) {
     const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
@@ -57,17 +105,27 @@ export const switchKind: ElementKind<SwitchDescription> = {
       jacobian(t, _y, inputs, J) {
         for (let k = 0; k < p.length; k++) stampConductance(J, p[k]!, q[k]!, inputs.switchClosed(element[k]!, t) ? gOn[k]! : gOff[k]!);
       },
-      mass() {},
+      mass(M) {
+        list.forEach((e, k) => {
+          const c = e.d.capacitance ?? 0;
+          if (c > 0) stampCapacitance(M, p[k]!, q[k]!, c);
+        });
+      },
       elements: list.map((e, k) => {
-        const conductance = (t: number, inputs: { switchClosed(e: number, t: number): boolean }): number =>
-          inputs.switchClosed(e.index, t) ? gOn[k]! : gOff[k]!;
+        const conductance = (t: number, inputs: InputView): number => (inputs.switchClosed(e.index, t) ? gOn[k]! : gOff[k]!);
         const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
+        const c = e.d.capacitance ?? 0;
         return {
           name: e.d.name,
           index: e.index,
           role: 'conductive' as const,
-          current: (t, y, inputs) => voltage(y) * conductance(t, inputs),
+          // Conduction current plus, with a capacitance, its C dv/dt.
+          current: c > 0
+            ? (t, y, inputs, rates) => voltage(y) * conductance(t, inputs) + capacitorCurrent(rates, `switch:${e.index}`, p[k]!, q[k]!, c, t, y, inputs)
+            : (t, y, inputs) => voltage(y) * conductance(t, inputs),
           loss: { category: 'resistors' as const, power: (t, y, inputs) => voltage(y) ** 2 * conductance(t, inputs) },
+          conducting: c > 0 ? () => true : (t, inputs) => inputs.switchClosed(e.index, t),
+          ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * voltage(y) ** 2 } : {}),
         };
       }),
     };
@@ -75,10 +133,16 @@ export const switchKind: ElementKind<SwitchDescription> = {
   listing: (d) => [
     { name: 'on resistance', value: d.onResistance, unit: 'ohm' },
     { name: 'off resistance', value: d.offResistance, unit: 'ohm' },
-    { name: 'initially', value: d.initiallyClosed ? 'closed' : 'open' },
-    { name: 'toggles at', value: d.toggleTimes.length ? d.toggleTimes.join(', ') + ' s' : 'never' },
+    ...(d.gate !== undefined
+      ? [{ name: 'gate', value: describeWaveform(d.gate, '') }]
+      : [
+          { name: 'initially', value: d.initiallyClosed ? 'closed' : 'open' },
+          { name: 'toggles at', value: d.toggleTimes.length ? d.toggleTimes.join(', ') + ' s' : 'never' },
+        ]),
+    ...(d.capacitance ? [{ name: 'capacitance', value: d.capacitance, unit: 'F' }] : []),
   ],
   schedule: (d) => ({ initiallyClosed: d.initiallyClosed, toggleTimes: d.toggleTimes }),
+  gate: (d) => d.gate,
 };
 
 /**

@@ -1,4 +1,4 @@
-import type { CompiledElement, ElementGroup, InputView, StampContext } from '../elements/element-kind.js';
+import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampContext } from '../elements/element-kind.js';
 import { elementKind, tubeKind } from '../elements/registry.js';
 import { DenseStampTarget, type StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube } from '../elements/tube-kind.js';
@@ -43,6 +43,8 @@ export interface CompiledNetwork {
   readonly index2: readonly number[];
   /** Source values and switch states, with embedding overrides. */
   readonly inputs: NetworkInputs;
+  /** Event functions of devices that switch on their own (ideal diodes), in element order. */
+  readonly events: readonly ElementEvent[];
   /** Flux of tube b in the state y, Wb. */
   tubeFlux(y: Float64Array, b: number): number;
   /** MMF drop F_b(phi) of tube b from its law (eddy term excluded) at state y, A. */
@@ -159,6 +161,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     y0,
     index2,
     inputs,
+    events: groups.flatMap((g) => g.events ?? []).sort((a, b) => a.element - b.element),
     tubeFlux: fluxOf,
     tubeMmf: (b, flux, y) => tubes[b]!.mmf(flux, y),
     tubeEnergy: (b, flux, y) => tubes[b]!.energy(flux, y),

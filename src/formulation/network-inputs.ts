@@ -1,4 +1,5 @@
 import type { InputView } from '../elements/element-kind.js';
+import { InputError } from '../errors.js';
 import { elementKind } from '../elements/registry.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { nextDown, nextUp } from '../solver/float-neighbours.js';
@@ -20,6 +21,58 @@ export interface InputState {
   readonly sourceOverride: readonly (number | undefined)[];
   readonly switchOverride: readonly (boolean | undefined)[];
   readonly waveforms: readonly (readonly [number, WaveformSpec])[];
+  /** Gate waveforms put in place of the description's (gate-driven switches). */
+  readonly gates?: readonly (readonly [number, WaveformSpec])[];
+  /** Discrete device states (ideal diodes on/off), per element (false for elements without one). */
+  readonly deviceStates?: readonly boolean[];
+}
+
+/**
+ * A gate waveform is read as on while its value is above this level (a
+ * logic-level gate signal of 0 and 1; a 0/15 V drive works as well).
+ *
+ * @example
+ * ```ts
+ * const on = gateWaveform.value(t) > GATE_THRESHOLD;
+ * ```
+ */
+export const GATE_THRESHOLD = 0.5;
+
+/** Bisection steps that pin a gate crossing inside a smooth piece down to adjacent floats. */
+const GATE_BISECTIONS = 200;
+
+/**
+ * The first time after `after` where a gate changes state: at a breakpoint
+ * of its waveform where the on/off reading jumps, or inside a piece where
+ * the value crosses the threshold (found by bisection to adjacent floats,
+ * so the state is constant between consecutive edges). A piece that
+ * crosses the threshold and comes back before its end is not seen: give a
+ * gate with breakpoints at its edges (pulse, piecewise table, user
+ * function with `breakpoints`).
+ */
+function nextGateEdge(w: Waveform, after: number): number {
+  const on = (t: number): boolean => w.value(t) > GATE_THRESHOLD;
+  let a = after;
+  for (let guard = 0; guard < 1e6; guard++) {
+    const state = on(nextUp(a));
+    const b = w.nextBreakpoint(a);
+    if (!Number.isFinite(b)) return Infinity;
+    const left = nextDown(b);
+    if (left > a && on(left) !== state) {
+      // A crossing inside (a, b): bisect on the reading.
+      let lo = nextUp(a);
+      let hi = left;
+      for (let k = 0; k < GATE_BISECTIONS && nextUp(lo) < hi; k++) {
+        const mid = lo + 0.5 * (hi - lo);
+        if (on(mid) === state) lo = mid;
+        else hi = mid;
+      }
+      return hi;
+    }
+    if (on(b) !== state) return b;
+    a = b;
+  }
+  return Infinity;
 }
 
 /**
@@ -40,6 +93,12 @@ function mergeGap(t: number, span: number): number {
 
 function sourceLabel(el: ElementDescription): { label: string; element: string } {
   return { label: `${elementKind(el).noun} "${el.name}"`, element: el.name };
+}
+
+/** The element's gate waveform (gate-driven switches), compiled; undefined for elements without one. */
+function ownGate(el: ElementDescription): Waveform | undefined {
+  const spec = elementKind(el).gate?.(el);
+  return spec === undefined ? undefined : compileWaveform(spec, { label: `${elementKind(el).noun} "${el.name}" gate`, element: el.name });
 }
 
 /** The element's own waveform (sources), compiled; undefined for elements without one. */
@@ -71,12 +130,19 @@ export class InputSchedule {
     private readonly switchToggles: readonly (readonly number[])[],
     /** Whether element e follows a switching schedule. */
     private readonly hasSchedule: readonly boolean[],
+    /** Compiled gate waveforms of gate-driven switches (undefined elsewhere). */
+    private readonly gates: readonly (Waveform | undefined)[],
+    /** Gate specs put in place of the description's by embedding code. */
+    private readonly replacedGates: ReadonlyMap<number, WaveformSpec>,
+    /** Discrete device states (ideal diodes on/off), held until the run changes them. */
+    readonly deviceStates: readonly boolean[],
   ) {}
 
   /** The schedule of a description: its waveforms and switch schedules, no overrides. */
   static of(description: NetworkDescription): InputSchedule {
     const els = description.elements;
     const schedules = els.map((e) => elementKind(e).schedule?.(e));
+    const gates = els.map(ownGate);
     return new InputSchedule(
       description,
       els.map(ownWaveform),
@@ -85,12 +151,23 @@ export class InputSchedule {
       els.map(() => undefined),
       schedules.map((s) => s?.initiallyClosed ?? false),
       schedules.map((s) => s?.toggleTimes ?? []),
-      schedules.map((s) => s !== undefined),
+      schedules.map((s, e) => s !== undefined && gates[e] === undefined),
+      gates,
+      new Map(),
+      els.map((e) => elementKind(e).deviceState?.(e) ?? false),
     );
   }
 
   private with(
-    changes: Partial<{ waveforms: readonly (Waveform | undefined)[]; replaced: ReadonlyMap<number, WaveformSpec>; sourceOverride: readonly (number | undefined)[]; switchOverride: readonly (boolean | undefined)[] }>,
+    changes: Partial<{
+      waveforms: readonly (Waveform | undefined)[];
+      replaced: ReadonlyMap<number, WaveformSpec>;
+      sourceOverride: readonly (number | undefined)[];
+      switchOverride: readonly (boolean | undefined)[];
+      gates: readonly (Waveform | undefined)[];
+      replacedGates: ReadonlyMap<number, WaveformSpec>;
+      deviceStates: readonly boolean[];
+    }>,
   ): InputSchedule {
     return new InputSchedule(
       this.description,
@@ -101,7 +178,36 @@ export class InputSchedule {
       this.switchInitial,
       this.switchToggles,
       this.hasSchedule,
+      changes.gates ?? this.gates,
+      changes.replacedGates ?? this.replacedGates,
+      changes.deviceStates ?? this.deviceStates,
     );
+  }
+
+  /** The same inputs with the discrete device states `states` (one per element; the array is kept, not copied: do not change it). */
+  withDeviceStates(states: readonly boolean[]): InputSchedule {
+    return this.with({ deviceStates: states });
+  }
+
+  /**
+   * Gate-driven switch element e with a new gate waveform from now on
+   * (validated here): the stepper's way to change a duty or a phase.
+   */
+  withGate(e: number, spec: WaveformSpec): InputSchedule {
+    if (this.gates[e] === undefined) {
+      const el = this.description.elements[e]!;
+      throw new InputError('not-gate-driven', `${elementKind(el).noun} "${el.name}" has no gate; give it one in the builder (options.gate) to drive it by a waveform`, [el.name]);
+    }
+    const gates = [...this.gates];
+    gates[e] = compileWaveform(spec, sourceLabel(this.description.elements[e]!));
+    const replacedGates = new Map(this.replacedGates);
+    replacedGates.set(e, spec);
+    return this.with({ gates, replacedGates });
+  }
+
+  /** Whether element e is a gate-driven switch. */
+  isGateDriven(e: number): boolean {
+    return this.gates[e] !== undefined;
   }
 
   /** Source element e held at a value (V or A), or following its waveform again (undefined). */
@@ -131,14 +237,25 @@ export class InputSchedule {
 
   /** Plain-data copy of what embedding code changed (overrides, replaced waveforms). */
   state(): InputState {
-    return { sourceOverride: [...this.sourceOverride], switchOverride: [...this.switchOverride], waveforms: [...this.replaced.entries()] };
+    return {
+      sourceOverride: [...this.sourceOverride],
+      switchOverride: [...this.switchOverride],
+      waveforms: [...this.replaced.entries()],
+      gates: [...this.replacedGates.entries()],
+      deviceStates: [...this.deviceStates],
+    };
   }
 
   /** The description's schedule with the changes of a {@link InputSchedule.state}. */
   withState(state: InputState): InputSchedule {
     let s = InputSchedule.of(this.description);
     for (const [e, spec] of state.waveforms) s = s.withWaveform(e, spec);
-    return s.with({ sourceOverride: [...state.sourceOverride], switchOverride: [...state.switchOverride] });
+    for (const [e, spec] of state.gates ?? []) s = s.withGate(e, spec);
+    return s.with({
+      sourceOverride: [...state.sourceOverride],
+      switchOverride: [...state.switchOverride],
+      ...(state.deviceStates ? { deviceStates: [...state.deviceStates] } : {}),
+    });
   }
 
   /** Value of source element e at exactly time t (no choice of side at a breakpoint). */
@@ -152,6 +269,8 @@ export class InputSchedule {
   switchClosedAt(e: number, t: number): boolean {
     const o = this.switchOverride[e];
     if (o !== undefined) return o;
+    const gate = this.gates[e];
+    if (gate !== undefined) return gate.value(t) > GATE_THRESHOLD;
     const toggles = this.switchToggles[e]!;
     // Number of toggles at or before t (binary search: schedules can be long).
     let lo = 0;
@@ -170,6 +289,8 @@ export class InputSchedule {
     this.description.elements.forEach((_el, e) => {
       const w = this.waveforms[e];
       if (w && this.sourceOverride[e] === undefined) next = Math.min(next, w.nextBreakpoint(after));
+      const gate = this.gates[e];
+      if (gate && this.switchOverride[e] === undefined) next = Math.min(next, nextGateEdge(gate, after));
       if (this.hasSchedule[e] && this.switchOverride[e] === undefined) {
         const toggles = this.switchToggles[e]!;
         let lo = 0;
@@ -250,6 +371,11 @@ export class InputsInForce implements InputView {
   /** Whether switch element e is closed at time t. */
   switchClosed(e: number, t: number): boolean {
     return this.schedule.switchClosedAt(e, this.sided(t));
+  }
+
+  /** Whether device element e (an ideal diode) conducts over this interval. */
+  deviceOn(e: number): boolean {
+    return this.schedule.deviceStates[e]!;
   }
 
   /** The same inputs ending at `end` instead (a stop time within round-off of the breakpoint); the left limit stays before the edge. */
@@ -355,6 +481,11 @@ export class NetworkInputs implements InputView {
   /** Whether switch element e is closed at time t, under the inputs in force. */
   switchClosed(e: number, t: number): boolean {
     return this.current.switchClosed(e, t);
+  }
+
+  /** Whether device element e (an ideal diode) conducts, under the inputs in force. */
+  deviceOn(e: number): boolean {
+    return this.current.deviceOn(e);
   }
 
   /** The description's breakpoints in (t0, t1), merged (see {@link InputSchedule.breakpoints}). */

@@ -164,12 +164,18 @@ export interface CurrentSourceDescription extends TwoTerminalBase {
 }
 
 /**
- * A switch: resistance onResistance when closed, offResistance when open.
+ * A switch: resistance onResistance when closed, offResistance when open,
+ * driven either by a schedule (initial state and toggle times) or by a gate
+ * waveform (closed while the gate is above 0.5).
  *
  * @example
  * ```ts
  * const s: SwitchDescription = {
  *   kind: 'switch', name: 'breaker', plus: 1, minus: 2, onResistance: 1e-3, offResistance: 1e6, initiallyClosed: false, toggleTimes: [0.005],
+ * };
+ * const q: SwitchDescription = {
+ *   kind: 'switch', name: 'Q1', plus: 3, minus: 0, onResistance: 0.05, offResistance: 1e6, initiallyClosed: false, toggleTimes: [],
+ *   gate: { kind: 'pulse', high: 1, period: 1e-5, duty: 0.4 },
  * };
  * ```
  */
@@ -178,8 +184,48 @@ export interface SwitchDescription extends TwoTerminalBase {
   readonly onResistance: number;
   readonly offResistance: number;
   readonly initiallyClosed: boolean;
-  /** Times at which the switch changes state (toggles), strictly increasing. */
+  /** Times at which the switch changes state (toggles), strictly increasing. Empty for a gate-driven switch. */
   readonly toggleTimes: readonly number[];
+  /** Gate waveform: the switch is closed while it is above 0.5 (the gate threshold); absent: the schedule drives it. */
+  readonly gate?: WaveformSpec;
+  /** Capacitance across the switch, F (absent or 0: none). */
+  readonly capacitance?: number;
+}
+
+/**
+ * A diode from anode (`plus`) to cathode (`minus`). `junction: 'ideal'`: two
+ * states, on (forward voltage in series with onResistance) and off
+ * (offConductance), changed by events and the consistent-state search;
+ * `'exponential'`: the smooth Shockley law i = Is (exp(v_j / (n V_T)) - 1)
+ * with onResistance in series and offConductance in parallel.
+ *
+ * @example
+ * ```ts
+ * const d: DiodeDescription = {
+ *   kind: 'diode', name: 'D1', plus: 1, minus: 2, junction: 'ideal', forwardVoltage: 0.7, onResistance: 0.01,
+ *   offConductance: 1e-9, saturationCurrent: 1e-12, emissionCoefficient: 1, thermalVoltage: 0.025852, capacitance: 0, initiallyOn: false,
+ * };
+ * ```
+ */
+export interface DiodeDescription extends TwoTerminalBase {
+  readonly kind: 'diode';
+  readonly junction: 'ideal' | 'exponential';
+  /** Forward voltage of the ideal diode, V (>= 0). */
+  readonly forwardVoltage: number;
+  /** Series resistance when conducting, ohm (> 0). */
+  readonly onResistance: number;
+  /** Conductance when blocking (ideal) or in parallel (exponential), S (> 0). */
+  readonly offConductance: number;
+  /** Shockley saturation current Is, A (exponential junction). */
+  readonly saturationCurrent: number;
+  /** Emission coefficient n (exponential junction). */
+  readonly emissionCoefficient: number;
+  /** Thermal voltage k T / q, V (exponential junction). */
+  readonly thermalVoltage: number;
+  /** Junction capacitance in parallel, F (0: none). */
+  readonly capacitance: number;
+  /** State of an ideal diode before the first consistent-state search (the search decides). */
+  readonly initiallyOn: boolean;
 }
 
 /**
@@ -214,4 +260,5 @@ export type ElementDescription =
   | VoltageSourceDescription
   | CurrentSourceDescription
   | SwitchDescription
+  | DiodeDescription
   | WindingDescription;

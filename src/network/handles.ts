@@ -104,6 +104,11 @@ export interface Switch extends HandleBase {
   readonly kind: 'switch';
 }
 
+/** A diode from anode (plus) to cathode (minus). @example `const d = net.diode('D1', a, out, { forwardVoltage: 0.7, onResistance: 0.01 });` */
+export interface Diode extends HandleBase {
+  readonly kind: 'diode';
+}
+
 /**
  * Any element with two electric terminals; current, voltage and power are read through these.
  *
@@ -113,7 +118,7 @@ export interface Switch extends HandleBase {
  * for (const e of elements) console.log(e.name, Math.max(...result.current(e)));
  * ```
  */
-export type TwoTerminal = Resistor | Capacitor | Inductor | VoltageSource | CurrentSource | Switch | Winding;
+export type TwoTerminal = Resistor | Capacitor | Inductor | VoltageSource | CurrentSource | Switch | Diode | Winding;
 
 /**
  * A voltage or current source.

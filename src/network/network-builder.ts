@@ -16,6 +16,7 @@ import type {
   AnyHandle,
   Capacitor,
   CurrentSource,
+  Diode,
   ElectricNode,
   FluxTube,
   Inductor,
@@ -159,12 +160,52 @@ export interface WindingOptions {
 export interface SwitchOptions {
   /** Resistance when closed, ohm. Default 1e-3. */
   readonly onResistance?: number;
-  /** Resistance when open, ohm. Default 1e6. */
+  /** Resistance when open, ohm. Default 1e6. Give this or `offConductance`. */
   readonly offResistance?: number;
-  /** State at the start. Default false (open). */
+  /** Conductance when open, S (the reciprocal of `offResistance`). */
+  readonly offConductance?: number;
+  /** State at the start (schedule-driven switches). Default false (open). */
   readonly closed?: boolean;
   /** State changes: at each time the switch takes the given state. Times strictly increasing. */
   readonly schedule?: readonly { readonly time: number; readonly closed: boolean }[];
+  /**
+   * Gate waveform (any waveform: a pulse train with duty and phase, a
+   * piecewise table, a user function): the switch is closed while the gate
+   * is above 0.5; its edges are exact breakpoints. Not together with `schedule`.
+   */
+  readonly gate?: WaveformSpec;
+  /** Capacitance across the switch, F (its output capacitance, or a snubber's). Default none. */
+  readonly capacitance?: number;
+}
+
+/**
+ * Options of {@link NetworkBuilder.diode}.
+ *
+ * @example
+ * ```ts
+ * const fast: DiodeOptions = { forwardVoltage: 0.8, onResistance: 0.02, offConductance: 1e-9 };
+ * const smooth: DiodeOptions = { junction: 'exponential', saturationCurrent: 1e-12, emissionCoefficient: 1.5, onResistance: 0.02 };
+ * ```
+ */
+export interface DiodeOptions {
+  /** Forward voltage of the ideal junction, V (>= 0). Default 0.7. */
+  readonly forwardVoltage?: number;
+  /** Series resistance when conducting, ohm (> 0). Default 0.01. */
+  readonly onResistance?: number;
+  /** Conductance when blocking, S (> 0). Default 1e-9. */
+  readonly offConductance?: number;
+  /** `'ideal'` (two states, events; default) or `'exponential'` (Shockley law, smooth). */
+  readonly junction?: 'ideal' | 'exponential';
+  /** Shockley saturation current Is, A. Default 1e-12. */
+  readonly saturationCurrent?: number;
+  /** Shockley emission coefficient n. Default 1. */
+  readonly emissionCoefficient?: number;
+  /** Thermal voltage k T / q, V. Default 0.025852 (300 K). */
+  readonly thermalVoltage?: number;
+  /** Junction capacitance across the diode, F. Default none. */
+  readonly capacitance?: number;
+  /** State of an ideal diode before the first consistent-state search (which decides). Default false. */
+  readonly initiallyOn?: boolean;
 }
 
 let nextNetworkId = 1;
@@ -393,12 +434,52 @@ export class NetworkBuilder {
   switch(name: string, plus: ElectricNode, minus: ElectricNode, options: SwitchOptions = {}): Switch {
     const [p, m] = this.twoTerminal(name, 'switch', plus, minus);
     const initiallyClosed = options.closed ?? false;
+    if (options.offResistance !== undefined && options.offConductance !== undefined) {
+      throw new InputError('bad-switch-resistance', `switch "${name}" has both offResistance and offConductance; give one of them`, [name]);
+    }
+    const offResistance = options.offConductance !== undefined
+      ? 1 / requirePositive(options.offConductance, `switch "${name}" off-conductance`, name, 'S')
+      : (options.offResistance ?? 1e6);
+    if (options.gate !== undefined && options.schedule !== undefined && options.schedule.length > 0) {
+      throw new InputError('gate-with-schedule', `switch "${name}" has both a gate and a schedule; drive it by one of them (drop the schedule or the gate)`, [name]);
+    }
     return this.add({
       kind: 'switch', name, plus: p, minus: m,
       onResistance: options.onResistance ?? 1e-3,
-      offResistance: options.offResistance ?? 1e6,
+      offResistance,
       initiallyClosed,
       toggleTimes: toggleTimesOf(initiallyClosed, options.schedule ?? [], `switch "${name}"`, name),
+      ...(options.gate !== undefined ? { gate: options.gate } : {}),
+      ...(options.capacitance !== undefined ? { capacitance: options.capacitance } : {}),
+    });
+  }
+
+  /**
+   * Add a diode from `anode` to `cathode`. The ideal junction (default) has
+   * two states: on (forward voltage in series with onResistance) and off
+   * (offConductance); it changes state at events located by the solver and
+   * after every jump by a consistent-state search. The exponential junction
+   * follows the Shockley law, smoothly. See docs/devices.md.
+   *
+   * @example
+   * ```ts
+   * const d1 = net.diode('D1', secondary, out, { forwardVoltage: 0.7, onResistance: 0.02 });
+   * const d2 = net.diode('D2', a, b, { junction: 'exponential', saturationCurrent: 1e-12, emissionCoefficient: 1.5 });
+   * ```
+   */
+  diode(name: string, anode: ElectricNode, cathode: ElectricNode, options: DiodeOptions = {}): Diode {
+    const [p, m] = this.twoTerminal(name, 'diode', anode, cathode);
+    return this.add({
+      kind: 'diode', name, plus: p, minus: m,
+      junction: options.junction ?? 'ideal',
+      forwardVoltage: options.forwardVoltage ?? (options.junction === 'exponential' ? 0 : 0.7),
+      onResistance: options.onResistance ?? 0.01,
+      offConductance: options.offConductance ?? 1e-9,
+      saturationCurrent: options.saturationCurrent ?? 1e-12,
+      emissionCoefficient: options.emissionCoefficient ?? 1,
+      thermalVoltage: options.thermalVoltage ?? 0.025852,
+      capacitance: options.capacitance ?? 0,
+      initiallyOn: options.initiallyOn ?? false,
     });
   }
 

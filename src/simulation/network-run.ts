@@ -9,6 +9,28 @@ import { DenseStampTarget } from '../elements/stamp-target.js';
 import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { ResolvedSolverSettings } from './solver-settings.js';
+import { algebraicSolver, settleDeviceStates, type SettleProblem } from './device-settle.js';
+import { freewheelCheck, type CutInductiveCurrent } from './device-freewheel.js';
+
+/**
+ * One change of a device's own state (an ideal diode turning on or off),
+ * at an event or at the consistent-state search after a jump.
+ *
+ * @example
+ * ```ts
+ * for (const c of run.deviceChanges) console.log(c.t, c.element, c.on ? 'on' : 'off');
+ * ```
+ */
+export interface DeviceChange {
+  readonly t: number;
+  /** Index of the element in the description. */
+  readonly element: number;
+  /** The new state. */
+  readonly on: boolean;
+}
+
+/** Device events in a row at one instant (within round-off) before the run calls it chattering. */
+const CHATTER_LIMIT = 50;
 
 /**
  * A non-finite value found in a recorded state or in a quantity read from
@@ -126,8 +148,21 @@ export class NetworkRun {
   readonly samples: RunSample[] = [];
   /** Step interpolants recorded so far, in time order. */
   readonly steps: RecordedStep[] = [];
-  /** Events located so far. */
+  /** Events located so far (threshold crossings; device commutations are in {@link NetworkRun.deviceChanges}). */
   readonly events: DaeEventRecord[] = [];
+  /** Every change of a device's own state so far (ideal diodes), in time order. */
+  readonly deviceChanges: DeviceChange[] = [];
+  /** Number of device events located by the solver (each one a stop and a restart). */
+  deviceEvents = 0;
+  /** Number of user (threshold) events given to the integrator; device events follow them. */
+  private readonly userEventCount: number;
+  private readonly settleProblem: SettleProblem | undefined;
+  private readonly freewheel: ReturnType<typeof freewheelCheck>;
+  /** Trial device states of the next settle (reused: no allocation per event). */
+  private readonly trialStates: boolean[];
+  /** The device (element index) whose own event asked for the next settle, or -1. */
+  private pendingFlip = -1;
+  private chatter = { t: NaN, count: 0 };
   private inputsChanged = false;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
   private pendingStartSample: number | undefined;
@@ -169,6 +204,19 @@ export class NetworkRun {
     this.projector = createProjector(compiled, settings.atol, settings.rtol);
     this.project = (t, y) => this.projector(t, y);
     const jacobianTarget = new DenseStampTarget(compiled.layout.size);
+    this.userEventCount = settings.events?.length ?? 0;
+    const deviceEvents: DaeEvent[] = compiled.events.map((ev) => ({
+      name: `device "${compiled.description.elements[ev.element]!.name}"`,
+      fn: (t: number, y: Float64Array) => ev.value(t, y, this.live),
+      direction: ev.direction,
+      terminal: true,
+    }));
+    const events = [...(settings.events ?? []), ...deviceEvents];
+    this.settleProblem = compiled.events.length > 0
+      ? { devices: compiled.events, names: compiled.description.elements.map((e) => e.name), solve: algebraicSolver(compiled, settings.atol, settings.rtol) }
+      : undefined;
+    this.freewheel = freewheelCheck(compiled, settings.atol);
+    this.trialStates = [...this.schedule.deviceStates];
     this.integ = createDaeIntegrator(
       {
         size: compiled.layout.size,
@@ -180,7 +228,7 @@ export class NetworkRun {
         t0: settings.t0,
         tEnd: settings.horizon,
         index2: compiled.index2,
-        ...(settings.events ? { events: settings.events } : {}),
+        ...(events.length > 0 ? { events } : {}),
       },
       {
         rtol: settings.rtol,
@@ -196,7 +244,7 @@ export class NetworkRun {
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     // The integrator initialised at t0 with the inputs of no interval yet; redo it on the right side.
     this.startInterval(settings.t0);
-    this.statusCur = this.integ.status;
+    if (!this.stop) this.statusCur = this.integ.status;
   }
 
   /** Present time, s: the end of the last step kept. */
@@ -307,7 +355,11 @@ export class NetworkRun {
           this.statusCur = this.integ.status;
           return this.statusCur;
         }
-        for (const e of r.events) this.events.push(e);
+        let commutation = false;
+        for (const e of r.events) {
+          if (e.index < this.userEventCount) this.events.push(e);
+          else commutation = r.status === 'terminal-event';
+        }
         const step = this.recordStep(record);
         const kept = { steps: this.steps.length, samples: this.samples.length };
         // Samples inside the step first (time order), then the step's end.
@@ -332,6 +384,14 @@ export class NetworkRun {
         }
         this.endState = undefined;
         record.onStep?.(this.t);
+        if (commutation) {
+          // A device's own event ended the step: flip it as the trial, settle every device, restart here.
+          const last = r.events[r.events.length - 1]!;
+          this.deviceEvents++;
+          if (this.commutate(last.index - this.userEventCount) !== 'running') return this.statusCur;
+          this.recordStart(record);
+          break; // the outer loop takes the new interval (its end, a stop time within round-off of it)
+        }
         if (r.status === 'terminal-event') {
           this.statusCur = 'terminal-event';
           return this.statusCur;
@@ -399,7 +459,10 @@ export class NetworkRun {
    * interval at a time), then consistent re-initialisation.
    */
   private startInterval(t: number): 'running' | DaeStatus {
+    const before = this.live;
     this.live = openInterval(this.schedule, t, this.horizon, this.span);
+    const settled = this.settleDevices(t, before);
+    if (settled !== 'running') return settled;
     this.intervals.push(this.live);
     this.compiled.inputs.use(this.live);
     this.statusCur = this.integ.restart(undefined, { capStepByEstimate: true });
@@ -408,9 +471,84 @@ export class NetworkRun {
     return this.statusCur;
   }
 
+  /**
+   * A device's own event at the present time: the device flips as the
+   * trial, every device is settled together, and the integrator restarts
+   * here (cheaply: the step size and the Jacobian's shape are kept).
+   */
+  private commutate(device: number): 'running' | DaeStatus {
+    const t = this.t;
+    if (this.chatter.t === t || Math.abs(this.chatter.t - t) <= timeTolerance(t)) this.chatter.count++;
+    else this.chatter = { t, count: 1 };
+    if (this.chatter.count > CHATTER_LIMIT) {
+      const name = this.compiled.description.elements[this.compiled.events[device]!.element]!.name;
+      return this.stopAtJump(
+        t,
+        new InputError(
+          'no-consistent-device-states',
+          `diode "${name}" changed state ${CHATTER_LIMIT} times at t = ${t} s (chattering); give it an on-resistance, an off-conductance or a capacitance, or loosen the tolerances`,
+          [name],
+        ),
+      );
+    }
+    this.pendingFlip = this.compiled.events[device]!.element;
+    return this.startInterval(t);
+  }
+
+  /**
+   * Settle the device states at a jump (the live interval is the new one,
+   * `before` the one that ended): the consistent-state search on the trial
+   * states, then the check for an inductive current left with no path.
+   * Updates the live schedule; on failure stops the run.
+   */
+  private settleDevices(t: number, before: InputsInForce): 'running' | DaeStatus {
+    const y = this.integ.y;
+    const flip = this.pendingFlip;
+    this.pendingFlip = -1;
+    if (this.settleProblem) {
+      const states = this.trialStates;
+      const old = this.schedule.deviceStates;
+      for (let k = 0; k < states.length; k++) states[k] = old[k]!;
+      if (flip >= 0) states[flip] = !states[flip];
+      const outcome = settleDeviceStates(this.settleProblem, t, Float64Array.from(y), states, this.live);
+      if (!outcome.ok) {
+        const cut = this.freewheel(t, y, before, this.live.withSchedule(this.schedule.withDeviceStates([...states])));
+        return this.stopAtJump(t, cut ? freewheelError(cut) : new InputError('no-consistent-device-states', outcome.message, outcome.elements));
+      }
+      let changed = false;
+      for (const ev of this.settleProblem.devices) {
+        const k = ev.element;
+        if (states[k] !== old[k]) {
+          changed = true;
+          this.deviceChanges.push({ t, element: k, on: states[k]! });
+        }
+      }
+      if (changed) {
+        this.schedule = this.schedule.withDeviceStates([...states]);
+        this.live = this.live.withSchedule(this.schedule);
+      }
+    }
+    const cut = this.freewheel(t, y, before, this.live);
+    if (cut) return this.stopAtJump(t, freewheelError(cut));
+    return 'running';
+  }
+
+  /** End the run at a jump where no consistent continuation exists (the state before it is kept). */
+  private stopAtJump(t: number, cause: InputError): DaeStatus {
+    this.endState = this.integ.y;
+    this.stop = { message: cause.message, failure: { t, h: 0, components: [], cause } };
+    this.statusCur = 'inconsistent-init';
+    return this.statusCur;
+  }
+
   /** State at the start of the run, after consistent initialisation (undefined before the first advance). */
   get initialState(): Float64Array | undefined {
     return this.startState ? Float64Array.from(this.startState) : undefined;
+  }
+
+  /** Give a gate-driven switch a new gate waveform from now on (a new duty or phase). */
+  replaceGate(element: number, spec: WaveformSpec): void {
+    this.changeSchedule(this.schedule.withGate(element, spec));
   }
 
   /** Record the state at a (re)start: the right-hand side of a breakpoint, or t0. */
@@ -521,4 +659,9 @@ export class NetworkRun {
     this.statusCur = status;
     return status;
   }
+}
+
+/** The error that names the switch and the winding or inductor whose current was cut. */
+function freewheelError(cut: CutInductiveCurrent): InputError {
+  return new InputError('no-freewheeling-path', cut.message, [...cut.devices, ...cut.inductive]);
 }

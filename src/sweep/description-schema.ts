@@ -118,6 +118,13 @@ const element = z.discriminatedUnion('kind', [
   z.strictObject({
     kind: z.literal('switch'), ...terminals,
     onResistance: num, offResistance: num, initiallyClosed: z.boolean(), toggleTimes: z.array(num),
+    gate: z.optional(waveformSchema), capacitance: optNum,
+  }),
+  z.strictObject({
+    kind: z.literal('diode'), ...terminals,
+    junction: z.union([z.literal('ideal'), z.literal('exponential')]),
+    forwardVoltage: num, onResistance: num, offConductance: num,
+    saturationCurrent: num, emissionCoefficient: num, thermalVoltage: num, capacitance: num, initiallyOn: z.boolean(),
   }),
   z.strictObject({
     kind: z.literal('winding'), ...terminals,

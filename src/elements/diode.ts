@@ -1,0 +1,193 @@
+import { InputError } from '../errors.js';
+import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
+import type { DiodeDescription } from '../network/description.js';
+import type { ElementEvent, ElementKind, InputView } from './element-kind.js';
+import { stampConductance } from './stamp-target.js';
+import { stateValue } from './state-value.js';
+import { capacitorCurrent, stampCapacitance } from './switch.js';
+
+/**
+ * Relative width of the band around an ideal diode's threshold inside which
+ * either state counts as consistent (times the terminal potentials and the
+ * forward voltage). The event fires only below the band and the
+ * consistent-state search flips only below it, so a diode just settled
+ * never fires its own event at once (no chattering at one instant). About
+ * 4500 units of round-off: far below any voltage a user reads.
+ */
+const THRESHOLD_BAND = 1e-12;
+/** Absolute floor of that band, V. */
+const THRESHOLD_FLOOR = 1e-12;
+/** Newton iterations of the junction voltage of the exponential law (convex, monotone: a few suffice). */
+const JUNCTION_ITERATIONS = 100;
+
+/**
+ * A diode from anode (`plus`) to cathode (`minus`).
+ *
+ * Ideal junction: two states. On: a forward voltage Vf in series with
+ * onResistance, i = (v - Vf) / Ron. Off: i = offConductance v. The state is
+ * a discrete input held over an interval (so the Jacobian is exact there),
+ * changed at events located on the dense output (the margin of the present
+ * state, v - Vf when on and Vf - v when off, crossing zero downwards) and
+ * by the run's consistent-state search after every jump.
+ *
+ * Exponential junction: the Shockley law i = Is (exp(v_j / (n V_T)) - 1)
+ * with onResistance in series (v = v_j + Ron i, solved for v_j inside each
+ * evaluation, so no unknown is added) and offConductance in parallel;
+ * smooth, no events.
+ *
+ * An optional junction capacitance sits across either kind.
+ *
+ * @example
+ * ```ts
+ * net.diode('D1', secondary, out, { forwardVoltage: 0.7, onResistance: 0.02 });
+ * ```
+ */
+export const diodeKind: ElementKind<DiodeDescription> = {
+  kind: 'diode',
+  noun: 'diode',
+  role: 'conductive',
+  branchCurrent: false,
+  check(d, ctx) {
+    if (d.junction !== 'ideal' && d.junction !== 'exponential') {
+      throw new InputError('unknown-junction', `${ctx.owner} junction ${JSON.stringify(d.junction)} is not 'ideal' or 'exponential'; choose one of them`, [d.name]);
+    }
+    const forwardVoltage = requireNonNegative(d.forwardVoltage, `${ctx.owner} forward voltage`, d.name, 'V');
+    const onResistance = requirePositive(d.onResistance, `${ctx.owner} on-resistance`, d.name, 'ohm');
+    const offConductance = requirePositive(d.offConductance, `${ctx.owner} off-conductance`, d.name, 'S');
+    if (offConductance * onResistance >= 1) {
+      throw new InputError(
+        'bad-diode-resistance',
+        `${ctx.owner} off-conductance ${offConductance} S is not below 1/onResistance = ${1 / onResistance} S; give a small leakage conductance (say 1e-9 S)`,
+        [d.name],
+      );
+    }
+    const saturationCurrent = requirePositive(d.saturationCurrent, `${ctx.owner} saturation current`, d.name, 'A');
+    const emissionCoefficient = requirePositive(d.emissionCoefficient, `${ctx.owner} emission coefficient`, d.name, '');
+    const thermalVoltage = requirePositive(d.thermalVoltage, `${ctx.owner} thermal voltage`, d.name, 'V');
+    const capacitance = requireNonNegative(d.capacitance, `${ctx.owner} capacitance`, d.name, 'F');
+    if (typeof d.initiallyOn !== 'boolean') {
+      throw new InputError('bad-description', `network description: diode "${d.name}" field "initiallyOn" must be true or false`, [d.name]);
+    }
+    return {
+      kind: 'diode', name: d.name, plus: d.plus, minus: d.minus, junction: d.junction, forwardVoltage, onResistance, offConductance,
+      saturationCurrent, emissionCoefficient, thermalVoltage, capacitance, initiallyOn: d.initiallyOn,
+    };
+  },
+  compile(list, ctx) {
+    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
+    const element = Int32Array.from(list, (e) => e.index);
+    const ideal = Uint8Array.from(list, (e) => (e.d.junction === 'ideal' ? 1 : 0));
+    const vf = Float64Array.from(list, (e) => e.d.forwardVoltage);
+    const gOn = Float64Array.from(list, (e) => 1 / e.d.onResistance);
+    const ron = Float64Array.from(list, (e) => e.d.onResistance);
+    const gOff = Float64Array.from(list, (e) => e.d.offConductance);
+    const is = Float64Array.from(list, (e) => e.d.saturationCurrent);
+    const nvt = Float64Array.from(list, (e) => e.d.emissionCoefficient * e.d.thermalVoltage);
+    const voltage = (k: number, y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
+    /** Current of the exponential junction and its slope di/dv, into `out`. */
+    const slope = new Float64Array(1);
+    const exponentialCurrent = (k: number, v: number, out: Float64Array): number => {
+      const a = nvt[k]!;
+      const s = is[k]!;
+      const r = ron[k]!;
+      // g(vj) = vj + R Is (exp(vj/a) - 1) - v is convex and increasing: Newton from above the root
+      // converges monotonically (v > 0: both v and a log(1 + v/(R Is)) are above it; v <= 0: 0 is).
+      let vj = v > 0 ? Math.min(v, a * Math.log1p(v / (r * s))) : 0;
+      for (let it = 0; it < JUNCTION_ITERATIONS; it++) {
+        const e = Math.exp(vj / a);
+        const g = vj + r * s * (e - 1) - v;
+        const step = g / (1 + (r * s * e) / a);
+        vj -= step;
+        if (!(Math.abs(step) > 1e-15 * (Math.abs(vj) + a))) break;
+      }
+      const e = Math.exp(vj / a);
+      const gj = (s * e) / a;
+      out[0] = gj / (1 + r * gj) + gOff[k]!;
+      return s * (e - 1) + gOff[k]! * v;
+    };
+    /** Conduction current (no capacitance) of diode k at (y, inputs). */
+    const conduction = (k: number, y: Float64Array, inputs: InputView): number => {
+      const v = voltage(k, y);
+      if (!ideal[k]) return exponentialCurrent(k, v, slope);
+      return inputs.deviceOn(element[k]!) ? (v - vf[k]!) * gOn[k]! : v * gOff[k]!;
+    };
+    /** Margin of the present state of ideal diode k (positive while right), V. */
+    const margin = (k: number, y: Float64Array, inputs: InputView): number => {
+      const v = voltage(k, y) - vf[k]!;
+      return inputs.deviceOn(element[k]!) ? v : -v;
+    };
+    const band = (k: number, y: Float64Array): number =>
+      THRESHOLD_BAND * (Math.abs(stateValue(y, p[k]!)) + Math.abs(stateValue(y, q[k]!)) + vf[k]!) + THRESHOLD_FLOOR;
+    const events: ElementEvent[] = [];
+    list.forEach((e, k) => {
+      if (!ideal[k]) return;
+      events.push({
+        element: e.index,
+        direction: -1,
+        // Crosses zero downwards one band below the threshold: see THRESHOLD_BAND.
+        value: (_t, y, inputs) => margin(k, y, inputs) + 2 * band(k, y),
+        consistent: (_t, y, inputs) => margin(k, y, inputs) >= -band(k, y),
+      });
+    });
+    return {
+      residual(_t, y, inputs, f) {
+        for (let k = 0; k < p.length; k++) {
+          const i = conduction(k, y, inputs);
+          if (p[k]! >= 0) f[p[k]!]! -= i;
+          if (q[k]! >= 0) f[q[k]!]! += i;
+        }
+      },
+      jacobian(_t, y, inputs, J) {
+        for (let k = 0; k < p.length; k++) {
+          let g: number;
+          if (ideal[k]) g = inputs.deviceOn(element[k]!) ? gOn[k]! : gOff[k]!;
+          else {
+            exponentialCurrent(k, voltage(k, y), slope);
+            g = slope[0]!;
+          }
+          stampConductance(J, p[k]!, q[k]!, g);
+        }
+      },
+      mass(M) {
+        list.forEach((e, k) => {
+          if (e.d.capacitance > 0) stampCapacitance(M, p[k]!, q[k]!, e.d.capacitance);
+        });
+      },
+      events,
+      elements: list.map((e, k) => {
+        const c = e.d.capacitance;
+        return {
+          name: e.d.name,
+          index: e.index,
+          role: 'conductive' as const,
+          current: c > 0
+            ? (t, y, inputs, rates) => conduction(k, y, inputs) + capacitorCurrent(rates, `diode:${e.index}`, p[k]!, q[k]!, c, t, y, inputs)
+            : (_t, y, inputs) => conduction(k, y, inputs),
+          // Everything the junction conducts is dissipated (Vf i + Ron i^2 when on, gOff v^2 when off).
+          loss: { category: 'resistors' as const, power: (_t, y, inputs) => voltage(k, y) * conduction(k, y, inputs) },
+          conducting: c > 0 || !ideal[k] ? () => true : (_t, inputs) => inputs.deviceOn(e.index),
+          ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * voltage(k, y) ** 2 } : {}),
+        };
+      }),
+    };
+  },
+  listing: (d) => [
+    { name: 'junction', value: d.junction },
+    ...(d.junction === 'ideal'
+      ? [
+          { name: 'forward voltage', value: d.forwardVoltage, unit: 'V' },
+          { name: 'on resistance', value: d.onResistance, unit: 'ohm' },
+          { name: 'off conductance', value: d.offConductance, unit: 'S' },
+        ]
+      : [
+          { name: 'saturation current', value: d.saturationCurrent, unit: 'A' },
+          { name: 'emission coefficient', value: d.emissionCoefficient },
+          { name: 'thermal voltage', value: d.thermalVoltage, unit: 'V' },
+          { name: 'series resistance', value: d.onResistance, unit: 'ohm' },
+          { name: 'parallel conductance', value: d.offConductance, unit: 'S' },
+        ]),
+    ...(d.capacitance > 0 ? [{ name: 'capacitance', value: d.capacitance, unit: 'F' }] : []),
+  ],
+  deviceState: (d) => (d.junction === 'ideal' ? d.initiallyOn : undefined),
+};
