@@ -169,6 +169,7 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
     }
     const { k, v0, w0 } = spaces;
     if (k === 0) return true;
+    let previous = Infinity;
     for (let iter = 0; iter < MAX_NEWTON; iter++) {
       compiled.evaluate(t, y, inputs, f);
       jac.fill(0);
@@ -191,6 +192,8 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
       }
       if (!Number.isFinite(norm)) return false;
       if (norm <= NEWTON_TOLERANCE) return true;
+      if (iter >= 2 && norm >= previous) return true; // stalled at the round-off level: a piecewise-linear network is solved
+      previous = norm;
     }
     return false;
   };
