@@ -48,13 +48,13 @@ export function flyback(p: FlybackParameters) {
   if (!(gapReluctance > 0)) throw new Error('flyback test circuit: lm too large for the core');
   net.reluctance('gap', { from: m2, to: m1, reluctance: gapReluctance, area: CORE.area });
   const vin = net.node('vin');
-  const top = net.node('top');
+  const top = p.leakage ? net.node('top') : vin;
   const drain = net.node('drain');
   const sec = net.node('sec');
   const out = net.node('out');
   const supply = net.voltageSource('supply', vin, net.ground, constant(p.vin));
   const leakage = p.leakage ? net.inductor('leakage', vin, top, p.leakage) : undefined;
-  const primary = net.winding('primary', { tube: leg, turns: p.n1, plus: leakage ? top : vin, minus: drain });
+  const primary = net.winding('primary', { tube: leg, turns: p.n1, plus: top, minus: drain });
   const gate = pulse({ high: 1, period: p.period, duty: p.duty });
   const sw = net.switch('Q1', drain, net.ground, { gate, onResistance: p.switchOn, offConductance: 1e-7 });
   // Wound the other way round: current entering at ground drives the flux on while the switch is off.
