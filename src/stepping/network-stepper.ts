@@ -285,6 +285,23 @@ export class NetworkStepper {
   }
 
   /**
+   * Give a gate-driven switch a new gate waveform from now on: the way a
+   * controller changes a duty cycle or a phase between advances. The new
+   * gate is read at the present time at once (a switch whose new gate is
+   * high closes now) and its edges are exact breakpoints, as the builder's.
+   *
+   * @example
+   * ```ts
+   * stepper.setGate(q1, pulse({ high: 1, period: 10e-6, duty: 0.35, delay: 2.5e-6 }));
+   * ```
+   */
+  setGate(sw: Switch, gate: WaveformSpec): void {
+    const e = this.reader.checkHandle(sw, 'switch').index;
+    this.run.replaceGate(e, gate);
+    this.touched = true;
+  }
+
+  /**
    * Make the solver land exactly on time t when passing it (for example a
    * known event of the surrounding model).
    *
