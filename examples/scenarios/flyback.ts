@@ -38,6 +38,8 @@ export interface FlybackOptions {
   /** Output capacitor voltage at the start, V. Default 0. */
   readonly initialOutput?: number;
   readonly duty?: number;
+  /** Capacitance across the switch, F. Default none. */
+  readonly switchCapacitance?: number;
 }
 
 /** The flyback as a network, with handles to what a study reads. */
@@ -72,7 +74,7 @@ export function flybackConverter(options: FlybackOptions = {}) {
   }
   const primary = net.winding('primary', { tube: core, turns: d.primaryTurns, resistance: 0.02, plus: top, minus: drain });
   const gate = pulse({ high: 1, period: 1 / d.frequency, duty: options.duty ?? d.duty });
-  const sw = net.switch('Q1', drain, net.ground, { gate, onResistance: d.switchOn, offConductance: 1e-7 });
+  const sw = net.switch('Q1', drain, net.ground, { gate, onResistance: d.switchOn, offConductance: 1e-7, ...(options.switchCapacitance ? { capacitance: options.switchCapacitance } : {}) });
   // Wound the other way round: it takes over the flux when the switch opens.
   const secondary = net.winding('secondary', { tube: core, turns: d.secondaryTurns, resistance: 0.01, plus: net.ground, minus: sec });
   const diode = net.diode('D1', sec, out, diodeOptions);
