@@ -3,7 +3,8 @@
  * non-stiff extrapolation code) on the stiff test set at the same
  * tolerances, the linear-algebra kernels, the kernels inside the solver, and,
  * when SciPy is importable, SciPy's solve_ivp (Radau, BDF), and the sweep
- * speedup on worker threads (bench/sweep.ts). Prints tables;
+ * speedup on worker threads (bench/sweep.ts), and the commutations of a
+ * flyback with ideal against exponential diodes (bench/flyback-commutation.ts). Prints tables;
  * wall times are medians of a few repeats. Total run time about a minute.
  */
 import { solveDae, type DaeProblem, type SolveDaeOptions } from '../src/index.js';
@@ -11,6 +12,7 @@ import { Solver } from '../test/support/odex.js';
 import { benchLinearAlgebra } from './linear-algebra.js';
 import { hires, maxRelativeError, rcLadder, ringModulator, robertsonDae, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
 import { benchScipy } from './scipy.js';
+import { benchFlybackCommutation } from './flyback-commutation.js';
 import { benchPeriodicSteadyState } from './pss.js';
 import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
@@ -141,5 +143,6 @@ benchRestarts();
 benchAgainstOdex();
 benchScipy();
 benchPeriodicSteadyState();
+benchFlybackCommutation();
 await benchSweep();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);
