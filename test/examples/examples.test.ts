@@ -95,7 +95,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'current-transformer.ts': { lines: [/^aiding the offset +0\.9\d{2} T +\d+\.\d{2} ms +\d+\.\d{2} ms$/m, /^Caution: engineering estimates/m] },
   'demo.ts': {
     args: (dir) => [dir],
-    lines: [/^== Energising a 230 V mains transformer/m, /^== Flux walk in a push-pull transformer/m, /^== Three-leg core/m, /three-leg-loads\.html$/m, /^Engineering estimates/m],
+    lines: [/^== Energising a 230 V mains transformer/m, /^== Flux walk in a push-pull transformer/m, /^== Three-leg core/m, /^== Flyback converter with leakage and an RCD clamp/m, /three-leg-loads\.html$/m, /flyback\.html$/m, /^Engineering estimates/m],
   },
   'flux-state.ts': {
     args: (dir) => [dir],
