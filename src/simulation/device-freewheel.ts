@@ -14,6 +14,8 @@ export interface CutInductiveCurrent {
 
 /** A current below this many absolute tolerances counts as zero (a diode that turned off at its zero crossing). */
 const CURRENT_FLOOR_ATOL = 100;
+/** ... or below this fraction of the largest inductive current before the jump. */
+const CURRENT_FLOOR_RELATIVE = 1e-6;
 
 /**
  * Finds, after a jump (a gate edge, a diode turning off), an inductive
@@ -27,38 +29,30 @@ const CURRENT_FLOOR_ATOL = 100;
  * would be forced through the off-conductance: a voltage of I/G_off
  * (megavolts), then a solver failure far from the cause.
  *
- * Structural (union-find over the conducting elements) plus, for
- * windings, a small least-squares test on the loop-winding incidence:
- * the MMF carried by the path-less windings must lie in the span of the
- * MMFs the others can carry. Buffers are allocated once.
+ * Structural (union-find over the conducting elements), then the
+ * current each path-less element still carries once the algebraic
+ * equations are solved with the new states: an inductor keeps its
+ * current; a winding keeps the part of its MMF that no other winding can
+ * take over (its leakage flux), which the solve finds by itself. Buffers
+ * are allocated once.
  *
  * @example
  * ```ts
  * const check = freewheelCheck(compiled, 1e-6);
- * const cut = check(t, yBefore, before, after);
+ * const cut = check(t, yBefore, ySettled, before, after);
  * if (cut) console.error(cut.message);
  * ```
  */
 export function freewheelCheck(
   compiled: CompiledNetwork,
   atol: number | Float64Array,
-): (t: number, yBefore: Float64Array, before: InputView, after: InputView) => CutInductiveCurrent | undefined {
+): (t: number, yBefore: Float64Array, ySettled: Float64Array, before: InputView, after: InputView) => CutInductiveCurrent | undefined {
   const d = compiled.description;
   const els = d.elements;
   const inductive = els.flatMap((e, k) => (elementKind(e).role === 'inductive' ? [k] : []));
   const switching = els.flatMap((_e, k) => (compiled.elements[k]!.conducting ? [k] : []));
   const parent = new Int32Array(d.electricNodes.length);
   const conducting = new Uint8Array(els.length);
-  const loopCount = compiled.loops.loopCount;
-  /** Column of winding w in the loop-winding incidence: s N on every loop through its tube. */
-  const column = (w: number): Float64Array => {
-    const col = new Float64Array(loopCount);
-    const link = elementKind(els[w]!).linkedFlux?.(els[w]!);
-    if (!link) return col;
-    for (const en of compiled.loops.tubeLoops[link.tube]!) col[en.loop] = col[en.loop]! + en.sign * link.turns;
-    return col;
-  };
-  const columns = new Map(inductive.filter((k) => elementKind(els[k]!).linkedFlux).map((k) => [k, column(k)] as const));
   const atolOf = (i: number): number => (typeof atol === 'number' ? atol : atol[i]!);
 
   const find = (a: number): number => {
@@ -80,42 +74,23 @@ export function freewheelCheck(
     return find(els[skip]!.plus) === find(els[skip]!.minus);
   };
 
-  return (t, yBefore, before, after) => {
+  return (t, yBefore, ySettled, before, after) => {
     if (inductive.length === 0 || switching.length === 0) return undefined;
     for (let k = 0; k < els.length; k++) {
       const role = elementKind(els[k]!).role;
       conducting[k] = role !== 'current-source' && (compiled.elements[k]!.conducting?.(t, after) ?? true) ? 1 : 0;
     }
-    const cut: number[] = [];
-    const pathlessWindings: number[] = [];
-    const pathWindings: number[] = [];
+    let largest = 0;
     for (const k of inductive) {
       const j = compiled.layout.branchCurrent[k]!;
-      const current = j >= 0 ? yBefore[j]! : 0;
-      const path = hasPath(k);
-      if (columns.has(k)) {
-        if (path) pathWindings.push(k);
-        else if (Math.abs(current) > CURRENT_FLOOR_ATOL * atolOf(j)) pathlessWindings.push(k);
-      } else if (!path && Math.abs(current) > CURRENT_FLOOR_ATOL * atolOf(j)) {
-        cut.push(k);
-      }
+      if (j >= 0) largest = Math.max(largest, Math.abs(yBefore[j]!));
     }
-    if (pathlessWindings.length > 0) {
-      // MMF the path-less windings carry, minus its part that the windings with a path can take over.
-      const r = new Float64Array(loopCount);
-      let floor = 0;
-      for (const w of pathlessWindings) {
-        const j = compiled.layout.branchCurrent[w]!;
-        const col = columns.get(w)!;
-        for (let l = 0; l < loopCount; l++) r[l] = r[l]! + col[l]! * yBefore[j]!;
-        floor += CURRENT_FLOOR_ATOL * atolOf(j) * Math.max(...col.map(Math.abs));
-      }
-      for (const q of orthonormalBasis(pathWindings.map((w) => columns.get(w)!))) {
-        let dot = 0;
-        for (let l = 0; l < loopCount; l++) dot += q[l]! * r[l]!;
-        for (let l = 0; l < loopCount; l++) r[l] = r[l]! - dot * q[l]!;
-      }
-      if (Math.max(0, ...r.map(Math.abs)) > floor) cut.push(...pathlessWindings);
+    const cut: number[] = [];
+    for (const k of inductive) {
+      const j = compiled.layout.branchCurrent[k]!;
+      if (j < 0 || hasPath(k)) continue;
+      // The settled current: what the flux (a winding) or the state (an inductor) still demands of the element.
+      if (Math.abs(ySettled[j]!) > Math.max(CURRENT_FLOOR_ATOL * atolOf(j), CURRENT_FLOOR_RELATIVE * largest)) cut.push(k);
     }
     if (cut.length === 0) return undefined;
     const opened = switching.filter((k) => (compiled.elements[k]!.conducting!(t, before) && !conducting[k]));
@@ -127,21 +102,4 @@ export function freewheelCheck(
       "add a diode, a snubber or the switch's capacitance";
     return { inductive: cut.map((k) => els[k]!.name), devices: devices.map((k) => els[k]!.name), message };
   };
-}
-
-/** Orthonormal basis of the span of some vectors (modified Gram-Schmidt, dependent ones dropped). */
-function orthonormalBasis(vectors: readonly Float64Array[]): Float64Array[] {
-  const basis: Float64Array[] = [];
-  for (const v of vectors) {
-    const u = Float64Array.from(v);
-    const size = Math.sqrt(u.reduce((s, x) => s + x * x, 0));
-    for (const q of basis) {
-      let dot = 0;
-      for (let l = 0; l < u.length; l++) dot += q[l]! * u[l]!;
-      for (let l = 0; l < u.length; l++) u[l] = u[l]! - dot * q[l]!;
-    }
-    const norm = Math.sqrt(u.reduce((s, x) => s + x * x, 0));
-    if (norm > 1e-12 * size && norm > 0) basis.push(u.map((x) => x / norm));
-  }
-  return basis;
 }

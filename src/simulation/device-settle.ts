@@ -1,13 +1,15 @@
 import type { ElementEvent, InputView } from '../elements/element-kind.js';
 import { DenseStampTarget } from '../elements/stamp-target.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import { algebraicJacobian, massSpaces, type MassSpaces } from '../solver/consistent-initialization.js';
+import { algebraicJacobian, makeConsistent, massSpaces, type MassSpaces } from '../solver/consistent-initialization.js';
 import { createDenseLu } from '../solver/dense-lu.js';
 
 /** Newton iterations of one algebraic solve (piecewise-linear circuits need one; saturating cores a few). */
 const MAX_NEWTON = 25;
 /** Converged when the last correction is this small in tolerance units (atol + rtol |y|). */
 const NEWTON_TOLERANCE = 1e-8;
+/** A correction that stops shrinking below this (tolerance units) is round-off: converged. */
+const STAGNATION_TOLERANCE = 1;
 
 /**
  * What the consistent-state search needs: the devices (their margins and
@@ -141,7 +143,10 @@ function describe(devices: readonly ElementEvent[], states: readonly boolean[], 
  * Newton on W0^T f(t, y + V0 z) = 0 (W0, V0: left and right null spaces of
  * the mass matrix), the differential content M y kept, with a fresh
  * Jacobian per iteration (the device states changed since the last call,
- * and a stale matrix would not see it). Buffers are allocated once.
+ * and a stale matrix would not see it). Buffers are allocated once. When
+ * that matrix is too ill-conditioned for the LU's pivot test (a node held
+ * only by the off-conductances of blocking diodes: 1e-9 S beside 1e3 S),
+ * the solver's least-change initialisation (SVD based) takes over.
  *
  * @example
  * ```ts
@@ -159,6 +164,21 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
   let work = new Float64Array(0);
   let z = new Float64Array(0);
   let lu: ReturnType<typeof createDenseLu> | undefined;
+  const scale = new Float64Array(n);
+  const leastChange = (t: number, y: Float64Array, inputs: InputView): boolean => {
+    for (let i = 0; i < n; i++) scale[i] = (typeof atol === 'number' ? atol : atol[i]!) + rtol * Math.abs(y[i]!);
+    const ctx = {
+      n,
+      spaces: spaces!,
+      rhs: (tt: number, yy: Float64Array, out: Float64Array) => compiled.evaluate(tt, yy, inputs, out),
+      jacobian: (tt: number, yy: Float64Array, _f: Float64Array, out: Float64Array) => {
+        out.fill(0);
+        compiled.stampJacobian(tt, yy, inputs, new DenseStampTarget(n).bind(out));
+      },
+      scale,
+    };
+    return makeConsistent(ctx, t, y, false).ok;
+  };
   return (t, y, inputs) => {
     if (!spaces) {
       spaces = massSpaces(compiled.mass, n);
@@ -175,7 +195,7 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
       jac.fill(0);
       compiled.stampJacobian(t, y, inputs, target);
       algebraicJacobian(spaces, jac, reduced, work);
-      if (lu!.factor(reduced) >= 0) return false;
+      if (lu!.factor(reduced) >= 0) return leastChange(t, y, inputs);
       for (let j = 0; j < k; j++) {
         let acc = 0;
         for (let i = 0; i < n; i++) acc += w0[i * k + j]! * f[i]!;
@@ -192,7 +212,8 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
       }
       if (!Number.isFinite(norm)) return false;
       if (norm <= NEWTON_TOLERANCE) return true;
-      if (iter >= 2 && norm >= previous) return true; // stalled at the round-off level: a piecewise-linear network is solved
+      // Stagnation within tolerance: the round-off floor of an ill-conditioned solve (off-conductances).
+      if (iter > 0 && norm <= STAGNATION_TOLERANCE && norm >= 0.5 * previous) return true;
       previous = norm;
     }
     return false;

@@ -11,6 +11,7 @@ import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { ResolvedSolverSettings } from './solver-settings.js';
 import { algebraicSolver, settleDeviceStates, type SettleProblem } from './device-settle.js';
 import { freewheelCheck, type CutInductiveCurrent } from './device-freewheel.js';
+import { deviceStepCap } from './device-step-cap.js';
 
 /**
  * One change of a device's own state (an ideal diode turning on or off),
@@ -157,6 +158,8 @@ export class NetworkRun {
   /** Number of user (threshold) events given to the integrator; device events follow them. */
   private readonly userEventCount: number;
   private readonly settleProblem: SettleProblem | undefined;
+  /** Solves the algebraic unknowns under given inputs (the consistent-state search and the freewheeling check). */
+  private readonly solveAlgebraic: ReturnType<typeof algebraicSolver>;
   private readonly freewheel: ReturnType<typeof freewheelCheck>;
   /** Trial device states of the next settle (reused: no allocation per event). */
   private readonly trialStates: boolean[];
@@ -170,7 +173,7 @@ export class NetworkRun {
   private startState: Float64Array | undefined;
   private startStatePending = false;
   private restartPending = true;
-  private statusCur: 'running' | DaeStatus;
+  private statusCur: 'running' | DaeStatus = 'running';
   private readonly horizon: number;
   /** Length of the run's span, for the breakpoint merge gap near t = 0. */
   private readonly span: number;
@@ -212,11 +215,14 @@ export class NetworkRun {
       terminal: true,
     }));
     const events = [...(settings.events ?? []), ...deviceEvents];
+    this.solveAlgebraic = algebraicSolver(compiled, settings.atol, settings.rtol);
     this.settleProblem = compiled.events.length > 0
-      ? { devices: compiled.events, names: compiled.description.elements.map((e) => e.name), solve: algebraicSolver(compiled, settings.atol, settings.rtol) }
+      ? { devices: compiled.events, names: compiled.description.elements.map((e) => e.name), solve: this.solveAlgebraic }
       : undefined;
     this.freewheel = freewheelCheck(compiled, settings.atol);
     this.trialStates = [...this.schedule.deviceStates];
+    // Ideal diodes fed by a sine: a step must not jump over a conduction window (see deviceStepCap).
+    const maxStep = settings.maxStep ?? (compiled.events.length > 0 ? deviceStepCap(compiled.description) : undefined);
     this.integ = createDaeIntegrator(
       {
         size: compiled.layout.size,
@@ -234,7 +240,7 @@ export class NetworkRun {
         rtol: settings.rtol,
         atol: settings.atol,
         ...(settings.atolFollowsRtol !== undefined ? { atolFollowsRtol: settings.atolFollowsRtol } : {}),
-        ...(settings.maxStep !== undefined ? { maxStep: settings.maxStep } : {}),
+        ...(maxStep !== undefined ? { maxStep } : {}),
         ...(settings.initialStep !== undefined ? { initialStep: settings.initialStep } : {}),
         ...(settings.maxSteps !== undefined ? { maxSteps: settings.maxSteps } : {}),
         ...(settings.maxWallTimeMs !== undefined ? { maxWallTimeMs: settings.maxWallTimeMs } : {}),
@@ -458,14 +464,17 @@ export class NetworkRun {
    * next breakpoint (found on demand, so any number of edges costs one
    * interval at a time), then consistent re-initialisation.
    */
-  private startInterval(t: number): 'running' | DaeStatus {
+  private startInterval(t: number, fromEvent = false): 'running' | DaeStatus {
     const before = this.live;
     this.live = openInterval(this.schedule, t, this.horizon, this.span);
-    const settled = this.settleDevices(t, before);
+    const settled = this.settleDevices(t, before, fromEvent);
     if (settled !== 'running') return settled;
     this.intervals.push(this.live);
     this.compiled.inputs.use(this.live);
-    this.statusCur = this.integ.restart(undefined, { capStepByEstimate: true });
+    // A device's own event changes no input: the state is continuous and the step the controller
+    // proposed still suits it (a fresh estimate from y' would see the stiff modes a commutation
+    // excites and start from steps of 1e-18 s, costing some 25 steps per event to grow back).
+    this.statusCur = this.integ.restart(undefined, { capStepByEstimate: !fromEvent });
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     this.restartPending = true;
     return this.statusCur;
@@ -492,17 +501,18 @@ export class NetworkRun {
       );
     }
     this.pendingFlip = this.compiled.events[device]!.element;
-    return this.startInterval(t);
+    return this.startInterval(t, true);
   }
 
   /**
    * Settle the device states at a jump (the live interval is the new one,
    * `before` the one that ended): the consistent-state search on the trial
-   * states, then the check for an inductive current left with no path.
+   * states, then (at an input jump) the check for an inductive current left with no path.
    * Updates the live schedule; on failure stops the run.
    */
-  private settleDevices(t: number, before: InputsInForce): 'running' | DaeStatus {
+  private settleDevices(t: number, before: InputsInForce, fromEvent: boolean): 'running' | DaeStatus {
     const y = this.integ.y;
+    const settled = Float64Array.from(y);
     const flip = this.pendingFlip;
     this.pendingFlip = -1;
     if (this.settleProblem) {
@@ -510,9 +520,10 @@ export class NetworkRun {
       const old = this.schedule.deviceStates;
       for (let k = 0; k < states.length; k++) states[k] = old[k]!;
       if (flip >= 0) states[flip] = !states[flip];
-      const outcome = settleDeviceStates(this.settleProblem, t, Float64Array.from(y), states, this.live);
+      const outcome = settleDeviceStates(this.settleProblem, t, settled, states, this.live);
       if (!outcome.ok) {
-        const cut = this.freewheel(t, y, before, this.live.withSchedule(this.schedule.withDeviceStates([...states])));
+        const trial = this.live.withSchedule(this.schedule.withDeviceStates([...states]));
+        const cut = this.solveAlgebraic(t, settled, trial) ? this.freewheel(t, y, settled, before, trial) : undefined;
         return this.stopAtJump(t, cut ? freewheelError(cut) : new InputError('no-consistent-device-states', outcome.message, outcome.elements));
       }
       let changed = false;
@@ -527,8 +538,12 @@ export class NetworkRun {
         this.schedule = this.schedule.withDeviceStates([...states]);
         this.live = this.live.withSchedule(this.schedule);
       }
+    } else if (!this.solveAlgebraic(t, settled, this.live)) {
+      return 'running'; // the integrator's own re-initialisation meets (and reports) the trouble
     }
-    const cut = this.freewheel(t, y, before, this.live);
+    // A diode's own event turns it off at its current's zero crossing: it cuts no current (and the
+    // current left by locating the crossing, slope times the time tolerance, is no fault).
+    const cut = fromEvent ? undefined : this.freewheel(t, y, settled, before, this.live);
     if (cut) return this.stopAtJump(t, freewheelError(cut));
     return 'running';
   }

@@ -1,0 +1,21 @@
+import { createNetwork, simulate, sine } from '../src/index.js';
+import { NetworkRun } from '../src/simulation/network-run.js';
+import { acceptNetwork } from '../src/simulation/accept-network.js';
+const net = createNetwork('fb');
+const a = net.node('a'); const b = net.node('b'); const p = net.node('p'); const n = net.node('n');
+net.voltageSource('src', a, b, sine({ amplitude: 20, frequency: 50 }));
+net.resistor('rs', b, net.ground, 1e-3);
+const opts = { forwardVoltage: 0.7, onResistance: 0.05 };
+net.diode('D1', a, p, opts); net.diode('D2', b, p, opts); net.diode('D3', n, a, opts); net.diode('D4', n, b, opts);
+const c = net.capacitor('C', p, n, 1000e-6);
+net.resistor('load', p, n, 100);
+const t0 = Date.now();
+const r = simulate(net, { stopTime: 0.2 });
+console.log(r.status, r.message, Date.now() - t0, 'ms', r.stats.acceptedSteps, 'energy', r.energy().relativeError);
+const v = r.voltage(c); const t = r.time;
+let mx = -Infinity, mn = Infinity;
+for (let i = 0; i < t.length; i++) if (t[i]! > 0.15) { mx = Math.max(mx, v[i]!); mn = Math.min(mn, v[i]!); }
+console.log('max', mx, 'min', mn, 'ripple', mx - mn);
+const run = new NetworkRun(acceptNetwork(net, 'x').compiled, { t0: 0, horizon: 0.2, rtol: 1e-6, atol: 1e-6 } as any);
+run.advanceTo(0.2, { steps: true, interpolants: false });
+console.log(run.status, run.deviceEvents, run.deviceChanges.map((c) => `${c.t.toFixed(5)} ${c.element}${c.on ? '+' : '-'}`).join(' '));

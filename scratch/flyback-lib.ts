@@ -1,0 +1,26 @@
+import { createNetwork, simulate, pulse } from '../src/index.js';
+import { NetworkRun } from '../src/simulation/network-run.js';
+import { acceptNetwork } from '../src/simulation/accept-network.js';
+export function flyback(clamp: boolean, smooth = false) {
+  const net = createNetwork('flyback');
+  const m1 = net.magneticNode('m1'); const m2 = net.magneticNode('m2');
+  const legP = net.reluctance('legP', { from: m1, to: m2, reluctance: 1e3 });
+  net.reluctance('leak', { from: m2, to: m1, reluctance: 4e8 });
+  const legS = net.reluctance('gap', { from: m2, to: m1, reluctance: 4e6 });
+  const vin = net.node('vin'); const drain = net.node('drain'); const sec = net.node('sec'); const out = net.node('out');
+  net.voltageSource('Vin', vin, net.ground, { kind: 'constant', value: 24 });
+  net.winding('P', { tube: legP, turns: 20, resistance: 0.05, plus: vin, minus: drain });
+  net.winding('S', { tube: legS, turns: 10, resistance: 0.02, plus: net.ground, minus: sec, orientation: 1 });
+  net.switch('Q1', drain, net.ground, { gate: pulse({ high: 1, period: 10e-6, duty: 0.4 }), onResistance: 0.05, offResistance: 1e6 });
+  const d = smooth ? { junction: 'exponential' as const, saturationCurrent: 1e-9, emissionCoefficient: 1.5, onResistance: 0.01 } : { forwardVoltage: 0.5, onResistance: 0.01 };
+  net.diode('Dout', sec, out, d);
+  net.capacitor('Cout', out, net.ground, 100e-6, { initialVoltage: 5.5 });
+  net.resistor('Rload', out, net.ground, 10);
+  if (clamp) {
+    const cl = net.node('clamp');
+    net.diode('Dclamp', drain, cl, d);
+    net.capacitor('Cclamp', cl, vin, 100e-9, { initialVoltage: 30 });
+    net.resistor('Rclamp', cl, vin, 2e3);
+  }
+  return net;
+}

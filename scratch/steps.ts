@@ -1,0 +1,11 @@
+import { flyback } from './flyback-lib.js';
+import { NetworkRun } from '../src/simulation/network-run.js';
+import { acceptNetwork } from '../src/simulation/accept-network.js';
+const net = flyback(true, false);
+const run = new NetworkRun(acceptNetwork(net, 'x').compiled, { t0: 0, horizon: 100e-6, rtol: 1e-6, atol: 1e-6 } as any);
+run.advanceTo(90e-6, { steps: true, interpolants: false });
+const n0 = run.samples.length; const c0 = run.deviceChanges.length;
+run.advanceTo(100e-6, { steps: true, interpolants: false });
+const s = run.samples.slice(n0);
+console.log(s.map((x, i) => i ? ((x.t - s[i-1]!.t) * 1e9).toFixed(1) : '').join(' '));
+console.log(run.deviceChanges.slice(c0).map((c) => `${(c.t*1e6).toFixed(3)} ${net.describe().elements[c.element]!.name}${c.on?'+':'-'}`).join(' '));

@@ -1,0 +1,10 @@
+import { flyback } from './flyback-lib.js';
+import { NetworkRun } from '../src/simulation/network-run.js';
+import { acceptNetwork } from '../src/simulation/accept-network.js';
+const tol = Number(process.argv[2] ?? 1e-6);
+const net = flyback(true, false);
+const run = new NetworkRun(acceptNetwork(net, 'x').compiled, { t0: 0, horizon: 100e-6, rtol: tol, atol: tol } as any);
+run.advanceTo(100e-6, { steps: false, interpolants: false });
+const c0 = run.deviceChanges.length - 8;
+console.log(tol, run.status, run.message, run.t, run.stats.acceptedSteps, run.y.slice(0, 6).join(' '));
+console.log(run.deviceChanges.slice(c0).map((c) => `${(c.t*1e6).toFixed(4)} ${net.describe().elements[c.element]!.name}${c.on?'+':'-'}`).join(' '));
