@@ -12,7 +12,7 @@ export function flyback(clamp: boolean, smooth = false) {
   net.winding('P', { tube: legP, turns: 20, resistance: 0.05, plus: vin, minus: drain });
   net.winding('S', { tube: legS, turns: 10, resistance: 0.02, plus: net.ground, minus: sec, orientation: 1 });
   net.switch('Q1', drain, net.ground, { gate: pulse({ high: 1, period: 10e-6, duty: 0.4 }), onResistance: 0.05, offResistance: 1e6 });
-  const d = smooth ? { junction: 'exponential' as const, saturationCurrent: 1e-9, emissionCoefficient: 1.5, onResistance: 0.01 } : { forwardVoltage: 0.5, onResistance: 0.01 };
+  const d = smooth ? { junction: 'exponential' as const, saturationCurrent: 1e-9, emissionCoefficient: 1.5, onResistance: 0.01, capacitance: Number(process.env.CJ ?? 0) } : { forwardVoltage: 0.5, onResistance: 0.01 };
   net.diode('Dout', sec, out, d);
   net.capacitor('Cout', out, net.ground, 100e-6, { initialVoltage: 5.5 });
   net.resistor('Rload', out, net.ground, 10);

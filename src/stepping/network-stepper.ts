@@ -302,6 +302,22 @@ export class NetworkStepper {
   }
 
   /**
+   * Give a gate-driven switch a new gate waveform from now on: a new duty,
+   * phase or period for the next pulses (validated like the builder's; the
+   * present interval ends here and the next gate edge comes from the new
+   * waveform). Throws `not-gate-driven` for a switch that follows a schedule.
+   *
+   * @example
+   * ```ts
+   * stepper.setGate(q1, pulse({ high: 1, period: 10e-6, duty: 0.35, delay: stepper.time }));
+   * ```
+   */
+  setGate(sw: Switch, spec: WaveformSpec): void {
+    const e = this.reader.checkHandle(sw, 'switch').index;
+    this.run.replaceGate(e, spec);
+  }
+
+  /**
    * Make the solver land exactly on time t when passing it (for example a
    * known event of the surrounding model).
    *

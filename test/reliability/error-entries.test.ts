@@ -183,9 +183,9 @@ describe('description entries (validateDescription)', () => {
       errorClass: InputError, code: 'bad-description', elements: ['leg'], message: [/"leg" field "to" = 7 is not the index of a magnetic node \(0\.\.1\)/],
     });
     const d2 = plain() as unknown as { elements: { kind: string }[] };
-    d2.elements[1]!.kind = 'diode';
+    d2.elements[1]!.kind = 'thyristor';
     expectError(() => validateDescription(d2 as unknown as NetworkDescription), {
-      errorClass: InputError, code: 'bad-description', elements: ['coil'], message: [/element "coil" has kind "diode"; use 'resistor'/],
+      errorClass: InputError, code: 'bad-description', elements: ['coil'], message: [/element "coil" has kind "thyristor"; use 'resistor'/],
     });
     const d3 = plain() as unknown as Record<string, unknown>;
     delete d3.elements;

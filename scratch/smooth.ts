@@ -1,0 +1,13 @@
+import { flyback } from './flyback-lib.js';
+import { NetworkRun } from '../src/simulation/network-run.js';
+import { acceptNetwork } from '../src/simulation/accept-network.js';
+const net = flyback(true, true);
+const c = acceptNetwork(net, 'x').compiled;
+const run = new NetworkRun(c, { t0: 0, horizon: 20e-6, rtol: 1e-6, atol: 1e-6 } as any);
+run.advanceTo(13.99e-6, { steps: true, interpolants: false });
+console.log(c.layout.labels.map((l, i) => `${i} ${l} = ${run.y[i]}`).join('\n'));
+run.advanceTo(14e-6, { steps: true, interpolants: false });
+console.log(run.status, run.message);
+console.log(c.layout.labels.map((l, i) => `${i} ${l} = ${run.y[i]}`).join('\n'));
+run.advanceTo(14.1e-6, { steps: true, interpolants: false });
+console.log(run.status, run.message, run.samples.slice(-5).map((s) => s.t));
