@@ -289,6 +289,9 @@ export class NetworkStepper {
    * controller changes a duty cycle or a phase between advances. The new
    * gate is read at the present time at once (a switch whose new gate is
    * high closes now) and its edges are exact breakpoints, as the builder's.
+   * Validated like the builder's; throws `not-gate-driven` for a switch
+   * that follows a schedule. A watched quantity that jumps across a
+   * threshold's level by the change crosses there.
    *
    * @example
    * ```ts
@@ -299,22 +302,6 @@ export class NetworkStepper {
     const e = this.reader.checkHandle(sw, 'switch').index;
     this.run.replaceGate(e, gate);
     this.touched = true;
-  }
-
-  /**
-   * Give a gate-driven switch a new gate waveform from now on: a new duty,
-   * phase or period for the next pulses (validated like the builder's; the
-   * present interval ends here and the next gate edge comes from the new
-   * waveform). Throws `not-gate-driven` for a switch that follows a schedule.
-   *
-   * @example
-   * ```ts
-   * stepper.setGate(q1, pulse({ high: 1, period: 10e-6, duty: 0.35, delay: stepper.time }));
-   * ```
-   */
-  setGate(sw: Switch, spec: WaveformSpec): void {
-    const e = this.reader.checkHandle(sw, 'switch').index;
-    this.run.replaceGate(e, spec);
   }
 
   /**
