@@ -4,7 +4,8 @@
  * tolerances, the linear-algebra kernels, the kernels inside the solver, and,
  * when SciPy is importable, SciPy's solve_ivp (Radau, BDF), and the sweep
  * speedup on worker threads (bench/sweep.ts), first-run against warm cost,
- * memory against steps (bench/memory.ts) and the ratios to compiled RADAU5
+ * memory against steps (bench/memory.ts), the commutations of a flyback with
+ * ideal against exponential diodes (bench/flyback-commutation.ts) and the ratios to compiled RADAU5
  * when the bench-anchor yardstick is at hand (bench/anchor.ts). Prints tables;
  * wall times are medians of a few repeats. Total run time about a minute.
  */
@@ -15,6 +16,7 @@ import { benchLinearAlgebra } from './linear-algebra.js';
 import { benchMemory } from './memory.js';
 import { hires, maxRelativeError, rcLadder, ringModulator, robertsonDae, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
 import { benchScipy } from './scipy.js';
+import { benchFlybackCommutation } from './flyback-commutation.js';
 import { benchPeriodicSteadyState } from './pss.js';
 import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
@@ -147,6 +149,7 @@ benchAgainstOdex();
 benchScipy();
 benchPeriodicSteadyState();
 benchDevices();
+benchFlybackCommutation();
 await benchSweep();
 benchColdWarm();
 benchMemory();

@@ -1,4 +1,4 @@
-// fluxstate demo: three scenarios of our own (invented designs), each simulated in the time
+// fluxstate demo: four scenarios of our own (invented designs), each simulated in the time
 // domain with flux as a state variable. Prints a table per scenario and writes an HTML report
 // and CSV files per scenario to out/. Run: npm run demo
 //
@@ -7,6 +7,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { writeReport } from '../src/report/index.js';
+import { runFlyback } from './scenarios/flyback.js';
 import { runMainsInrush } from './scenarios/mains-inrush.js';
 import { runPushPullWalk } from './scenarios/push-pull-walk.js';
 import { runThreeLegLoads } from './scenarios/three-leg-loads.js';
@@ -44,6 +45,7 @@ const scenarios: { name: string; run: (p: ScenarioProgress) => ScenarioOutcome }
   { name: 'mains transformer energisation', run: runMainsInrush },
   { name: 'push-pull flux walk', run: runPushPullWalk },
   { name: 'three-leg core, unequal loads', run: runThreeLegLoads },
+  { name: 'flyback converter', run: runFlyback },
 ];
 
 console.log('fluxstate demo: magnetic networks with flux as a state variable (invented designs, demo data)\n');

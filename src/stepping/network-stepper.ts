@@ -5,6 +5,7 @@ import { resultFromRun, type SimulationResult } from '../result/simulation-resul
 import { StateReader, type QuantityRequest, type StateFunction } from '../result/state-reader.js';
 import { NetworkRun, timeTolerance, type RecordOptions, type RunSnapshot } from '../simulation/network-run.js';
 import type { DaeEvent, DaeStatus, SolverStats } from '../solver/types.js';
+import { evaluateRecordedStep } from '../simulation/recorded-step.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import { checkedInitialState } from '../simulation/checked-initial-state.js';
 import { finitenessCheck } from '../simulation/finiteness-check.js';
@@ -23,7 +24,10 @@ export interface Threshold {
   readonly direction?: 'rising' | 'falling' | 'both';
   /**
    * Called at the crossing, with the stepper standing at the crossing time;
-   * it may change inputs (they take effect from that instant).
+   * it may change inputs (they take effect from that instant). A quantity
+   * that jumps across the level when an input changes (a switch edge, a
+   * waveform breakpoint, a change made from the stepper or a callback)
+   * crosses there, in the direction of the jump.
    */
   readonly onCross: (stepper: NetworkStepper, crossing: { readonly name: string; readonly time: number; readonly rising: boolean }) => void;
 }
@@ -50,6 +54,15 @@ export interface StepperOptions extends SolverSettings {
   /** Level crossings to watch. */
   readonly thresholds?: readonly Threshold[];
 }
+
+/** One solver event function: a threshold watched in one direction (a `'both'` threshold has two). */
+interface ThresholdEvent {
+  readonly threshold: number;
+  readonly rising: boolean;
+}
+
+/** Jump crossings at one instant beyond which callbacks are taken to be flipping an input back and forth. */
+const MAX_JUMP_ROUNDS = 100;
 
 /** A controller called at a fixed sample period. */
 interface PeriodicController {
@@ -102,6 +115,14 @@ export class NetworkStepper {
   private stopTimes: number[] = [];
   private nextControllerId = 1;
   private readonly thresholds: readonly Threshold[];
+  /** The watched quantity of each threshold. */
+  private readonly watched: readonly StateFunction[];
+  /** What each solver event function stands for. */
+  private readonly thresholdEvents: readonly ThresholdEvent[];
+  /** Each threshold's value minus its level at the present time, under the inputs in force when last settled. */
+  private settled: Float64Array;
+  /** An input was changed from the stepper (or a callback) since the values were last settled. */
+  private touched = false;
   private readonly horizon: number;
   private inCallback = false;
 
@@ -122,16 +143,24 @@ export class NetworkStepper {
     this.reader = new StateReader(this.compiled, this.networkId);
     this.horizon = options.horizon;
     this.thresholds = options.thresholds ?? [];
-    const events: DaeEvent[] = this.thresholds.map((th) => {
+    this.watched = this.thresholds.map((th) => {
       const fn: StateFunction = this.reader.build(th.watch);
       if (!Number.isFinite(th.level)) throw new InputError('bad-option', `threshold "${th.name}": level ${th.level} is not finite`, [th.name]);
-      return {
-        name: th.name,
-        fn: (t, y) => fn(y, t) - th.level,
-        direction: th.direction === 'rising' ? 1 : th.direction === 'falling' ? -1 : 0,
-        terminal: true,
-      };
+      return fn;
     });
+    // A 'both' threshold is watched as two one-way event functions, so the solver's pick says the
+    // direction (the value at a located crossing may sit exactly on the level).
+    const thresholdEvents: ThresholdEvent[] = [];
+    const events: DaeEvent[] = [];
+    this.thresholds.forEach((th, k) => {
+      const fn = this.watched[k]!;
+      for (const rising of [true, false]) {
+        if (th.direction === (rising ? 'falling' : 'rising')) continue;
+        thresholdEvents.push({ threshold: k, rising });
+        events.push({ name: th.name, fn: (t, y) => fn(y, t) - th.level, direction: rising ? 1 : -1, terminal: true });
+      }
+    });
+    this.thresholdEvents = thresholdEvents;
     this.record = { steps: options.record ?? true, interpolants: options.record ?? true };
     this.run = new NetworkRun(this.compiled, {
       t0,
@@ -141,6 +170,7 @@ export class NetworkStepper {
       ...(options.initialState ? { initialState: checkedInitialState(this.compiled, options.initialState, 'stepper options') } : {}),
       events,
     });
+    this.settled = this.thresholdValues();
   }
 
   /** Present time, s. @example `stepper.time` */
@@ -221,6 +251,7 @@ export class NetworkStepper {
       throw new InputError('bad-set-point', `set-point ${value} for source "${source.name}" is not finite`, [source.name]);
     }
     this.run.overrideSource(e, value);
+    this.touched = true;
   }
 
   /**
@@ -235,6 +266,7 @@ export class NetworkStepper {
   setWaveform(source: VoltageSource | CurrentSource, spec: WaveformSpec): void {
     const e = this.sourceIndex(source);
     this.run.replaceWaveform(e, spec);
+    this.touched = true;
   }
 
   /**
@@ -249,22 +281,27 @@ export class NetworkStepper {
   setSwitch(sw: Switch, closed: boolean | undefined): void {
     const e = this.reader.checkHandle(sw, 'switch').index;
     this.run.overrideSwitch(e, closed);
+    this.touched = true;
   }
 
   /**
-   * Give a gate-driven switch a new gate waveform from now on: a new duty,
-   * phase or period for the next pulses (validated like the builder's; the
-   * present interval ends here and the next gate edge comes from the new
-   * waveform). Throws `not-gate-driven` for a switch that follows a schedule.
+   * Give a gate-driven switch a new gate waveform from now on: the way a
+   * controller changes a duty cycle or a phase between advances. The new
+   * gate is read at the present time at once (a switch whose new gate is
+   * high closes now) and its edges are exact breakpoints, as the builder's.
+   * Validated like the builder's; throws `not-gate-driven` for a switch
+   * that follows a schedule. A watched quantity that jumps across a
+   * threshold's level by the change crosses there.
    *
    * @example
    * ```ts
-   * stepper.setGate(q1, pulse({ high: 1, period: 10e-6, duty: 0.35, delay: stepper.time }));
+   * stepper.setGate(q1, pulse({ high: 1, period: 10e-6, duty: 0.35, delay: 2.5e-6 }));
    * ```
    */
-  setGate(sw: Switch, spec: WaveformSpec): void {
+  setGate(sw: Switch, gate: WaveformSpec): void {
     const e = this.reader.checkHandle(sw, 'switch').index;
-    this.run.replaceGate(e, spec);
+    this.run.replaceGate(e, gate);
+    this.touched = true;
   }
 
   /**
@@ -325,15 +362,20 @@ export class NetworkStepper {
       throw new InputError('bad-stop-time', `cannot advance to ${t} s: the stepper is at ${this.time} s and its horizon is ${this.horizon} s`, ['t']);
     }
     const due = (x: number): boolean => x - this.time <= timeTolerance(x);
+    this.settleInputChanges();
+    // With thresholds, every input breakpoint ends an advance of the run, so a jump there is seen.
+    const watchJumps = this.thresholds.length > 0;
     while (!due(t) && this.status === 'running') {
       const nextController = Math.min(...this.controllers.map((c) => c.next), Infinity);
       const nextStop = this.stopTimes.find((s) => !due(s)) ?? Infinity;
-      const target = Math.min(t, nextController, nextStop);
-      let status = !due(target) ? this.run.advanceTo(target, this.record) : this.run.status;
+      const nextEdge = watchJumps ? this.run.inputs.end : Infinity;
+      const target = Math.min(t, nextController, nextStop, nextEdge > this.time ? nextEdge : Infinity);
+      let status = !due(target) ? this.advanceRun(target) : this.run.status;
       while (status === 'terminal-event') {
         this.handleCrossings();
         status = this.run.resume(this.record);
-        if (status === 'running' && !due(target)) status = this.run.advanceTo(target, this.record);
+        if (status === 'running') this.afterRestart();
+        if (status === 'running' && !due(target)) status = this.advanceRun(target);
       }
       if (status !== 'running') break;
       this.stopTimes = this.stopTimes.filter((s) => !due(s));
@@ -346,6 +388,7 @@ export class NetworkStepper {
           } while (due(c.next));
         }
       }
+      this.settleInputChanges();
     }
     return this.status;
   }
@@ -400,6 +443,8 @@ export class NetworkStepper {
       }
     }
     this.stopTimes = [...snapshot.stopTimes];
+    this.touched = false;
+    this.settled = this.thresholdValues();
   }
 
   /**
@@ -423,14 +468,81 @@ export class NetworkStepper {
     const events = this.run.events;
     const last = events[events.length - 1];
     if (!last) return;
+    this.settled = this.thresholdValues();
     for (const e of events) {
       if (e.t !== last.t) continue;
-      const th = this.thresholds[e.index];
-      if (!th) continue;
-      const fn = this.reader.build(th.watch);
-      const rising = fn(e.y, e.t) >= th.level;
-      this.callback(() => th.onCross(this, { name: th.name, time: e.t, rising }));
+      const watched = this.thresholdEvents[e.index];
+      if (!watched) continue;
+      const th = this.thresholds[watched.threshold]!;
+      this.callback(() => th.onCross(this, { name: th.name, time: e.t, rising: watched.rising }));
     }
+  }
+
+  /** Advance the run to target; a restart at an input breakpoint on arrival is checked for jumps. */
+  private advanceRun(target: number): 'running' | DaeStatus {
+    const status = this.run.advanceTo(target, this.record);
+    if (status !== 'running' && status !== 'terminal-event') return status;
+    const steps = this.run.steps;
+    const step = steps[steps.length - 1];
+    const live = this.run.intervals.length - 1;
+    if (step && step.t === this.time && step.interval !== live && this.run.intervals[step.interval]!.end === step.t) {
+      // The last step ended on a breakpoint and the run restarted there: its end is the left limit.
+      const y = evaluateRecordedStep(step, step.t, this.compiled.index2);
+      this.settled = this.compiled.inputs.during(this.run.intervals[step.interval]!, () => this.thresholdValues(y, step.t));
+      this.touched = true;
+      this.afterRestart();
+    } else {
+      this.settled = this.thresholdValues();
+    }
+    return status;
+  }
+
+  /**
+   * Apply input changes made from the stepper or its callbacks (restart the
+   * run at the present time) and report the jumps across levels they cause;
+   * callbacks may change inputs again.
+   */
+  private settleInputChanges(): void {
+    if (!this.touched || this.status !== 'running') return;
+    const status = this.run.advanceTo(this.time, this.record);
+    if (status === 'running') this.afterRestart();
+  }
+
+  /** After a restart at the present time: crossings by jumps since the settled values, repeated while callbacks change inputs. */
+  private afterRestart(): void {
+    for (let round = 0; this.touched; round++) {
+      if (round >= MAX_JUMP_ROUNDS) {
+        const names = this.thresholds.map((th) => `"${th.name}"`).join(', ');
+        throw new InputError(
+          'threshold-chatter',
+          `threshold callbacks (${names}) changed inputs back and forth ${MAX_JUMP_ROUNDS} times at t = ${this.time} s, each change crossing a level again; ` +
+            'give the levels hysteresis (a lower level to release than to act) or act once per crossing',
+          this.thresholds.map((th) => th.name),
+        );
+      }
+      this.touched = false;
+      if (this.run.status !== 'running') return;
+      if (round > 0 && this.run.advanceTo(this.time, this.record) !== 'running') return;
+      const before = this.settled;
+      const after = this.thresholdValues();
+      this.settled = after;
+      this.thresholds.forEach((th, k) => {
+        const rising = before[k]! < 0 && after[k]! >= 0;
+        const falling = before[k]! > 0 && after[k]! <= 0;
+        if ((rising && th.direction !== 'falling') || (falling && th.direction !== 'rising')) {
+          this.callback(() => th.onCross(this, { name: th.name, time: this.time, rising }));
+        }
+      });
+    }
+  }
+
+  /** Each threshold's value minus its level at state y, time t (default: the present), under the inputs in use. */
+  private thresholdValues(y: Float64Array = this.run.y, t: number = this.run.t): Float64Array {
+    const out = new Float64Array(this.thresholds.length);
+    this.thresholds.forEach((th, k) => {
+      out[k] = this.watched[k]!(y, t) - th.level;
+    });
+    return out;
   }
 
   private callback(fn: () => void): void {

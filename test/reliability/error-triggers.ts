@@ -10,6 +10,7 @@
 import {
   constant,
   createNetwork,
+  createStepper,
   pulse,
   simulate,
   sine,
@@ -45,6 +46,17 @@ const ok: DaeProblem = { size: 1, y0: [1], t0: 0, tEnd: 1, rhs: (_t, y, out) => 
 export const TRIGGERS: Readonly<Record<string, () => unknown>> = {
   'bad-name': () => base().net.node(''),
   'duplicate-name': () => base().net.node('a'),
+  'threshold-chatter': () => {
+    const { net, a, supply } = base();
+    const load = net.resistor('load', a, net.ground, 1);
+    let high = true;
+    const stepper = createStepper(net, {
+      horizon: 1e-3,
+      thresholds: [{ name: 'flip', watch: { quantity: 'current', handle: load }, level: 0.5, onCross: (s) => { high = !high; s.setSource(supply, high ? 1 : 0); } }],
+    });
+    stepper.setSource(supply, 1); // 0 A -> 1 A crosses 0.5 A; each answer crosses it back
+    return stepper.advanceTo(1e-3);
+  },
   'non-positive-value': () => {
     const { net, a } = base();
     return net.resistor('r', a, net.ground, 0);
