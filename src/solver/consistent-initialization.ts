@@ -146,6 +146,34 @@ function combineRows(w: SparseColumns, c: number, a: Float64Array, n: number, ou
   }
 }
 
+/** V0 by rows (row l: pairs column, value at entries[2e], entries[2e + 1]) and the rows W0 touches, made once per spaces. */
+const rowIndexCache = new WeakMap<MassSpaces, { byRow: Int32Array; entries: Float64Array; rows: Int32Array }>();
+function rowIndexOf(spaces: MassSpaces): { byRow: Int32Array; entries: Float64Array; rows: Int32Array } {
+  let c = rowIndexCache.get(spaces);
+  if (c) return c;
+  const { v0, w0 } = spaces.columns;
+  const n = spaces.n;
+  const byRow = new Int32Array(n + 1);
+  for (let e = 0; e < v0.index.length; e++) byRow[v0.index[e]! + 1]!++;
+  for (let l = 0; l < n; l++) byRow[l + 1]! += byRow[l]!;
+  const entries = new Float64Array(2 * v0.index.length);
+  const next = byRow.slice(0, n);
+  // Columns ascending within a row, so each sum runs over l in the order of the dense loop.
+  for (let b = 0; b < v0.k; b++) {
+    for (let e = v0.start[b]!; e < v0.start[b + 1]!; e++) {
+      const slot = next[v0.index[e]!]!++;
+      entries[2 * slot] = b;
+      entries[2 * slot + 1] = v0.value[e]!;
+    }
+  }
+  const touched = new Uint8Array(n);
+  for (let e = 0; e < w0.index.length; e++) touched[w0.index[e]!] = 1;
+  const rows = Int32Array.from({ length: n }, (_, i) => i).filter((i) => touched[i] === 1);
+  c = { byRow, entries, rows };
+  rowIndexCache.set(spaces, c);
+  return c;
+}
+
 /**
  * The Jacobian of the algebraic equations with respect to the algebraic
  * directions, W0^T J V0 (k x k, row-major, into `out`): nonsingular exactly
@@ -158,15 +186,18 @@ function combineRows(w: SparseColumns, c: number, a: Float64Array, n: number, ou
 export function algebraicJacobian(spaces: MassSpaces, jac: Float64Array, out: Float64Array, work: Float64Array = new Float64Array(spaces.n * spaces.k)): Float64Array {
   const { n, k } = spaces;
   const { v0, w0 } = spaces.columns;
-  // work = J V0 (n x k), column by column from V0's non-zeros.
-  work.fill(0);
-  for (let b = 0; b < k; b++) {
-    for (let e = v0.start[b]!; e < v0.start[b + 1]!; e++) {
-      const l = v0.index[e]!;
-      const v = v0.value[e]!;
-      for (let i = 0; i < n; i++) {
-        const a = jac[i * n + l]!;
-        if (a !== 0) work[i * k + b] = work[i * k + b]! + a * v;
+  // work = J V0 (n x k), only in the rows W0 combines; J read row by row (contiguous), V0 by its rows.
+  const { byRow, entries, rows } = rowIndexOf(spaces);
+  for (const i of rows) {
+    const base = i * k;
+    work.fill(0, base, base + k);
+    const rowJ = i * n;
+    for (let l = 0; l < n; l++) {
+      const a = jac[rowJ + l]!;
+      if (a === 0) continue;
+      for (let e = byRow[l]!; e < byRow[l + 1]!; e++) {
+        const b = entries[2 * e]!;
+        work[base + b] = work[base + b]! + a * entries[2 * e + 1]!;
       }
     }
   }
