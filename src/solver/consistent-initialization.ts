@@ -237,6 +237,9 @@ export type ConsistencyOutcome =
     }
   | { readonly ok: false; readonly reason: 'non-finite' | 'singular' | 'no-convergence'; readonly components: number[]; readonly message: string };
 
+/** The factorisation of W0^T J V0 kept per spaces (factored anew on every use; the pattern analysis is kept). */
+const consistencySolvers = new WeakMap<MassSpaces, RealLinearSolver>();
+
 /** Newton iterations allowed for consistent initialisation. */
 const MAX_ITERATIONS = 40;
 /** Converged when the Newton update is this small in the weighted norm (a millionth of the tolerance). */
@@ -272,7 +275,9 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
   const dz = new Float64Array(k);
   const dy = new Float64Array(n);
   const ytrial = new Float64Array(n);
-  const lu = createPatternAdaptiveLu(k);
+  // One solver per spaces: its symbolic analysis (transversal, ordering, band) serves every later call.
+  let lu = consistencySolvers.get(spaces);
+  if (!lu) consistencySolvers.set(spaces, (lu = createPatternAdaptiveLu(k)));
   let lastNorm = Infinity;
 
   const residual = (at: Float64Array, out: Float64Array): number[] => {
