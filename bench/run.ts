@@ -21,6 +21,7 @@ import { benchPeriodicSteadyState } from './pss.js';
 import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
 import { benchDevices } from './devices.js';
+import { benchLadder } from './ladder.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -144,6 +145,7 @@ console.log(`# fluxstate solver benchmark (node ${process.version}, ${new Date()
 benchLinearAlgebra();
 benchKernelsInSolver();
 benchSparseSwitch();
+benchLadder();
 benchRestarts();
 benchAgainstOdex();
 benchScipy();

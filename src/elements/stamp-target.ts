@@ -79,3 +79,31 @@ export function stampBranch(J: StampTarget, p: number, q: number, b: number, vol
   J.add(b, p, voltageSign);
   J.add(b, q, -voltageSign);
 }
+
+/**
+ * A stamp target that records where stamps go, not what they add: run an
+ * element's stamps through it once and the positions it may ever touch are
+ * known (every element stamps the same positions whatever the values, a
+ * zero included). Ground (-1) is ignored as in every target. The positions
+ * are the Jacobian pattern handed to the sparse solver at compile time.
+ *
+ * @example
+ * ```ts
+ * const recorder = new PatternRecordingStampTarget();
+ * stampConductance(recorder, 0, 1, 0); // records (0,0), (0,1), (1,0), (1,1)
+ * recorder.rows; // [0, 0, 1, 1]
+ * ```
+ */
+export class PatternRecordingStampTarget implements StampTarget {
+  /** Row of each recorded position (duplicates kept). */
+  readonly rows: number[] = [];
+  /** Column of each recorded position. */
+  readonly cols: number[] = [];
+
+  add(row: number, col: number, _value: number): void {
+    if (row >= 0 && col >= 0) {
+      this.rows.push(row);
+      this.cols.push(col);
+    }
+  }
+}

@@ -1,6 +1,6 @@
 import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampContext } from '../elements/element-kind.js';
 import { elementKind, tubeKind } from '../elements/registry.js';
-import { DenseStampTarget, type StampTarget } from '../elements/stamp-target.js';
+import { DenseStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube } from '../elements/tube-kind.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
@@ -10,7 +10,7 @@ import { checkTopology } from './topology-checks.js';
 import { findIndexTwoUnknowns } from './index-analysis.js';
 import { initialState } from './initial-state.js';
 import { algebraicJacobian, massSpaces } from '../solver/consistent-initialization.js';
-import { createDenseLu } from '../solver/dense-lu.js';
+import { createPatternAdaptiveLu } from '../solver/sparse-adaptive-lu.js';
 
 export type { CompiledTube } from '../elements/tube-kind.js';
 
@@ -39,6 +39,13 @@ export interface CompiledNetwork {
   jacobian(t: number, y: Float64Array, out: Float64Array): void;
   /** Initial state before consistent initialisation of the algebraic unknowns. */
   readonly y0: Float64Array;
+  /**
+   * Every position df/dy may have a non-zero at, recorded from the elements'
+   * stamps at compile time (the same for every state and input): the pattern
+   * the sparse solver factors on. Undefined when an element's stamp threw at
+   * the initial state (the run then reports that error itself, densely).
+   */
+  readonly jacobianPattern: { readonly rows: Int32Array; readonly cols: Int32Array } | undefined;
   /** Unknowns of index 2 (error scaled by h in the solver). */
   readonly index2: readonly number[];
   /** Source values and switch states, with embedding overrides. */
@@ -145,6 +152,8 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   const y0 = initialState(d, layout, loops, tubes);
   for (const g of groups) g.initial?.(y0);
   for (const s of tubeStates) s.initial(y0);
+  // Stamps touch the same positions whatever the state and inputs: one recorded pass gives the pattern.
+  const jacobianPattern = recordJacobianPattern(stampJacobian, y0, inputs);
   const index2 = confirmIndexTwo(findIndexTwoUnknowns(d, layout), mass, n, (y, J) => jacobian(0, y, J), y0);
 
   return {
@@ -159,6 +168,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     rhs,
     jacobian,
     y0,
+    jacobianPattern,
     index2,
     inputs,
     events: groups.flatMap((g) => g.events ?? []).sort((a, b) => a.element - b.element),
@@ -190,7 +200,22 @@ function confirmIndexTwo(
   const J = new Float64Array(n * n);
   jacobian(y0, J);
   const jr = algebraicJacobian(spaces, J, new Float64Array(k * k));
-  return createDenseLu(k).factor(jr) < 0 ? [] : structural;
+  return createPatternAdaptiveLu(k).factor(jr) < 0 ? [] : structural;
+}
+
+/** The positions the stamps touch, recorded in one pass at the initial state (values ignored). */
+function recordJacobianPattern(
+  stampJacobian: (t: number, y: Float64Array, inputs: InputView, J: StampTarget) => void,
+  y0: Float64Array,
+  inputs: InputView,
+): { rows: Int32Array; cols: Int32Array } | undefined {
+  const recorder = new PatternRecordingStampTarget();
+  try {
+    stampJacobian(0, y0, inputs, recorder);
+  } catch {
+    return undefined;
+  }
+  return { rows: Int32Array.from(recorder.rows), cols: Int32Array.from(recorder.cols) };
 }
 
 /** Compile the elements kind by kind: one group per kind present, in order of first appearance. */

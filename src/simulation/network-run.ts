@@ -296,6 +296,8 @@ export class NetworkRun {
         rhs: (t, y, out) => compiled.evaluate(t, y, this.live, out),
         jacobian: (t, y, out) => compiled.stampJacobian(t, y, this.live, jacobianTarget.bind(out)),
         mass: compiled.mass,
+        // The stamps' positions, fixed at compile time: large networks factor on them sparsely.
+        ...(compiled.jacobianPattern ? { jacobianPattern: compiled.jacobianPattern } : {}),
         y0: settings.initialState ?? compiled.y0,
         t0: settings.t0,
         tEnd: settings.horizon,

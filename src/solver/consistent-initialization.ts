@@ -1,14 +1,16 @@
 import { Matrix, SVD, pseudoInverse } from 'ml-matrix';
-import { createDenseLu } from './dense-lu.js';
+import { columnsOfDense, denseOfColumns, structuralMassBases, type SparseColumns } from './sparse-mass-spaces.js';
+import { createPatternAdaptiveLu } from './sparse-adaptive-lu.js';
 import type { RealLinearSolver } from './linear-solver.js';
 import { largestScaled, nonFiniteIndices, roundingFlooredNorm } from './weighted-norm.js';
 
 /**
- * Null spaces of a constant mass matrix M = U S V^T (singular value
- * decomposition): the right null space V0 (directions in which y can move
- * without changing M y: the algebraic unknowns, for a non-diagonal M too),
- * the left null space W0 (combinations of rows that are algebraic equations,
- * W0^T M = 0) and the range U1 of M.
+ * Null spaces of a constant mass matrix: the right null space V0 (directions
+ * in which y can move without changing M y: the algebraic unknowns, for a
+ * non-diagonal M too), the left null space W0 (combinations of rows that are
+ * algebraic equations, W0^T M = 0) and the range U1 of M; orthonormal bases.
+ * The solver's own loops use the sparse columns (`columns`); the dense
+ * row-major arrays are made on first use.
  *
  * @internal
  */
@@ -22,18 +24,65 @@ export interface MassSpaces {
   readonly v0: Float64Array;
   /** Left null space, n x k row-major. */
   readonly w0: Float64Array;
-  /** Range of M (left singular vectors of the non-zero singular values), n x rank row-major. */
+  /** Range of M, n x rank row-major. */
   readonly u1: Float64Array;
+  /** The same bases as sparse columns. */
+  readonly columns: { readonly v0: SparseColumns; readonly w0: SparseColumns; readonly u1: SparseColumns };
 }
 
 /**
- * Singular value decomposition of M with ml-matrix; singular values below
- * n * eps * 16 * sigma_max count as zero (common practice for numerical rank,
- * Golub and Van Loan, sect. 5.4.1).
+ * Size from which {@link massSpaces} finds the null spaces from the
+ * structure of M (connected blocks, {@link structuralMassBases}) rather than
+ * by an SVD of the whole matrix; below it the dense SVD is cheap and kept.
  *
  * @internal
  */
-export function massSpaces(mass: Float64Array, n: number): MassSpaces {
+export const STRUCTURAL_SPACES_MIN_SIZE = 32;
+
+/**
+ * Null spaces of M: from its structure from {@link STRUCTURAL_SPACES_MIN_SIZE}
+ * unknowns on (or with `method: 'structural'`), else by a dense SVD
+ * ({@link denseMassSpaces}). Both use the same rank test and span the same spaces.
+ *
+ * @internal
+ */
+export function massSpaces(mass: Float64Array, n: number, method: 'auto' | 'dense' | 'structural' = 'auto'): MassSpaces {
+  const structural = method === 'structural' || (method === 'auto' && n >= STRUCTURAL_SPACES_MIN_SIZE);
+  if (!structural) return denseMassSpaces(mass, n);
+  const b = structuralMassBases(mass, n);
+  return spacesOf(n, b.rank, b.v0, b.w0, b.u1);
+}
+
+/** MassSpaces over sparse columns, with the dense arrays made on first use. */
+function spacesOf(n: number, rank: number, v0: SparseColumns, w0: SparseColumns, u1: SparseColumns, dense?: { v0: Float64Array; w0: Float64Array; u1: Float64Array }): MassSpaces {
+  let d = dense;
+  const get = (): { v0: Float64Array; w0: Float64Array; u1: Float64Array } => (d ??= { v0: denseOfColumns(v0), w0: denseOfColumns(w0), u1: denseOfColumns(u1) });
+  return {
+    n,
+    rank,
+    k: n - rank,
+    get v0() {
+      return get().v0;
+    },
+    get w0() {
+      return get().w0;
+    },
+    get u1() {
+      return get().u1;
+    },
+    columns: { v0, w0, u1 },
+  };
+}
+
+/**
+ * Singular value decomposition of the whole M with ml-matrix; singular values below
+ * n * eps * 16 * sigma_max count as zero (common practice for numerical rank,
+ * Golub and Van Loan, sect. 5.4.1). O(n^3): for small n and as the reference
+ * of the structural method.
+ *
+ * @internal
+ */
+export function denseMassSpaces(mass: Float64Array, n: number): MassSpaces {
   const m = new Matrix(n, n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, mass[i * n + j]!);
   const svd = new SVD(m, { computeLeftSingularVectors: true, computeRightSingularVectors: true, autoTranspose: false });
@@ -59,34 +108,105 @@ export function massSpaces(mass: Float64Array, n: number): MassSpaces {
       u1[i * rank + j] = U.get(i, c);
     });
   }
-  return { n, rank, k, v0, w0, u1 };
+  return spacesOf(n, rank, columnsOfDense(v0, n, k), columnsOfDense(w0, n, k), columnsOfDense(u1, n, rank), { v0, w0, u1 });
+}
+
+/** out_j = (W^T x)_j for sparse columns W (@internal). */
+export function columnsTransposeTimes(w: SparseColumns, x: Float64Array, out: Float64Array): void {
+  const { k, start, index, value } = w;
+  for (let j = 0; j < k; j++) {
+    let s = 0;
+    for (let e = start[j]!; e < start[j + 1]!; e++) s += value[e]! * x[index[e]!]!;
+    out[j] = s;
+  }
+}
+
+/** out = V z for sparse columns V (@internal). */
+export function columnsTimes(v: SparseColumns, z: Float64Array, out: Float64Array): void {
+  out.fill(0);
+  const { k, start, index, value } = v;
+  for (let j = 0; j < k; j++) {
+    const zj = z[j]!;
+    if (zj === 0) continue;
+    for (let e = start[j]!; e < start[j + 1]!; e++) out[index[e]!] = out[index[e]!]! + value[e]! * zj;
+  }
+}
+
+/**
+ * Row `row` of W^T A (A dense row-major n x n, column c of W) into out[row * n ..): the
+ * combination of A's rows that column c of W makes.
+ */
+function combineRows(w: SparseColumns, c: number, a: Float64Array, n: number, out: Float64Array, row: number): void {
+  const base = row * n;
+  out.fill(0, base, base + n);
+  for (let e = w.start[c]!; e < w.start[c + 1]!; e++) {
+    const coefficient = w.value[e]!;
+    const src = w.index[e]! * n;
+    for (let j = 0; j < n; j++) out[base + j] = out[base + j]! + coefficient * a[src + j]!;
+  }
+}
+
+/** V0 by rows (row l: pairs column, value at entries[2e], entries[2e + 1]) and the rows W0 touches, made once per spaces. */
+const rowIndexCache = new WeakMap<MassSpaces, { byRow: Int32Array; entries: Float64Array; rows: Int32Array }>();
+function rowIndexOf(spaces: MassSpaces): { byRow: Int32Array; entries: Float64Array; rows: Int32Array } {
+  let c = rowIndexCache.get(spaces);
+  if (c) return c;
+  const { v0, w0 } = spaces.columns;
+  const n = spaces.n;
+  const byRow = new Int32Array(n + 1);
+  for (let e = 0; e < v0.index.length; e++) byRow[v0.index[e]! + 1]!++;
+  for (let l = 0; l < n; l++) byRow[l + 1]! += byRow[l]!;
+  const entries = new Float64Array(2 * v0.index.length);
+  const next = byRow.slice(0, n);
+  // Columns ascending within a row, so each sum runs over l in the order of the dense loop.
+  for (let b = 0; b < v0.k; b++) {
+    for (let e = v0.start[b]!; e < v0.start[b + 1]!; e++) {
+      const slot = next[v0.index[e]!]!++;
+      entries[2 * slot] = b;
+      entries[2 * slot + 1] = v0.value[e]!;
+    }
+  }
+  const touched = new Uint8Array(n);
+  for (let e = 0; e < w0.index.length; e++) touched[w0.index[e]!] = 1;
+  const rows = Int32Array.from({ length: n }, (_, i) => i).filter((i) => touched[i] === 1);
+  c = { byRow, entries, rows };
+  rowIndexCache.set(spaces, c);
+  return c;
 }
 
 /**
  * The Jacobian of the algebraic equations with respect to the algebraic
  * directions, W0^T J V0 (k x k, row-major, into `out`): nonsingular exactly
  * when the DAE is index 1 at that state (Hairer and Wanner II, sect. VII.1).
- * `work` (n x k) may be passed to avoid an allocation.
+ * `work` (n x k) may be passed to avoid an allocation. Only the non-zeros of
+ * the bases' columns are visited.
  *
  * @internal
  */
 export function algebraicJacobian(spaces: MassSpaces, jac: Float64Array, out: Float64Array, work: Float64Array = new Float64Array(spaces.n * spaces.k)): Float64Array {
-  const { n, k, v0, w0 } = spaces;
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < k; j++) {
-      let s = 0;
-      for (let l = 0; l < n; l++) {
-        const a = jac[i * n + l]!;
-        if (a !== 0) s += a * v0[l * k + j]!;
+  const { n, k } = spaces;
+  const { v0, w0 } = spaces.columns;
+  // work = J V0 (n x k), only in the rows W0 combines; J read row by row (contiguous), V0 by its rows.
+  const { byRow, entries, rows } = rowIndexOf(spaces);
+  for (const i of rows) {
+    const base = i * k;
+    work.fill(0, base, base + k);
+    const rowJ = i * n;
+    for (let l = 0; l < n; l++) {
+      const a = jac[rowJ + l]!;
+      if (a === 0) continue;
+      for (let e = byRow[l]!; e < byRow[l + 1]!; e++) {
+        const b = entries[2 * e]!;
+        work[base + b] = work[base + b]! + a * entries[2 * e + 1]!;
       }
-      work[i * k + j] = s;
     }
   }
+  out.fill(0, 0, k * k);
   for (let a = 0; a < k; a++) {
-    for (let b = 0; b < k; b++) {
-      let s = 0;
-      for (let i = 0; i < n; i++) s += w0[i * k + a]! * work[i * k + b]!;
-      out[a * k + b] = s;
+    for (let e = w0.start[a]!; e < w0.start[a + 1]!; e++) {
+      const w = w0.value[e]!;
+      const src = w0.index[e]! * k;
+      for (let b = 0; b < k; b++) out[a * k + b] = out[a * k + b]! + w * work[src + b]!;
     }
   }
   return out;
@@ -117,6 +237,9 @@ export type ConsistencyOutcome =
     }
   | { readonly ok: false; readonly reason: 'non-finite' | 'singular' | 'no-convergence'; readonly components: number[]; readonly message: string };
 
+/** The factorisation of W0^T J V0 kept per spaces (factored anew on every use; the pattern analysis is kept). */
+const consistencySolvers = new WeakMap<MassSpaces, RealLinearSolver>();
+
 /** Newton iterations allowed for consistent initialisation. */
 const MAX_ITERATIONS = 40;
 /** Converged when the Newton update is this small in the weighted norm (a millionth of the tolerance). */
@@ -141,7 +264,8 @@ const UPDATE_TOLERANCE = 1e-6;
  */
 export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Array, moveDifferential = true): ConsistencyOutcome {
   const { n, spaces, scale } = ctx;
-  const { k, v0, w0 } = spaces;
+  const { k } = spaces;
+  const { v0, w0 } = spaces.columns;
   if (k === 0) return { ok: true, iterations: 0 };
   const f = new Float64Array(n);
   const jac = new Float64Array(n * n);
@@ -151,27 +275,19 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
   const dz = new Float64Array(k);
   const dy = new Float64Array(n);
   const ytrial = new Float64Array(n);
-  const lu = createDenseLu(k);
+  // One solver per spaces: its symbolic analysis (transversal, ordering, band) serves every later call.
+  let lu = consistencySolvers.get(spaces);
+  if (!lu) consistencySolvers.set(spaces, (lu = createPatternAdaptiveLu(k)));
   let lastNorm = Infinity;
 
   const residual = (at: Float64Array, out: Float64Array): number[] => {
     ctx.rhs(t, at, f);
     const bad = nonFiniteIndices(f);
     if (bad.length) return bad;
-    for (let j = 0; j < k; j++) {
-      let s = 0;
-      for (let i = 0; i < n; i++) s += w0[i * k + j]! * f[i]!;
-      out[j] = s;
-    }
+    columnsTransposeTimes(w0, f, out);
     return [];
   };
-  const toY = (z: Float64Array, out: Float64Array): void => {
-    for (let i = 0; i < n; i++) {
-      let s = 0;
-      for (let j = 0; j < k; j++) s += v0[i * k + j]! * z[j]!;
-      out[i] = s;
-    }
-  };
+  const toY = (z: Float64Array, out: Float64Array): void => columnsTimes(v0, z, out);
 
   for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
     const badF = residual(y, r);
@@ -397,7 +513,7 @@ export interface DerivativeWork {
 
 /** @internal */
 export function createDerivativeWork(n: number): DerivativeWork {
-  return { massRows: undefined, ft: new Float64Array(n), a: new Float64Array(n * n), b: new Float64Array(n), lu: createDenseLu(n) };
+  return { massRows: undefined, ft: new Float64Array(n), a: new Float64Array(n * n), b: new Float64Array(n), lu: createPatternAdaptiveLu(n) };
 }
 
 /**
@@ -418,37 +534,27 @@ export function consistentDerivativeWith(
   work: DerivativeWork,
 ): Float64Array | undefined {
   const { n, spaces } = ctx;
-  const { k, rank, w0, u1 } = spaces;
+  const { k, rank } = spaces;
+  const { w0, u1 } = spaces.columns;
   const { ft, a, b } = work;
   ctx.rhs(t + dt, y, ft);
   let massRows = work.massRows;
   if (!massRows) {
     massRows = new Float64Array(rank * n);
-    for (let r = 0; r < rank; r++) {
-      for (let j = 0; j < n; j++) {
-        let m = 0;
-        for (let i = 0; i < n; i++) m += u1[i * rank + r]! * mass[i * n + j]!;
-        massRows[r * n + j] = m;
-      }
-    }
+    for (let r = 0; r < rank; r++) combineRows(u1, r, mass, n, massRows, r);
     work.massRows = massRows;
   }
-  for (let r = 0; r < rank; r++) {
-    let s = 0;
-    for (let i = 0; i < n; i++) s += u1[i * rank + r]! * f[i]!;
-    b[r] = s;
-  }
+  columnsTransposeTimes(u1, f, b);
   a.set(massRows);
   for (let c = 0; c < k; c++) {
     const row = rank + c;
     let s = 0;
-    for (let i = 0; i < n; i++) s += w0[i * k + c]! * (ft[i]! - f[i]!) / (dt);
-    b[row] = -s;
-    for (let j = 0; j < n; j++) {
-      let m = 0;
-      for (let i = 0; i < n; i++) m += w0[i * k + c]! * jac[i * n + j]!;
-      a[row * n + j] = m;
+    for (let e = w0.start[c]!; e < w0.start[c + 1]!; e++) {
+      const i = w0.index[e]!;
+      s += w0.value[e]! * (ft[i]! - f[i]!) / dt;
     }
+    b[row] = -s;
+    combineRows(w0, c, jac, n, a, row);
   }
   if (work.lu.factor(a) >= 0) return undefined;
   work.lu.solve(b);
@@ -474,7 +580,7 @@ export interface AlgebraicSolver {
 /** @internal */
 export function createAlgebraicSolver(n: number, k: number): AlgebraicSolver {
   return {
-    lu: createDenseLu(k),
+    lu: createPatternAdaptiveLu(k),
     jr: new Float64Array(k * k),
     jv: new Float64Array(n * k),
     f: new Float64Array(n),
@@ -513,23 +619,16 @@ const SIMPLIFIED_MAX_RATE = 0.5;
  */
 export function resolveAlgebraic(ctx: ConsistencyContext, t: number, y: Float64Array, solver: AlgebraicSolver): boolean {
   const { n, spaces, scale } = ctx;
-  const { k, v0, w0 } = spaces;
+  const { k } = spaces;
+  const { v0, w0 } = spaces.columns;
   const { f, r, dz, dy } = solver;
   let previous = Infinity;
   for (let iter = 1; iter <= SIMPLIFIED_MAX_ITERATIONS; iter++) {
     ctx.rhs(t, y, f);
-    for (let j = 0; j < k; j++) {
-      let s = 0;
-      for (let i = 0; i < n; i++) s += w0[i * k + j]! * f[i]!;
-      r[j] = s;
-      dz[j] = -s;
-    }
+    columnsTransposeTimes(w0, f, r);
+    for (let j = 0; j < k; j++) dz[j] = -r[j]!;
     solver.lu.solve(dz);
-    for (let i = 0; i < n; i++) {
-      let s = 0;
-      for (let j = 0; j < k; j++) s += v0[i * k + j]! * dz[j]!;
-      dy[i] = s;
-    }
+    columnsTimes(v0, dz, dy);
     const norm = roundingFlooredNorm(dy, y, scale);
     if (!Number.isFinite(norm)) return false;
     for (let i = 0; i < n; i++) y[i] = y[i]! + dy[i]!;

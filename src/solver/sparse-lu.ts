@@ -3,6 +3,15 @@ import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } fr
 import type { SparsePattern } from './sparse-pattern.js';
 
 /**
+ * Componentwise backward error (max_i |b - A x|_i / (|A| |x| + |b|)_i) above
+ * which the sparse kernels take a step of iterative refinement: 64 eps,
+ * where the dense LU's stands on well-posed systems (measured about 2e-17).
+ *
+ * @internal
+ */
+export const REFINEMENT_THRESHOLD = 64 * Number.EPSILON;
+
+/**
  * A {@link RealLinearSolver} that also factors values given on the pattern
  * directly (what a stamping target fills), without a dense matrix.
  *
@@ -53,6 +62,10 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
   const colScale = new Float64Array(n);
   const x = new Float64Array(n);
   const values = new Float64Array(col.length);
+  /** The matrix last factored (unscaled, on the pattern), for the refinement step. */
+  const factored = new Float64Array(col.length);
+  const b0 = new Float64Array(n);
+  const residual = new Float64Array(n);
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function gather(a: Float64Array): void {
@@ -70,6 +83,7 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
   }
 
   function factorValues(v: Float64Array): number {
+    factored.set(v);
     // Equilibration (as the dense kernels: rows, then columns, powers of two).
     for (let i = 0; i < n; i++) {
       let m = 0;
@@ -130,7 +144,41 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
     return -1;
   }
 
+  /**
+   * Solve, then, when the componentwise backward error of x is above
+   * {@link REFINEMENT_THRESHOLD}, one step of iterative refinement in working
+   * precision with the residual b - A x on the pattern (O(nnz)): the
+   * fill-reducing order can pivot differently from the dense LU's natural
+   * order (seen: 8e-9 where the dense LU has 2e-17, on a network with an open
+   * switch and a 1e6 A/Wb leakage path), and one refinement step makes the
+   * solution componentwise backward stable all the same
+   * (R. D. Skeel, Iterative refinement implies numerical stability for
+   * Gaussian elimination, Math. Comp. 35, 1980; Higham, Accuracy and
+   * Stability of Numerical Algorithms, sect. 12.2).
+   */
   function solve(b: Float64Array): void {
+    b0.set(b);
+    substitute(b);
+    let backward = 0;
+    for (let i = 0; i < n; i++) {
+      let s = b0[i]!;
+      let size = Math.abs(s);
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
+        const t = factored[e]! * b[col[e]!]!;
+        s -= t;
+        size += Math.abs(t);
+      }
+      residual[i] = s;
+      if (size > 0) backward = Math.max(backward, Math.abs(s) / size);
+    }
+    // Not finite: leave it to the caller's checks. Already at round-off: nothing to refine.
+    if (!(backward > REFINEMENT_THRESHOLD) || !Number.isFinite(backward)) return;
+    substitute(residual);
+    for (let i = 0; i < n; i++) b[i] = b[i]! + residual[i]!;
+  }
+
+  /** Forward and back substitution with the factors: b is overwritten with A^-1 b. */
+  function substitute(b: Float64Array): void {
     for (let k = 0; k < n; k++) {
       const i = order[k]!;
       x[k] = rowScale[i]! * b[i]!;

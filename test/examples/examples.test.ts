@@ -133,6 +133,7 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
     lines: [/^supply energy from the record (0\.5487[0-9]{2}) J, closed form \1 J$/m, /^Engineering estimate/m],
   },
   'sweep.ts': { lines: [/^Rated peak current \d/m, /^Engineering estimate/m] },
+  'transformer-ladder.ts': { lines: [/^40 stages, 163 unknowns \(sparse LU from 32\)$/m, /^status: success, \d+ steps, \d+ LU factorisations$/m, /^peak voltage at stage 40 over the third cycle: \d+\.\d\d V$/m] },
   'three-phase-core.ts': { lines: [/^load star point to neutral: \d/m, /^energy audit over 5 cycles/m] },
   'worst-case.ts': { lines: [/^largest inrush peak: \d+\.\d A at -?\d+\.\d deg, remanence -?0\.80 T/m, /^smallest margin to B_sat/m, /^CAUTION/m] },
   'waveforms.ts': { lines: [/^net volt-seconds per period:/m] },

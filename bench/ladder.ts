@@ -1,0 +1,133 @@
+/**
+ * Cost against network size: a ladder of k transformers (n = 4k + 3
+ * unknowns; stage j a closed saturating core of two tubes, a primary on
+ * x_j, a 1:1 secondary on x_{j+1} loaded by 50 ohm, a 50 Hz sine behind
+ * 1 ohm feeding x_0; invented values, the same network as
+ * ../shared/bench-anchor/scaling.mts). Printed side by side in one run:
+ * - through the public API (createStepper, which factors sparsely on the
+ *   pattern recorded from the stamps from SPARSE_MIN_SIZE unknowns on): CPU
+ *   ms of set-up and per step, and the growth exponent of the cost per step
+ *   (least-squares slope of log ms/step against log n);
+ * - the same compiled network through createDaeIntegrator with the dense
+ *   LU and with the sparse LU, at the sizes where the dense one finishes in
+ *   seconds: the ratio of their costs per step.
+ * CPU time (process.cpuUsage), the machine is shared. Run alone:
+ * `npx tsx bench/ladder.ts [maxK]`.
+ */
+import { pathToFileURL } from 'node:url';
+import { createDaeIntegrator, createNetwork, createStepper, sine, type DaeProblem, type NetworkBuilder } from '../src/index.js';
+import { compileNetwork } from '../src/formulation/compile-network.js';
+import { printTable } from './timing.js';
+
+const cpuMs = (): number => {
+  const c = process.cpuUsage();
+  return (c.user + c.system) / 1000;
+};
+
+/** The ladder of k transformers (n = 4k + 3 unknowns). */
+export function transformerLadder(k: number): NetworkBuilder {
+  const net = createNetwork(`ladder of ${k} transformers`);
+  const material = { kind: 'frohlich-kennelly', initialRelativePermeability: 3000, saturationPolarisation: 1.5 } as const;
+  const s = net.node('s');
+  net.voltageSource('src', s, net.ground, sine({ amplitude: 100, frequency: 50 }));
+  let x = net.node('x0');
+  net.resistor('rs', s, x, 1);
+  for (let j = 0; j < k; j++) {
+    const a = net.magneticNode(`a${j}`);
+    const b = net.magneticNode(`b${j}`);
+    const leg = net.fluxTube(`leg${j}`, { from: a, to: b, length: 0.1, area: 1e-3, material });
+    net.fluxTube(`yoke${j}`, { from: b, to: a, length: 0.2, area: 1e-3, material });
+    const next = net.node(`x${j + 1}`);
+    net.winding(`p${j}`, { tube: leg, turns: 200, resistance: 0.5, plus: x, minus: net.ground });
+    net.winding(`s${j}`, { tube: leg, turns: 200, resistance: 0.5, plus: next, minus: net.ground });
+    net.resistor(`load${j}`, next, net.ground, 50);
+    x = next;
+  }
+  return net;
+}
+
+interface Figures {
+  readonly n: number;
+  readonly setupMs: number;
+  readonly msPerStep: number;
+  readonly steps: number;
+  readonly rssMb: number;
+}
+
+/** Set-up and STEPS steps through the public API (as the anchor's scaling script). */
+function throughStepper(k: number, steps: number): Figures {
+  const net = transformerLadder(k);
+  const c0 = cpuMs();
+  const st = createStepper(net, { horizon: 1, record: false, maxSteps: steps });
+  const c1 = cpuMs();
+  st.advanceTo(1);
+  const c2 = cpuMs();
+  const taken = st.stats.acceptedSteps + st.stats.rejectedSteps;
+  if (!(taken > 0)) throw new Error(`ladder k = ${k}: no step taken (${st.status})`);
+  return { n: 4 * k + 3, setupMs: c1 - c0, msPerStep: (c2 - c1) / taken, steps: taken, rssMb: process.memoryUsage().rss / 2 ** 20 };
+}
+
+/** CPU ms per step of `steps` steps of the compiled ladder with the dense or the sparse LU. */
+function throughIntegrator(k: number, steps: number, linearAlgebra: 'flat' | 'sparse'): number {
+  const c = compileNetwork(transformerLadder(k).describe());
+  c.inputs.setInterval(0, 1);
+  const problem: DaeProblem = {
+    size: c.layout.size, y0: c.y0, t0: 0, tEnd: 1, mass: c.mass, rhs: c.rhs, jacobian: c.jacobian, index2: c.index2,
+    ...(linearAlgebra === 'sparse' ? { jacobianPattern: c.jacobianPattern! } : {}),
+  };
+  const integ = createDaeIntegrator(problem, { rtol: 1e-6, atol: 1e-9, linearAlgebra });
+  const c0 = cpuMs();
+  for (let s = 0; s < steps && integ.status === 'running'; s++) integ.step();
+  const taken = integ.stats.acceptedSteps + integ.stats.rejectedSteps;
+  if (!(taken > 0)) throw new Error(`ladder k = ${k}: no step taken (${integ.status})`);
+  return (cpuMs() - c0) / taken;
+}
+
+/** Least-squares slope of log y against log x. */
+function slope(x: number[], y: number[]): number {
+  const lx = x.map(Math.log);
+  const ly = y.map(Math.log);
+  const mx = lx.reduce((a, b) => a + b, 0) / lx.length;
+  const my = ly.reduce((a, b) => a + b, 0) / ly.length;
+  let num = 0;
+  let den = 0;
+  for (let i = 0; i < lx.length; i++) {
+    num += (lx[i]! - mx) * (ly[i]! - my);
+    den += (lx[i]! - mx) ** 2;
+  }
+  return num / den;
+}
+
+export function benchLadder(maxK = 749): void {
+  console.log('\n## Transformer ladder (n = 4k + 3): CPU ms through the public API, sparse LU on the stamps\' pattern; medians of 3');
+  // Warm-up on a ladder above the switch-over, so that the sparse path is compiled by the JIT too.
+  for (let w = 0; w < 5; w++) throughStepper(10, 100);
+  const rows: (string | number)[][] = [];
+  const figures: Figures[] = [];
+  for (const k of [24, 74, 249, 749].filter((k) => k <= maxK)) {
+    const runs = [0, 1, 2].map(() => throughStepper(k, 30));
+    const med = (f: (r: Figures) => number): number => runs.map(f).sort((a, b) => a - b)[1]!;
+    const fig: Figures = { n: runs[0]!.n, setupMs: med((r) => r.setupMs), msPerStep: med((r) => r.msPerStep), steps: runs[0]!.steps, rssMb: Math.max(...runs.map((r) => r.rssMb)) };
+    figures.push(fig);
+    rows.push([fig.n, fig.setupMs, fig.msPerStep, fig.steps, Math.round(fig.rssMb)]);
+  }
+  printTable(['n', 'set-up ms', 'ms per step', 'steps', 'rss MB'], rows);
+  if (figures.length >= 2) {
+    const e = slope(figures.map((f) => f.n), figures.map((f) => f.msPerStep));
+    console.log(`cost per step grows as n^${e.toFixed(2)} from n = ${figures[0]!.n} to ${figures[figures.length - 1]!.n} (target: at most n^1.3)`);
+  }
+  const at1000 = figures.find((f) => f.n === 999);
+  if (at1000) console.log(`n = 999: ${at1000.msPerStep.toFixed(2)} ms per step (target < 5), set-up ${at1000.setupMs.toFixed(0)} ms (target < 1000)`);
+  console.log('n = 10,000: not run. The integrator keeps dense n x n work arrays (Jacobian, two iteration matrices, consistent-derivative system), 800 MB each at that size.');
+
+  const side: (string | number)[][] = [];
+  for (const k of [2, 4, 6, 8, 24, 74]) {
+    const dense = [0, 1, 2].map(() => throughIntegrator(k, 20, 'flat')).sort((a, b) => a - b)[1]!;
+    const sparse = [0, 1, 2].map(() => throughIntegrator(k, 20, 'sparse')).sort((a, b) => a - b)[1]!;
+    side.push([4 * k + 3, dense, sparse, dense / sparse]);
+  }
+  console.log('\nThe same compiled ladder through createDaeIntegrator, dense LU against sparse LU (forced), CPU ms per step, medians of 3:');
+  printTable(['n', 'dense LU ms/step', 'sparse LU ms/step', 'dense/sparse'], side);
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) benchLadder(Number(process.argv[2] ?? '749'));
