@@ -14,7 +14,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { createNetwork, sine, solveDae, SPARSE_MIN_SIZE, type DaeProblem } from '../../src/index.js';
+import { solveDae, SPARSE_MIN_SIZE, type DaeProblem } from '../../src/index.js';
 import { compileNetwork, type CompiledNetwork } from '../../src/formulation/compile-network.js';
 import { denseMassSpaces, massSpaces, type MassSpaces } from '../../src/solver/consistent-initialization.js';
 import { createPatternAdaptiveLu } from '../../src/solver/sparse-adaptive-lu.js';
@@ -23,6 +23,7 @@ import { createSparseLu } from '../../src/solver/sparse-lu.js';
 import { sparsePattern } from '../../src/solver/sparse-pattern.js';
 import { PatternRecordingStampTarget, stampConductance } from '../../src/elements/stamp-target.js';
 import { buildNetwork, networkPlanArb, runs } from '../reliability/random-network.js';
+import { transformerLadder } from '../support/transformer-ladder.js';
 
 /** The n x n projector B B^T of an n x k row-major orthonormal basis. */
 function projector(b: Float64Array, n: number, k: number): Float64Array {
@@ -68,27 +69,6 @@ function asProblem(c: CompiledNetwork, tEnd: number, withPattern: boolean): DaeP
   };
 }
 
-/** A chain of k transformers with saturating cores (the bench's ladder; invented values). */
-function transformerLadder(k: number) {
-  const net = createNetwork(`ladder of ${k} transformers`);
-  const material = { kind: 'frohlich-kennelly', initialRelativePermeability: 3000, saturationPolarisation: 1.5 } as const;
-  const s = net.node('s');
-  net.voltageSource('src', s, net.ground, sine({ amplitude: 100, frequency: 50 }));
-  let x = net.node('x0');
-  net.resistor('rs', s, x, 1);
-  for (let j = 0; j < k; j++) {
-    const a = net.magneticNode(`a${j}`);
-    const b = net.magneticNode(`b${j}`);
-    const leg = net.fluxTube(`leg${j}`, { from: a, to: b, length: 0.1, area: 1e-3, material });
-    net.fluxTube(`yoke${j}`, { from: b, to: a, length: 0.2, area: 1e-3, material });
-    const next = net.node(`x${j + 1}`);
-    net.winding(`p${j}`, { tube: leg, turns: 200, resistance: 0.5, plus: x, minus: net.ground });
-    net.winding(`s${j}`, { tube: leg, turns: 200, resistance: 0.5, plus: next, minus: net.ground });
-    net.resistor(`load${j}`, next, net.ground, 50);
-    x = next;
-  }
-  return net;
-}
 
 describe('sparse paths of network runs against the dense ones', () => {
   it('the recorded Jacobian pattern holds every non-zero of df/dy at random states (property networks)', () => {
