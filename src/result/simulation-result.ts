@@ -13,7 +13,7 @@ import { resultToCsv, resultToJson, type CsvOptions, type ResultJson } from './e
 
 /** What the run stopped on, with the unknowns named by element. */
 export interface SimulationFailure {
-  /** Last accepted time, s: all data up to here is valid. */
+  /** Last accepted time, s: all data up to here is valid (NaN when the run failed at its start and holds no valid sample). */
   readonly time: number;
   /** The unknowns involved (largest in the error estimate, non-finite, or at a singular pivot). */
   readonly unknowns: readonly { readonly index: number; readonly label: string; readonly elements: readonly string[] }[];
