@@ -25,13 +25,19 @@ import { checkTubeMaterial } from './tube-material-check.js';
  * Newton iteration at rest (1 Mohm discharge: 'newton-failure'). Stored as a
  * state, H relaxes to zero with full relative precision.
  *
+ * A tube without an eddy resistance is fine where the network fixes its flux
+ * derivative (a winding fed from a voltage, or an eddy resistance elsewhere on
+ * its loop); where only the MMF balance fixes its flux (an unwound branch in
+ * parallel with another path, a winding fed from a current source) db/dt has
+ * no equation of its own (index 2), and compiling the network throws
+ * `hysteretic-tube-needs-eddy` naming the tube (src/formulation/flux-rate-check.ts).
  * Stored energy:
  * volume x W(b, m); hysteresis loss: volume x the model's dissipation rate,
  * booked by the energy audit as dissipation (`hysteresis`).
  *
  * @example
  * ```ts
- * net.tube({ name: 'core', from: 0, to: 1, eddyResistance: 0.01,
+ * net.tube({ name: 'core', from: 0, to: 1,
  *   law: { kind: 'hysteretic', length: 0.3, area: 1e-3, material: demoHystereticMaterials.steel } });
  * ```
  */
@@ -62,17 +68,6 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
   hasArea: () => true,
   internalStates: () => ['field-strength', 'flux-density-rate'],
   compile(law, tube, ctx) {
-    if (!(tube.eddyResistance !== undefined && tube.eddyResistance > 0)) {
-      throw new InputError(
-        'hysteretic-tube-needs-eddy',
-        `tube "${tube.name}" is hysteretic but has no eddy resistance; give it eddyResistance > 0 (ohm, as a shorted turn). ` +
-          `Why: the model follows db/dt, and where the tube's flux is fixed only by the MMF balance (no winding on its loop, ` +
-          `or a winding driven by a current source) db/dt has no equation of its own (index 2); the eddy term gives it one. ` +
-          `Size: at most ${formatSuggestion(suggestedEddyCeiling(law))} ohm keeps the eddy MMF below 1 % of the pinning MMF ` +
-          `at 50 Hz and saturation (0.01 l k / (omega B_sat A)); values down to 1e-6 of that only add a fast mode the solver handles`,
-        [tube.name],
-      );
-    }
     const model = inverseJilesAtherton(law.material);
     const { length, area } = law;
     const volume = length * area;
@@ -93,7 +88,7 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
       length,
       area,
       reluctance: NaN,
-      eddyResistance: tube.eddyResistance,
+      eddyResistance: tube.eddyResistance ?? 0,
       volume,
       // Initial flux division weight: the slope at the demagnetised state.
       zeroFluxReluctance: (length / area) * (1 / MU0 - model.magnetisationSlope(0, 0, 0)),
@@ -104,6 +99,9 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
       lossPower: (flux, y) => volume * hysteresisLossRate(model, flux / area, magnetisation(flux, y), y[s + 1]!),
       magnetisation,
       material: model,
+      ...((tube.eddyResistance ?? 0) > 0
+        ? {}
+        : { missingFluxRateError: (reason: string, names: readonly string[]) => needsEddyError(law, names, reason) }),
       stateOffset: s,
       // H in A/m: 1/mu0 per tesla; u = db/dt: a tesla per millisecond.
       stateScales: [1 / MU0, 1e3],
@@ -159,6 +157,24 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
 export function suggestedEddyCeiling(law: HystereticTubeLaw): number {
   const saturation = law.material.saturationFluxDensity ?? MU0 * law.material.saturationMagnetisation;
   return (0.01 * law.length * law.material.pinning) / (2 * Math.PI * 50 * saturation * law.area);
+}
+
+/**
+ * The error for hysteretic tubes without an eddy resistance whose flux
+ * derivative the network does not fix (found by the compiler's index check,
+ * src/formulation/flux-rate-check.ts): names the tubes, says why, what to set
+ * and how large (sized for the first named tube's law).
+ */
+function needsEddyError(law: HystereticTubeLaw, names: readonly string[], reason: string): InputError {
+  const list = names.map((x) => `"${x}"`).join(', ');
+  return new InputError(
+    'hysteretic-tube-needs-eddy',
+    `hysteretic tube${names.length > 1 ? 's' : ''} ${list} need${names.length > 1 ? '' : 's'} an eddy resistance here; ` +
+      `give ${names.length > 1 ? 'them' : 'it'} eddyResistance > 0 (ohm, as a shorted turn). Why: ${reason}. ` +
+      `Size: at most ${formatSuggestion(suggestedEddyCeiling(law))} ohm keeps the eddy MMF below 1 % of the pinning MMF ` +
+      `at 50 Hz and saturation (0.01 l k / (omega B_sat A)); values down to 1e-6 of that only add a fast mode the solver handles`,
+    names,
+  );
 }
 
 /** Two significant digits for a message. */
