@@ -304,6 +304,36 @@ describe('hysteretic tube in a network', () => {
     expect(error.message).toMatch(/on some of them/);
   });
 
+  it('tells the tubes from another index-2 structure: a current-source-fed winding needs one, an unrelated one does not', () => {
+    const core = (feed: 'current' | 'voltage') => {
+      const net = createNetwork(`fed by ${feed}`);
+      net.magneticNode('a');
+      net.magneticNode('b');
+      const law = { kind: 'hysteretic' as const, length: LENGTH / 2, area: AREA, material: JA };
+      const leg = net.tube({ name: 'leg', from: 0, to: 1, law });
+      net.tube({ name: 'yoke', from: 1, to: 0, law });
+      const p = net.node('p');
+      if (feed === 'current') net.currentSource('source', net.ground, p, sine({ amplitude: 2, frequency: 50 }));
+      else net.voltageSource('source', p, net.ground, sine({ amplitude: AMPLITUDE, frequency: 50, phase: Math.PI / 2 }));
+      net.winding('coil', { tube: leg, turns: TURNS, resistance: R_WINDING, plus: p, minus: net.ground });
+      // A current source feeding an inductor: an inductive cut-set (index 2) of its own, which the solver treats.
+      const q = net.node('q');
+      net.currentSource('bias', net.ground, q, sine({ amplitude: 1, frequency: 50 }));
+      net.inductor('choke', q, net.ground, 1e-3);
+      return net;
+    };
+    let error: { code?: string; elements?: readonly string[] } = {};
+    try {
+      simulate(core('current'), { stopTime: 0.005 });
+    } catch (e) {
+      error = e as typeof error;
+    }
+    // The current source fixes H, not db/dt: an eddy resistance on either tube of the loop would do.
+    expect(error.code).toBe('hysteretic-tube-needs-eddy');
+    expect(error.elements).toEqual(['leg', 'yoke']);
+    expect(simulate(core('voltage'), { stopTime: 0.005 }).status).toBe('success');
+  });
+
   it('runs alike with eddy resistances from 1e-6 of the suggested ceiling up to the ceiling (the sizes the error message names)', () => {
     // Ceiling 0.01 l k / (omega B_sat A) for these tubes (l = 0.15 m, A = 1e-3 m^2, k = 400 A/m).
     const ceiling = suggestedEddyCeiling({ kind: 'hysteretic', length: LENGTH / 2, area: AREA, material: JA });
