@@ -21,7 +21,8 @@ import { Solver } from '../../support/odex.js';
  * on JA parameter identification, Lozito et al. 2015, Takacs 2001) return only their openings; the stored code
  * (romanszewczyk/JAmodel: the five numbers and loop plots, no stated H_c or B_r; Zubax/jafit: its papers/ are
  * compressed PDFs, its tests use other parameter sets; exact-string searches for the set and for the 1992
- * authors) gave no H_c, B_r or B_m traced to a paper. So the features below are computed
+ * authors) gave no H_c, B_r or B_m traced to a paper; the documentation and issue corpora returned only other
+ * programs' material libraries and forum threads, which the project does not use. So the features below are computed
  * HERE by an independent integration of the FORWARD (H-driven) Jiles-Atherton equations with odex 2.0.4 at
  * rtol 1e-13 (dM/dH = P / (1 - alpha P), P = (1 - c) (M_an - M_irr) / (delta k) + c dM_an/dH_e, with the
  * usual guard that the irreversible slope is 0 where delta (M_an - M_irr) <= 0; the form of Jiles, Thoelke
