@@ -57,7 +57,7 @@ export function hystereticTubeReadings(result: SimulationResult, tube: FluxTube)
     const y = result.state(k);
     const flux = compiled.tubeFlux(y, b);
     fluxDensity[k] = flux / compiledTube.area;
-    magnetisation[k] = y[s]!;
+    magnetisation[k] = compiledTube.magnetisation!(flux, y);
     fluxDensityRate[k] = y[s + 1]!;
     power[k] = compiledTube.lossPower!(flux, y);
   }
@@ -100,7 +100,8 @@ function lastState(result: SimulationResult, tube: FluxTube) {
   if (compiledTube === undefined || model === undefined || compiledTube.stateOffset === undefined) throw notHysteretic(tube);
   if (result.length === 0) return { model, fluxDensity: Number.NaN, magnetisation: Number.NaN };
   const y = result.state(result.length - 1);
-  return { model, fluxDensity: compiled.tubeFlux(y, b) / compiledTube.area, magnetisation: y[compiledTube.stateOffset]! };
+  const flux = compiled.tubeFlux(y, b);
+  return { model, fluxDensity: flux / compiledTube.area, magnetisation: compiledTube.magnetisation!(flux, y) };
 }
 
 function notHysteretic(tube: FluxTube): InputError {

@@ -10,22 +10,34 @@ import { checkTubeMaterial } from './tube-material-check.js';
 /**
  * A body of hysteretic material (inverse Jiles-Atherton, driven by the
  * tube's flux density b = phi/A). Two internal unknowns per tube, in this
- * order: the magnetisation m (A/m) and the rate u = db/dt (T/s). Rows, all
- * with constant mass entries (docs/materials.md, "Hysteresis"):
+ * order: the field strength H (A/m) and the rate u = db/dt (T/s); the
+ * magnetisation is m = b/mu0 - H. Rows, all with constant mass entries
+ * (docs/materials.md, "Hysteresis"):
  *
- *   rate row:           (1/A) sum_k s_k phi_k' = u      (phi_k: loop fluxes through the tube)
- *   magnetisation row:  m' = g(b, m, sign u) u
- *   loop rows:          MMF drop F = l (b/mu0 - m) (+ R_e phi' from the eddy term)
+ *   rate row:    (1/A) sum_k s_k phi_k' = u      (phi_k: loop fluxes through the tube)
+ *   field row:   H' = (1/mu0 - g(b, m, sign u)) u   (the same as m' = g u)
+ *   loop rows:   MMF drop F = l H (+ R_e phi' from the eddy term)
  *
- * The tube must carry an eddy resistance: then its flux derivative is fixed
- * by its loop rows wherever it sits and the DAE stays index 1 (a tube whose
- * flux is fixed only algebraically would make u index 2). Stored energy:
+ * Why H and not m as the state: H = b/mu0 - m is a small difference of two
+ * numbers near 1e6 A/m, so from stored b and m it carries about 1e-10 A/m of
+ * round-off; a tube discharged through a large resistance has db/dt = -kappa H
+ * with kappa up to 1e4 T/s per A/m, and that round-off in db/dt stalled the
+ * Newton iteration at rest (1 Mohm discharge: 'newton-failure'). Stored as a
+ * state, H relaxes to zero with full relative precision.
+ *
+ * A tube without an eddy resistance is fine where the network fixes its flux
+ * derivative (a winding fed from a voltage, or an eddy resistance elsewhere on
+ * its loop); where only the MMF balance fixes its flux (an unwound branch in
+ * parallel with another path, a winding fed from a current source) db/dt has
+ * no equation of its own (index 2), and compiling the network throws
+ * `hysteretic-tube-needs-eddy` naming the tube (src/formulation/flux-rate-check.ts).
+ * Stored energy:
  * volume x W(b, m); hysteresis loss: volume x the model's dissipation rate,
  * booked by the energy audit as dissipation (`hysteresis`).
  *
  * @example
  * ```ts
- * net.tube({ name: 'core', from: 0, to: 1, eddyResistance: 0.01,
+ * net.tube({ name: 'core', from: 0, to: 1,
  *   law: { kind: 'hysteretic', length: 0.3, area: 1e-3, material: demoHystereticMaterials.steel } });
  * ```
  */
@@ -54,19 +66,8 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     };
   },
   hasArea: () => true,
-  internalStates: () => ['magnetisation', 'flux-density-rate'],
+  internalStates: () => ['field-strength', 'flux-density-rate'],
   compile(law, tube, ctx) {
-    if (!(tube.eddyResistance !== undefined && tube.eddyResistance > 0)) {
-      throw new InputError(
-        'hysteretic-tube-needs-eddy',
-        `tube "${tube.name}" is hysteretic but has no eddy resistance; give it eddyResistance > 0 (ohm, as a shorted turn). ` +
-          `Why: the model follows db/dt, and where the tube's flux is fixed only by the MMF balance (no winding on its loop, ` +
-          `or a winding driven by a current source) db/dt has no equation of its own (index 2); the eddy term gives it one. ` +
-          `Size: at most ${formatSuggestion(suggestedEddyCeiling(law))} ohm keeps the eddy MMF below 1 % of the pinning MMF ` +
-          `at 50 Hz and saturation (0.01 l k / (omega B_sat A)); values down to 1e-6 of that only add a fast mode the solver handles`,
-        [tube.name],
-      );
-    }
     const model = inverseJilesAtherton(law.material);
     const { length, area } = law;
     const volume = length * area;
@@ -79,39 +80,50 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     };
     const startB = tube.initialFluxDensity ?? (tube.initialFlux !== undefined ? tube.initialFlux / area : 0);
     const m0 = law.initialMagnetisation ?? startB / MU0;
+    const h0 = startB / MU0 - m0;
+    const magnetisation = (flux: number, y: Float64Array): number => flux / area / MU0 - y[s]!;
     return {
       name: tube.name,
       law: undefined,
       length,
       area,
       reluctance: NaN,
-      eddyResistance: tube.eddyResistance,
+      eddyResistance: tube.eddyResistance ?? 0,
       volume,
       // Initial flux division weight: the slope at the demagnetised state.
       zeroFluxReluctance: (length / area) * (1 / MU0 - model.magnetisationSlope(0, 0, 0)),
-      mmf: (flux, y) => length * model.fieldStrength(flux / area, y[s]!),
-      mmfSlope: () => length / (area * MU0),
-      energy: (flux, y) => volume * model.storedEnergyDensity(flux / area, y[s]!),
-      lossPower: (flux, y) => volume * hysteresisLossRate(model, flux / area, y[s]!, y[s + 1]!),
+      mmf: (_flux, y) => length * y[s]!,
+      // F = l H depends on the flux only through the state H.
+      mmfSlope: () => 0,
+      energy: (flux, y) => volume * model.storedEnergyDensity(flux / area, magnetisation(flux, y)),
+      lossPower: (flux, y) => volume * hysteresisLossRate(model, flux / area, magnetisation(flux, y), y[s + 1]!),
+      magnetisation,
       material: model,
+      ...((tube.eddyResistance ?? 0) > 0
+        ? {}
+        : { missingFluxRateError: (reason: string, names: readonly string[]) => needsEddyError(law, names, reason) }),
       stateOffset: s,
-      // m in A/m: 1/mu0 per tesla; u = db/dt: a tesla per millisecond.
+      // H in A/m: 1/mu0 per tesla; u = db/dt: a tesla per millisecond.
       stateScales: [1 / MU0, 1e3],
       states: {
         residual(_t, y, _inputs, f) {
           const u = y[s + 1]!;
-          f[s]! += magnetisationRate(model, fluxOf(y) / area, y[s]!, u);
+          const flux = fluxOf(y);
+          f[s]! += u / MU0 - magnetisationRate(model, flux / area, magnetisation(flux, y), u);
           f[s + 1]! += u;
         },
         jacobian(_t, y, _inputs, J) {
-          const p = magnetisationRatePartials(model, fluxOf(y) / area, y[s]!, y[s + 1]!);
+          const flux = fluxOf(y);
+          const p = magnetisationRatePartials(model, flux / area, magnetisation(flux, y), y[s + 1]!);
+          // Field row f = u/mu0 - R(b, m, u) with m = b/mu0 - H.
+          const dFieldDb = -(p.db + p.dm / MU0);
           for (let k = 0; k < index.length; k++) {
-            J.add(s, index[k]!, (sign[k]! * p.db) / area);
-            // Loop rows hold -sign * F with F = l (b/mu0 - m): d/dm = sign * l.
-            J.add(index[k]!, s, sign[k]! * length);
+            J.add(s, index[k]!, (sign[k]! * dFieldDb) / area);
+            // Loop rows hold -sign * F with F = l H: d/dH = -sign * l.
+            J.add(index[k]!, s, -sign[k]! * length);
           }
           J.add(s, s, p.dm);
-          J.add(s, s + 1, p.du);
+          J.add(s, s + 1, 1 / MU0 - p.du);
           J.add(s + 1, s + 1, 1);
         },
         mass(M) {
@@ -119,7 +131,7 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
           for (let k = 0; k < index.length; k++) M.add(s + 1, index[k]!, sign[k]! / area);
         },
         initial(y0) {
-          y0[s] = m0;
+          y0[s] = h0;
           y0[s + 1] = 0;
         },
       },
@@ -145,6 +157,24 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
 export function suggestedEddyCeiling(law: HystereticTubeLaw): number {
   const saturation = law.material.saturationFluxDensity ?? MU0 * law.material.saturationMagnetisation;
   return (0.01 * law.length * law.material.pinning) / (2 * Math.PI * 50 * saturation * law.area);
+}
+
+/**
+ * The error for hysteretic tubes without an eddy resistance whose flux
+ * derivative the network does not fix (found by the compiler's index check,
+ * src/formulation/flux-rate-check.ts): names the tubes, says why, what to set
+ * and how large (sized for the first named tube's law).
+ */
+function needsEddyError(law: HystereticTubeLaw, names: readonly string[], reason: string): InputError {
+  const list = names.map((x) => `"${x}"`).join(', ');
+  return new InputError(
+    'hysteretic-tube-needs-eddy',
+    `hysteretic tube${names.length > 1 ? 's' : ''} ${list} need${names.length > 1 ? '' : 's'} an eddy resistance here; ` +
+      `give ${names.length > 1 ? 'them' : 'it'} eddyResistance > 0 (ohm, as a shorted turn). Why: ${reason}. ` +
+      `Size: at most ${formatSuggestion(suggestedEddyCeiling(law))} ohm keeps the eddy MMF below 1 % of the pinning MMF ` +
+      `at 50 Hz and saturation (0.01 l k / (omega B_sat A)); values down to 1e-6 of that only add a fast mode the solver handles`,
+    names,
+  );
 }
 
 /** Two significant digits for a message. */

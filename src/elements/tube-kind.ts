@@ -39,7 +39,16 @@ export interface CompiledTube {
   lossPower?(flux: number, y: Float64Array): number;
   /** The hysteretic material of a tube with memory (results read its state through it). */
   readonly material?: HystereticMaterial;
-  /** Index in y of the tube's first internal state (hysteretic tubes: m, then u = db/dt). */
+  /**
+   * Present on a tube whose internal states follow dphi/dt but which has no
+   * eddy resistance of its own: the network must fix its flux derivative
+   * (index 1). The compiler checks that and throws the error this returns,
+   * with the reason and every tube concerned, when it does not.
+   */
+  missingFluxRateError?(reason: string, names: readonly string[]): Error;
+  /** Magnetisation m (A/m) of a tube with memory at flux phi and state y (hysteretic tubes: b/mu0 - H). */
+  magnetisation?(flux: number, y: Float64Array): number;
+  /** Index in y of the tube's first internal state (hysteretic tubes: H, then u = db/dt). */
   readonly stateOffset?: number;
   /** Absolute tolerance of each internal state per tesla of flux-density tolerance. */
   readonly stateScales?: readonly number[];

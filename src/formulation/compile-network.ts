@@ -8,6 +8,7 @@ import { NetworkInputs } from './network-inputs.js';
 import { layoutUnknowns, type UnknownLayout } from './unknown-layout.js';
 import { checkTopology } from './topology-checks.js';
 import { findIndexTwoUnknowns } from './index-analysis.js';
+import { checkFluxRatesDetermined } from './flux-rate-check.js';
 import { initialState } from './initial-state.js';
 import { algebraicJacobian, massSpaces } from '../solver/consistent-initialization.js';
 import { createPatternAdaptiveLu } from '../solver/sparse-adaptive-lu.js';
@@ -155,6 +156,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   // Stamps touch the same positions whatever the state and inputs: one recorded pass gives the pattern.
   const jacobianPattern = recordJacobianPattern(stampJacobian, y0, inputs);
   const index2 = confirmIndexTwo(findIndexTwoUnknowns(d, layout), mass, n, (y, J) => jacobian(0, y, J), y0);
+  checkFluxRatesDetermined(tubes, tubeLoops, mass, n, (y, J) => jacobian(0, y, J), y0);
 
   return {
     description: d,

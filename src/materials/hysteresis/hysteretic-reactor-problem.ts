@@ -48,18 +48,19 @@ export interface HystereticReactorSpec {
  * const b = y[HYSTERETIC_REACTOR_UNKNOWNS.flux]! / area;
  * ```
  */
-export const HYSTERETIC_REACTOR_UNKNOWNS = Object.freeze({ flux: 0, current: 1, magnetisation: 2, rate: 3 });
+export const HYSTERETIC_REACTOR_UNKNOWNS = Object.freeze({ flux: 0, current: 1, fieldStrength: 2, rate: 3 });
 
 /**
  * The reactor as M y' = f(t, y) with a CONSTANT mass matrix, in the form a
  * hysteretic tube takes in a network (docs/materials.md, "Hysteresis"):
  *
- *   N phi'        = v(t) - R(t) i          (winding)
- *   0             = (l/N) H(phi/A, m) - i  (magnetic loop: MMF balance)
- *   m'            = g(phi/A, m, sign u) u  (magnetisation, inverse Jiles-Atherton)
- *   (1/A) phi'    = u                      (rate unknown u = db/dt)
+ *   N phi'        = v(t) - R(t) i                  (winding)
+ *   0             = (l/N) H - i                    (magnetic loop: MMF balance)
+ *   H'            = (1/mu0 - g(phi/A, m, sign u)) u  (field, inverse Jiles-Atherton: m' = g u)
+ *   (1/A) phi'    = u                              (rate unknown u = db/dt)
  *
- * y = [phi, i, m, u]. The first and last mass rows are dependent; the solver
+ * y = [phi, i, H, u], m = phi/(A mu0) - H (H is the state, not m: see
+ * hystereticTubeKind in src/elements/hysteretic-tube.ts for why). The first and last mass rows are dependent; the solver
  * combines them, leaving 0 = u - (v - R i)/(N A): index 1 (the algebraic
  * Jacobian in (i, u) has determinant -1). The Jacobian is analytic.
  *
@@ -81,7 +82,8 @@ export function hystereticReactorProblem(spec: HystereticReactorSpec): DaeProble
   if (!(r0 > 0)) {
     throw new InputError('bad-hysteretic-reactor', `hysteretic reactor on '${material.name}': resistance must be > 0 (got ${r0}); fix the spec`, [material.name]);
   }
-  const i0 = (l / n) * material.fieldStrength(b0, m0);
+  const h0 = material.fieldStrength(b0, m0);
+  const i0 = (l / n) * h0;
   const u0 = (spec.voltage(spec.t0) - r0 * i0) / (n * a);
   const mass = new Float64Array(16);
   mass[0] = n;
@@ -92,25 +94,24 @@ export function hystereticReactorProblem(spec: HystereticReactorSpec): DaeProble
     mass,
     t0: spec.t0,
     tEnd: spec.tEnd,
-    y0: [b0 * a, i0, m0, u0],
+    y0: [b0 * a, i0, h0, u0],
     ...(spec.breakpoints ? { breakpoints: spec.breakpoints } : {}),
     rhs: (t, y, out) => {
       const b = y[0]! / a;
       out[0] = spec.voltage(t) - spec.resistance(t) * y[1]!;
-      out[1] = (l / n) * material.fieldStrength(b, y[2]!) - y[1]!;
-      out[2] = magnetisationRate(material, b, y[2]!, y[3]!);
+      out[1] = (l / n) * y[2]! - y[1]!;
+      out[2] = y[3]! / MU0 - magnetisationRate(material, b, b / MU0 - y[2]!, y[3]!);
       out[3] = y[3]!;
     },
     jacobian: (t, y, out) => {
       const b = y[0]! / a;
-      const p = magnetisationRatePartials(material, b, y[2]!, y[3]!);
+      const p = magnetisationRatePartials(material, b, b / MU0 - y[2]!, y[3]!);
       out[1] = -spec.resistance(t);
-      out[4 + 0] = l / (n * a * MU0);
       out[4 + 1] = -1;
-      out[4 + 2] = -l / n;
-      out[8 + 0] = p.db / a;
+      out[4 + 2] = l / n;
+      out[8 + 0] = -(p.db + p.dm / MU0) / a;
       out[8 + 2] = p.dm;
-      out[8 + 3] = p.du;
+      out[8 + 3] = 1 / MU0 - p.du;
       out[12 + 3] = 1;
     },
   };

@@ -16,7 +16,13 @@ import { Solver } from '../../support/odex.js';
  * LOOP FEATURES (not published with the parameters in any source we could read): searched for a paper giving
  * both a parameter set and its H_c, B_r and B_m at a stated H_m (Jiles-Thoelke-Devine, IEEE Trans. Magn. 28(1)
  * 1992; Sadowski et al. 2002; Leite et al., IEEE Trans. Magn. 39(3) 2003; later identification papers): only
- * the openings of those pages were readable, no table of loop values. So the features below are computed
+ * the openings of those pages were readable, no table of loop values. Searched again (second pass): the stored
+ * pages (Jiles-Thoelke-Devine 1992 again, Chwastek et al. on JA modelling of electrical steel, Pop and Caltun
+ * on JA parameter identification, Lozito et al. 2015, Takacs 2001) return only their openings; the stored code
+ * (romanszewczyk/JAmodel: the five numbers and loop plots, no stated H_c or B_r; Zubax/jafit: its papers/ are
+ * compressed PDFs, its tests use other parameter sets; exact-string searches for the set and for the 1992
+ * authors) gave no H_c, B_r or B_m traced to a paper; the documentation and issue corpora returned only other
+ * programs' material libraries and forum threads, which the project does not use. So the features below are computed
  * HERE by an independent integration of the FORWARD (H-driven) Jiles-Atherton equations with odex 2.0.4 at
  * rtol 1e-13 (dM/dH = P / (1 - alpha P), P = (1 - c) (M_an - M_irr) / (delta k) + c dM_an/dH_e, with the
  * usual guard that the irreversible slope is 0 where delta (M_an - M_irr) <= 0; the form of Jiles, Thoelke

@@ -130,7 +130,8 @@ describe('hysteretic reactor discharged through a large resistance after switch-
   // Our scenario (invented values): the reactor of hysteretic-reactor.test.ts energised at 1.5 T, 50 Hz
   // through 0.2 ohm, opened at t_open into a discharge resistance R_d. With 10 kohm the tube relaxes in
   // microseconds from 40 kV across the winding; before the reversal band and the first-step shrink of the
-  // integrator (src/solver/dae-integrator.ts) this run ended in 'newton-failure' at the opening instant.
+  // integrator (src/solver/dae-integrator.ts) this run ended in 'newton-failure' at the opening instant;
+  // 1 Mohm and above did until the tube's state became H (see below).
   const area = 1e-3;
   const turns = 200;
   const omega = 100 * Math.PI;
@@ -150,30 +151,21 @@ describe('hysteretic reactor discharged through a large resistance after switch-
     return solveDae(p, { rtol: 1e-8, atol: [1e-13, 1e-8, 1e-3, 1e-6], maxSteps: 200_000, outputTimes: [tOpen, 0.07] });
   };
 
-  it('settles at the residual the loop gives for 3 kohm, 10 kohm and 100 kohm, opened at three instants', () => {
+  it('settles at the residual the loop gives for 3 kohm to 10 Mohm, opened at three instants', () => {
+    // 1 Mohm and 10 Mohm (relaxation in about 1e-10 s) ended in 'newton-failure' while the tube's state was m:
+    // H = b/mu0 - m then carried about 1e-10 A/m of round-off, and db/dt = -kappa H (kappa = R l / (N^2 A),
+    // 7500 T/s per A/m at 1 Mohm) carried more noise than its tolerance. With H as the state it relaxes exactly.
     for (const tOpen of [0.045, 0.0425, 0.04]) {
-      for (const rOpen of [3e3, 1e4, 1e5]) {
+      for (const rOpen of [3e3, 1e4, 1e5, 1e6, 1e7]) {
         const s = run(rOpen, tOpen);
         expect(s.status).toBe('success');
         const [atOpen, atEnd] = s.output.y;
-        const expected = residualFluxDensity(model, atOpen![Y.flux]! / area, atOpen![Y.magnetisation]!, 1e-4);
+        const expected = residualFluxDensity(model, atOpen![Y.flux]! / area, atOpen![Y.flux]! / area / MU0 - atOpen![Y.fieldStrength]!, 1e-4);
         const settled = atEnd![Y.flux]! / area;
         console.log(`open at ${(tOpen * 1e3).toFixed(1)} ms into ${rOpen} ohm: settled ${settled.toFixed(7)} T, loop residual ${expected.toFixed(7)} T, ${s.stats.acceptedSteps} steps`);
         expect(Number.isFinite(settled)).toBe(true);
         expect(Math.abs(settled - expected)).toBeLessThan(1e-6);
       }
     }
-  });
-
-  it('known defect, pinned: 1 Mohm opened at the flux peak still stops with newton-failure (reported, finite, never success)', () => {
-    // Relaxation time about 1e-9 s: the run stops a few microseconds after the opening, after the flux
-    // has already settled. There u = -kappa H with kappa = R l / (N^2 A) = 7500 T/s per A/m, and H = b/mu0 - m
-    // carries about 1e-10 A/m of round-off: u is known only to about the 1e-6 T/s asked for, and the Newton
-    // iteration stalls on noise. The failure is reported with its status; nothing is hidden.
-    const s = run(1e6, 0.045);
-    console.log(`1 Mohm: ${s.status} at t = ${s.t.at(-1)}: ${s.message.slice(0, 120)}`);
-    expect(s.status).toBe('newton-failure');
-    expect(s.message).toMatch(/Newton iteration failed/);
-    expect(s.y.every((y) => Array.from(y).every(Number.isFinite))).toBe(true);
   });
 });
