@@ -143,6 +143,7 @@ export const switchKind: ElementKind<SwitchDescription> = {
   ],
   schedule: (d) => ({ initiallyClosed: d.initiallyClosed, toggleTimes: d.toggleTimes }),
   gate: (d) => d.gate,
+  waveformFields: ['gate'],
 };
 
 /**
