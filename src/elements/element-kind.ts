@@ -266,6 +266,13 @@ export interface ElementKind<D extends ElementDescription = ElementDescription> 
   deviceState?(d: D): boolean | undefined;
   /** The element's switching schedule (switches). */
   schedule?(d: D): { readonly initiallyClosed: boolean; readonly toggleTimes: readonly number[] };
+  /**
+   * Capacitance across the terminals of an element whose role is not
+   * capacitive (a diode's junction capacitance, a switch's output
+   * capacitance), F; 0 or absent: none. The capacitor/voltage-source loop
+   * (index-2) analysis counts an element with one as a capacitor.
+   */
+  parallelCapacitance?(d: D): number;
   /** Initial voltage plus - minus (capacitive elements), V. */
   initialVoltage?(d: D): number;
   /**
