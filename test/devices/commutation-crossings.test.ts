@@ -13,8 +13,9 @@
  *   on:  i = (V - Vf) / (R + Ron), which at V* is Vf R Goff / (R + Ron) = 9.0909 mA.
  * So the load current drops from 10 mA to 9.0909 mA at the turn-on instant
  * t* = 1.1 V / (2 V/ms) = 0.55 ms: a 9.5 mA level is crossed falling there (a
- * jump), after being crossed rising before it (continuously, at V = 0.95 V,
- * t = 0.475 ms) and rising again after it ((V - 1)/11 = 9.5 mA at V = 1.1045 V,
+ * jump), after being crossed rising before it (continuously, at
+ * V = 9.5 mA (1 + R Goff) / Goff = 1.045 V, t = 0.5225 ms) and rising again
+ * after it ((V - 1)/11 = 9.5 mA at V = 1.1045 V,
  * t = 0.55225 ms).
  */
 import { describe, expect, it } from 'vitest';
