@@ -51,12 +51,6 @@ const REFERENCE_RTOL_MAPPED = 0.1 * REFERENCE_RTOL ** (2 / 3);
 const UROUND = Number.EPSILON / 2;
 /** Consecutive Newton failures with a fresh Jacobian before status 'newton-failure' (our choice; radau5 only halves h). */
 const MAX_NEWTON_FAILURES = 10;
-/**
- * A terminal event located farther than this fraction of the step from both
- * of its ends is reached by retaking the step (see retakeTo); closer, the
- * dense output there is as accurate as the step's ends. Our choice.
- */
-const RETAKE_MARGIN = 1e-3;
 /** Shrink factor after a rejected first step (radau5: 0.1). */
 const FIRST_STEP_REJECT_SHRINK = 0.1;
 /** Stretch the step by up to this factor to land on a stop time instead of leaving a sliver (common practice). */
@@ -364,8 +358,6 @@ class RadauIntegrator implements DaeIntegrator {
    */
   private cheapRestartUnproven = false;
   private cheapRestartCap = false;
-  /** A step retaken to land on a terminal event (see retakeTo): its own events are cut, not retaken. */
-  private retaking = false;
   private readonly stepWork: { scale: Float64Array; y1: Float64Array; f1: Float64Array };
   /** The last step's polynomial in buffers reused from step to step (meaningful while hasPiece). */
   private readonly piece: { tOld: number; t: number; h: number; readonly yOld: Float64Array; readonly q: Float64Array };
@@ -1267,7 +1259,6 @@ class RadauIntegrator implements DaeIntegrator {
     let terminal = false;
     if (p.events.length) {
       const r = this.findEvents(t, tNew);
-      if (r.retakeAt !== undefined) return this.retakeTo(t, r.retakeAt);
       events = r.events;
       terminal = r.terminal;
     }
@@ -1321,41 +1312,8 @@ class RadauIntegrator implements DaeIntegrator {
     this.luH = NaN;
   }
 
-  /**
-   * A terminal event located inside the step just accepted: take the step
-   * again from its start so that it ends on the event time, and report the
-   * event there. The step was accepted on the accuracy of its end; its dense
-   * output inside is only third order and not error-controlled, and a run
-   * restarting from it keeps that error (measured: a forward converter's
-   * energy audit held at 1e-5 whatever rtol, by the state at a diode turn-off
-   * cut out of a 4 us step). The retaken step locates its own events: one
-   * found within the retake margin of its end is reported at the end (whose
-   * event value has the new sign by the detection); one the accurate
-   * trajectory has not reached yet is found by the next step, and one the
-   * retaken step ends short of (rejected to a smaller h) later on.
-   */
-  private retakeTo(t: number, tEvent: number): DaeStepResult {
-    this.yCur.set(this.piece.yOld);
-    this.tCur = t;
-    this.pendingError = undefined;
-    this.pendingFailure = undefined;
-    this.statusCur = 'running';
-    this.callRhs(t, this.yCur, this.fCur);
-    this.extrapolate = false;
-    this.forgetPiece();
-    this.hCur = tEvent - t;
-    this.retaking = true;
-    let r: DaeStepResult;
-    try {
-      r = this.attemptStep(tEvent);
-    } finally {
-      this.retaking = false;
-    }
-    return r;
-  }
-
-  /** Sign changes of the event functions over [tOld, tNew]; cuts the step at the first terminal one (or asks for a retake). */
-  private findEvents(tOld: number, tNew: number): { events: DaeEventRecord[]; terminal: boolean; retakeAt?: number } {
+  /** Sign changes of the event functions over [tOld, tNew]; cuts the step at the first terminal one. */
+  private findEvents(tOld: number, tNew: number): { events: DaeEventRecord[]; terminal: boolean } {
     const p = this.p;
     const evs = p.events;
     const gNew = new Float64Array(evs.length);
@@ -1397,15 +1355,7 @@ class RadauIntegrator implements DaeIntegrator {
       }
     }
     if (terminal) {
-      let last = records[records.length - 1]!;
-      // Within a thousandth of the step from either end the dense output is as good as the ends.
-      const margin = RETAKE_MARGIN * (tNew - tOld);
-      if (!this.retaking && last.t - tOld > margin && tNew - last.t > margin) return { events: records, terminal, retakeAt: last.t };
-      if (this.retaking && last.t < tNew && tNew - last.t <= margin) {
-        // The retaken step's end is the event time found on the long step: report it there.
-        last = { index: last.index, name: last.name, t: tNew, y: Float64Array.from(this.yCur) };
-        records[records.length - 1] = last;
-      }
+      const last = records[records.length - 1]!;
       if (last.t < tNew) {
         this.tCur = last.t;
         this.yCur.set(last.y);
