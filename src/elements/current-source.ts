@@ -50,4 +50,5 @@ export const currentSourceKind: ElementKind<CurrentSourceDescription> = {
   },
   listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform, 'A') }],
   waveform: (d) => d.waveform,
+  waveformFields: ['waveform'],
 };

@@ -191,4 +191,5 @@ export const diodeKind: ElementKind<DiodeDescription> = {
   ],
   deviceState: (d) => (d.junction === 'ideal' ? d.initiallyOn : undefined),
   capsStepBySources: true,
+  parallelCapacitance: (d) => d.capacitance,
 };

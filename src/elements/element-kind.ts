@@ -249,6 +249,13 @@ export interface ElementKind<D extends ElementDescription = ElementDescription> 
   /** The element's gate waveform (gate-driven switches): closed while above 0.5; undefined when a schedule drives it. */
   gate?(d: D): WaveformSpec | undefined;
   /**
+   * The description fields that hold the element's waveform inputs (a
+   * source's `waveform`, a switch's `gate`), so that code rewriting the
+   * waveforms of every kind (the sweep's import of functions named by
+   * module) needs no list of kinds. Absent: the element has none.
+   */
+  readonly waveformFields?: readonly (keyof D & string)[];
+  /**
    * Whether its conduction changes faster than the states around it (a
    * diode, ideal or exponential): a run of a network with one caps its step
    * by the periods of the sine sources, so that the solver, whose error
@@ -259,6 +266,13 @@ export interface ElementKind<D extends ElementDescription = ElementDescription> 
   deviceState?(d: D): boolean | undefined;
   /** The element's switching schedule (switches). */
   schedule?(d: D): { readonly initiallyClosed: boolean; readonly toggleTimes: readonly number[] };
+  /**
+   * Capacitance across the terminals of an element whose role is not
+   * capacitive (a diode's junction capacitance, a switch's output
+   * capacitance), F; 0 or absent: none. The capacitor/voltage-source loop
+   * (index-2) analysis counts an element with one as a capacitor.
+   */
+  parallelCapacitance?(d: D): number;
   /** Initial voltage plus - minus (capacitive elements), V. */
   initialVoltage?(d: D): number;
   /**

@@ -143,6 +143,8 @@ export const switchKind: ElementKind<SwitchDescription> = {
   ],
   schedule: (d) => ({ initiallyClosed: d.initiallyClosed, toggleTimes: d.toggleTimes }),
   gate: (d) => d.gate,
+  waveformFields: ['gate'],
+  parallelCapacitance: (d) => d.capacitance ?? 0,
 };
 
 /**

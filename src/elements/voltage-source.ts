@@ -57,5 +57,6 @@ export const voltageSourceKind: ElementKind<VoltageSourceDescription> = {
   },
   listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform, 'V') }],
   waveform: (d) => d.waveform,
+  waveformFields: ['waveform'],
   rigidVoltage: () => true,
 };

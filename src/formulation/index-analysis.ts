@@ -14,7 +14,8 @@ import { UnionFind } from './union-find.js';
  *   potentials of the nodes cut off by it;
  * - a loop made only of capacitors and voltage sources, with at least one
  *   voltage source (a capacitor across a source): the currents of those
- *   voltage sources.
+ *   voltage sources. Elements with a parallel capacitance (diodes and
+ *   switches with one) count as capacitors.
  *
  * Windings count as inductive: their current is fixed by the flux through
  * the magnetic loop equations. The solver scales the error estimate of these
@@ -42,8 +43,14 @@ export function findIndexTwoUnknowns(d: NetworkDescription, layout: UnknownLayou
 
   // Capacitor / voltage-source loops: a voltage source whose terminals are
   // already joined through capacitors and other sources closes such a loop.
+  // A device's own capacitance (a diode's junction, a switch's output
+  // capacitance) is a capacitor here: its C dv/dt ties the source current to
+  // the derivative of the source voltage just the same.
   const cv = new UnionFind(d.electricNodes.length);
-  for (const e of d.elements) if (elementKind(e).role === 'capacitive') cv.union(e.plus, e.minus);
+  for (const e of d.elements) {
+    const kind = elementKind(e);
+    if (kind.role === 'capacitive' || (kind.parallelCapacitance?.(e) ?? 0) > 0) cv.union(e.plus, e.minus);
+  }
   d.elements.forEach((e, k) => {
     if (elementKind(e).role !== 'voltage-source') return;
     if (!cv.union(e.plus, e.minus)) out.add(layout.branchCurrent[k]!);

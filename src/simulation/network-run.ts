@@ -121,6 +121,8 @@ export interface RecordOptions {
   readonly interpolants: boolean;
   /** Called after accepted steps. */
   readonly onStep?: (t: number) => void;
+  /** Return right after a device's own commutation (the run restarted there), so the caller sees the jump. */
+  readonly returnAtCommutation?: boolean;
 }
 
 /**
@@ -469,6 +471,7 @@ export class NetworkRun {
           this.deviceEvents++;
           if (this.commutate(last.index - this.userEventCount) !== 'running') return this.statusCur;
           this.recordStart(record);
+          if (record.returnAtCommutation) return this.statusCur;
           break; // the outer loop takes the new interval (its end, a stop time within round-off of it)
         }
         if (r.status === 'terminal-event') {

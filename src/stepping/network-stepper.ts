@@ -161,7 +161,8 @@ export class NetworkStepper {
       }
     });
     this.thresholdEvents = thresholdEvents;
-    this.record = { steps: options.record ?? true, interpolants: options.record ?? true };
+    // With thresholds, a device's own commutation ends an advance of the run, so a jump there is seen.
+    this.record = { steps: options.record ?? true, interpolants: options.record ?? true, returnAtCommutation: this.thresholds.length > 0 };
     this.run = new NetworkRun(this.compiled, {
       t0,
       horizon: options.horizon,
@@ -478,17 +479,21 @@ export class NetworkStepper {
     }
   }
 
-  /** Advance the run to target; a restart at an input breakpoint on arrival is checked for jumps. */
+  /**
+   * Advance the run to target. A restart at the end of the last step (an input breakpoint, or a
+   * device's own commutation) is checked for jumps: the step's end under the inputs it was taken
+   * with is the left limit.
+   */
   private advanceRun(target: number): 'running' | DaeStatus {
+    // No input breakpoint lies inside the advance (see advanceTo), so these are the last step's inputs.
+    const before = this.run.inputs;
     const status = this.run.advanceTo(target, this.record);
     if (status !== 'running' && status !== 'terminal-event') return status;
     const steps = this.run.steps;
     const step = steps[steps.length - 1];
-    const live = this.run.intervals.length - 1;
-    if (step && step.t === this.time && step.interval !== live && this.run.intervals[step.interval]!.end === step.t) {
-      // The last step ended on a breakpoint and the run restarted there: its end is the left limit.
+    if (this.thresholds.length > 0 && step && step.t === this.time && this.run.inputs !== before) {
       const y = evaluateRecordedStep(step, step.t, this.compiled.index2);
-      this.settled = this.compiled.inputs.during(this.run.intervals[step.interval]!, () => this.thresholdValues(y, step.t));
+      this.settled = this.compiled.inputs.during(before, () => this.thresholdValues(y, step.t));
       this.touched = true;
       this.afterRestart();
     } else {

@@ -3,6 +3,8 @@ import type { ElementDescription, NetworkDescription } from '../network/descript
 import { handlesOf } from '../network/handles-of.js';
 import { simulate, type SimulateOptions } from '../simulate.js';
 import { resolveFunctionWaveform } from '../waveforms/resolve-function-waveform.js';
+import type { WaveformSpec } from '../waveforms/waveform-spec.js';
+import { elementKind } from '../elements/registry.js';
 import { applySweepEdits } from './apply-sweep-edits.js';
 import { computeOutputs } from './compute-outputs.js';
 import { checkedJobModule, jobModuleFolders, type JobModuleFolders } from './job-module-policy.js';
@@ -49,8 +51,10 @@ export interface ResolveJobModulesOptions {
 
 /**
  * Import the modules of function waveforms given by reference (module and
- * export) and return a description whose sources carry the functions. The
- * input is not modified.
+ * export) and return a description whose elements carry the functions: a
+ * source's waveform, a switch's gate, any waveform input an element kind
+ * declares (`waveformFields` of its registry entry). The input is not
+ * modified.
  *
  * A job that names modules runs their code. Module references are therefore
  * treated as untrusted: each must be a relative path (`./drives.js`) to a file
@@ -58,7 +62,8 @@ export interface ResolveJobModulesOptions {
  * URLs (`data:`, `file:`, ...), absolute paths, package names, `../` paths
  * and links that lead out of the folders are refused, before anything is
  * imported, with `InputError` `'sweep-bad-job'` naming the field
- * (`network.elements[2] (voltage-source "drive").waveform.module`).
+ * (`network.elements[2] (voltage-source "drive").waveform.module`,
+ * `network.elements[4] (switch "Q1").gate.module`).
  *
  * @example
  * ```ts
@@ -73,23 +78,26 @@ export async function resolveFunctionWaveforms(
   let changed = false;
   const elements: ElementDescription[] = [];
   for (const [i, e] of description.elements.entries()) {
-    if ((e.kind === 'voltage-source' || e.kind === 'current-source') && e.waveform.kind === 'function' && e.waveform.fn === undefined) {
+    let element = e;
+    for (const field of (elementKind(e).waveformFields ?? []) as readonly string[]) {
+      const spec = (e as unknown as Record<string, WaveformSpec | undefined>)[field];
+      if (spec === undefined || spec.kind !== 'function' || spec.fn !== undefined) continue;
       const owner = `${e.kind} "${e.name}"`;
-      const module = e.waveform.module;
-      let waveform = e.waveform;
+      const label = field === 'waveform' ? owner : `${owner} ${field}`;
+      const module = spec.module;
+      let waveform: WaveformSpec;
       if (typeof module === 'string') {
         folders ??= jobModuleFolders(options.baseUrl, options.allowModuleFolders);
-        const href = checkedJobModule(module, `network.elements[${i}] (${owner}).waveform.module`, folders, [e.name]);
+        const href = checkedJobModule(module, `network.elements[${i}] (${owner}).${field}.module`, folders, [e.name]);
         // Import the checked file URL; keep the job's own reference in the description.
-        waveform = { ...(await resolveFunctionWaveform({ ...e.waveform, module: href }, owner)), module };
+        waveform = { ...(await resolveFunctionWaveform({ ...spec, module: href }, { label, element: e.name })), module };
       } else {
-        waveform = await resolveFunctionWaveform(e.waveform, owner);
+        waveform = await resolveFunctionWaveform(spec, { label, element: e.name });
       }
-      elements.push({ ...e, waveform });
+      element = { ...element, [field]: waveform } as ElementDescription;
       changed = true;
-    } else {
-      elements.push(e);
     }
+    elements.push(element);
   }
   return changed ? { ...description, elements } : description;
 }

@@ -68,7 +68,9 @@ describe('forward converter with a reset winding (N3 = N1)', () => {
     for (let k = 1; k < 20; k++) expect(Math.abs(b(k * T - 1e-9))).toBeLessThan(1e-4);
     // Conservation of energy (switch, diode, winding losses counted). The audit closes to about 1e-5 on
     // device runs whatever the rtol (measured 4e-6 to 1.5e-5 over 5 to 40 periods at rtol 1e-6 to 1e-9),
-    // so the bound is set at 1e-4; the floor is reported to the devices work.
+    // so the bound is set at 1e-4. Cause (audit-at-commutations.test.ts): the reset diode's turn-off is
+    // cut out of one long step and the run restarts from the step's dense output there; with steps
+    // ending just before each commutation the same run closes to 3e-8. Not fixed yet (a solver change).
     expect(r.energy().relativeError).toBeLessThan(1e-4);
   });
 
