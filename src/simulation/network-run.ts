@@ -13,6 +13,7 @@ import type { ResolvedSolverSettings } from './solver-settings.js';
 import { algebraicSolver, settleDeviceStates, type SettleProblem } from './device-settle.js';
 import { freewheelCheck, type CutInductiveCurrent } from './device-freewheel.js';
 import { deviceStepCap } from './device-step-cap.js';
+import { smoothJunctionCrossing, type SmoothJunctionCrossing } from './device-knee-jump.js';
 import { elementKind } from '../elements/registry.js';
 
 /**
@@ -165,6 +166,8 @@ export class NetworkRun {
   /** Solves the algebraic unknowns under given inputs (the consistent-state search and the freewheeling check). */
   private readonly solveAlgebraic: ReturnType<typeof algebraicSolver>;
   private readonly freewheel: ReturnType<typeof freewheelCheck>;
+  /** Crossings of smooth junctions' knees (networks with exponential diodes without capacitance). */
+  private readonly junctions: SmoothJunctionCrossing | undefined;
   /** Trial device states of the next settle (reused: no allocation per event). */
   private readonly trialStates: boolean[];
   /** The device (element index) whose own event asked for the next settle, or -1. */
@@ -285,6 +288,7 @@ export class NetworkRun {
       ? { devices: compiled.events, names: compiled.description.elements.map((e) => e.name), solve: this.solveAlgebraic }
       : undefined;
     this.freewheel = freewheelCheck(compiled, settings.atol);
+    this.junctions = smoothJunctionCrossing(compiled, this.solveAlgebraic);
     this.restartsFromSettled = compiled.description.elements.some((e) => elementKind(e).capsStepBySources);
     this.settlesAtJumps = compiled.events.length > 0
       || (compiled.elements.some((e) => e.conducting !== undefined) && compiled.elements.some((e) => e.role === 'inductive'));
@@ -433,9 +437,14 @@ export class NetworkRun {
         const target = edge - sample <= timeTolerance(edge) ? edge : Math.min(edge, sample);
         const r = this.integ.step(target);
         if (r.status !== 'accepted' && r.status !== 'terminal-event') {
+          if (this.crossKnee(edge)) {
+            this.recordStart(record);
+            continue;
+          }
           this.statusCur = this.integ.status;
           return this.statusCur;
         }
+        this.junctions?.stepped();
         let commutation = false;
         for (const e of r.events) {
           if (e.index < this.userEventCount) this.events.push(e);
@@ -647,6 +656,25 @@ export class NetworkRun {
     const cut = fromEvent ? undefined : this.freewheel(t, y, settled, before, this.live);
     if (cut) return this.stopAtJump(t, freewheelError(cut));
     return 'running';
+  }
+
+  /**
+   * After a step-size underflow or a Newton failure in a network with smooth junctions: cross the
+   * knee a junction is swinging across (see smoothJunctionCrossing) and restart there; true when done.
+   * Otherwise the failure stands, its message naming the junctions and the fix.
+   */
+  private crossKnee(edge: number): boolean {
+    const status = this.integ.status;
+    if (!this.junctions || (status !== 'step-size-underflow' && status !== 'newton-failure')) return false;
+    const t = this.integ.t;
+    const landed = this.junctions.cross(t, this.integ.y, this.steps[this.steps.length - 1], edge, this.live);
+    if (!landed) {
+      this.stop = { message: this.integ.message + this.junctions.hint(), failure: this.integ.failure! };
+      return false;
+    }
+    const s = this.integ.snapshot();
+    this.integ.restore({ ...s, t: landed.t, y: landed.y, h: edge - landed.t, interpolant: undefined, first: true, extrapolate: false });
+    return this.integ.restart(landed.y, { capStepByEstimate: true }) === 'running';
   }
 
   /** Whether the integrator's restarted state is far (1000 tolerances) from the settled one. */
