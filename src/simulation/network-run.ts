@@ -540,7 +540,10 @@ export class NetworkRun {
   private startInterval(t: number, fromEvent = false): 'running' | DaeStatus {
     const before = this.live;
     this.live = openInterval(this.schedule, t, this.horizon, this.span);
-    const settled = this.settleDevices(t, before, fromEvent);
+    // Only networks where a jump can change a device state or cut an inductive current settle (the
+    // others would solve the algebraic unknowns twice per edge: here and in the integrator's restart).
+    this.settledValid = false;
+    const settled = this.settlesAtJumps ? this.settleDevices(t, before, fromEvent) : 'running';
     if (settled !== 'running') return settled;
     this.releaseUnreferencedInterval();
     this.intervals.push(this.live);
