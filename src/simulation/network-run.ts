@@ -757,7 +757,17 @@ export class NetworkRun {
     }
     try {
       const check = this.check;
-      if (!hit && check) hit = this.compiled.inputs.during(this.live, () => check(t, y));
+      if (!hit && check) {
+        // As inputs.during(this.live, ...), without a closure per recorded state.
+        const inputs = this.compiled.inputs;
+        const before = inputs.inForce;
+        inputs.use(this.live);
+        try {
+          hit = check(t, y);
+        } finally {
+          inputs.use(before);
+        }
+      }
     } catch (cause) {
       this.stopAt(step, kept, 'rhs-error', `f threw at t = ${t}: ${cause instanceof Error ? cause.message : String(cause)}`, { cause });
       return false;
