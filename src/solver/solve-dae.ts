@@ -76,7 +76,7 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     }
     ts.push(integ.t);
     ys.push(integ.readState(scratch));
-    for (const e of r.events) events.push(e);
+    for (let k = 0; k < r.events.length; k++) events.push(r.events[k]!);
     while (outK < outT.length && outT[outK]! <= integ.t) {
       outY.push(evaluateCollocation(it!, outT[outK]!, new Float64Array(p.n)));
       outK++;
