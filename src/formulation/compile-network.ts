@@ -110,7 +110,8 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   };
 
   function evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
-    out.fill(0);
+    // A loop, not fill(): for a few unknowns the builtin's call costs more than the stores.
+    for (let i = 0; i < out.length; i++) out[i] = 0;
     // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
     for (let b = 0; b < tubeCount; b++) {
       const F = tubes[b]!.mmf(fluxOf(y, b), y);

@@ -286,7 +286,8 @@ export class InputSchedule {
   /** The first time after `after` where an input that follows its schedule jumps or kinks (Infinity if none). */
   nextEdge(after: number): number {
     let next = Infinity;
-    this.description.elements.forEach((_el, e) => {
+    // A plain loop (no closure per call: this runs at every interval).
+    for (let e = 0; e < this.description.elements.length; e++) {
       const w = this.waveforms[e];
       if (w && this.sourceOverride[e] === undefined) next = Math.min(next, w.nextBreakpoint(after));
       const gate = this.gates[e];
@@ -302,7 +303,7 @@ export class InputSchedule {
         }
         if (lo < toggles.length) next = Math.min(next, toggles[lo]!);
       }
-    });
+    }
     return next;
   }
 

@@ -552,7 +552,10 @@ export class NetworkRun {
   private startInterval(t: number, fromEvent = false): 'running' | DaeStatus {
     const before = this.live;
     this.live = openInterval(this.schedule, t, this.horizon, this.span);
-    const settled = this.settleDevices(t, before, fromEvent);
+    // Only networks where a jump can change a device state or cut an inductive current settle (the
+    // others would solve the algebraic unknowns twice per edge: here and in the integrator's restart).
+    this.settledValid = false;
+    const settled = this.settlesAtJumps ? this.settleDevices(t, before, fromEvent) : 'running';
     if (settled !== 'running') return settled;
     this.releaseUnreferencedInterval();
     this.intervals.push(this.live);
@@ -785,7 +788,17 @@ export class NetworkRun {
     }
     try {
       const check = this.check;
-      if (!hit && check) hit = this.compiled.inputs.during(this.live, () => check(t, y));
+      if (!hit && check) {
+        // As inputs.during(this.live, ...), without a closure per recorded state.
+        const inputs = this.compiled.inputs;
+        const before = inputs.inForce;
+        inputs.use(this.live);
+        try {
+          hit = check(t, y);
+        } finally {
+          inputs.use(before);
+        }
+      }
     } catch (cause) {
       this.stopAt(step, kept, 'rhs-error', `f threw at t = ${t}: ${cause instanceof Error ? cause.message : String(cause)}`, { cause });
       return false;

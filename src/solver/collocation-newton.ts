@@ -192,7 +192,11 @@ export function solveCollocation(
     w[n + i] = TI[3]! * z1 + TI[4]! * z2 + TI[5]! * z3;
     w[2 * n + i] = TI[6]! * z1 + TI[7]! * z2 + TI[8]! * z3;
   }
-  faccon = Math.max(faccon, UROUND) ** 0.8;
+  // radau5 carries FACCON^0.8 into the step; the power is taken only where that value is read (the
+  // first iteration's stopping test, when bounds cannot decide it, and an early return): most steps
+  // replace it by the observed rate in the second iteration without reading it.
+  faccon = Math.max(faccon, UROUND);
+  let facconPowered = false;
   let theta = Math.abs(JACOBIAN_RATE_THRESHOLD);
   let dynold = 0;
   let thqold = 0;
@@ -205,9 +209,6 @@ export function solveCollocation(
       sys.rhs(s === 0 ? t + C1 * h : s === 1 ? t + C2 * h : tLastStage, ys, fzStage[s]!);
     }
     sys.stats.newtonIterations++;
-    for (let k = 0; k < 3 * n; k++) {
-      if (!Number.isFinite(fz[k]!)) return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, NO_COMPONENTS, nonFiniteStages(fz, n));
-    }
     // Right-hand sides of the transformed system: M W_k in m1, m2, m3 at offset 0, or W itself
     // (stage k at offset k n) when M is the identity.
     let o1 = 0;
@@ -225,10 +226,14 @@ export function solveCollocation(
       sys.multiplyMass(w, n, m2);
       sys.multiplyMass(w, 2 * n, m3);
     }
+    // probe: 0 f is NaN exactly when f is NaN or infinite, so one NaN test after the loop finds a
+    // non-finite stage value (nothing below reads dw before that test).
+    let probe = 0;
     for (let i = 0; i < n; i++) {
       const f1 = fz[i]!;
       const f2 = fz[n + i]!;
       const f3 = fz[2 * n + i]!;
+      probe += f1 * 0 + f2 * 0 + f3 * 0;
       const a1 = mw1[o1 + i]!;
       const a2 = mw2[o2 + i]!;
       const a3 = mw3[o3 + i]!;
@@ -237,6 +242,10 @@ export function solveCollocation(
       const ci = TI[6]! * f1 + TI[7]! * f2 + TI[8]! * f3;
       dw[n + i] = cr - (alphn * a2 - betan * a3);
       dw[2 * n + i] = ci - (alphn * a3 + betan * a2);
+    }
+    if (probe !== probe) {
+      if (!facconPowered) faccon = faccon ** 0.8;
+      return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, NO_COMPONENTS, nonFiniteStages(fz, n));
     }
     sys.luReal.solve(work.dwReal);
     sys.luComplex.solve(work.dwRe, work.dwIm);
@@ -252,6 +261,7 @@ export function solveCollocation(
     if (!Number.isFinite(dyno)) {
       // The increment overflowed: name its non-finite components (or, when every entry is finite
       // and only the sum of squares overflowed, the largest), so a failure can be diagnosed.
+      if (!facconPowered) faccon = faccon ** 0.8;
       return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, overflowedIncrement(dw, n, scale));
     }
     if (newt > 1 && newt < nit) {
@@ -260,14 +270,16 @@ export function solveCollocation(
       thqold = thq;
       if (theta < DIVERGENT_RATE) {
         faccon = theta / (1 - theta);
-        const dyth = (faccon * dyno * theta ** (nit - 1 - newt)) / fnewt;
-        if (dyth >= 1) {
+        facconPowered = true;
+        if (cannotConverge(faccon, dyno, theta, nit - 1 - newt, fnewt)) {
+          const dyth = (faccon * dyno * theta ** (nit - 1 - newt)) / fnewt;
           // Cannot converge within nit iterations: shrink h by radau5's estimate.
           const qnewt = Math.max(1e-4, Math.min(20, dyth));
           const shrink = 0.8 * qnewt ** (-1 / (4 + nit - 1 - newt));
           return finish(out, false, newt, theta, shrink, faccon, worstIncrement(dw, n, scale));
         }
       } else {
+        if (!facconPowered) faccon = faccon ** 0.8;
         return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, worstIncrement(dw, n, scale));
       }
     }
@@ -282,9 +294,56 @@ export function solveCollocation(
       z[n + i] = T[3]! * w1 + T[4]! * w2 + T[5]! * w3;
       z[2 * n + i] = T[6]! * w1 + T[7]! * w2 + T[8]! * w3;
     }
-    if (faccon * dyno <= fnewt) return finish(out, true, newt, theta, 1, faccon, NO_COMPONENTS);
+    if (!facconPowered && !surelyAbove(faccon, dyno, fnewt)) {
+      faccon = faccon ** 0.8;
+      facconPowered = true;
+    }
+    if (facconPowered && faccon * dyno <= fnewt) return finish(out, true, newt, theta, 1, faccon, NO_COMPONENTS);
   }
+  if (!facconPowered) faccon = faccon ** 0.8;
   return finish(out, false, nit, theta, NEWTON_FAILURE_SHRINK, faccon, worstIncrement(dw, n, scale));
+}
+
+/** Relative margin that covers the rounding of the bounds and products below (a few ulp each). */
+const BOUND_MARGIN = 1e-12;
+
+/**
+ * Whether x^0.8 dyno > fnewt for certain, from bounds by square roots
+ * (x^0.875 <= x^0.8 <= x^0.75 for x <= 1, reversed above 1) instead of the
+ * power: the first iteration's stopping test decided without it. False
+ * when the bounds cannot decide (the caller then takes the power).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * surelyAbove(0.01, 1, 1e-3); // true: 0.01^0.8 = 0.025 > 1e-3
+ * ```
+ */
+export function surelyAbove(x: number, dyno: number, fnewt: number): boolean {
+  const s1 = Math.sqrt(x);
+  const s2 = Math.sqrt(s1);
+  const lower = (x <= 1 ? s1 * s2 * Math.sqrt(s2) : s1 * s2) * (1 - BOUND_MARGIN);
+  return lower * dyno > fnewt * (1 + BOUND_MARGIN) && Number.isFinite(lower * dyno);
+}
+
+/**
+ * radau5's test dyth = faccon dyno theta^k / fnewt >= 1 (the iteration
+ * cannot converge within the limit), with theta^k by multiplication first:
+ * it differs from the power by a few ulp, so a result clearly below 1
+ * decides; near 1, or with theta^k near underflow, the power decides as in
+ * radau5. The same decisions, without a power in most iterations.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * cannotConverge(0.1, 1, 0.1, 4, 0.03); // false: 0.1 * 1e-4 / 0.03 < 1
+ * ```
+ */
+export function cannotConverge(faccon: number, dyno: number, theta: number, k: number, fnewt: number): boolean {
+  let tk = 1;
+  for (let j = 0; j < k; j++) tk *= theta;
+  if (tk > 1e-280 && (faccon * dyno * tk) / fnewt < 1 - BOUND_MARGIN) return false;
+  return (faccon * dyno * theta ** k) / fnewt >= 1;
 }
 
 /** Components (mod n) with a non-finite stage value of f, ascending. */

@@ -1208,7 +1208,7 @@ class RadauIntegrator implements DaeIntegrator {
         for (let i = 0; i < n; i++) z[s * n + i] = ch * yp[i]!;
       }
     } else {
-      z.fill(0);
+      for (let k = 0; k < 3 * n; k++) z[k] = 0;
     }
   }
 
@@ -1232,8 +1232,12 @@ class RadauIntegrator implements DaeIntegrator {
     for (let k = 0; k < 3; k++) {
       for (let i = 0; i < n; i++) q[k * n + i] = z[i]! * P[k]! + z[n + i]! * P[3 + k]! + z[2 * n + i]! * P[6 + k]!;
     }
-    piece.yOld.set(y);
-    for (let i = 0; i < n; i++) y[i] = y[i]! + z[2 * n + i]!;
+    const yOld = piece.yOld;
+    for (let i = 0; i < n; i++) {
+      const yi = y[i]!;
+      yOld[i] = yi;
+      y[i] = yi + z[2 * n + i]!;
+    }
     piece.tOld = t;
     piece.t = tNew;
     piece.h = h;

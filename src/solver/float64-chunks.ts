@@ -25,7 +25,8 @@ export class Float64Chunks {
       this.chunk = new Float64Array(Math.max(this.chunkLength, length));
       this.used = 0;
     }
-    const view = this.chunk.subarray(this.used, this.used + length);
+    // A view made by the constructor (subarray looks up the species constructor on every call).
+    const view = new Float64Array(this.chunk.buffer, this.used * Float64Array.BYTES_PER_ELEMENT, length);
     this.used += length;
     return view;
   }

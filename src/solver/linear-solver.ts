@@ -97,17 +97,33 @@ const scaleBits = new Float64Array(1);
 const scaleWords = new Uint32Array(scaleBits.buffer);
 /** Index of the high 32-bit word of a double (1 on little-endian machines). */
 const HIGH = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1 ? 1 : 0;
+/** The 20 significand bits of sqrt 2 in the high word: the band near sqrt 2 lies inside this bucket. */
+const SQRT2_HIGH_SIGNIFICAND = 0x6a09e;
+/** 2^-e for e = -1022 .. 1024 at index e + 1022 (exact powers of two; 2^-1024 is subnormal). */
+const INVERSE_POWERS = Float64Array.from({ length: 2047 }, (_, k) => 2 ** -(k - 1022));
 
 /**
  * 2^-round(log2 m), or 1 for a zero or non-finite m (@internal). Read from the bits of m
  * (round(log2 m) = exponent + 1 when the significand is >= sqrt 2), since
  * Math.log2 and a power per row and column cost more than the elimination
- * for small systems; within 1e-9 of the sqrt 2 boundary, and for subnormal
- * m, the original formula decides, so the result is the same as
- * 2 ** -Math.round(Math.log2(m)) everywhere.
+ * for small systems; the high word alone decides unless its significand bits
+ * are those of sqrt 2 (1 case in 2^20), where the exact comparison (and,
+ * within 1e-9 of sqrt 2, the original formula) decides; subnormal m uses the
+ * formula too. So the result is the same as 2 ** -Math.round(Math.log2(m))
+ * everywhere, with one write and one read of the bits in the common case.
  */
 export function powerOfTwoInverse(m: number): number {
-  if (!(m > 0) || !Number.isFinite(m)) return 1;
+  if (!(m > 0) || m === Infinity) return 1;
+  scaleBits[0] = m;
+  const high = scaleWords[HIGH]!;
+  const biased = high >>> 20;
+  const significand = high & 0xfffff;
+  if (biased === 0 || significand === SQRT2_HIGH_SIGNIFICAND) return powerOfTwoInverseNearSqrt2(m);
+  return INVERSE_POWERS[biased - 1023 + (significand > SQRT2_HIGH_SIGNIFICAND ? 1 : 0) + 1022]!;
+}
+
+/** The rare cases of {@link powerOfTwoInverse}: subnormal m, or a significand in the bucket of sqrt 2. */
+function powerOfTwoInverseNearSqrt2(m: number): number {
   scaleBits[0] = m;
   const high = scaleWords[HIGH]!;
   const biased = (high >>> 20) & 0x7ff;
@@ -116,9 +132,5 @@ export function powerOfTwoInverse(m: number): number {
   const significand = scaleBits[0]!;
   if (Math.abs(significand - Math.SQRT2) < 1e-9) return 2 ** -Math.round(Math.log2(m));
   const e = biased - 1023 + (significand >= Math.SQRT2 ? 1 : 0);
-  const inverseBiased = 1023 - e;
-  if (inverseBiased <= 0 || inverseBiased >= 0x7ff) return 2 ** -e;
-  scaleBits[0] = 0;
-  scaleWords[HIGH] = inverseBiased << 20;
-  return scaleBits[0]!;
+  return INVERSE_POWERS[e + 1022]!;
 }

@@ -3,6 +3,7 @@ import { evaluateCollocation } from './collocation-polynomial.js';
 import { createDaeIntegratorFromNormalized, type DaeStepInterpolant } from './dae-integrator.js';
 import { normalizeDae } from './normalize-problem.js';
 import { firstIndexAbove } from './sorted-search.js';
+import { StateRows } from './state-rows.js';
 import type { DaeEventRecord, DaeProblem, DaeSolution, SolveDaeOptions } from './types.js';
 
 /**
@@ -43,7 +44,10 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
   const p = normalizeDae(problem, options);
   const integ = createDaeIntegratorFromNormalized(p);
   const ts: number[] = [integ.t];
-  const ys: Float64Array[] = [integ.y];
+  // The states row after row (no typed array per step); sol.y makes the per-point views on first use.
+  const ys = new StateRows(p.n);
+  const scratch = new Float64Array(p.n);
+  ys.push(integ.readState(scratch));
   const pieces: DaeStepInterpolant[] = [];
   const events: DaeEventRecord[] = [];
   const outT = p.outputTimes;
@@ -61,7 +65,7 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     // The step's polynomial only when something reads it (its arrays are copied for us per request).
     const step = p.denseOutput || (outK < outT.length && outT[outK]! <= integ.t) ? integ.interpolant! : undefined;
     // Share the previous point's array as the piece's yOld (same values): saves n numbers per step.
-    const it: DaeStepInterpolant | undefined = step && { tOld: step.tOld, t: step.t, h: step.h, yOld: ys[ys.length - 1]!, q: step.q };
+    const it: DaeStepInterpolant | undefined = step && { tOld: step.tOld, t: step.t, h: step.h, yOld: ys.row(ys.length - 1), q: step.q };
     if (r.jumpFrom) {
       // Re-initialised at a breakpoint: keep the left limit, then the right limit, at the same time.
       ts.push(integ.t);
@@ -71,8 +75,8 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
       pieces.push(it!);
     }
     ts.push(integ.t);
-    ys.push(integ.y);
-    for (const e of r.events) events.push(e);
+    ys.push(integ.readState(scratch));
+    for (let k = 0; k < r.events.length; k++) events.push(r.events[k]!);
     while (outK < outT.length && outT[outK]! <= integ.t) {
       outY.push(evaluateCollocation(it!, outT[outK]!, new Float64Array(p.n)));
       outK++;
@@ -106,25 +110,34 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     }
     // Last index k with tArr[k] <= t (t >= t0 = tArr[0], so k >= 0).
     const lo = firstIndexAbove(tArr, t) - 1;
-    if (tArr[lo] === t) return Float64Array.from(ys[lo]!);
+    if (tArr[lo] === t) return Float64Array.from(ys.row(lo));
     if (!p.denseOutput) {
       throw new InputError('no-dense-output', `at(${t}): run with denseOutput: true to evaluate between steps`, ['denseOutput']);
     }
     return evaluateCollocation(pieces[lo]!, t, new Float64Array(n));
   };
 
+  let yRows: Float64Array[] | undefined;
   const solution: DaeSolution = {
     status,
     message,
     t: tArr,
-    y: ys,
+    get y(): Float64Array[] {
+      if (!yRows) {
+        yRows = new Array<Float64Array>(ys.length);
+        for (let k = 0; k < ys.length; k++) yRows[k] = ys.row(k);
+      }
+      return yRows;
+    },
     tReached,
     at,
     component: (index: number) => {
       if (!Number.isInteger(index) || index < 0 || index >= n) {
         throw new InputError('bad-component', `component(${index}): index must be an integer in 0..${n - 1}`, ['index']);
       }
-      return Float64Array.from(ys, (v) => v[index]!);
+      const out = new Float64Array(ys.length);
+      for (let k = 0; k < ys.length; k++) out[k] = ys.get(k, index);
+      return out;
     },
     events,
     output: { t: outT.slice(0, outY.length), y: outY },
