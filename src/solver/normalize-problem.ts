@@ -1,5 +1,5 @@
 import { InputError } from '../errors.js';
-import { compressedJacobian, compressedMass, compressedRhs, massRowCompression } from './mass-row-compression.js';
+import { compressedJacobian, compressedMass, compressedRhs, massRowCompression, type MassRowCompression } from './mass-row-compression.js';
 import { sparsePattern, type SparsePattern } from './sparse-pattern.js';
 import { SPARSE_MIN_SIZE, type DaeEvent, type DaeProblem, type JacobianEntriesFunction, type JacobianFunction, type RhsFunction, type SolveDaeOptions, type DaeProgress } from './types.js';
 
@@ -13,8 +13,10 @@ export interface NormalizedDae {
   readonly n: number;
   readonly rhs: RhsFunction;
   readonly jacobian: JacobianFunction | undefined;
-  /** The Jacobian entry by entry (for the sparse path); undefined when M's rows were recombined (the dense form is then used). */
+  /** The Jacobian entry by entry as the problem gave it (for the sparse path): rows not yet recombined by `massCompression`. */
   readonly jacobianEntries: JacobianEntriesFunction | undefined;
+  /** Dependent rows of M recombined into explicit algebraic equations (rhs, jacobian and mass above are recombined already). */
+  readonly massCompression: MassRowCompression | undefined;
   /** Row-major n*n, or undefined for the identity. */
   readonly mass: Float64Array | undefined;
   readonly y0: Float64Array;
@@ -209,7 +211,15 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     }
     for (let i = 0; i < n; i++) for (const j of perRow[i]!) rows.push(i), cols.push(j);
     // Recombined rows of a hidden algebraic equation take the pattern of the rows they combine.
-    for (const d of compression?.dependent ?? []) for (const r of d.rows) for (const j of perRow[r]!) rows.push(d.row), cols.push(j);
+    // (Their whole rows of the iteration pattern: the mass entries and the diagonal too, so that the
+    // sparse path recombines J's values on the pattern entry for entry.)
+    for (const d of compression?.dependent ?? []) {
+      for (const r of d.rows) {
+        for (const j of perRow[r]!) rows.push(d.row), cols.push(j);
+        rows.push(d.row), cols.push(r);
+        if (mass) for (let j = 0; j < n; j++) if (mass[r * n + j] !== 0) rows.push(d.row), cols.push(j);
+      }
+    }
     if (mass) for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (mass[i * n + j] !== 0) rows.push(i), cols.push(j);
     iterationPattern = sparsePattern(n, rows, cols);
   }
@@ -229,7 +239,8 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     n,
     rhs: compression ? compressedRhs(problem.rhs, compression) : problem.rhs,
     jacobian: compression && jacobian ? compressedJacobian(jacobian, n, compression) : jacobian,
-    jacobianEntries: compression ? undefined : problem.jacobianEntries,
+    jacobianEntries: problem.jacobianEntries,
+    massCompression: compression,
     mass: compression && mass ? compressedMass(mass, n, compression) : mass,
     y0,
     t0,

@@ -91,6 +91,7 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
   const target = new PatternValuesTarget(pattern);
   const entries = p.jacobianEntries;
   const jf = p.jacobian;
+  const recombine = recombination(pattern, p);
   let dense: Float64Array | undefined;
   let fdWork: Float64Array | undefined;
 
@@ -126,6 +127,10 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
       if (entries) {
         out.fill(0);
         entries(t, y, target.bind(out));
+        // Dependent rows of M become explicit algebraic equations (normalize-problem.ts): the same rows of J.
+        for (let r = 0; r < recombine.destination.length; r++) {
+          out[recombine.destination[r]!] = out[recombine.destination[r]!]! - recombine.coefficient[r]! * out[recombine.source[r]!]!;
+        }
         return 0;
       }
       dense ??= new Float64Array(n * n);
@@ -178,4 +183,33 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
       };
     },
   };
+}
+
+/**
+ * The recombination of dependent rows of M ({@link MassRowCompression}) as
+ * updates of J's values on the pattern, in the order of the dense
+ * recombination (compressedJacobian): values[destination] -= coefficient *
+ * values[source], for each entry of each source row. The pattern holds the
+ * destinations (normalizeDae adds the source rows' entries to the dependent rows).
+ */
+function recombination(pattern: SparsePattern, p: NormalizedDae): { destination: Int32Array; source: Int32Array; coefficient: Float64Array } {
+  const destination: number[] = [];
+  const source: number[] = [];
+  const coefficient: number[] = [];
+  const { rowStart, col } = pattern;
+  for (const d of p.massCompression?.dependent ?? []) {
+    for (let k = 0; k < d.rows.length; k++) {
+      const src = d.rows[k]!;
+      for (let e = rowStart[src]!; e < rowStart[src + 1]!; e++) {
+        const j = col[e]!;
+        let slot = rowStart[d.row]!;
+        while (slot < rowStart[d.row + 1]! && col[slot]! < j) slot++;
+        if (col[slot] !== j) throw new Error(`iteration pattern lacks entry (${d.row}, ${j}) of a recombined row`);
+        destination.push(slot);
+        source.push(e);
+        coefficient.push(d.coefficients[k]!);
+      }
+    }
+  }
+  return { destination: Int32Array.from(destination), source: Int32Array.from(source), coefficient: Float64Array.from(coefficient) };
 }
