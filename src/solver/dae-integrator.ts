@@ -24,6 +24,7 @@ import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
 import { radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
+import { createSparseConsistency, type SparseConsistency } from './sparse-consistency.js';
 import { createSparseIterationSystem } from './sparse-iteration-system.js';
 import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
@@ -344,6 +345,9 @@ class RadauIntegrator implements DaeIntegrator {
   /** For cheap restarts (singular M only): W0^T J V0 factored for the kept J, and y' work. */
   private readonly algebraic: AlgebraicSolver | undefined;
   private readonly derivativeWork: DerivativeWork | undefined;
+  /** On the sparse path: the consistent initialisation's matrices from J on the pattern (no dense arrays), and J for it. */
+  private readonly sparseConsistency: SparseConsistency | undefined;
+  private readonly consistencyJac: Float64Array | undefined;
   /** The consistency context, built once; its scale is refreshed per use. */
   private readonly consistency: ConsistencyContext | undefined;
   /** State saved before a cheap restart, to fall back to the full one. */
@@ -444,7 +448,30 @@ class RadauIntegrator implements DaeIntegrator {
     this.ySaved = new Float64Array(n);
     this.restartSlope = new Float64Array(n);
     this.stepWork = { scale: new Float64Array(n), y1: new Float64Array(n), f1: new Float64Array(n) };
-    if (this.spaces) {
+    const sparse = this.system.sparse;
+    if (this.spaces && sparse && this.spaces.k > 0) {
+      // The sparse path: W0^T J V0 and the y' system formed on the pattern, factored from values.
+      const sc = createSparseConsistency(this.spaces, sparse.pattern, sparse.massValues);
+      const jac = new Float64Array(this.system.jacobianSize);
+      this.sparseConsistency = sc;
+      this.consistencyJac = jac;
+      this.algebraic = sc.solver;
+      this.consistency = {
+        n,
+        spaces: this.spaces,
+        rhs: this.countedRhs,
+        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobianDense(t, y, f, out),
+        scale: new Float64Array(n),
+        algebraic: {
+          factorAt: (t: number, y: Float64Array, f: Float64Array): number => {
+            this.callJacobian(t, y, f, jac);
+            this.algebraicVersion = -1; // the shared factorisation no longer belongs to the held J
+            return sc.factorAlgebraic(jac) ? -1 : 0;
+          },
+          lu: sc.solver.lu,
+        },
+      };
+    } else if (this.spaces) {
       this.consistency = {
         n,
         spaces: this.spaces,
@@ -588,7 +615,8 @@ class RadauIntegrator implements DaeIntegrator {
       if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
         const solver = this.algebraic!;
         if (this.algebraicVersion !== this.jacVersion) {
-          if (!factorAlgebraic(this.spaces, this.denseJacobian(), solver)) return this.undoCheapRestart();
+          const factored = this.sparseConsistency ? this.sparseConsistency.factorAlgebraic(this.jac) : factorAlgebraic(this.spaces, this.denseJacobian(), solver);
+          if (!factored) return this.undoCheapRestart();
           this.algebraicVersion = this.jacVersion;
         }
         const ctx = this.consistencyContext();
@@ -597,7 +625,9 @@ class RadauIntegrator implements DaeIntegrator {
         if (!allFinite(this.fCur)) return this.undoCheapRestart();
         if (capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(t), p.tEnd - p.t0);
-          yp = consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
+          yp = this.sparseConsistency
+            ? this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac)
+            : consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
         }
       } else {
         this.callRhs(t, y, this.fCur);
@@ -845,7 +875,7 @@ class RadauIntegrator implements DaeIntegrator {
         this.adjustedCur = res.adjusted ?? [];
         if (fresh || capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(this.tCur), p.tEnd - p.t0);
-          yp = consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
+          yp = this.sparseConsistency ? this.sparseDerivativeAt(ctx, dt) : consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
         }
       }
       this.callRhs(this.tCur, this.yCur, this.fCur);
@@ -861,6 +891,15 @@ class RadauIntegrator implements DaeIntegrator {
     } catch (e) {
       this.failFromError(e);
     }
+  }
+
+  /** consistentDerivative on the sparse path: f and J evaluated afresh at the present state (a fresh f array: y' may be kept). */
+  private sparseDerivativeAt(ctx: ConsistencyContext, dt: number): Float64Array | undefined {
+    const f = new Float64Array(this.n);
+    this.callRhs(this.tCur, this.yCur, f);
+    this.callJacobian(this.tCur, this.yCur, f, this.consistencyJac!);
+    const yp = this.sparseConsistency!.derivative(ctx, this.tCur, dt, this.yCur, f, this.consistencyJac!);
+    return yp && Float64Array.from(yp);
   }
 
   /** The consistency context with its scale atol + rtol |y| at the present state. */

@@ -1,3 +1,4 @@
+import type { SparsePattern } from './sparse-pattern.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 
 /**
@@ -49,6 +50,8 @@ export interface IterationSystem {
    * tests that a large network is held without n^2 arrays.
    */
   storage(): { readonly jacobian: number; readonly iterationMatrices: number; readonly factors: number };
+  /** The sparse system's pattern and M on it (undefined for the dense system). */
+  readonly sparse?: { readonly pattern: SparsePattern; readonly massValues: Float64Array };
 }
 
 /**

@@ -121,6 +121,7 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
   return {
     luReal,
     luComplex,
+    sparse: { pattern, massValues },
     jacobianSize: nnz,
     analytic: entries !== undefined || jf !== undefined,
     evaluate(t, y, f, out) {
