@@ -62,6 +62,51 @@ export function createTransversalLu(s: RowStructure): TransversalLu {
 }
 
 /**
+ * The algebraic Jacobian W0^T J V0 (k x k) for J given as values on a
+ * pattern, formed as W0^T (J V0) (the association of the dense
+ * algebraicJacobian) by fixed-structure products and factored by a
+ * {@link TransversalLu}: no n x n or n x k array.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const alg = createSparseAlgebraicJacobian(spaces, pattern);
+ * if (alg.factor(jacValues) < 0) alg.lu.solve(z);
+ * ```
+ */
+export interface SparseAlgebraicJacobian {
+  /** Form and factor W0^T J V0 for J (values on the pattern): -1 or the column of a bad pivot. */
+  factor(jac: Float64Array): number;
+  readonly lu: TransversalLu;
+  /** Numbers held, for storage checks. */
+  readonly held: number;
+}
+
+/** See {@link SparseAlgebraicJacobian}. @internal */
+export function createSparseAlgebraicJacobian(spaces: MassSpaces, pattern: SparsePattern): SparseAlgebraicJacobian {
+  const { n, k } = spaces;
+  const { v0, w0 } = spaces.columns;
+  const jStructure: RowStructure = { rows: n, cols: n, rowStart: pattern.rowStart, col: pattern.col };
+  const w0T: RowStructure = { rows: k, cols: n, rowStart: w0.start, col: w0.index };
+  const v0Rows = rowsOfColumns(n, k, v0.start, v0.index);
+  const v0Values = Float64Array.from(v0Rows.valueOf, (e) => v0.value[e]!);
+  const jv = sparseProduct(jStructure, v0Rows.structure);
+  const jvValues = new Float64Array(jv.structure.col.length);
+  const jr = sparseProduct(w0T, jv.structure);
+  const jrValues = new Float64Array(jr.structure.col.length);
+  const lu = createTransversalLu(jr.structure);
+  return {
+    lu,
+    held: jvValues.length + jrValues.length + lu.held,
+    factor(jac) {
+      jv.evaluate(jac, v0Values, jvValues);
+      jr.evaluate(w0.value, jvValues, jrValues);
+      return lu.factorValues(jrValues);
+    },
+  };
+}
+
+/**
  * The consistent initialisation's matrices on the sparse path, for J held
  * as values on the iteration pattern (sparse-iteration-system.ts): the
  * algebraic Jacobian W0^T J V0 (k x k) and the consistent-derivative system
@@ -91,18 +136,11 @@ export interface SparseConsistency {
 /** See {@link SparseConsistency}. `massValues`: M on `pattern`. @internal */
 export function createSparseConsistency(spaces: MassSpaces, pattern: SparsePattern, massValues: Float64Array): SparseConsistency {
   const { n, k, rank } = spaces;
-  const { v0, w0, u1 } = spaces.columns;
+  const { w0, u1 } = spaces.columns;
   const jStructure: RowStructure = { rows: n, cols: n, rowStart: pattern.rowStart, col: pattern.col };
   const w0T: RowStructure = { rows: k, cols: n, rowStart: w0.start, col: w0.index };
   const u1T: RowStructure = { rows: rank, cols: n, rowStart: u1.start, col: u1.index };
-  // W0^T J V0 as W0^T (J V0), the association of the dense function.
-  const v0Rows = rowsOfColumns(n, k, v0.start, v0.index);
-  const v0Values = Float64Array.from(v0Rows.valueOf, (e) => v0.value[e]!);
-  const jv = sparseProduct(jStructure, v0Rows.structure);
-  const jvValues = new Float64Array(jv.structure.col.length);
-  const jr = sparseProduct(w0T, jv.structure);
-  const jrValues = new Float64Array(jr.structure.col.length);
-  const algebraicLu = createTransversalLu(jr.structure);
+  const algebraic = createSparseAlgebraicJacobian(spaces, pattern);
   // [U1^T M; W0^T J]: the first block is constant.
   const massRows = sparseProduct(u1T, jStructure);
   const jacRows = sparseProduct(w0T, jStructure);
@@ -118,7 +156,7 @@ export function createSparseConsistency(spaces: MassSpaces, pattern: SparsePatte
   const ft = new Float64Array(n);
   const b = new Float64Array(n);
   const solver: AlgebraicSolver = {
-    lu: algebraicLu,
+    lu: algebraic.lu,
     jr: new Float64Array(0),
     jv: new Float64Array(0),
     f: new Float64Array(n),
@@ -128,12 +166,8 @@ export function createSparseConsistency(spaces: MassSpaces, pattern: SparsePatte
   };
   return {
     solver,
-    held: jvValues.length + jrValues.length + aValues.length + algebraicLu.held + derivativeLu.held + 8 * n,
-    factorAlgebraic(jac) {
-      jv.evaluate(jac, v0Values, jvValues);
-      jr.evaluate(w0.value, jvValues, jrValues);
-      return algebraicLu.factorValues(jrValues) < 0;
-    },
+    held: aValues.length + algebraic.held + derivativeLu.held + 8 * n,
+    factorAlgebraic: (jac) => algebraic.factor(jac) < 0,
     derivative(ctx, t, dt, y, f, jac) {
       ctx.rhs(t + dt, y, ft);
       columnsTransposeTimes(u1, f, b);
