@@ -296,6 +296,24 @@ export function createDaeIntegrator(problem: DaeProblem, options: SolveDaeOption
   return new RadauIntegrator(P_);
 }
 
+/**
+ * The numbers (Float64 and Int32 entries) an integrator's linear algebra
+ * holds, by part: the Jacobian and its scratch copies, the iteration
+ * matrices, the LU factors and work, the consistent initialisation's
+ * matrices on the sparse path. For tests that a large network is held
+ * without n x n arrays.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const held = linearAlgebraStorage(integ); // { jacobian, iterationMatrices, factors, consistency, denseJacobian }
+ * ```
+ */
+export function linearAlgebraStorage(integ: DaeIntegrator): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+  if (!(integ instanceof RadauIntegrator)) throw new TypeError('linearAlgebraStorage: not an integrator made by createDaeIntegrator');
+  return integ.linearAlgebraStorage();
+}
+
 /** @internal */
 export function createDaeIntegratorFromNormalized(p: NormalizedDae): DaeIntegrator {
   return new RadauIntegrator(p);
@@ -494,6 +512,18 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   // ---- public surface -------------------------------------------------------
+
+  /** See {@link linearAlgebraStorage}. */
+  linearAlgebraStorage(): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+    const s = this.system.storage();
+    return {
+      jacobian: s.jacobian + this.jac.length + (this.jacScratch?.length ?? 0) + (this.consistencyJac?.length ?? 0),
+      iterationMatrices: s.iterationMatrices,
+      factors: s.factors,
+      consistency: this.sparseConsistency?.held ?? (this.derivativeWork ? this.derivativeWork.a.length : 0),
+      denseJacobian: this.jacDense?.length ?? 0,
+    };
+  }
 
   get t(): number {
     return this.tCur;

@@ -104,6 +104,6 @@ export function createDenseIterationSystem(p: NormalizedDae): IterationSystem {
       out.set(jac);
       return out;
     },
-    storage: () => ({ jacobian: n * n, iterationMatrices: 3 * n * n, factors: 3 * n * n }),
+    storage: () => ({ jacobian: 0, iterationMatrices: 3 * n * n, factors: 3 * n * n }),
   };
 }

@@ -45,8 +45,9 @@ export interface IterationSystem {
   /** J (in `jac`) as a dense row-major n x n array, into `out`. */
   toDense(jac: Float64Array, out: Float64Array): Float64Array;
   /**
-   * Numbers (Float64 or Int32 entries) the system holds, by part: the
-   * Jacobian storage, the iteration matrices, the LU factors and work. For
+   * Numbers (Float64 or Int32 entries) the system holds, by part: Jacobian
+   * scratch (the integrator holds J itself), the iteration matrices, the LU
+   * factors and work. For
    * tests that a large network is held without n^2 arrays.
    */
   storage(): { readonly jacobian: number; readonly iterationMatrices: number; readonly factors: number };

@@ -178,9 +178,10 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
       // Band and multipliers (real: once, complex: twice), the values kept for refinement, vectors of n.
       const band = n * width + n * lower;
       return {
-        jacobian: nnz,
+        // The integrator holds J itself; the system only a dense scratch for a problem without jacobianEntries.
+        jacobian: dense ? n * n : 0,
         iterationMatrices: 4 * nnz,
-        factors: 3 * band + 6 * nnz + 16 * n + (dense ? n * n : 0),
+        factors: 3 * band + 6 * nnz + 16 * n,
       };
     },
   };
