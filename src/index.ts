@@ -19,6 +19,8 @@ export type {
   SolverStats,
   RhsFunction,
   JacobianFunction,
+  JacobianEntriesFunction,
+  JacobianEntryTarget,
   MassMatrixInput,
 } from './solver/types.js';
 export { SPARSE_MIN_SIZE } from './solver/types.js';

@@ -3,6 +3,8 @@ import { DenseStampTarget } from '../elements/stamp-target.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { algebraicJacobian, makeConsistent, massSpaces, type MassSpaces } from '../solver/consistent-initialization.js';
 import { createDenseLu } from '../solver/dense-lu.js';
+import { SPARSE_MIN_SIZE } from '../solver/types.js';
+import { sparseAlgebraicSolver } from './sparse-algebraic-solver.js';
 
 /** Newton iterations of one algebraic solve (piecewise-linear circuits need one; saturating cores a few). */
 const MAX_NEWTON = 25;
@@ -156,6 +158,8 @@ function describe(devices: readonly ElementEvent[], states: readonly boolean[], 
  */
 export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float64Array, rtol: number): (t: number, y: Float64Array, inputs: InputView) => boolean {
   const n = compiled.layout.size;
+  // Large networks: the same iteration on the stamps' pattern, without n x n arrays.
+  if (compiled.jacobianPattern && n >= SPARSE_MIN_SIZE) return sparseAlgebraicSolver(compiled, atol, rtol, { maxIterations: MAX_NEWTON, tolerance: NEWTON_TOLERANCE, stagnation: STAGNATION_TOLERANCE });
   let spaces: MassSpaces | undefined;
   const f = new Float64Array(n);
   const jac = new Float64Array(n * n);

@@ -304,6 +304,8 @@ export class NetworkRun {
         mass: compiled.mass,
         // The stamps' positions, fixed at compile time: large networks factor on them sparsely.
         ...(compiled.jacobianPattern ? { jacobianPattern: compiled.jacobianPattern } : {}),
+        // The same stamps entry by entry: the sparse path holds J on the pattern alone.
+        jacobianEntries: (t, y, target) => compiled.stampJacobian(t, y, this.live, target),
         y0: settings.initialState ?? compiled.y0,
         t0: settings.t0,
         tEnd: settings.horizon,

@@ -222,6 +222,13 @@ export interface ConsistencyContext {
   readonly jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => void;
   /** Error scale atol + rtol |y| for the convergence test. */
   readonly scale: Float64Array;
+  /**
+   * On the sparse path: W0^T J V0 at (t, y) (f = f(t, y)) evaluated and
+   * factored without dense arrays (returns -1 or the column of a bad pivot),
+   * solved then by `lu`. Without it {@link makeConsistent} forms it from
+   * the dense `jacobian`.
+   */
+  readonly algebraic?: { factorAt(t: number, y: Float64Array, f: Float64Array): number; readonly lu: RealLinearSolver };
 }
 
 /** Outcome of {@link makeConsistent}. */
@@ -268,15 +275,16 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
   const { v0, w0 } = spaces.columns;
   if (k === 0) return { ok: true, iterations: 0 };
   const f = new Float64Array(n);
-  const jac = new Float64Array(n * n);
-  const jv = new Float64Array(n * k);
-  const jr = new Float64Array(k * k);
+  const sparse = ctx.algebraic;
+  const jac = sparse ? undefined : new Float64Array(n * n);
+  const jv = sparse ? undefined : new Float64Array(n * k);
+  const jr = sparse ? undefined : new Float64Array(k * k);
   const r = new Float64Array(k);
   const dz = new Float64Array(k);
   const dy = new Float64Array(n);
   const ytrial = new Float64Array(n);
   // One solver per spaces: its symbolic analysis (transversal, ordering, band) serves every later call.
-  let lu = consistencySolvers.get(spaces);
+  let lu = sparse?.lu ?? consistencySolvers.get(spaces);
   if (!lu) consistencySolvers.set(spaces, (lu = createPatternAdaptiveLu(k)));
   let lastNorm = Infinity;
 
@@ -294,9 +302,14 @@ export function makeConsistent(ctx: ConsistencyContext, t: number, y: Float64Arr
     if (badF.length) {
       return { ok: false, reason: 'non-finite', components: badF, message: `f is not finite at the initial state (components ${badF.join(', ')})` };
     }
-    ctx.jacobian(t, y, f, jac);
-    algebraicJacobian(spaces, jac, jr, jv);
-    const badPivot = lu.factor(jr);
+    let badPivot: number;
+    if (sparse) {
+      badPivot = sparse.factorAt(t, y, f);
+    } else {
+      ctx.jacobian(t, y, f, jac!);
+      algebraicJacobian(spaces, jac!, jr!, jv!);
+      badPivot = lu.factor(jr!);
+    }
     if (badPivot >= 0) return leastChangeConsistent(ctx, t, y, moveDifferential);
     for (let j = 0; j < k; j++) dz[j] = -r[j]!;
     lu.solve(dz);

@@ -1,7 +1,6 @@
 import { InputError } from '../errors.js';
 import { createCollocationWork, createNewtonOutcome, NEWTON_FAILURE_SHRINK, solveCollocation, type CollocationSystem, type CollocationWork, type NewtonOutcome } from './collocation-newton.js';
 import { evaluateCollocation } from './collocation-polynomial.js';
-import { createComplexLu } from './complex-lu.js';
 import {
   consistentDerivative,
   consistentDerivativeWith,
@@ -16,18 +15,17 @@ import {
   type DerivativeWork,
   type MassSpaces,
 } from './consistent-initialization.js';
-import { createDenseLu } from './dense-lu.js';
+import { createDenseIterationSystem } from './dense-iteration-system.js';
 import { locateSignChange } from './event-locator.js';
-import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
 import { nextDown } from './float-neighbours.js';
+import { OutsidePatternError, type IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
-import { createEmbeddedComplexLu, createMlMatrixLu } from './ml-matrix-lu.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
 import { radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
-import { createSparseComplexLu } from './sparse-complex-lu.js';
-import { createSparseLu } from './sparse-lu.js';
+import { createSparseConsistency, type SparseConsistency } from './sparse-consistency.js';
+import { createSparseIterationSystem } from './sparse-iteration-system.js';
 import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
@@ -298,6 +296,24 @@ export function createDaeIntegrator(problem: DaeProblem, options: SolveDaeOption
   return new RadauIntegrator(P_);
 }
 
+/**
+ * The numbers (Float64 and Int32 entries) an integrator's linear algebra
+ * holds, by part: the Jacobian and its scratch copies, the iteration
+ * matrices, the LU factors and work, the consistent initialisation's
+ * matrices on the sparse path. For tests that a large network is held
+ * without n x n arrays.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const held = linearAlgebraStorage(integ); // { jacobian, iterationMatrices, factors, consistency, denseJacobian }
+ * ```
+ */
+export function linearAlgebraStorage(integ: DaeIntegrator): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+  if (!(integ instanceof RadauIntegrator)) throw new TypeError('linearAlgebraStorage: not an integrator made by createDaeIntegrator');
+  return integ.linearAlgebraStorage();
+}
+
 /** @internal */
 export function createDaeIntegratorFromNormalized(p: NormalizedDae): DaeIntegrator {
   return new RadauIntegrator(p);
@@ -316,6 +332,8 @@ class RadauIntegrator implements DaeIntegrator {
   private readonly atolT: Float64Array;
   /** Newton stopping tolerance FNEWT. */
   private readonly fnewt: number;
+  /** Where J is held and how the iteration matrices are formed and factored (dense or sparse). */
+  private readonly system: IterationSystem;
   private readonly luReal: RealLinearSolver;
   private readonly luComplex: ComplexLinearSolver;
   private readonly startTime: number;
@@ -330,7 +348,10 @@ class RadauIntegrator implements DaeIntegrator {
   private theta = JACOBIAN_RATE_THRESHOLD;
   private first = true;
   private extrapolate = false;
+  /** J in the system's storage (dense n*n, or values on the sparse pattern). */
   private jac: Float64Array;
+  /** J as a dense array for the consistent initialisation, when the system's storage is sparse (made on first use). */
+  private jacDense: Float64Array | undefined;
   /** A fresh Jacobian at a cheap restart, compared with the held one before it replaces it. */
   private jacScratch: Float64Array | undefined;
   private jacValid = false;
@@ -342,6 +363,9 @@ class RadauIntegrator implements DaeIntegrator {
   /** For cheap restarts (singular M only): W0^T J V0 factored for the kept J, and y' work. */
   private readonly algebraic: AlgebraicSolver | undefined;
   private readonly derivativeWork: DerivativeWork | undefined;
+  /** On the sparse path: the consistent initialisation's matrices from J on the pattern (no dense arrays), and J for it. */
+  private readonly sparseConsistency: SparseConsistency | undefined;
+  private readonly consistencyJac: Float64Array | undefined;
   /** The consistency context, built once; its scale is refreshed per use. */
   private readonly consistency: ConsistencyContext | undefined;
   /** State saved before a cheap restart, to fall back to the full one. */
@@ -385,10 +409,6 @@ class RadauIntegrator implements DaeIntegrator {
   /** out = M v[vOff..) (bound once). */
   private readonly multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void;
   private readonly scale: Float64Array;
-  private readonly e1: Float64Array;
-  private readonly e2r: Float64Array;
-  private readonly e2i: Float64Array;
-  private readonly fdWork: Float64Array;
 
   constructor(p: NormalizedDae) {
     this.p = p;
@@ -427,14 +447,9 @@ class RadauIntegrator implements DaeIntegrator {
     }
     // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
     this.fnewt = Math.max((10 * UROUND) / rmin, Math.min(0.03, Math.sqrt(rmin)));
-    if (p.iterationPattern) {
-      const real = createSparseLu(p.iterationPattern);
-      this.luReal = real;
-      this.luComplex = createSparseComplexLu(p.iterationPattern, real.structure);
-    } else {
-      this.luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n);
-      this.luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n);
-    }
+    this.system = p.iterationPattern ? createSparseIterationSystem(p) : createDenseIterationSystem(p);
+    this.luReal = this.system.luReal;
+    this.luComplex = this.system.luComplex;
     this.work = createCollocationWork(n);
     this.errorWork = { err: new Float64Array(n), mz: new Float64Array(n), ez: new Float64Array(n), ys: new Float64Array(n), fy: new Float64Array(n) };
     this.countedRhs = (t, y, out) => this.callRhs(t, y, out);
@@ -450,26 +465,45 @@ class RadauIntegrator implements DaeIntegrator {
       stats: this.statsCur,
     };
     this.scale = new Float64Array(n);
-    this.e1 = new Float64Array(n * n);
-    this.e2r = new Float64Array(n * n);
-    this.e2i = new Float64Array(n * n);
-    this.fdWork = new Float64Array(n);
     this.ySaved = new Float64Array(n);
     this.restartSlope = new Float64Array(n);
     this.stepWork = { scale: new Float64Array(n), y1: new Float64Array(n), f1: new Float64Array(n) };
-    if (this.spaces) {
+    const sparse = this.system.sparse;
+    if (this.spaces && sparse && this.spaces.k > 0) {
+      // The sparse path: W0^T J V0 and the y' system formed on the pattern, factored from values.
+      const sc = createSparseConsistency(this.spaces, sparse.pattern, sparse.massValues);
+      const jac = new Float64Array(this.system.jacobianSize);
+      this.sparseConsistency = sc;
+      this.consistencyJac = jac;
+      this.algebraic = sc.solver;
       this.consistency = {
         n,
         spaces: this.spaces,
         rhs: this.countedRhs,
-        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobian(t, y, f, out),
+        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobianDense(t, y, f, out),
+        scale: new Float64Array(n),
+        algebraic: {
+          factorAt: (t: number, y: Float64Array, f: Float64Array): number => {
+            this.callJacobian(t, y, f, jac);
+            this.algebraicVersion = -1; // the shared factorisation no longer belongs to the held J
+            return sc.factorAlgebraic(jac) ? -1 : 0;
+          },
+          lu: sc.solver.lu,
+        },
+      };
+    } else if (this.spaces) {
+      this.consistency = {
+        n,
+        spaces: this.spaces,
+        rhs: this.countedRhs,
+        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobianDense(t, y, f, out),
         scale: new Float64Array(n),
       };
       this.algebraic = createAlgebraicSolver(n, this.spaces.k);
       this.derivativeWork = createDerivativeWork(n);
     }
     this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: new Float64Array(n), q: new Float64Array(3 * n) };
-    this.jac = new Float64Array(n * n);
+    this.jac = new Float64Array(this.system.jacobianSize);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
 
@@ -480,6 +514,18 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   // ---- public surface -------------------------------------------------------
+
+  /** See {@link linearAlgebraStorage}. */
+  linearAlgebraStorage(): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+    const s = this.system.storage();
+    return {
+      jacobian: s.jacobian + this.jac.length + (this.jacScratch?.length ?? 0) + (this.consistencyJac?.length ?? 0),
+      iterationMatrices: s.iterationMatrices,
+      factors: s.factors,
+      consistency: this.sparseConsistency?.held ?? (this.derivativeWork ? this.derivativeWork.a.length : 0),
+      denseJacobian: this.jacDense?.length ?? 0,
+    };
+  }
 
   get t(): number {
     return this.tCur;
@@ -606,7 +652,8 @@ class RadauIntegrator implements DaeIntegrator {
       if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
         const solver = this.algebraic!;
         if (this.algebraicVersion !== this.jacVersion) {
-          if (!factorAlgebraic(this.spaces, this.jac, solver)) return this.undoCheapRestart();
+          const factored = this.sparseConsistency ? this.sparseConsistency.factorAlgebraic(this.jac) : factorAlgebraic(this.spaces, this.denseJacobian(), solver);
+          if (!factored) return this.undoCheapRestart();
           this.algebraicVersion = this.jacVersion;
         }
         const ctx = this.consistencyContext();
@@ -615,7 +662,9 @@ class RadauIntegrator implements DaeIntegrator {
         if (!allFinite(this.fCur)) return this.undoCheapRestart();
         if (capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(t), p.tEnd - p.t0);
-          yp = consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.jac, this.derivativeWork!);
+          yp = this.sparseConsistency
+            ? this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac)
+            : consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
         }
       } else {
         this.callRhs(t, y, this.fCur);
@@ -772,32 +821,35 @@ class RadauIntegrator implements DaeIntegrator {
     }
   }
 
-  /** Evaluate J at (t, y) with f = f(t, y), analytic or finite-difference. */
+  /** Evaluate J at (t, y) with f = f(t, y), analytic or finite-difference, into `out` (the system's storage). */
   private callJacobian(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
     this.statsCur.jacobianEvaluations++;
-    const jf = this.p.jacobian;
-    if (jf) {
-      out.fill(0);
-      try {
-        jf(t, y, out);
-      } catch (e) {
-        throw new UserCodeError(e, 'the Jacobian', t);
-      }
-    } else {
-      try {
-        this.statsCur.rhsEvaluations += finiteDifferenceJacobian(this.p.rhs, t, y, f, out, this.fdWork);
-      } catch (e) {
-        throw new UserCodeError(e, 'f (finite-difference Jacobian)', t);
-      }
+    try {
+      this.statsCur.rhsEvaluations += this.system.evaluate(t, y, f, out);
+    } catch (e) {
+      // The sparse storage refuses an entry outside the declared pattern rather than drop it.
+      if (e instanceof OutsidePatternError) throw new UserCodeError(e, 'the Jacobian (an entry outside jacobianPattern)', t);
+      throw new UserCodeError(e, this.system.analytic ? 'the Jacobian' : 'f (finite-difference Jacobian)', t);
     }
-    const n = this.n;
-    for (let k = 0; k < n * n; k++) {
-      if (!Number.isFinite(out[k]!)) {
-        const rows = new Set<number>();
-        for (let m = k; m < n * n; m++) if (!Number.isFinite(out[m]!)) rows.add(Math.floor(m / n));
-        throw new NonFiniteJacobian([...rows], t);
-      }
+    const rows = this.system.nonFiniteRows(out);
+    if (rows.length > 0) throw new NonFiniteJacobian(rows, t);
+  }
+
+  /** {@link callJacobian} into a dense row-major n x n `out` (for the consistent initialisation). */
+  private callJacobianDense(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
+    if (this.system.jacobianSize === out.length) {
+      this.callJacobian(t, y, f, out);
+      return;
     }
+    const values = (this.jacScratch ??= new Float64Array(this.jac.length));
+    this.callJacobian(t, y, f, values);
+    this.system.toDense(values, out);
+  }
+
+  /** The held J as a dense row-major array (itself when the storage is dense). */
+  private denseJacobian(): Float64Array {
+    if (this.system.jacobianSize === this.n * this.n) return this.jac;
+    return this.system.toDense(this.jac, (this.jacDense ??= new Float64Array(this.n * this.n)));
   }
 
   /** Map errors from user code to a status; rethrow anything else (a bug). */
@@ -860,7 +912,7 @@ class RadauIntegrator implements DaeIntegrator {
         this.adjustedCur = res.adjusted ?? [];
         if (fresh || capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(this.tCur), p.tEnd - p.t0);
-          yp = consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
+          yp = this.sparseConsistency ? this.sparseDerivativeAt(ctx, dt) : consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
         }
       }
       this.callRhs(this.tCur, this.yCur, this.fCur);
@@ -876,6 +928,15 @@ class RadauIntegrator implements DaeIntegrator {
     } catch (e) {
       this.failFromError(e);
     }
+  }
+
+  /** consistentDerivative on the sparse path: f and J evaluated afresh at the present state (a fresh f array: y' may be kept). */
+  private sparseDerivativeAt(ctx: ConsistencyContext, dt: number): Float64Array | undefined {
+    const f = new Float64Array(this.n);
+    this.callRhs(this.tCur, this.yCur, f);
+    this.callJacobian(this.tCur, this.yCur, f, this.consistencyJac!);
+    const yp = this.sparseConsistency!.derivative(ctx, this.tCur, dt, this.yCur, f, this.consistencyJac!);
+    return yp && Float64Array.from(yp);
   }
 
   /** The consistency context with its scale atol + rtol |y| at the present state. */
@@ -933,49 +994,8 @@ class RadauIntegrator implements DaeIntegrator {
 
   /** Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J. Returns the bad pivot (real system first) or -1. */
   private factorIterationMatrices(h: number): number {
-    const n = this.n;
-    const fac1 = MU_REAL / h;
-    const alphn = MU_COMPLEX_RE / h;
-    const betan = MU_COMPLEX_IM / h;
-    const J = this.jac;
-    const e1 = this.e1;
-    const e2r = this.e2r;
-    const e2i = this.e2i;
-    for (let k = 0; k < n * n; k++) {
-      const v = -J[k]!;
-      e1[k] = v;
-      e2r[k] = v;
-    }
-    e2i.fill(0);
-    const rp = this.mRowPtr;
-    if (!rp) {
-      for (let i = 0; i < n; i++) {
-        e1[i * n + i] = e1[i * n + i]! + fac1;
-        e2r[i * n + i] = e2r[i * n + i]! + alphn;
-        e2i[i * n + i] = betan;
-      }
-    } else {
-      const col = this.mCol!;
-      const val = this.mVal!;
-      for (let i = 0; i < n; i++) {
-        for (let k = rp[i]!; k < rp[i + 1]!; k++) {
-          const idx = i * n + col[k]!;
-          const m = val[k]!;
-          e1[idx] = e1[idx]! + fac1 * m;
-          e2r[idx] = e2r[idx]! + alphn * m;
-          e2i[idx] = betan * m;
-        }
-      }
-    }
     this.statsCur.luFactorizations++;
-    try {
-      const real = this.luReal.factor(e1);
-      return real >= 0 ? real : this.luComplex.factor(e2r, e2i);
-    } catch (e) {
-      // The sparse kernels refuse an entry outside the declared pattern rather than drop it.
-      if (e instanceof RangeError && this.p.iterationPattern) throw new UserCodeError(e, 'the Jacobian (an entry outside jacobianPattern)', this.tCur);
-      throw e;
-    }
+    return this.system.factor(this.jac, MU_REAL / h, MU_COMPLEX_RE / h, MU_COMPLEX_IM / h);
   }
 
   /**

@@ -95,7 +95,7 @@ export function massRowCompression(mass: Float64Array, n: number): MassRowCompre
  * ```
  */
 export function compressedMass(mass: Float64Array, n: number, c: MassRowCompression): Float64Array {
-  const out = Float64Array.from(mass);
+  const out = mass.slice();
   for (const d of c.dependent) out.fill(0, d.row * n, d.row * n + n);
   return out;
 }

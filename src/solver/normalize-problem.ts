@@ -1,7 +1,7 @@
 import { InputError } from '../errors.js';
-import { compressedJacobian, compressedMass, compressedRhs, massRowCompression } from './mass-row-compression.js';
+import { compressedJacobian, compressedMass, compressedRhs, massRowCompression, type MassRowCompression } from './mass-row-compression.js';
 import { sparsePattern, type SparsePattern } from './sparse-pattern.js';
-import { SPARSE_MIN_SIZE, type DaeEvent, type DaeProblem, type JacobianFunction, type RhsFunction, type SolveDaeOptions, type DaeProgress } from './types.js';
+import { SPARSE_MIN_SIZE, type DaeEvent, type DaeProblem, type JacobianEntriesFunction, type JacobianFunction, type RhsFunction, type SolveDaeOptions, type DaeProgress } from './types.js';
 
 /**
  * A validated copy of a {@link DaeProblem} and its options, in the shapes
@@ -13,6 +13,10 @@ export interface NormalizedDae {
   readonly n: number;
   readonly rhs: RhsFunction;
   readonly jacobian: JacobianFunction | undefined;
+  /** The Jacobian entry by entry as the problem gave it (for the sparse path): rows not yet recombined by `massCompression`. */
+  readonly jacobianEntries: JacobianEntriesFunction | undefined;
+  /** Dependent rows of M recombined into explicit algebraic equations (rhs, jacobian and mass above are recombined already). */
+  readonly massCompression: MassRowCompression | undefined;
   /** Row-major n*n, or undefined for the identity. */
   readonly mass: Float64Array | undefined;
   readonly y0: Float64Array;
@@ -43,6 +47,20 @@ export interface NormalizedDae {
   readonly linearAlgebra: 'flat' | 'ml-matrix' | 'sparse';
   /** Pattern of (gamma/h) M - J (J's declared pattern, M, the diagonal), when the sparse LU is used. */
   readonly iterationPattern: SparsePattern | undefined;
+}
+
+/** A dense-storage Jacobian function from one given entry by entry. */
+function denseJacobianOf(entries: JacobianEntriesFunction, n: number): JacobianFunction {
+  let out: Float64Array = new Float64Array(0);
+  const target = {
+    add(row: number, col: number, value: number): void {
+      if (row >= 0 && col >= 0) out[row * n + col] = out[row * n + col]! + value;
+    },
+  };
+  return (t, y, o) => {
+    out = o;
+    entries(t, y, target);
+  };
 }
 
 function bad(code: string, message: string, elements: string[] = []): never {
@@ -80,6 +98,9 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   const n = problem.size;
   if (!Number.isInteger(n) || n < 1) bad('bad-problem-size', `problem.size = ${n} must be a positive integer`, ['size']);
   if (typeof problem.rhs !== 'function') bad('bad-rhs', 'problem.rhs must be a function (t, y, out) => void', ['rhs']);
+  if (problem.jacobianEntries !== undefined && typeof problem.jacobianEntries !== 'function') {
+    bad('bad-jacobian', 'problem.jacobianEntries must be a function (t, y, target) => void or absent', ['jacobianEntries']);
+  }
   if (problem.jacobian !== undefined && typeof problem.jacobian !== 'function') {
     bad('bad-jacobian', 'problem.jacobian must be a function (t, y, out) => void or absent', ['jacobian']);
   }
@@ -190,10 +211,22 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     }
     for (let i = 0; i < n; i++) for (const j of perRow[i]!) rows.push(i), cols.push(j);
     // Recombined rows of a hidden algebraic equation take the pattern of the rows they combine.
-    for (const d of compression?.dependent ?? []) for (const r of d.rows) for (const j of perRow[r]!) rows.push(d.row), cols.push(j);
+    // (Their whole rows of the iteration pattern: the mass entries and the diagonal too, so that the
+    // sparse path recombines J's values on the pattern entry for entry.)
+    for (const d of compression?.dependent ?? []) {
+      for (const r of d.rows) {
+        for (const j of perRow[r]!) rows.push(d.row), cols.push(j);
+        rows.push(d.row), cols.push(r);
+        if (mass) for (let j = 0; j < n; j++) if (mass[r * n + j] !== 0) rows.push(d.row), cols.push(j);
+      }
+    }
     if (mass) for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (mass[i * n + j] !== 0) rows.push(i), cols.push(j);
     iterationPattern = sparsePattern(n, rows, cols);
   }
+
+  // A problem giving its Jacobian entry by entry only has the dense form too (the dense path, recombined rows).
+  const entries = problem.jacobianEntries;
+  const jacobian: JacobianFunction | undefined = problem.jacobian ?? (entries ? denseJacobianOf(entries, n) : undefined);
 
   const ot: number[] = [];
   for (const v of Array.from(options.outputTimes ?? [])) {
@@ -205,7 +238,9 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   return {
     n,
     rhs: compression ? compressedRhs(problem.rhs, compression) : problem.rhs,
-    jacobian: compression && problem.jacobian ? compressedJacobian(problem.jacobian, n, compression) : problem.jacobian,
+    jacobian: compression && jacobian ? compressedJacobian(jacobian, n, compression) : jacobian,
+    jacobianEntries: problem.jacobianEntries,
+    massCompression: compression,
     mass: compression && mass ? compressedMass(mass, n, compression) : mass,
     y0,
     t0,

@@ -41,6 +41,43 @@ export type RhsFunction = (t: number, y: Float64Array, out: Float64Array) => voi
 export type JacobianFunction = (t: number, y: Float64Array, out: Float64Array) => void;
 
 /**
+ * Where {@link DaeProblem.jacobianEntries} adds the entries of df/dy: entry
+ * (row, col) += value. A negative row or column is ignored (a grounded
+ * terminal); a position outside {@link DaeProblem.jacobianPattern} stops the
+ * run with `'rhs-error'`.
+ *
+ * @example
+ * ```ts
+ * const entries: JacobianEntriesFunction = (_t, y, target) => {
+ *   target.add(0, 1, 1);
+ *   target.add(1, 0, -2000 * y[0]! * y[1]! - 1);
+ *   target.add(1, 1, 1000 * (1 - y[0]! ** 2));
+ * };
+ * ```
+ */
+export interface JacobianEntryTarget {
+  add(row: number, col: number, value: number): void;
+}
+
+/**
+ * Analytic Jacobian df/dy at (t, y) given entry by entry into a
+ * {@link JacobianEntryTarget} (entries at one position add up; the target
+ * starts from zero at each call). With {@link DaeProblem.jacobianPattern} it
+ * lets the sparse solver hold J on the pattern alone, with no n x n array.
+ *
+ * @example
+ * ```ts
+ * // Van der Pol (as the JacobianFunction example), entry by entry
+ * const entries: JacobianEntriesFunction = (_t, y, target) => {
+ *   target.add(0, 1, 1);
+ *   target.add(1, 0, -2000 * y[0]! * y[1]! - 1);
+ *   target.add(1, 1, 1000 * (1 - y[0]! ** 2));
+ * };
+ * ```
+ */
+export type JacobianEntriesFunction = (t: number, y: Float64Array, target: JacobianEntryTarget) => void;
+
+/**
  * A mass matrix given either as row-major Float64Array (n*n) or as an array
  * of n rows of n numbers.
  *
@@ -125,6 +162,14 @@ export interface DaeProblem {
    * `'rhs-error'` naming the row. (Added field.)
    */
   readonly jacobianPattern?: { readonly rows: ArrayLike<number>; readonly cols: ArrayLike<number> };
+  /**
+   * The same Jacobian as {@link DaeProblem.jacobian}, entry by entry. Used
+   * on the sparse path (with `jacobianPattern`): J is then held and formed
+   * on the pattern alone, so memory and work per step grow with the number
+   * of non-zeros, not n^2. Without it the sparse path evaluates the dense
+   * Jacobian into an n x n scratch array and gathers it. (Added field.)
+   */
+  readonly jacobianEntries?: JacobianEntriesFunction;
 }
 
 /**

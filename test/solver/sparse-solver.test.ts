@@ -73,6 +73,28 @@ describe('solveDae with the sparse LU', () => {
     expect(sol.message).toMatch(/outside jacobianPattern/);
   });
 
+  it('stops with rhs-error naming the entry when jacobianEntries adds outside the declared pattern', () => {
+    const p = ladder(45, true);
+    const pattern = p.jacobianPattern!;
+    const keep = Array.from(pattern.rows, (r, k) => (r === 7 && pattern.cols[k] !== 7 ? -1 : k)).filter((k) => k >= 0);
+    const jacobian = p.jacobian!;
+    const dense = new Float64Array(45 * 45);
+    // The same Jacobian entry by entry (its non-zeros), onto a pattern without row 7's off-diagonal entries.
+    const broken: DaeProblem = {
+      ...p,
+      jacobianPattern: { rows: keep.map((k) => pattern.rows[k]!), cols: keep.map((k) => pattern.cols[k]!) },
+      jacobianEntries: (t, y, target) => {
+        dense.fill(0);
+        jacobian(t, y, dense);
+        for (let i = 0; i < 45 * 45; i++) if (dense[i] !== 0) target.add(Math.floor(i / 45), i % 45, dense[i]!);
+      },
+    };
+    const sol = solveDae(broken, { linearAlgebra: 'sparse' });
+    expect(sol.status).toBe('rhs-error');
+    expect(sol.message).toMatch(/outside jacobianPattern/);
+    expect(sol.message).toMatch(/entry \(7, (6|8)\)/);
+  });
+
   it("refuses linearAlgebra 'sparse' without a pattern", () => {
     expect(() => solveDae(ladder(10, false), { linearAlgebra: 'sparse' })).toThrow(/jacobianPattern/);
   });
