@@ -22,7 +22,31 @@ import { Solver } from '../../support/odex.js';
  * (romanszewczyk/JAmodel: the five numbers and loop plots, no stated H_c or B_r; Zubax/jafit: its papers/ are
  * compressed PDFs, its tests use other parameter sets; exact-string searches for the set and for the 1992
  * authors) gave no H_c, B_r or B_m traced to a paper; the documentation and issue corpora returned only other
- * programs' material libraries and forum threads, which the project does not use. So the features below are computed
+ * programs' material libraries and forum threads, which the project does not use.
+ * Searched a third time (2026-12-04), for any source giving a JA parameter set together with H_c, B_r or B_m (or a
+ * table of loop points) computed from it or measured on the material it was fitted to:
+ *  - stored web pages (only each page's opening is readable): Jiles, Thoelke, Devine, IEEE Trans. Magn. 28(1) 1992
+ *    (opening of its first page only); Leite, Sadowski, Kuo-Peng, Batistela, Bastos, "The inverse Jiles-Atherton
+ *    model parameters identification", IEEE Trans. Magn. 39(3) 2003 p. 1397 (abstract to its eq. (2) only, no
+ *    parameter table); Zirka, Moroz, Harrison, Chiesa, "Inverse hysteresis models for transient simulation", IEEE
+ *    Trans. Power Deliv. 29(2) 2014 552 (opening; not JA parameters); "Harmonization and validation of Jiles-Atherton
+ *    static hysteresis models", Energies 15(18) 2022 6760 (abstract and introduction only); Lozito et al., Math.
+ *    Probl. Eng. 2015 715018 (ten-parameter JA, not ours; opening); Upadhaya et al. (abstract); Jackiewicz and
+ *    Szewczyk 2012 (field-dependent k, not ours; opening); Pop and Caltun, Acta Phys. Pol. A 120 (2011) 491
+ *    (opening); the Wikipedia article on the model (parameter definitions, no values). No stored page holds the
+ *    TEAM problem 32 definition; the only stored material naming it is a simulation program's example with a
+ *    non-JA hysteresis model, not used.
+ *  - stored repositories (exact strings "TEAM Problem 32", "problem32", "Thoelke", "Jiles, Thoelke",
+ *    "Jiles-Atherton parameters", "Jiles-Atherton fit", "9.38e-4", "0.0889", and searches by meaning for tables
+ *    of fitted parameters with H_c and B_r): two further parameter sets appear in third-party scripts, M_s 1.48e6,
+ *    a 470, k 483, c 0.0889, alpha 9.38e-4 (no source stated) and M_s 1.6e6, a 1000, k 700, c 0.22,
+ *    alpha 1.4e-3 (attributed to Jiles-Thoelke-Devine 1992 through Etien, Halbert, Poinot), each without any loop
+ *    value; measured loops ship with a JA fitting program whose fitted parameters are that program's output, not a
+ *    publication's, so not used.
+ *  - documentation and issue corpora: other programs' material libraries and simulator threads only.
+ * Result: no readable source gives both a parameter set and its loop features, so the check "reproduces the
+ * paper's H_c, B_r, B_m" stays BLOCKED (beyond their openings, Jiles-Thoelke-Devine 1992 and Leite et al. 2003
+ * are not readable here, and numbers from memory are not used). So the features below are computed
  * HERE by an independent integration of the FORWARD (H-driven) Jiles-Atherton equations with odex 2.0.4 at
  * rtol 1e-13 (dM/dH = P / (1 - alpha P), P = (1 - c) (M_an - M_irr) / (delta k) + c dM_an/dH_e, with the
  * usual guard that the irreversible slope is 0 where delta (M_an - M_irr) <= 0; the form of Jiles, Thoelke
