@@ -35,7 +35,7 @@ import { Solver } from '../../support/odex.js';
  *    Szewczyk 2012 (field-dependent k, not ours; opening); Pop and Caltun, Acta Phys. Pol. A 120 (2011) 491
  *    (opening); "Efficient identification of Jiles-Atherton model parameters using space-filling designs and
  *    genetic algorithms", Eng 3(3) 2022 364-372 (abstract only); a 2019 hybrid-genetic-algorithm identification
- *    paper (Russ. Electr. Eng., doi 10.3103/S1068371219010115; introduction only); the Wikipedia article on the
+ *    paper (doi 10.3103/S1068371219010115; introduction only); the Wikipedia article on the
  *    model (parameter definitions, no values). No stored page holds the
  *    TEAM problem 32 definition; the only stored material naming it is a simulation program's example with a
  *    non-JA hysteresis model, not used.
