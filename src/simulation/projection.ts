@@ -49,7 +49,8 @@ export function createProjector(
   let k = 0;
   const scale = new Float64Array(n);
   const f = new Float64Array(n);
-  const jac = new Float64Array(n * n);
+  /** J, made on first use: a run that never projects holds no n x n array here. */
+  let jac: Float64Array | undefined;
   let lu: ReturnType<typeof createDenseLu> | undefined;
   let luValid = false;
   let singular = false;
@@ -68,6 +69,7 @@ export function createProjector(
 
   /** Factorise W0^T J V0 at (t, y); false when it is singular. */
   const refresh = (t: number, y: Float64Array): boolean => {
+    jac ??= new Float64Array(n * n);
     jac.fill(0);
     jacobianInto(t, y, jac);
     const jr = algebraicJacobian(spaces!, jac, new Float64Array(k * k));
@@ -84,7 +86,7 @@ export function createProjector(
   return (t, y, given) => {
     inputs = given ?? compiled.inputs;
     if (!spaces) {
-      spaces = massSpaces(compiled.mass, n);
+      spaces = massSpaces(compiled.sparseMass, n);
       k = spaces.k;
       z = new Float64Array(k);
     }

@@ -415,22 +415,10 @@ class RadauIntegrator implements DaeIntegrator {
     const n = p.n;
     this.n = n;
     if (p.mass) {
-      const rows = new Int32Array(n + 1);
-      const cols: number[] = [];
-      const vals: number[] = [];
-      for (let i = 0; i < n; i++) {
-        for (let j = 0; j < n; j++) {
-          const v = p.mass[i * n + j]!;
-          if (v !== 0) {
-            cols.push(j);
-            vals.push(v);
-          }
-        }
-        rows[i + 1] = cols.length;
-      }
-      this.mRowPtr = rows;
-      this.mCol = Int32Array.from(cols);
-      this.mVal = Float64Array.from(vals);
+      // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
+      this.mRowPtr = p.mass.rowStart;
+      this.mCol = p.mass.col;
+      this.mVal = p.mass.value;
       this.spaces = massSpaces(p.mass, n);
     }
     // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
@@ -664,7 +652,7 @@ class RadauIntegrator implements DaeIntegrator {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(t), p.tEnd - p.t0);
           yp = this.sparseConsistency
             ? this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac)
-            : consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
+            : consistentDerivativeWith(ctx, p.denseMass()!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
         }
       } else {
         this.callRhs(t, y, this.fCur);
@@ -912,7 +900,7 @@ class RadauIntegrator implements DaeIntegrator {
         this.adjustedCur = res.adjusted ?? [];
         if (fresh || capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(this.tCur), p.tEnd - p.t0);
-          yp = this.sparseConsistency ? this.sparseDerivativeAt(ctx, dt) : consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
+          yp = this.sparseConsistency ? this.sparseDerivativeAt(ctx, dt) : consistentDerivative(ctx, p.denseMass()!, this.tCur, dt, this.yCur);
         }
       }
       this.callRhs(this.tCur, this.yCur, this.fCur);
