@@ -42,6 +42,8 @@ export interface CompiledNetwork {
   readonly massEntries: { readonly rows: Int32Array; readonly cols: Int32Array; readonly values: Float64Array };
   /** The same M in compressed rows (duplicates summed, zeros dropped). @internal */
   readonly sparseMass: SparseMass;
+  /** Whether the n x n {@link CompiledNetwork.mass} has been made (for tests of the sparse path). @internal */
+  denseMassMade(): boolean;
   /** f(t, y) into out, with the inputs in force given explicitly. */
   evaluate(t: number, y: Float64Array, inputs: InputView, out: Float64Array): void;
   /** df/dy added into a stamp target (zero-filled by the caller), with the inputs given explicitly. */
@@ -186,6 +188,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     },
     massEntries,
     sparseMass,
+    denseMassMade: () => denseMass !== undefined,
     evaluate,
     stampJacobian,
     rhs,

@@ -306,10 +306,10 @@ export function createDaeIntegrator(problem: DaeProblem, options: SolveDaeOption
  * @internal
  * @example
  * ```ts
- * const held = linearAlgebraStorage(integ); // { jacobian, iterationMatrices, factors, consistency, denseJacobian }
+ * const held = linearAlgebraStorage(integ); // { jacobian, iterationMatrices, factors, consistency, denseJacobian, mass, denseMass }
  * ```
  */
-export function linearAlgebraStorage(integ: DaeIntegrator): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+export function linearAlgebraStorage(integ: DaeIntegrator): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number; mass: number; denseMass: number } {
   if (!(integ instanceof RadauIntegrator)) throw new TypeError('linearAlgebraStorage: not an integrator made by createDaeIntegrator');
   return integ.linearAlgebraStorage();
 }
@@ -504,14 +504,18 @@ class RadauIntegrator implements DaeIntegrator {
   // ---- public surface -------------------------------------------------------
 
   /** See {@link linearAlgebraStorage}. */
-  linearAlgebraStorage(): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+  linearAlgebraStorage(): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number; mass: number; denseMass: number } {
     const s = this.system.storage();
+    const p = this.p;
     return {
       jacobian: s.jacobian + this.jac.length + (this.jacScratch?.length ?? 0) + (this.consistencyJac?.length ?? 0),
       iterationMatrices: s.iterationMatrices,
       factors: s.factors,
       consistency: this.sparseConsistency?.held ?? (this.derivativeWork ? this.derivativeWork.a.length : 0),
       denseJacobian: this.jacDense?.length ?? 0,
+      // M's non-zeros as held (compressed rows), and the n x n copy if the dense path made one.
+      mass: p.mass ? p.mass.col.length : 0,
+      denseMass: p.denseMassMade() ? p.n * p.n : 0,
     };
   }
 
