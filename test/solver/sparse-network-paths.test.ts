@@ -18,12 +18,12 @@ import { createDaeIntegrator, solveDae, SPARSE_MIN_SIZE, type DaeIntegrator, typ
 import { NetworkRun } from '../../src/simulation/network-run.js';
 import { linearAlgebraStorage } from '../../src/solver/dae-integrator.js';
 import { compileNetwork, type CompiledNetwork } from '../../src/formulation/compile-network.js';
-import { denseMassSpaces, massSpaces, type MassSpaces } from '../../src/solver/consistent-initialization.js';
+import { columnsTransposeTimes, denseMassSpaces, massSpaces, type MassSpaces } from '../../src/solver/consistent-initialization.js';
 import { createPatternAdaptiveLu } from '../../src/solver/sparse-adaptive-lu.js';
 import { createDenseLu } from '../../src/solver/dense-lu.js';
 import { createSparseLu } from '../../src/solver/sparse-lu.js';
 import { sparsePattern } from '../../src/solver/sparse-pattern.js';
-import { PatternRecordingStampTarget, stampConductance } from '../../src/elements/stamp-target.js';
+import { DenseStampTarget, PatternRecordingStampTarget, stampConductance } from '../../src/elements/stamp-target.js';
 import { buildNetwork, networkPlanArb, runs } from '../reliability/random-network.js';
 import { transformerLadder } from '../support/transformer-ladder.js';
 
@@ -333,6 +333,44 @@ describe('sparse paths of network runs against the dense ones', () => {
     expect(held.denseMass).toBe(0);
     expect(held.denseJacobian).toBe(0);
     expect(held.mass).toBeGreaterThan(0);
+  });
+
+  it('projects sampled states onto the algebraic equations on the sparse path (W0^T f at the samples within the Newton bound)', () => {
+    // n = 51 >= SPARSE_MIN_SIZE: the projector factors W0^T J V0 on the stamps' pattern. After it, the
+    // samples satisfy the algebraic equations W0^T f(t, y) = 0 (Kirchhoff's laws) to within what its
+    // stopping test leaves: a last correction of RMS norm <= 1e-6 in units of atol + rtol |y| (rate <= 0.5,
+    // so the remaining error is no larger), hence |W0^T f|_2 <= ||J||_2 ||error||_2 with
+    // ||J||_2 <= sqrt(n) ||J||_inf and ||error||_2 <= sqrt(n) 1e-6 max(atol + rtol |y|) (norm inequalities).
+    const c = compileNetwork(transformerLadder(12).describe());
+    const n = c.layout.size;
+    expect(n).toBeGreaterThanOrEqual(SPARSE_MIN_SIZE);
+    const rtol = 1e-6;
+    const atol = 1e-9;
+    const run = new NetworkRun(c, { t0: 0, horizon: 0.01, rtol, atol });
+    const sampleTimes = Array.from({ length: 19 }, (_, i) => (i + 0.5) * 5e-4);
+    run.advanceTo(0.01, { steps: false, interpolants: false, sampleTimes });
+    expect(run.status).toBe('running');
+    expect(run.samples.map((x) => x.t)).toEqual(sampleTimes.concat(0.01).filter((t) => t < 0.01));
+    const { w0 } = massSpaces(c.sparseMass, n).columns;
+    const f = new Float64Array(n);
+    const J = new Float64Array(n * n);
+    const r = new Float64Array(w0.k);
+    for (const sample of run.samples) {
+      const inputs = run.intervals[sample.interval]!;
+      c.evaluate(sample.t, sample.y, inputs, f);
+      J.fill(0);
+      c.stampJacobian(sample.t, sample.y, inputs, new DenseStampTarget(n).bind(J));
+      let jInf = 0;
+      for (let i = 0; i < n; i++) {
+        let row = 0;
+        for (let j = 0; j < n; j++) row += Math.abs(J[i * n + j]!);
+        jInf = Math.max(jInf, row);
+      }
+      const maxScale = Math.max(...Array.from(sample.y, (v) => atol + rtol * Math.abs(v)));
+      columnsTransposeTimes(w0, f, r);
+      const residual = Math.hypot(...r);
+      expect(residual).toBeLessThanOrEqual(Math.sqrt(n) * jInf * Math.sqrt(n) * 1e-6 * maxScale);
+    }
   });
 
   it('records the positions a stamp touches, zero values and all, and ignores ground', () => {
