@@ -22,6 +22,7 @@ export type {
   JacobianEntriesFunction,
   JacobianEntryTarget,
   MassMatrixInput,
+  MassEntries,
 } from './solver/types.js';
 export { SPARSE_MIN_SIZE } from './solver/types.js';
 // --- solver (generic DAE integrator) ---

@@ -24,11 +24,10 @@ export interface StampTarget {
  * ```
  */
 export class DenseStampTarget implements StampTarget {
-  private data: Float64Array;
+  /** Made on first use when nothing is bound: a target only ever bound holds no n x n array of its own. */
+  private data: Float64Array | undefined;
 
-  constructor(private readonly n: number) {
-    this.data = new Float64Array(n * n);
-  }
+  constructor(private readonly n: number) {}
 
   /** Make stamps add into `data` (row-major n x n). */
   bind(data: Float64Array): this {
@@ -38,11 +37,14 @@ export class DenseStampTarget implements StampTarget {
 
   /** The array stamps add into. */
   get values(): Float64Array {
-    return this.data;
+    return (this.data ??= new Float64Array(this.n * this.n));
   }
 
   add(row: number, col: number, value: number): void {
-    if (row >= 0 && col >= 0) this.data[row * this.n + col]! += value;
+    if (row >= 0 && col >= 0) {
+      const data = (this.data ??= new Float64Array(this.n * this.n));
+      data[row * this.n + col]! += value;
+    }
   }
 }
 
@@ -104,6 +106,35 @@ export class PatternRecordingStampTarget implements StampTarget {
     if (row >= 0 && col >= 0) {
       this.rows.push(row);
       this.cols.push(col);
+    }
+  }
+}
+
+/**
+ * A stamp target that records every entry, position and value, in the
+ * order stamped (duplicates kept; ground ignored): a constant matrix such as
+ * the mass matrix given by its non-zeros instead of an n x n array.
+ *
+ * @example
+ * ```ts
+ * const recorder = new EntryRecordingStampTarget();
+ * recorder.add(0, 1, 2.5);
+ * recorder.values; // [2.5]
+ * ```
+ */
+export class EntryRecordingStampTarget implements StampTarget {
+  /** Row of each recorded entry. */
+  readonly rows: number[] = [];
+  /** Column of each recorded entry. */
+  readonly cols: number[] = [];
+  /** Value of each recorded entry. */
+  readonly values: number[] = [];
+
+  add(row: number, col: number, value: number): void {
+    if (row >= 0 && col >= 0) {
+      this.rows.push(row);
+      this.cols.push(col);
+      this.values.push(value);
     }
   }
 }

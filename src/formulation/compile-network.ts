@@ -1,6 +1,6 @@
 import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampContext } from '../elements/element-kind.js';
 import { elementKind, tubeKind } from '../elements/registry.js';
-import { DenseStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
+import { DenseStampTarget, EntryRecordingStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube } from '../elements/tube-kind.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
@@ -12,6 +12,7 @@ import { checkFluxRatesDetermined } from './flux-rate-check.js';
 import { initialState } from './initial-state.js';
 import { algebraicJacobian, massSpaces } from '../solver/consistent-initialization.js';
 import { createPatternAdaptiveLu } from '../solver/sparse-adaptive-lu.js';
+import { denseOfSparseMass, sparseMassOfEntries, type SparseMass } from '../solver/sparse-mass.js';
 
 export type { CompiledTube } from '../elements/tube-kind.js';
 
@@ -28,8 +29,21 @@ export interface CompiledNetwork {
   readonly tubes: readonly CompiledTube[];
   /** Every element, compiled by its kind (same order as the description's `elements`). */
   readonly elements: readonly CompiledElement[];
-  /** Row-major n*n constant mass matrix. */
+  /**
+   * Row-major n*n constant mass matrix, made from {@link CompiledNetwork.massEntries}
+   * on first read (the sparse path never reads it).
+   */
   readonly mass: Float64Array;
+  /**
+   * The mass matrix's stamps as recorded at compile time, entry k at
+   * (rows[k], cols[k]) with value values[k] (entries at one position add
+   * up): M by its non-zeros, as `DaeProblem.massEntries` takes it.
+   */
+  readonly massEntries: { readonly rows: Int32Array; readonly cols: Int32Array; readonly values: Float64Array };
+  /** The same M in compressed rows (duplicates summed, zeros dropped). @internal */
+  readonly sparseMass: SparseMass;
+  /** Whether the n x n {@link CompiledNetwork.mass} has been made (for tests of the sparse path). @internal */
+  denseMassMade(): boolean;
   /** f(t, y) into out, with the inputs in force given explicitly. */
   evaluate(t: number, y: Float64Array, inputs: InputView, out: Float64Array): void;
   /** df/dy added into a stamp target (zero-filled by the caller), with the inputs given explicitly. */
@@ -135,8 +149,8 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   }
 
   const jacobianTarget = new DenseStampTarget(n);
-  const massTarget = new DenseStampTarget(n);
-  const mass = massTarget.values;
+  // M by its stamps, recorded entry by entry: no n x n array unless a dense reader asks for one.
+  const massTarget = new EntryRecordingStampTarget();
   for (const g of groups) g.mass(massTarget);
   for (const s of tubeStates) s.mass(massTarget);
   // Eddy term R_e dphi/dt in the MMF drop of every loop through the tube.
@@ -147,6 +161,10 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
       for (let k2 = 0; k2 < index.length; k2++) massTarget.add(index[k1]!, index[k2]!, sign[k1]! * sign[k2]! * tube.eddyResistance);
     }
   });
+  const massEntries = { rows: Int32Array.from(massTarget.rows), cols: Int32Array.from(massTarget.cols), values: Float64Array.from(massTarget.values) };
+  const sparseMass = sparseMassOfEntries(n, massEntries.rows, massEntries.cols, massEntries.values);
+  let denseMass: Float64Array | undefined;
+  const mass = (): Float64Array => (denseMass ??= denseOfSparseMass(sparseMass));
 
   const rhs = (t: number, y: Float64Array, out: Float64Array): void => evaluate(t, y, inputs, out);
   const jacobian = (t: number, y: Float64Array, out: Float64Array): void => stampJacobian(t, y, inputs, jacobianTarget.bind(out));
@@ -156,7 +174,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   for (const s of tubeStates) s.initial(y0);
   // Stamps touch the same positions whatever the state and inputs: one recorded pass gives the pattern.
   const jacobianPattern = recordJacobianPattern(stampJacobian, y0, inputs);
-  const index2 = confirmIndexTwo(findIndexTwoUnknowns(d, layout), mass, n, (y, J) => jacobian(0, y, J), y0);
+  const index2 = confirmIndexTwo(findIndexTwoUnknowns(d, layout), sparseMass, n, (y, J) => jacobian(0, y, J), y0);
   checkFluxRatesDetermined(tubes, tubeLoops, mass, n, (y, J) => jacobian(0, y, J), y0);
 
   return {
@@ -165,7 +183,12 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     loops,
     tubes,
     elements,
-    mass,
+    get mass() {
+      return mass();
+    },
+    massEntries,
+    sparseMass,
+    denseMassMade: () => denseMass !== undefined,
     evaluate,
     stampJacobian,
     rhs,
@@ -191,7 +214,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
  */
 function confirmIndexTwo(
   structural: number[],
-  mass: Float64Array,
+  mass: SparseMass,
   n: number,
   jacobian: (y: Float64Array, J: Float64Array) => void,
   y0: Float64Array,

@@ -28,19 +28,21 @@ const MAX_TUBES_TESTED_ALONE = 16;
  *
  * @example
  * ```ts
- * checkFluxRatesDetermined(tubes, tubeLoops, mass, n, (y, J) => jacobian(0, y, J), y0); // throws or returns
+ * checkFluxRatesDetermined(tubes, tubeLoops, () => mass, n, (y, J) => jacobian(0, y, J), y0); // throws or returns
  * ```
  */
 export function checkFluxRatesDetermined(
   tubes: readonly (CompiledTube & { readonly name: string })[],
   tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
-  mass: Float64Array,
+  massOf: () => Float64Array,
   n: number,
   jacobian: (y: Float64Array, J: Float64Array) => void,
   y0: Float64Array,
 ): void {
   const bare = tubes.flatMap((t, b) => (t.missingFluxRateError ? [b] : []));
   if (bare.length === 0) return;
+  // The dense M only for a network that has such tubes (made on demand: none on a large network without them).
+  const mass = massOf();
   const J = new Float64Array(n * n);
   try {
     jacobian(y0, J);

@@ -185,7 +185,7 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
   };
   return (t, y, inputs) => {
     if (!spaces) {
-      spaces = massSpaces(compiled.mass, n);
+      spaces = massSpaces(compiled.sparseMass, n);
       reduced = new Float64Array(spaces.k * spaces.k);
       work = new Float64Array(n * spaces.k);
       z = new Float64Array(spaces.k);

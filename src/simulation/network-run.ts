@@ -301,7 +301,8 @@ export class NetworkRun {
         // The run's own inputs in force, passed explicitly: nothing a reader does to the network's can reach it.
         rhs: (t, y, out) => compiled.evaluate(t, y, this.live, out),
         jacobian: (t, y, out) => compiled.stampJacobian(t, y, this.live, jacobianTarget.bind(out)),
-        mass: compiled.mass,
+        // M by its stamps: the set-up reads only its non-zeros.
+        massEntries: compiled.massEntries,
         // The stamps' positions, fixed at compile time: large networks factor on them sparsely.
         ...(compiled.jacobianPattern ? { jacobianPattern: compiled.jacobianPattern } : {}),
         // The same stamps entry by entry: the sparse path holds J on the pattern alone.

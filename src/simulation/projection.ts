@@ -1,7 +1,11 @@
 import type { InputView } from '../elements/element-kind.js';
 import { DenseStampTarget } from '../elements/stamp-target.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import { algebraicJacobian, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from '../solver/consistent-initialization.js';
+import { algebraicJacobian, columnsTimes, columnsTransposeTimes, makeConsistent, massSpaces, type ConsistencyContext, type MassSpaces } from '../solver/consistent-initialization.js';
+import { createSparseAlgebraicJacobian, type SparseAlgebraicJacobian } from '../solver/sparse-consistency.js';
+import { PatternValuesTarget } from '../solver/sparse-iteration-system.js';
+import { sparsePattern } from '../solver/sparse-pattern.js';
+import { SPARSE_MIN_SIZE } from '../solver/types.js';
 import { createDenseLu } from '../solver/dense-lu.js';
 
 /** Converged when the last correction is this small in tolerance units (as the initialisation). */
@@ -49,7 +53,9 @@ export function createProjector(
   let k = 0;
   const scale = new Float64Array(n);
   const f = new Float64Array(n);
-  const jac = new Float64Array(n * n);
+  const dy = new Float64Array(n);
+  /** J, made on first use: a run that never projects holds no n x n array here. */
+  let jac: Float64Array | undefined;
   let lu: ReturnType<typeof createDenseLu> | undefined;
   let luValid = false;
   let singular = false;
@@ -66,8 +72,22 @@ export function createProjector(
     scale,
   });
 
+  // Large networks: J as values on the stamps' pattern and W0^T J V0 formed and factored sparsely.
+  const pattern = compiled.jacobianPattern && n >= SPARSE_MIN_SIZE ? sparsePattern(n, compiled.jacobianPattern.rows, compiled.jacobianPattern.cols) : undefined;
+  const values = pattern ? new Float64Array(pattern.col.length) : undefined;
+  const valuesTarget = pattern ? new PatternValuesTarget(pattern).bind(values!) : undefined;
+  let algebraic: SparseAlgebraicJacobian | undefined;
+
   /** Factorise W0^T J V0 at (t, y); false when it is singular. */
   const refresh = (t: number, y: Float64Array): boolean => {
+    if (pattern) {
+      algebraic ??= createSparseAlgebraicJacobian(spaces!, pattern);
+      values!.fill(0);
+      compiled.stampJacobian(t, y, inputs, valuesTarget!);
+      luValid = algebraic.factor(values!) < 0;
+      return luValid;
+    }
+    jac ??= new Float64Array(n * n);
     jac.fill(0);
     jacobianInto(t, y, jac);
     const jr = algebraicJacobian(spaces!, jac, new Float64Array(k * k));
@@ -84,7 +104,7 @@ export function createProjector(
   return (t, y, given) => {
     inputs = given ?? compiled.inputs;
     if (!spaces) {
-      spaces = massSpaces(compiled.mass, n);
+      spaces = massSpaces(compiled.sparseMass, n);
       k = spaces.k;
       z = new Float64Array(k);
     }
@@ -101,18 +121,15 @@ export function createProjector(
         return full(t, y);
       }
       rhs(t, y, f);
-      for (let j = 0; j < k; j++) {
-        let acc = 0;
-        for (let i = 0; i < n; i++) acc += s.w0[i * k + j]! * f[i]!;
-        z[j] = -acc;
-      }
-      lu!.solve(z);
+      columnsTransposeTimes(s.columns.w0, f, z);
+      for (let j = 0; j < k; j++) z[j] = -z[j]!;
+      if (algebraic) algebraic.lu.solve(z);
+      else lu!.solve(z);
+      columnsTimes(s.columns.v0, z, dy);
       let norm = 0;
       for (let i = 0; i < n; i++) {
-        let dy = 0;
-        for (let j = 0; j < k; j++) dy += s.v0[i * k + j]! * z[j]!;
-        y[i] = y[i]! + dy;
-        norm += (dy / scale[i]!) ** 2;
+        y[i] = y[i]! + dy[i]!;
+        norm += (dy[i]! / scale[i]!) ** 2;
       }
       norm = Math.sqrt(norm / n);
       if (!Number.isFinite(norm)) break;

@@ -55,7 +55,7 @@ export function sparseAlgebraicSolver(
   };
   return (t, y, inputs) => {
     if (!spaces) {
-      spaces = massSpaces(compiled.mass, n);
+      spaces = massSpaces(compiled.sparseMass, n);
       z = new Float64Array(spaces.k);
       if (spaces.k > 0) algebraic = createSparseAlgebraicJacobian(spaces, pattern);
     }

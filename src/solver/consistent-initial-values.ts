@@ -75,6 +75,6 @@ export function consistentInitialValues(problem: DaeProblem, options: SolveDaeOp
   const res = makeConsistent(ctx, p.t0, y);
   if (!res.ok) return { ok: false, y0: y, yp0: undefined, message: res.message, components: res.components };
   const dt = Math.sqrt(Number.EPSILON / 2) * Math.max(Math.abs(p.t0), p.tEnd - p.t0);
-  const yp0 = consistentDerivative(ctx, p.mass, p.t0, dt, y);
+  const yp0 = consistentDerivative(ctx, p.denseMass()!, p.t0, dt, y);
   return { ok: true, y0: y, yp0, message: '', components: [] };
 }

@@ -1,6 +1,7 @@
 import { Matrix, SVD, pseudoInverse } from 'ml-matrix';
 import { columnsOfDense, denseOfColumns, structuralMassBases, type SparseColumns } from './sparse-mass-spaces.js';
 import { createPatternAdaptiveLu } from './sparse-adaptive-lu.js';
+import { denseOfSparseMass, sparseMassOfDense, type SparseMass } from './sparse-mass.js';
 import type { RealLinearSolver } from './linear-solver.js';
 import { largestScaled, nonFiniteIndices, roundingFlooredNorm } from './weighted-norm.js';
 
@@ -42,14 +43,17 @@ export const STRUCTURAL_SPACES_MIN_SIZE = 32;
 /**
  * Null spaces of M: from its structure from {@link STRUCTURAL_SPACES_MIN_SIZE}
  * unknowns on (or with `method: 'structural'`), else by a dense SVD
- * ({@link denseMassSpaces}). Both use the same rank test and span the same spaces.
+ * ({@link denseMassSpaces}). Both use the same rank test and span the same
+ * spaces. M is row-major dense (n x n) or compressed rows
+ * ({@link SparseMass}); from the compressed rows the structural method
+ * reads only the non-zeros.
  *
  * @internal
  */
-export function massSpaces(mass: Float64Array, n: number, method: 'auto' | 'dense' | 'structural' = 'auto'): MassSpaces {
+export function massSpaces(mass: Float64Array | SparseMass, n: number, method: 'auto' | 'dense' | 'structural' = 'auto'): MassSpaces {
   const structural = method === 'structural' || (method === 'auto' && n >= STRUCTURAL_SPACES_MIN_SIZE);
-  if (!structural) return denseMassSpaces(mass, n);
-  const b = structuralMassBases(mass, n);
+  if (!structural) return denseMassSpaces(mass instanceof Float64Array ? mass : denseOfSparseMass(mass), n);
+  const b = structuralMassBases(mass instanceof Float64Array ? sparseMassOfDense(mass, n) : mass);
   return spacesOf(n, b.rank, b.v0, b.w0, b.u1);
 }
 

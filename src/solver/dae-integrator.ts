@@ -306,10 +306,10 @@ export function createDaeIntegrator(problem: DaeProblem, options: SolveDaeOption
  * @internal
  * @example
  * ```ts
- * const held = linearAlgebraStorage(integ); // { jacobian, iterationMatrices, factors, consistency, denseJacobian }
+ * const held = linearAlgebraStorage(integ); // { jacobian, iterationMatrices, factors, consistency, denseJacobian, mass, denseMass }
  * ```
  */
-export function linearAlgebraStorage(integ: DaeIntegrator): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+export function linearAlgebraStorage(integ: DaeIntegrator): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number; mass: number; denseMass: number } {
   if (!(integ instanceof RadauIntegrator)) throw new TypeError('linearAlgebraStorage: not an integrator made by createDaeIntegrator');
   return integ.linearAlgebraStorage();
 }
@@ -415,22 +415,10 @@ class RadauIntegrator implements DaeIntegrator {
     const n = p.n;
     this.n = n;
     if (p.mass) {
-      const rows = new Int32Array(n + 1);
-      const cols: number[] = [];
-      const vals: number[] = [];
-      for (let i = 0; i < n; i++) {
-        for (let j = 0; j < n; j++) {
-          const v = p.mass[i * n + j]!;
-          if (v !== 0) {
-            cols.push(j);
-            vals.push(v);
-          }
-        }
-        rows[i + 1] = cols.length;
-      }
-      this.mRowPtr = rows;
-      this.mCol = Int32Array.from(cols);
-      this.mVal = Float64Array.from(vals);
+      // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
+      this.mRowPtr = p.mass.rowStart;
+      this.mCol = p.mass.col;
+      this.mVal = p.mass.value;
       this.spaces = massSpaces(p.mass, n);
     }
     // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
@@ -516,14 +504,18 @@ class RadauIntegrator implements DaeIntegrator {
   // ---- public surface -------------------------------------------------------
 
   /** See {@link linearAlgebraStorage}. */
-  linearAlgebraStorage(): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number } {
+  linearAlgebraStorage(): { jacobian: number; iterationMatrices: number; factors: number; consistency: number; denseJacobian: number; mass: number; denseMass: number } {
     const s = this.system.storage();
+    const p = this.p;
     return {
       jacobian: s.jacobian + this.jac.length + (this.jacScratch?.length ?? 0) + (this.consistencyJac?.length ?? 0),
       iterationMatrices: s.iterationMatrices,
       factors: s.factors,
       consistency: this.sparseConsistency?.held ?? (this.derivativeWork ? this.derivativeWork.a.length : 0),
       denseJacobian: this.jacDense?.length ?? 0,
+      // M's non-zeros as held (compressed rows), and the n x n copy if the dense path made one.
+      mass: p.mass ? p.mass.col.length : 0,
+      denseMass: p.denseMassMade() ? p.n * p.n : 0,
     };
   }
 
@@ -664,7 +656,7 @@ class RadauIntegrator implements DaeIntegrator {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(t), p.tEnd - p.t0);
           yp = this.sparseConsistency
             ? this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac)
-            : consistentDerivativeWith(ctx, p.mass!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
+            : consistentDerivativeWith(ctx, p.denseMass()!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
         }
       } else {
         this.callRhs(t, y, this.fCur);
@@ -912,7 +904,7 @@ class RadauIntegrator implements DaeIntegrator {
         this.adjustedCur = res.adjusted ?? [];
         if (fresh || capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(this.tCur), p.tEnd - p.t0);
-          yp = this.sparseConsistency ? this.sparseDerivativeAt(ctx, dt) : consistentDerivative(ctx, p.mass!, this.tCur, dt, this.yCur);
+          yp = this.sparseConsistency ? this.sparseDerivativeAt(ctx, dt) : consistentDerivative(ctx, p.denseMass()!, this.tCur, dt, this.yCur);
         }
       }
       this.callRhs(this.tCur, this.yCur, this.fCur);

@@ -30,22 +30,9 @@ export function createDenseIterationSystem(p: NormalizedDae): IterationSystem {
   let mCol: Int32Array | undefined;
   let mVal: Float64Array | undefined;
   if (p.mass) {
-    const rows = new Int32Array(n + 1);
-    const cols: number[] = [];
-    const vals: number[] = [];
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        const v = p.mass[i * n + j]!;
-        if (v !== 0) {
-          cols.push(j);
-          vals.push(v);
-        }
-      }
-      rows[i + 1] = cols.length;
-    }
-    mRowPtr = rows;
-    mCol = Int32Array.from(cols);
-    mVal = Float64Array.from(vals);
+    mRowPtr = p.mass.rowStart;
+    mCol = p.mass.col;
+    mVal = p.mass.value;
   }
   const jf = p.jacobian;
   return {

@@ -1,3 +1,4 @@
+import { blockOf, massBlocks, sparseMassOfDense, type SparseMass } from './sparse-mass.js';
 import type { JacobianFunction, RhsFunction } from './types.js';
 
 /**
@@ -31,11 +32,18 @@ export interface MassRowCompression {
 }
 
 /**
- * Find rows of M (row-major, n x n) that are combinations of earlier rows,
- * by Gaussian elimination on the non-zero rows with the largest entry of
- * each independent remainder as pivot. A remainder below
- * 64 eps max|row| counts as zero. Returns undefined when every non-zero row is
- * independent (the usual case: nothing to do).
+ * Find rows of M that are combinations of earlier rows, by Gaussian
+ * elimination on the non-zero rows with the largest entry of each
+ * independent remainder as pivot. A remainder below 64 eps max|row| counts
+ * as zero. Returns undefined when every non-zero row is independent (the
+ * usual case: nothing to do).
+ *
+ * M is row-major dense (n x n) or compressed rows. The elimination runs on
+ * each connected block of M ({@link massBlocks}) on its own: a row's
+ * remainder stays within its block's columns, so the pivots of other blocks
+ * read zeros there and the elimination of the whole M skips them anyway;
+ * block by block it takes the same steps in the same order (the same
+ * result, rounding included) at the cost of the blocks' sizes instead of n^2.
  *
  * @internal
  * @example
@@ -44,43 +52,50 @@ export interface MassRowCompression {
  * massRowCompression(Float64Array.of(200, 200, -202, -202), 2)!.dependent[0]!.coefficients; // [-1.01]
  * ```
  */
-export function massRowCompression(mass: Float64Array, n: number): MassRowCompression | undefined {
-  // Basis of independent remainders: vector, pivot column, and its expression in original rows.
-  const basis: { v: Float64Array; pivot: number; combo: Map<number, number> }[] = [];
+export function massRowCompression(mass: Float64Array | SparseMass, n: number): MassRowCompression | undefined {
+  const m = mass instanceof Float64Array ? sparseMassOfDense(mass, n) : mass;
   const dependent: { row: number; rows: Int32Array; coefficients: Float64Array }[] = [];
-  for (let r = 0; r < n; r++) {
-    const v = mass.slice(r * n, r * n + n);
-    let scale = 0;
-    for (let j = 0; j < n; j++) scale = Math.max(scale, Math.abs(v[j]!));
-    if (scale === 0) continue;
-    // v = row_r - sum over basis of c * (basis vector); track it in original rows.
-    const combo = new Map<number, number>([[r, 1]]);
-    for (const b of basis) {
-      const c = v[b.pivot]! / b.v[b.pivot]!;
-      if (c === 0) continue;
-      for (let j = 0; j < n; j++) v[j] = v[j]! - c * b.v[j]!;
-      for (const [row, k] of b.combo) combo.set(row, (combo.get(row) ?? 0) - c * k);
-    }
-    let rest = 0;
-    let pivot = -1;
-    for (let j = 0; j < n; j++) {
-      if (Math.abs(v[j]!) > rest) {
-        rest = Math.abs(v[j]!);
-        pivot = j;
+  for (const block of massBlocks(m)) {
+    if (block.rows.length < 2) continue; // one non-zero row is independent
+    const q = block.cols.length;
+    const sub = blockOf(m, block);
+    // Basis of independent remainders: vector, pivot column, and its expression in original rows.
+    const basis: { v: Float64Array; pivot: number; combo: Map<number, number> }[] = [];
+    block.rows.forEach((r, local) => {
+      const v = sub.slice(local * q, local * q + q);
+      let scale = 0;
+      for (let j = 0; j < q; j++) scale = Math.max(scale, Math.abs(v[j]!));
+      if (scale === 0) return;
+      // v = row_r - sum over basis of c * (basis vector); track it in original rows.
+      const combo = new Map<number, number>([[r, 1]]);
+      for (const b of basis) {
+        const c = v[b.pivot]! / b.v[b.pivot]!;
+        if (c === 0) continue;
+        for (let j = 0; j < q; j++) v[j] = v[j]! - c * b.v[j]!;
+        for (const [row, k] of b.combo) combo.set(row, (combo.get(row) ?? 0) - c * k);
       }
-    }
-    if (rest <= 64 * Number.EPSILON * scale) {
-      const others = [...combo].filter(([row, k]) => row !== r && k !== 0);
-      dependent.push({
-        row: r,
-        rows: Int32Array.from(others, ([row]) => row),
-        // equation r becomes f_r + sum (combo coefficient) f_row: store the negated coefficients c_j.
-        coefficients: Float64Array.from(others, ([, k]) => -k),
-      });
-    } else {
-      basis.push({ v, pivot, combo });
-    }
+      let rest = 0;
+      let pivot = -1;
+      for (let j = 0; j < q; j++) {
+        if (Math.abs(v[j]!) > rest) {
+          rest = Math.abs(v[j]!);
+          pivot = j;
+        }
+      }
+      if (rest <= 64 * Number.EPSILON * scale) {
+        const others = [...combo].filter(([row, k]) => row !== r && k !== 0);
+        dependent.push({
+          row: r,
+          rows: Int32Array.from(others, ([row]) => row),
+          // equation r becomes f_r + sum (combo coefficient) f_row: store the negated coefficients c_j.
+          coefficients: Float64Array.from(others, ([, k]) => -k),
+        });
+      } else {
+        basis.push({ v, pivot, combo });
+      }
+    });
   }
+  dependent.sort((a, b) => a.row - b.row);
   return dependent.length > 0 ? { dependent } : undefined;
 }
 
@@ -98,6 +113,35 @@ export function compressedMass(mass: Float64Array, n: number, c: MassRowCompress
   const out = mass.slice();
   for (const d of c.dependent) out.fill(0, d.row * n, d.row * n + n);
   return out;
+}
+
+/**
+ * The recombined mass matrix in compressed rows: the dependent rows' entries dropped.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const m = sparseMassOfDense(Float64Array.of(200, 200, -202, -202), 2);
+ * compressedSparseMass(m, massRowCompression(m, 2)!).col; // [0, 1]
+ * ```
+ */
+export function compressedSparseMass(mass: SparseMass, c: MassRowCompression): SparseMass {
+  const { n, rowStart, col, value } = mass;
+  const drop = new Uint8Array(n);
+  for (const d of c.dependent) drop[d.row] = 1;
+  const start = new Int32Array(n + 1);
+  const cols: number[] = [];
+  const values: number[] = [];
+  for (let i = 0; i < n; i++) {
+    if (!drop[i]) {
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
+        cols.push(col[e]!);
+        values.push(value[e]!);
+      }
+    }
+    start[i + 1] = cols.length;
+  }
+  return { n, rowStart: start, col: Int32Array.from(cols), value: Float64Array.from(values) };
 }
 
 /**

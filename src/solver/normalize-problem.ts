@@ -1,5 +1,6 @@
 import { InputError } from '../errors.js';
-import { compressedJacobian, compressedMass, compressedRhs, massRowCompression, type MassRowCompression } from './mass-row-compression.js';
+import { compressedJacobian, compressedRhs, compressedSparseMass, massRowCompression, type MassRowCompression } from './mass-row-compression.js';
+import { denseOfSparseMass, isIdentityMass, sparseMassOfDense, sparseMassOfEntries, type SparseMass } from './sparse-mass.js';
 import { sparsePattern, type SparsePattern } from './sparse-pattern.js';
 import { SPARSE_MIN_SIZE, type DaeEvent, type DaeProblem, type JacobianEntriesFunction, type JacobianFunction, type RhsFunction, type SolveDaeOptions, type DaeProgress } from './types.js';
 
@@ -17,8 +18,12 @@ export interface NormalizedDae {
   readonly jacobianEntries: JacobianEntriesFunction | undefined;
   /** Dependent rows of M recombined into explicit algebraic equations (rhs, jacobian and mass above are recombined already). */
   readonly massCompression: MassRowCompression | undefined;
-  /** Row-major n*n, or undefined for the identity. */
-  readonly mass: Float64Array | undefined;
+  /** M in compressed rows (dependent rows recombined already), or undefined for the identity. */
+  readonly mass: SparseMass | undefined;
+  /** The same M row-major n*n (made on first call, for the dense path), or undefined for the identity. */
+  denseMass(): Float64Array | undefined;
+  /** Whether {@link NormalizedDae.denseMass} has made its n x n array. */
+  denseMassMade(): boolean;
   readonly y0: Float64Array;
   readonly t0: number;
   readonly tEnd: number;
@@ -88,6 +93,64 @@ function tolerance(value: number | ArrayLike<number> | undefined, dflt: number, 
 }
 
 /**
+ * M in compressed rows from `problem.mass` (dense) or `problem.massEntries`,
+ * checked: shape, indices, and every value finite (a non-finite entry is
+ * named by its position). Undefined when neither is given.
+ */
+function massOf(problem: DaeProblem, n: number): SparseMass | undefined {
+  const m = problem.mass;
+  const me = problem.massEntries;
+  if (m !== undefined && me !== undefined) bad('bad-mass-matrix', 'give the mass matrix either as mass or as massEntries, not both', ['mass', 'massEntries']);
+  if (m !== undefined) {
+    if (m instanceof Float64Array) {
+      if (m.length !== n * n) bad('bad-mass-matrix', `mass has ${m.length} entries; a row-major ${n}x${n} matrix needs ${n * n}`, ['mass']);
+      for (let k = 0; k < n * n; k++) {
+        if (!finite(m[k])) bad('bad-mass-matrix', `mass entry (${Math.floor(k / n)}, ${k % n}) = ${m[k]} is not finite`, ['mass']);
+      }
+      return sparseMassOfDense(m, n);
+    }
+    if (Array.isArray(m)) {
+      if (m.length !== n) bad('bad-mass-matrix', `mass has ${m.length} rows; it must be ${n}x${n}`, ['mass']);
+      for (let i = 0; i < n; i++) {
+        const row = m[i];
+        if (!row || row.length !== n) bad('bad-mass-matrix', `mass row ${i} has ${row?.length} entries; it must have ${n}`, ['mass']);
+      }
+      const rows: number[] = [];
+      const cols: number[] = [];
+      const values: number[] = [];
+      for (let i = 0; i < n; i++) {
+        const row = m[i]!;
+        for (let j = 0; j < n; j++) {
+          const v = row[j];
+          if (!finite(v)) bad('bad-mass-matrix', `mass entry (${i}, ${j}) = ${v} is not finite`, ['mass']);
+          if (v !== 0) rows.push(i), cols.push(j), values.push(v);
+        }
+      }
+      return sparseMassOfEntries(n, rows, cols, values);
+    }
+    bad('bad-mass-matrix', 'mass must be a row-major Float64Array (n*n) or an array of n rows of n numbers', ['mass']);
+  }
+  if (me === undefined) return undefined;
+  if (me === null || typeof me !== 'object' || !me.rows || !me.cols || !me.values) {
+    bad('bad-mass-matrix', 'massEntries must be an object { rows, cols, values } of three arrays with one element per entry', ['massEntries']);
+  }
+  const count = me.rows.length;
+  if (me.cols.length !== count || me.values.length !== count) {
+    bad('bad-mass-matrix', `massEntries has ${count} rows, ${me.cols.length} columns and ${me.values.length} values; give one of each per entry`, ['massEntries']);
+  }
+  for (let k = 0; k < count; k++) {
+    const i = me.rows[k]!;
+    const j = me.cols[k]!;
+    if (!(Number.isInteger(i) && Number.isInteger(j) && i >= 0 && j >= 0 && i < n && j < n)) {
+      bad('bad-mass-matrix', `massEntries entry ${k} = (${i}, ${j}) is not a position in the ${n} x ${n} mass matrix`, ['massEntries']);
+    }
+    const v = me.values[k];
+    if (!finite(v)) bad('bad-mass-matrix', `massEntries entry ${k}, mass (${i}, ${j}) = ${v}, is not finite`, ['massEntries']);
+  }
+  return sparseMassOfEntries(n, me.rows, me.cols, me.values);
+}
+
+/**
  * Validate a problem and its options; throws {@link InputError} with a stable
  * code for every bad call.
  *
@@ -116,31 +179,9 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     y0[i] = v;
   }
 
-  let mass: Float64Array | undefined;
-  if (problem.mass !== undefined) {
-    const m = problem.mass;
-    mass = new Float64Array(n * n);
-    if (m instanceof Float64Array) {
-      if (m.length !== n * n) bad('bad-mass-matrix', `mass has ${m.length} entries; a row-major ${n}x${n} matrix needs ${n * n}`, ['mass']);
-      mass.set(m);
-    } else if (Array.isArray(m)) {
-      if (m.length !== n) bad('bad-mass-matrix', `mass has ${m.length} rows; it must be ${n}x${n}`, ['mass']);
-      for (let i = 0; i < n; i++) {
-        const row = m[i];
-        if (!row || row.length !== n) bad('bad-mass-matrix', `mass row ${i} has ${row?.length} entries; it must have ${n}`, ['mass']);
-        for (let j = 0; j < n; j++) mass[i * n + j] = row[j]!;
-      }
-    } else {
-      bad('bad-mass-matrix', 'mass must be a row-major Float64Array (n*n) or an array of n rows of n numbers', ['mass']);
-    }
-    for (let k = 0; k < n * n; k++) {
-      if (!finite(mass[k])) bad('bad-mass-matrix', `mass entry (${Math.floor(k / n)}, ${k % n}) = ${mass[k]} is not finite`, ['mass']);
-    }
-    // An exact identity is an ODE: drop the matrix so the hot loop skips M products.
-    let identity = true;
-    for (let i = 0; i < n && identity; i++) for (let j = 0; j < n; j++) if (mass[i * n + j] !== (i === j ? 1 : 0)) { identity = false; break; }
-    if (identity) mass = undefined;
-  }
+  let mass = massOf(problem, n);
+  // An exact identity is an ODE: drop the matrix so the hot loop skips M products.
+  if (mass && isIdentityMass(mass)) mass = undefined;
   // Rows of M that depend on other rows are algebraic equations in disguise: make them explicit.
   const compression = mass ? massRowCompression(mass, n) : undefined;
 
@@ -217,10 +258,10 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
       for (const r of d.rows) {
         for (const j of perRow[r]!) rows.push(d.row), cols.push(j);
         rows.push(d.row), cols.push(r);
-        if (mass) for (let j = 0; j < n; j++) if (mass[r * n + j] !== 0) rows.push(d.row), cols.push(j);
+        if (mass) for (let e = mass.rowStart[r]!; e < mass.rowStart[r + 1]!; e++) rows.push(d.row), cols.push(mass.col[e]!);
       }
     }
-    if (mass) for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (mass[i * n + j] !== 0) rows.push(i), cols.push(j);
+    if (mass) for (let i = 0; i < n; i++) for (let e = mass.rowStart[i]!; e < mass.rowStart[i + 1]!; e++) rows.push(i), cols.push(mass.col[e]!);
     iterationPattern = sparsePattern(n, rows, cols);
   }
 
@@ -235,13 +276,17 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   }
   ot.sort((a, b) => a - b);
 
+  const massUsed = compression && mass ? compressedSparseMass(mass, compression) : mass;
+  let dense: Float64Array | undefined;
   return {
     n,
     rhs: compression ? compressedRhs(problem.rhs, compression) : problem.rhs,
     jacobian: compression && jacobian ? compressedJacobian(jacobian, n, compression) : jacobian,
     jacobianEntries: problem.jacobianEntries,
     massCompression: compression,
-    mass: compression && mass ? compressedMass(mass, n, compression) : mass,
+    mass: massUsed,
+    denseMass: () => (massUsed ? (dense ??= denseOfSparseMass(massUsed)) : undefined),
+    denseMassMade: () => dense !== undefined,
     y0,
     t0,
     tEnd,

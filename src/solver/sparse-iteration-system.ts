@@ -78,11 +78,19 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
   const luReal = createSparseLu(pattern);
   const luComplex = createSparseComplexLu(pattern, luReal.structure);
   // M on the pattern (the identity: ones on the diagonal, which the pattern always holds).
+  // M's compressed rows are a subset of the pattern's, columns increasing in both: a merge per row.
   const massValues = new Float64Array(nnz);
+  const m = p.mass;
   for (let i = 0; i < n; i++) {
-    for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
-      const j = col[e]!;
-      massValues[e] = p.mass ? p.mass[i * n + j]! : i === j ? 1 : 0;
+    if (!m) {
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) if (col[e] === i) massValues[e] = 1;
+      continue;
+    }
+    let e = rowStart[i]!;
+    for (let k = m.rowStart[i]!; k < m.rowStart[i + 1]!; k++) {
+      while (e < rowStart[i + 1]! && col[e]! < m.col[k]!) e++;
+      if (col[e] !== m.col[k]) throw new Error(`iteration pattern lacks mass entry (${i}, ${m.col[k]})`);
+      massValues[e] = m.value[k]!;
     }
   }
   const e1 = new Float64Array(nnz);

@@ -1,4 +1,5 @@
 import { Matrix, SVD } from 'ml-matrix';
+import { blockOf, massBlocks, type SparseMass } from './sparse-mass.js';
 
 /**
  * Columns of an n x k matrix with few non-zeros each (compressed columns):
@@ -73,45 +74,22 @@ export interface SparseMassBases {
  * @internal
  * @example
  * ```ts
- * const b = structuralMassBases(mass, n); // b.k algebraic directions
+ * const b = structuralMassBases(sparseMassOfDense(mass, n)); // b.k algebraic directions
  * ```
  */
-export function structuralMassBases(mass: Float64Array, n: number): SparseMassBases {
-  // Components of the bipartite graph: row i is node i, column j is node n + j.
-  const parent = new Int32Array(2 * n);
-  for (let i = 0; i < 2 * n; i++) parent[i] = i;
-  const find = (a: number): number => {
-    while (parent[a] !== a) {
-      parent[a] = parent[parent[a]!]!;
-      a = parent[a]!;
-    }
-    return a;
-  };
+export function structuralMassBases(mass: SparseMass): SparseMassBases {
+  const n = mass.n;
+  const blocks = massBlocks(mass);
   const rowUsed = new Uint8Array(n);
   const colUsed = new Uint8Array(n);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) {
-      if (mass[i * n + j] === 0) continue;
-      rowUsed[i] = 1;
-      colUsed[j] = 1;
-      const a = find(i);
-      const b = find(n + j);
-      if (a !== b) parent[a] = b;
-    }
+  for (const b of blocks) {
+    for (const i of b.rows) rowUsed[i] = 1;
+    for (const j of b.cols) colUsed[j] = 1;
   }
-  const blocks = new Map<number, { rows: number[]; cols: number[] }>();
-  const blockOf = (root: number): { rows: number[]; cols: number[] } => {
-    let b = blocks.get(root);
-    if (!b) blocks.set(root, (b = { rows: [], cols: [] }));
-    return b;
-  };
-  for (let i = 0; i < n; i++) if (rowUsed[i]) blockOf(find(i)).rows.push(i);
-  for (let j = 0; j < n; j++) if (colUsed[j]) blockOf(find(n + j)).cols.push(j);
 
   // Each block's right singular split (row space and null space), for M_b and M_b^T.
-  const splits = [...blocks.values()].map((b) => {
-    const sub = new Float64Array(b.rows.length * b.cols.length);
-    b.rows.forEach((i, r) => b.cols.forEach((j, c) => (sub[r * b.cols.length + c] = mass[i * n + j]!)));
+  const splits = blocks.map((b) => {
+    const sub = blockOf(mass, b);
     return { block: b, right: rightSingularSplit(sub, b.rows.length, b.cols.length), left: rightSingularSplit(transpose(sub, b.rows.length, b.cols.length), b.cols.length, b.rows.length) };
   });
   let smax = 0;

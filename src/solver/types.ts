@@ -91,6 +91,24 @@ export type JacobianEntriesFunction = (t: number, y: Float64Array, target: Jacob
 export type MassMatrixInput = Float64Array | readonly (readonly number[])[];
 
 /**
+ * A mass matrix given by its non-zeros: entry k is M(rows[k], cols[k]) +=
+ * values[k] (entries at one position add up, as in a
+ * {@link JacobianEntryTarget}; positions not listed are zero). The three
+ * arrays have one element per entry. For {@link DaeProblem.massEntries}.
+ *
+ * @example
+ * ```ts
+ * // The matrix of the MassMatrixInput example, [[1, 0, 0], [0, 1, 0], [0, 0, 0]], by its two non-zeros.
+ * const entries: MassEntries = { rows: [0, 1], cols: [0, 1], values: [1, 1] };
+ * ```
+ */
+export interface MassEntries {
+  readonly rows: ArrayLike<number>;
+  readonly cols: ArrayLike<number>;
+  readonly values: ArrayLike<number>;
+}
+
+/**
  * An event function g(t, y) whose zero crossings the solver locates on its dense output.
  *
  * @example
@@ -130,8 +148,20 @@ export interface DaeProblem {
   readonly rhs: RhsFunction;
   /** Analytic Jacobian df/dy. Without it the solver builds one by finite differences. */
   readonly jacobian?: JacobianFunction;
-  /** Constant mass matrix M (n*n); absent means the identity (an ODE). May be singular. */
+  /**
+   * Constant mass matrix M (n*n); absent (and no {@link DaeProblem.massEntries})
+   * means the identity (an ODE). May be singular.
+   */
   readonly mass?: MassMatrixInput;
+  /**
+   * The same constant mass matrix given by its non-zeros instead of
+   * {@link DaeProblem.mass} (give one of the two). The solver's set-up
+   * (checks, recombination of dependent rows, null spaces) and the sparse
+   * path then read only these entries, so no n x n array of M is made
+   * there; the dense path builds M from them. Indices must lie in 0..n-1 and
+   * values be finite. (Added field.)
+   */
+  readonly massEntries?: MassEntries;
   /** Initial state (length n). Algebraic components are made consistent at t0 unless disabled. */
   readonly y0: ArrayLike<number>;
   /** Start time. */

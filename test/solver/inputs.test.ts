@@ -60,6 +60,37 @@ describe('solveDae input checks', () => {
     expect(() => solveDae({ ...ok, breakpoints: [2] })).toThrow(/breakpoint 2 lies outside/);
   });
 
+  it('checks a mass matrix given by its non-zeros (massEntries) and names the bad entry', () => {
+    const mass = (rows: number[], cols: number[], values: number[]): DaeProblem => ({ ...ok, massEntries: { rows, cols, values } });
+    expect(code(mass([0, 1], [0, 1], [1, 1]))).toBe('no error');
+    expect(code(mass([0, 1], [0], [1, 1]))).toBe('bad-mass-matrix');
+    expect(code(mass([0, 2], [0, 1], [1, 1]))).toBe('bad-mass-matrix');
+    expect(code(mass([0, -1], [0, 1], [1, 1]))).toBe('bad-mass-matrix');
+    expect(code(mass([0, 0.5], [0, 1], [1, 1]))).toBe('bad-mass-matrix');
+    expect(code({ ...ok, massEntries: {} as never })).toBe('bad-mass-matrix');
+    expect(code({ ...mass([0], [0], [1]), mass: [[1, 0], [0, 1]] })).toBe('bad-mass-matrix');
+    // A non-finite value is caught and named by its entry and position, as a dense one is.
+    expect(() => solveDae(mass([0, 1, 1], [0, 1, 0], [1, 1, NaN]))).toThrow(/massEntries entry 2, mass \(1, 0\) = NaN/);
+    expect(() => solveDae(mass([0, 1], [0, 1], [1, Infinity]))).toThrow(/mass \(1, 1\) = Infinity/);
+    expect(() => solveDae({ ...ok, mass: Float64Array.of(1, 0, -Infinity, 1) })).toThrow(/mass entry \(1, 0\) = -Infinity/);
+  });
+
+  it('solves an RC step by massEntries as by the dense mass (closed form v = 1 - exp(-(t - t1)/RC))', () => {
+    // RC low-pass, R = 1 kOhm, C = 1 uF, 1 V step at t1 = 1 ms: C v' = (u - v)/R (first-order circuit, closed form).
+    // Entries at one position add up: C given as two halves.
+    const base = {
+      size: 1, y0: [0], t0: 0, tEnd: 0.01, breakpoints: [1e-3],
+      rhs: (t: number, v: Float64Array, out: Float64Array) => { out[0] = ((t >= 1e-3 ? 1 : 0) - v[0]!) / 1e3; },
+    };
+    const dense = solveDae({ ...base, mass: [[1e-6]] }, { rtol: 1e-8, atol: 1e-12 });
+    const sparse = solveDae({ ...base, massEntries: { rows: [0, 0], cols: [0, 0], values: [0.5e-6, 0.5e-6] } }, { rtol: 1e-8, atol: 1e-12 });
+    expect(sparse.status).toBe('success');
+    expect(sparse.t).toEqual(dense.t);
+    expect(sparse.y).toEqual(dense.y);
+    const exact = 1 - Math.exp(-(0.01 - 1e-3) / 1e-3);
+    expect(Math.abs(sparse.y[sparse.y.length - 1]![0]! - exact)).toBeLessThan(1e-6);
+  });
+
   it('does not mutate the caller\'s y0, mass or tolerance arrays', () => {
     const y0 = [0.5, 9]; // y2 inconsistent: corrected internally
     const mass = [[1, 0], [0, 0]];

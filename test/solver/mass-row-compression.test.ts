@@ -10,13 +10,39 @@ import {
   compressedJacobian,
   compressedMass,
   compressedRhs,
+  compressedSparseMass,
   massRowCompression,
 } from '../../src/solver/mass-row-compression.js';
+import { sparseMassOfDense } from '../../src/solver/sparse-mass.js';
 
 describe('massRowCompression', () => {
   it('finds nothing in a mass matrix whose non-zero rows are independent (the usual case)', () => {
     expect(massRowCompression(Float64Array.of(1, 0, 0, 0, 0, 0, 0, 0, 2), 3)).toBeUndefined();
     expect(massRowCompression(Float64Array.of(1, 2, 3, 4), 2)).toBeUndefined();
+  });
+
+  it('finds dependent rows block by block when the blocks of M interleave, from dense or compressed rows alike', () => {
+    // Rows 0 and 2 share column 0 (row 2 = 2 row 0), rows 1 and 3 columns 1 and 2 (row 3 = 3 row 1),
+    // row 4 is alone (derived by hand).
+    // 5 x 5, column 4 all zero.
+    const full = Float64Array.of(
+      2, 0, 0, 0, 0,
+      0, 1, 1, 0, 0,
+      4, 0, 0, 0, 0,
+      0, 3, 3, 0, 0,
+      0, 0, 0, 5, 0,
+    );
+    for (const input of [full, sparseMassOfDense(full, 5)]) {
+      const c = massRowCompression(input, 5)!;
+      expect(c.dependent.map((d) => d.row)).toEqual([2, 3]);
+      expect(Array.from(c.dependent[0]!.rows)).toEqual([0]);
+      expect(c.dependent[0]!.coefficients[0]).toBe(2);
+      expect(Array.from(c.dependent[1]!.rows)).toEqual([1]);
+      expect(c.dependent[1]!.coefficients[0]).toBe(3);
+    }
+    const cm = compressedSparseMass(sparseMassOfDense(full, 5), massRowCompression(full, 5)!);
+    expect(Array.from(cm.rowStart)).toEqual([0, 1, 3, 3, 3, 4]);
+    expect(Array.from(cm.value)).toEqual([2, 1, 1, 5]);
   });
 
   it('turns the second of two proportional rows into row 2 - (row 2 / row 1) row 1', () => {

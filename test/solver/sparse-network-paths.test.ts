@@ -14,15 +14,16 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { createDaeIntegrator, solveDae, SPARSE_MIN_SIZE, type DaeProblem } from '../../src/index.js';
+import { createDaeIntegrator, solveDae, SPARSE_MIN_SIZE, type DaeIntegrator, type DaeProblem } from '../../src/index.js';
+import { NetworkRun } from '../../src/simulation/network-run.js';
 import { linearAlgebraStorage } from '../../src/solver/dae-integrator.js';
 import { compileNetwork, type CompiledNetwork } from '../../src/formulation/compile-network.js';
-import { denseMassSpaces, massSpaces, type MassSpaces } from '../../src/solver/consistent-initialization.js';
+import { columnsTransposeTimes, denseMassSpaces, massSpaces, type MassSpaces } from '../../src/solver/consistent-initialization.js';
 import { createPatternAdaptiveLu } from '../../src/solver/sparse-adaptive-lu.js';
 import { createDenseLu } from '../../src/solver/dense-lu.js';
 import { createSparseLu } from '../../src/solver/sparse-lu.js';
 import { sparsePattern } from '../../src/solver/sparse-pattern.js';
-import { PatternRecordingStampTarget, stampConductance } from '../../src/elements/stamp-target.js';
+import { DenseStampTarget, PatternRecordingStampTarget, stampConductance } from '../../src/elements/stamp-target.js';
 import { buildNetwork, networkPlanArb, runs } from '../reliability/random-network.js';
 import { transformerLadder } from '../support/transformer-ladder.js';
 
@@ -54,20 +55,33 @@ const rowsOf = (m: Float64Array, n: number): number[] => Array.from(m, (v, i) =>
 const colsOf = (m: Float64Array, n: number): number[] => Array.from(m, (v, i) => (v !== 0 ? i % n : -1)).filter((i) => i >= 0);
 
 /** The compiled network as a DAE for solveDae, over [0, tEnd], its own inputs in force. */
-function asProblem(c: CompiledNetwork, tEnd: number, withPattern: boolean): DaeProblem {
+function asProblem(c: CompiledNetwork, tEnd: number, withPattern: boolean, massBy: 'dense' | 'entries' = 'dense'): DaeProblem {
   c.inputs.setInterval(0, tEnd);
   return {
     size: c.layout.size,
     y0: c.y0,
     t0: 0,
     tEnd,
-    mass: c.mass,
+    // Dense M (made from the stamps on first read), or M by its non-zeros (no n x n array made).
+    ...(massBy === 'dense' ? { mass: c.mass } : { massEntries: c.massEntries }),
     rhs: c.rhs,
     jacobian: c.jacobian,
     index2: c.index2,
     breakpoints: c.inputs.breakpoints(0, tEnd),
     ...(withPattern && c.jacobianPattern ? { jacobianPattern: c.jacobianPattern } : {}),
   };
+}
+
+/**
+ * M as a dense stamp target forms it: the recorded entries added in stamp order into an n x n array
+ * (independently of the solver's compressed rows).
+ */
+function denseOfEntries(c: CompiledNetwork): Float64Array {
+  const n = c.layout.size;
+  const m = new Float64Array(n * n);
+  const { rows, cols, values } = c.massEntries;
+  for (let k = 0; k < rows.length; k++) m[rows[k]! * n + cols[k]!]! += values[k]!;
+  return m;
 }
 
 /** asProblem with the Jacobian also given entry by entry (as network runs give it): the sparse path then holds J on the pattern. */
@@ -104,7 +118,10 @@ describe('sparse paths of network runs against the dense ones', () => {
       fc.property(networkPlanArb, (plan) => {
         const c = compileNetwork(buildNetwork(plan).net.describe());
         const n = c.layout.size;
-        expectSameSpaces(massSpaces(c.mass, n, 'structural'), denseMassSpaces(c.mass, n));
+        const reference = denseMassSpaces(c.mass, n);
+        expectSameSpaces(massSpaces(c.mass, n, 'structural'), reference);
+        // From the compiler's recorded stamps (compressed rows), reading no n x n array.
+        expectSameSpaces(massSpaces(c.sparseMass, n, 'structural'), reference);
       }),
       runs(40),
     );
@@ -216,6 +233,36 @@ describe('sparse paths of network runs against the dense ones', () => {
     expect(compared).toBeGreaterThanOrEqual(cases / 2);
   });
 
+  it('hands M over by its non-zeros (massEntries) with the same run as the dense mass, step for step (property networks)', () => {
+    // The two hand-overs describe the same matrix, so the runs must be the same to the bit, on the sparse
+    // path and on the dense one: same statuses, step counts, times and states.
+    let cases = 0;
+    let stepped = 0;
+    fc.assert(
+      fc.property(networkPlanArb, (plan) => {
+        const b = buildNetwork(plan);
+        const c = compileNetwork(b.net.describe());
+        const tEnd = b.shortestPeriod / 4;
+        const options = { rtol: 1e-6, atol: 1e-9, maxStep: b.shortestPeriod / 40, maxSteps: 3000 };
+        const sparse = withEntries(c, asProblem(c, tEnd, true, 'entries'));
+        const dense = { ...sparse, massEntries: undefined, mass: denseOfEntries(c) };
+        expect(c.denseMassMade()).toBe(false);
+        for (const linearAlgebra of ['sparse', 'flat'] as const) {
+          const a = solveDae(dense, { ...options, linearAlgebra });
+          const s = solveDae(sparse, { ...options, linearAlgebra });
+          expect(s.status).toBe(a.status);
+          expect(s.stats).toEqual(a.stats);
+          expect(s.t).toEqual(a.t);
+          expect(s.y).toEqual(a.y);
+          cases++;
+          if (a.stats.acceptedSteps > 10) stepped++;
+        }
+      }),
+      runs(8),
+    );
+    expect(stepped).toBeGreaterThanOrEqual(cases / 2);
+  });
+
   it('a ladder of transformers above the switch-over runs sparsely and agrees with the dense LU', () => {
     const c = compileNetwork(transformerLadder(12).describe());
     const n = c.layout.size;
@@ -250,11 +297,13 @@ describe('sparse paths of network runs against the dense ones', () => {
 
   it('a network of several thousand unknowns runs on the sparse path holding no n x n array in its linear algebra', () => {
     // 750 transformers, n = 3003: an n x n array would hold 9 million numbers. What the sparse path
-    // holds grows with the non-zeros (a few per row) and the band of the reordered matrices.
+    // holds grows with the non-zeros (a few per row) and the band of the reordered matrices. M is handed
+    // over by its non-zeros, as network runs do: neither the compiler nor the solver makes it dense.
     const c = compileNetwork(transformerLadder(750).describe());
     const n = c.layout.size;
     expect(n).toBe(3003);
-    const integ = createDaeIntegrator(withEntries(c, asProblem(c, 0.02, true)), { rtol: 1e-6, atol: 1e-9, maxStep: 1e-3 });
+    expect(c.massEntries.rows.length).toBeLessThan(10 * n);
+    const integ = createDaeIntegrator(withEntries(c, asProblem(c, 0.02, true, 'entries')), { rtol: 1e-6, atol: 1e-9, maxStep: 1e-3 });
     expect(integ.status).toBe('running');
     for (let s = 0; s < 12; s++) expect(integ.step().status).toBe('accepted');
     const y = integ.y;
@@ -262,11 +311,66 @@ describe('sparse paths of network runs against the dense ones', () => {
     expect(integ.t).toBeGreaterThan(0);
     const held = linearAlgebraStorage(integ);
     expect(held.denseJacobian).toBe(0);
-    const total = held.jacobian + held.iterationMatrices + held.factors + held.consistency;
+    expect(held.denseMass).toBe(0);
+    expect(held.mass).toBeLessThan(10 * n);
+    expect(c.denseMassMade()).toBe(false);
+    const total = held.jacobian + held.iterationMatrices + held.factors + held.consistency + held.mass;
     // Linear in n (measured: about 150 numbers per unknown, most of them the band LUs' storage), under a
     // tenth of one n x n array; the dense path at this size holds 7 n^2 (J, three iteration matrices, three LU arrays).
     expect(total).toBeLessThan(400 * n);
     expect(total).toBeLessThan((n * n) / 10);
+  });
+
+  it('a network run of several thousand unknowns makes no n x n mass matrix, in the compiler or the solver', () => {
+    const run = new NetworkRun(compileNetwork(transformerLadder(750).describe()), { t0: 0, horizon: 0.02, rtol: 1e-6, atol: 1e-9 });
+    run.advanceTo(2e-3, { steps: false, interpolants: false });
+    expect(run.status).toBe('running');
+    expect(run.t).toBe(2e-3);
+    expect(run.y.every(Number.isFinite)).toBe(true);
+    expect(run.compiled.denseMassMade()).toBe(false);
+    // White box: the run's integrator.
+    const held = linearAlgebraStorage((run as unknown as { integ: DaeIntegrator }).integ);
+    expect(held.denseMass).toBe(0);
+    expect(held.denseJacobian).toBe(0);
+    expect(held.mass).toBeGreaterThan(0);
+  });
+
+  it('projects sampled states onto the algebraic equations on the sparse path (W0^T f at the samples within the Newton bound)', () => {
+    // n = 51 >= SPARSE_MIN_SIZE: the projector factors W0^T J V0 on the stamps' pattern. After it, the
+    // samples satisfy the algebraic equations W0^T f(t, y) = 0 (Kirchhoff's laws) to within what its
+    // stopping test leaves: a last correction of RMS norm <= 1e-6 in units of atol + rtol |y| (rate <= 0.5,
+    // so the remaining error is no larger), hence |W0^T f|_2 <= ||J||_2 ||error||_2 with
+    // ||J||_2 <= sqrt(n) ||J||_inf and ||error||_2 <= sqrt(n) 1e-6 max(atol + rtol |y|) (norm inequalities).
+    const c = compileNetwork(transformerLadder(12).describe());
+    const n = c.layout.size;
+    expect(n).toBeGreaterThanOrEqual(SPARSE_MIN_SIZE);
+    const rtol = 1e-6;
+    const atol = 1e-9;
+    const run = new NetworkRun(c, { t0: 0, horizon: 0.01, rtol, atol });
+    const sampleTimes = Array.from({ length: 19 }, (_, i) => (i + 0.5) * 5e-4);
+    run.advanceTo(0.01, { steps: false, interpolants: false, sampleTimes });
+    expect(run.status).toBe('running');
+    expect(run.samples.map((x) => x.t)).toEqual(sampleTimes.concat(0.01).filter((t) => t < 0.01));
+    const { w0 } = massSpaces(c.sparseMass, n).columns;
+    const f = new Float64Array(n);
+    const J = new Float64Array(n * n);
+    const r = new Float64Array(w0.k);
+    for (const sample of run.samples) {
+      const inputs = run.intervals[sample.interval]!;
+      c.evaluate(sample.t, sample.y, inputs, f);
+      J.fill(0);
+      c.stampJacobian(sample.t, sample.y, inputs, new DenseStampTarget(n).bind(J));
+      let jInf = 0;
+      for (let i = 0; i < n; i++) {
+        let row = 0;
+        for (let j = 0; j < n; j++) row += Math.abs(J[i * n + j]!);
+        jInf = Math.max(jInf, row);
+      }
+      const maxScale = Math.max(...Array.from(sample.y, (v) => atol + rtol * Math.abs(v)));
+      columnsTransposeTimes(w0, f, r);
+      const residual = Math.hypot(...r);
+      expect(residual).toBeLessThanOrEqual(Math.sqrt(n) * jInf * Math.sqrt(n) * 1e-6 * maxScale);
+    }
   });
 
   it('records the positions a stamp touches, zero values and all, and ignores ground', () => {
