@@ -374,6 +374,11 @@ export class NetworkRun {
     return this.integ.stats;
   }
 
+  /** Knee jumps of smooth junctions made so far (see smoothJunctionCrossing). */
+  get kneeCrossings(): number {
+    return this.junctions?.count ?? 0;
+  }
+
   /** Differential unknowns any (re)initialisation so far moved to meet an index-2 hidden constraint. */
   get adjustedAtStart(): readonly number[] {
     return [...this.adjusted].sort((a, b) => a - b);
