@@ -1,3 +1,4 @@
+import { float64View, ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import {
   C1,
@@ -79,23 +80,23 @@ export interface CollocationWork {
   readonly m3: Float64Array;
 }
 
-/** @internal @example `const work = createCollocationWork(3);` */
-export function createCollocationWork(n: number): CollocationWork {
-  const fz = new Float64Array(3 * n);
-  const dw = new Float64Array(3 * n);
+/** @internal @example `const work = createCollocationWork(3);` (arrays from `take`, see {@link TakeFloat64}) */
+export function createCollocationWork(n: number, take: TakeFloat64 = ownFloat64): CollocationWork {
+  const fz = take(3 * n);
+  const dw = take(3 * n);
   return {
-    z: new Float64Array(3 * n),
-    w: new Float64Array(3 * n),
+    z: take(3 * n),
+    w: take(3 * n),
     fz,
-    fzStage: [fz.subarray(0, n), fz.subarray(n, 2 * n), fz.subarray(2 * n, 3 * n)],
+    fzStage: [float64View(fz, 0, n), float64View(fz, n, n), float64View(fz, 2 * n, n)],
     dw,
-    dwReal: dw.subarray(0, n),
-    dwRe: dw.subarray(n, 2 * n),
-    dwIm: dw.subarray(2 * n, 3 * n),
-    ys: new Float64Array(n),
-    m1: new Float64Array(n),
-    m2: new Float64Array(n),
-    m3: new Float64Array(n),
+    dwReal: float64View(dw, 0, n),
+    dwRe: float64View(dw, n, n),
+    dwIm: float64View(dw, 2 * n, n),
+    ys: take(n),
+    m1: take(n),
+    m2: take(n),
+    m3: take(n),
   };
 }
 

@@ -18,6 +18,7 @@ import {
 import { createDenseIterationSystem } from './dense-iteration-system.js';
 import { locateSignChange } from './event-locator.js';
 import { nextDown } from './float-neighbours.js';
+import { Float64Chunks } from './float64-chunks.js';
 import { OutsidePatternError, type IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
@@ -414,6 +415,10 @@ class RadauIntegrator implements DaeIntegrator {
     this.p = p;
     const n = p.n;
     this.n = n;
+    // The work arrays as views into one chunk (a typed array of its own costs an ArrayBuffer each, and
+    // a short solve's set-up was mostly those): 7 n x n arrays on the dense path and about 43 of length n.
+    const chunks = new Float64Chunks(Math.min((p.iterationPattern ? 0 : 7 * n * n) + 44 * n, 1 << 16));
+    const take = (length: number): Float64Array => chunks.take(length);
     if (p.mass) {
       const rows = new Int32Array(n + 1);
       const cols: number[] = [];
@@ -435,8 +440,8 @@ class RadauIntegrator implements DaeIntegrator {
     }
     // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
     // or, with atolFollowsRtol false, atol' = 10 atol (the same map at rtol = 1e-6) at every rtol.
-    this.rtolT = new Float64Array(n);
-    this.atolT = new Float64Array(n);
+    this.rtolT = take(n);
+    this.atolT = take(n);
     let rmin = Infinity;
     for (let i = 0; i < n; i++) {
       const r = p.rtol[i]!;
@@ -447,11 +452,11 @@ class RadauIntegrator implements DaeIntegrator {
     }
     // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
     this.fnewt = Math.max((10 * UROUND) / rmin, Math.min(0.03, Math.sqrt(rmin)));
-    this.system = p.iterationPattern ? createSparseIterationSystem(p) : createDenseIterationSystem(p);
+    this.system = p.iterationPattern ? createSparseIterationSystem(p) : createDenseIterationSystem(p, take);
     this.luReal = this.system.luReal;
     this.luComplex = this.system.luComplex;
-    this.work = createCollocationWork(n);
-    this.errorWork = { err: new Float64Array(n), mz: new Float64Array(n), ez: new Float64Array(n), ys: new Float64Array(n), fy: new Float64Array(n) };
+    this.work = createCollocationWork(n, take);
+    this.errorWork = { err: take(n), mz: take(n), ez: take(n), ys: take(n), fy: take(n) };
     this.countedRhs = (t, y, out) => this.callRhs(t, y, out);
     this.multiplyMass = (v, vOff, out) => this.mulMass(v, vOff, out);
     this.collocation = {
@@ -464,10 +469,10 @@ class RadauIntegrator implements DaeIntegrator {
       fnewt: this.fnewt,
       stats: this.statsCur,
     };
-    this.scale = new Float64Array(n);
-    this.ySaved = new Float64Array(n);
-    this.restartSlope = new Float64Array(n);
-    this.stepWork = { scale: new Float64Array(n), y1: new Float64Array(n), f1: new Float64Array(n) };
+    this.scale = take(n);
+    this.ySaved = take(n);
+    this.restartSlope = take(n);
+    this.stepWork = { scale: take(n), y1: take(n), f1: take(n) };
     const sparse = this.system.sparse;
     if (this.spaces && sparse && this.spaces.k > 0) {
       // The sparse path: W0^T J V0 and the y' system formed on the pattern, factored from values.
@@ -502,14 +507,15 @@ class RadauIntegrator implements DaeIntegrator {
       this.algebraic = createAlgebraicSolver(n, this.spaces.k);
       this.derivativeWork = createDerivativeWork(n);
     }
-    this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: new Float64Array(n), q: new Float64Array(3 * n) };
-    this.jac = new Float64Array(this.system.jacobianSize);
+    this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: take(n), q: take(3 * n) };
+    this.jac = take(this.system.jacobianSize);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
 
     this.tCur = p.t0;
-    this.yCur = Float64Array.from(p.y0);
-    this.fCur = new Float64Array(n);
+    this.yCur = take(n);
+    this.yCur.set(p.y0);
+    this.fCur = take(n);
     this.initialise(true);
   }
 
