@@ -101,13 +101,36 @@ export function createCollocationWork(n: number, take: TakeFloat64 = ownFloat64)
 }
 
 /**
+ * The step being tried, passed to {@link solveCollocation} (and to the error
+ * estimate) in one object the integrator rewrites per attempt: numbers
+ * passed as arguments to a call that is not inlined are boxed on the heap
+ * each time (seven per attempt, most of what a step allocated).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const at: CollocationStep = { t: 0, h: 0.1, tLastStage: 0.1, faccon: 1 };
+ * ```
+ */
+export interface CollocationStep {
+  /** Start of the step. */
+  t: number;
+  /** Step size. */
+  h: number;
+  /** Where the last stage is evaluated: t + h, or one ulp before a breakpoint. */
+  tLastStage: number;
+  /** radau5's FACCON carried in from the previous step. */
+  faccon: number;
+}
+
+/**
  * Outcome of {@link solveCollocation}; one object per integrator, rewritten
  * by each call (nothing is allocated on success).
  *
  * @internal
  * @example
  * ```ts
- * const outcome = solveCollocation(sys, work, y, scale, t, h, tNew, faccon, createNewtonOutcome());
+ * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: tNew, faccon }, createNewtonOutcome());
  * if (!outcome.converged) h *= outcome.shrink;
  * ```
  */
@@ -156,14 +179,15 @@ function finish(out: NewtonOutcome, converged: boolean, iterations: number, thet
  * (returning radau5's step reduction), on divergence, and on non-finite f.
  *
  * Shapes: y, scale (n); work.z (3n) holds the start values on entry and the
- * converged increments on success. The last stage is evaluated at
- * `tLastStage` (t + h, or one ulp before a breakpoint). Pure apart from the
+ * converged increments on success. The step is `at` (t, h, the time of the
+ * last stage: t + h, or one ulp before a breakpoint, and the carried
+ * FACCON). Pure apart from the
  * work arrays, `out` and the iteration count in `sys.stats`.
  *
  * @internal
  * @example
  * ```ts
- * const outcome = solveCollocation(sys, work, y, scale, t, h, t + h, faccon, createNewtonOutcome());
+ * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: t + h, faccon }, createNewtonOutcome());
  * ```
  */
 export function solveCollocation(
@@ -171,13 +195,14 @@ export function solveCollocation(
   work: CollocationWork,
   y: Float64Array,
   scale: Float64Array,
-  t: number,
-  h: number,
-  tLastStage: number,
-  faccon: number,
+  at: CollocationStep,
   out: NewtonOutcome,
 ): NewtonOutcome {
   const n = sys.n;
+  const t = at.t;
+  const h = at.h;
+  const tLastStage = at.tLastStage;
+  let faccon = at.faccon;
   const { z, w, fz, fzStage, dw, ys, m1, m2, m3 } = work;
   const fac1 = MU_REAL / h;
   const alphn = MU_COMPLEX_RE / h;
