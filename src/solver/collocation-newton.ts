@@ -104,7 +104,8 @@ export function createCollocationWork(n: number, take: TakeFloat64 = ownFloat64)
  * The step being tried, passed to {@link solveCollocation} (and to the error
  * estimate) in one object the integrator rewrites per attempt: numbers
  * passed as arguments to a call that is not inlined are boxed on the heap
- * each time (seven per attempt, most of what a step allocated).
+ * each time (about a dozen per attempt with the acceptance's, most of what
+ * a step allocated).
  *
  * @internal
  * @example
