@@ -1,3 +1,4 @@
+import { float64View, ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import {
   C1,
@@ -79,24 +80,48 @@ export interface CollocationWork {
   readonly m3: Float64Array;
 }
 
-/** @internal @example `const work = createCollocationWork(3);` */
-export function createCollocationWork(n: number): CollocationWork {
-  const fz = new Float64Array(3 * n);
-  const dw = new Float64Array(3 * n);
+/** @internal @example `const work = createCollocationWork(3);` (arrays from `take`, see {@link TakeFloat64}) */
+export function createCollocationWork(n: number, take: TakeFloat64 = ownFloat64): CollocationWork {
+  const fz = take(3 * n);
+  const dw = take(3 * n);
   return {
-    z: new Float64Array(3 * n),
-    w: new Float64Array(3 * n),
+    z: take(3 * n),
+    w: take(3 * n),
     fz,
-    fzStage: [fz.subarray(0, n), fz.subarray(n, 2 * n), fz.subarray(2 * n, 3 * n)],
+    fzStage: [float64View(fz, 0, n), float64View(fz, n, n), float64View(fz, 2 * n, n)],
     dw,
-    dwReal: dw.subarray(0, n),
-    dwRe: dw.subarray(n, 2 * n),
-    dwIm: dw.subarray(2 * n, 3 * n),
-    ys: new Float64Array(n),
-    m1: new Float64Array(n),
-    m2: new Float64Array(n),
-    m3: new Float64Array(n),
+    dwReal: float64View(dw, 0, n),
+    dwRe: float64View(dw, n, n),
+    dwIm: float64View(dw, 2 * n, n),
+    ys: take(n),
+    m1: take(n),
+    m2: take(n),
+    m3: take(n),
   };
+}
+
+/**
+ * The step being tried, passed to {@link solveCollocation} (and to the error
+ * estimate) in one object the integrator rewrites per attempt: numbers
+ * passed as arguments to a call that is not inlined are boxed on the heap
+ * each time (about a dozen per attempt with the acceptance's, most of what
+ * a step allocated).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const at: CollocationStep = { t: 0, h: 0.1, tLastStage: 0.1, faccon: 1 };
+ * ```
+ */
+export interface CollocationStep {
+  /** Start of the step. */
+  t: number;
+  /** Step size. */
+  h: number;
+  /** Where the last stage is evaluated: t + h, or one ulp before a breakpoint. */
+  tLastStage: number;
+  /** radau5's FACCON carried in from the previous step. */
+  faccon: number;
 }
 
 /**
@@ -106,7 +131,7 @@ export function createCollocationWork(n: number): CollocationWork {
  * @internal
  * @example
  * ```ts
- * const outcome = solveCollocation(sys, work, y, scale, t, h, tNew, faccon, createNewtonOutcome());
+ * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: tNew, faccon }, createNewtonOutcome());
  * if (!outcome.converged) h *= outcome.shrink;
  * ```
  */
@@ -155,14 +180,15 @@ function finish(out: NewtonOutcome, converged: boolean, iterations: number, thet
  * (returning radau5's step reduction), on divergence, and on non-finite f.
  *
  * Shapes: y, scale (n); work.z (3n) holds the start values on entry and the
- * converged increments on success. The last stage is evaluated at
- * `tLastStage` (t + h, or one ulp before a breakpoint). Pure apart from the
+ * converged increments on success. The step is `at` (t, h, the time of the
+ * last stage: t + h, or one ulp before a breakpoint, and the carried
+ * FACCON). Pure apart from the
  * work arrays, `out` and the iteration count in `sys.stats`.
  *
  * @internal
  * @example
  * ```ts
- * const outcome = solveCollocation(sys, work, y, scale, t, h, t + h, faccon, createNewtonOutcome());
+ * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: t + h, faccon }, createNewtonOutcome());
  * ```
  */
 export function solveCollocation(
@@ -170,13 +196,14 @@ export function solveCollocation(
   work: CollocationWork,
   y: Float64Array,
   scale: Float64Array,
-  t: number,
-  h: number,
-  tLastStage: number,
-  faccon: number,
+  at: CollocationStep,
   out: NewtonOutcome,
 ): NewtonOutcome {
   const n = sys.n;
+  const t = at.t;
+  const h = at.h;
+  const tLastStage = at.tLastStage;
+  let faccon = at.faccon;
   const { z, w, fz, fzStage, dw, ys, m1, m2, m3 } = work;
   const fac1 = MU_REAL / h;
   const alphn = MU_COMPLEX_RE / h;

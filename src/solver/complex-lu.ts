@@ -1,4 +1,5 @@
 import { equilibrateComplex } from './dense-equilibration.js';
+import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
 
 /**
@@ -18,14 +19,14 @@ import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-sol
  * lu.solve(re, im); // x = -2i
  * ```
  */
-export function createComplexLu(n: number): ComplexLinearSolver {
-  const ar = new Float64Array(n * n);
-  const ai = new Float64Array(n * n);
+export function createComplexLu(n: number, take: TakeFloat64 = ownFloat64): ComplexLinearSolver {
+  const ar = take(n * n);
+  const ai = take(n * n);
   const perm = new Int32Array(n);
-  const rowScale = new Float64Array(n);
-  const colScale = new Float64Array(n);
-  const tr = new Float64Array(n);
-  const ti = new Float64Array(n);
+  const rowScale = take(n);
+  const colScale = take(n);
+  const tr = take(n);
+  const ti = take(n);
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function factor(re: Float64Array, im: Float64Array): number {
@@ -95,16 +96,13 @@ export function createComplexLu(n: number): ComplexLinearSolver {
   }
 
   function solve(bRe: Float64Array, bIm: Float64Array): void {
+    // Forward with the permuted, row-scaled b read as it goes; backward writing each scaled x_i once final.
     for (let i = 0; i < n; i++) {
       const p = perm[i]!;
       const r = rowScale[p]!;
-      tr[i] = r * bRe[p]!;
-      ti[i] = r * bIm[p]!;
-    }
-    for (let i = 1; i < n; i++) {
       const ri = i * n;
-      let sr = tr[i]!;
-      let si = ti[i]!;
+      let sr = r * bRe[p]!;
+      let si = r * bIm[p]!;
       for (let j = 0; j < i; j++) {
         const lr = ar[ri + j]!;
         const li = ai[ri + j]!;
@@ -127,13 +125,13 @@ export function createComplexLu(n: number): ComplexLinearSolver {
       const pr = ar[ri + i]!;
       const pi = ai[ri + i]!;
       const d = pr * pr + pi * pi;
-      tr[i] = (sr * pr + si * pi) / d;
-      ti[i] = (si * pr - sr * pi) / d;
-    }
-    for (let i = 0; i < n; i++) {
+      const xr = (sr * pr + si * pi) / d;
+      const xi = (si * pr - sr * pi) / d;
+      tr[i] = xr;
+      ti[i] = xi;
       const c = colScale[i]!;
-      bRe[i] = c * tr[i]!;
-      bIm[i] = c * ti[i]!;
+      bRe[i] = c * xr;
+      bIm[i] = c * xi;
     }
   }
 

@@ -1,5 +1,5 @@
 import { InputError } from '../errors.js';
-import { createCollocationWork, createNewtonOutcome, NEWTON_FAILURE_SHRINK, solveCollocation, type CollocationSystem, type CollocationWork, type NewtonOutcome } from './collocation-newton.js';
+import { createCollocationWork, createNewtonOutcome, NEWTON_FAILURE_SHRINK, solveCollocation, type CollocationStep, type CollocationSystem, type CollocationWork, type NewtonOutcome } from './collocation-newton.js';
 import { evaluateCollocation } from './collocation-polynomial.js';
 import {
   consistentDerivative,
@@ -18,6 +18,7 @@ import {
 import { createDenseIterationSystem } from './dense-iteration-system.js';
 import { locateSignChange } from './event-locator.js';
 import { nextDown } from './float-neighbours.js';
+import { Float64Chunks } from './float64-chunks.js';
 import { OutsidePatternError, type IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
@@ -403,6 +404,11 @@ class RadauIntegrator implements DaeIntegrator {
   private readonly work: CollocationWork;
   private readonly errorWork: ErrorEstimateWork;
   private readonly newtonOutcome: NewtonOutcome = createNewtonOutcome();
+  /**
+   * The attempt's numbers for the Newton kernel, the error estimate, the start values and the
+   * acceptance (rewritten per attempt: numbers passed as arguments are boxed per call).
+   */
+  private readonly attempt: CollocationStep & { tNew: number; err: number; quot: number } = { t: 0.5, h: 0.5, tLastStage: 0.5, faccon: 0.5, tNew: 0.5, err: 0.5, quot: 0.5 };
   private readonly collocation: CollocationSystem;
   /** f, counted and guarded (bound once). */
   private readonly countedRhs: (t: number, y: Float64Array, out: Float64Array) => void;
@@ -414,6 +420,10 @@ class RadauIntegrator implements DaeIntegrator {
     this.p = p;
     const n = p.n;
     this.n = n;
+    // The work arrays as views into one chunk (a typed array of its own costs an ArrayBuffer each, and
+    // a short solve's set-up was mostly those): 7 n x n arrays on the dense path and about 43 of length n.
+    const chunks = new Float64Chunks(Math.min((p.iterationPattern ? 0 : 7 * n * n) + 44 * n, 1 << 16));
+    const take = (length: number): Float64Array => chunks.take(length);
     if (p.mass) {
       // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
       this.mRowPtr = p.mass.rowStart;
@@ -423,8 +433,8 @@ class RadauIntegrator implements DaeIntegrator {
     }
     // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
     // or, with atolFollowsRtol false, atol' = 10 atol (the same map at rtol = 1e-6) at every rtol.
-    this.rtolT = new Float64Array(n);
-    this.atolT = new Float64Array(n);
+    this.rtolT = take(n);
+    this.atolT = take(n);
     let rmin = Infinity;
     for (let i = 0; i < n; i++) {
       const r = p.rtol[i]!;
@@ -435,11 +445,11 @@ class RadauIntegrator implements DaeIntegrator {
     }
     // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
     this.fnewt = Math.max((10 * UROUND) / rmin, Math.min(0.03, Math.sqrt(rmin)));
-    this.system = p.iterationPattern ? createSparseIterationSystem(p) : createDenseIterationSystem(p);
+    this.system = p.iterationPattern ? createSparseIterationSystem(p) : createDenseIterationSystem(p, take);
     this.luReal = this.system.luReal;
     this.luComplex = this.system.luComplex;
-    this.work = createCollocationWork(n);
-    this.errorWork = { err: new Float64Array(n), mz: new Float64Array(n), ez: new Float64Array(n), ys: new Float64Array(n), fy: new Float64Array(n) };
+    this.work = createCollocationWork(n, take);
+    this.errorWork = { err: take(n), mz: take(n), ez: take(n), ys: take(n), fy: take(n) };
     this.countedRhs = (t, y, out) => this.callRhs(t, y, out);
     this.multiplyMass = (v, vOff, out) => this.mulMass(v, vOff, out);
     this.collocation = {
@@ -452,10 +462,10 @@ class RadauIntegrator implements DaeIntegrator {
       fnewt: this.fnewt,
       stats: this.statsCur,
     };
-    this.scale = new Float64Array(n);
-    this.ySaved = new Float64Array(n);
-    this.restartSlope = new Float64Array(n);
-    this.stepWork = { scale: new Float64Array(n), y1: new Float64Array(n), f1: new Float64Array(n) };
+    this.scale = take(n);
+    this.ySaved = take(n);
+    this.restartSlope = take(n);
+    this.stepWork = { scale: take(n), y1: take(n), f1: take(n) };
     const sparse = this.system.sparse;
     if (this.spaces && sparse && this.spaces.k > 0) {
       // The sparse path: W0^T J V0 and the y' system formed on the pattern, factored from values.
@@ -490,14 +500,15 @@ class RadauIntegrator implements DaeIntegrator {
       this.algebraic = createAlgebraicSolver(n, this.spaces.k);
       this.derivativeWork = createDerivativeWork(n);
     }
-    this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: new Float64Array(n), q: new Float64Array(3 * n) };
-    this.jac = new Float64Array(this.system.jacobianSize);
+    this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: take(n), q: take(3 * n) };
+    this.jac = take(this.system.jacobianSize);
     this.eventValues = new Float64Array(p.events.length);
     this.startTime = performance.now();
 
     this.tCur = p.t0;
-    this.yCur = Float64Array.from(p.y0);
-    this.fCur = new Float64Array(n);
+    this.yCur = take(n);
+    this.yCur.set(p.y0);
+    this.fCur = take(n);
     this.initialise(true);
   }
 
@@ -1123,12 +1134,17 @@ class RadauIntegrator implements DaeIntegrator {
       // Scale for Newton and error (radau5's SCAL; index-2 components divided by h).
       errorScale(y, this.rtolT, this.atolT, scale);
       if (p.hasIndex2) for (let i = 0; i < n; i++) if (p.index2[i] === 1) scale[i] = scale[i]! / h;
-      this.startValues(t, h);
+      const at = this.attempt;
+      at.t = t;
+      at.h = h;
+      this.startValues();
 
       // The last stage sits at tNew; on a breakpoint it takes the left limit of f (one ulp before),
       // because f(breakpoint) is the value after the switch (the project's waveform convention).
       const tLastStage = landed && isBreakpoint && tNew === tTarget ? nextDown(tNew) : tNew;
-      const newton = solveCollocation(this.collocation, this.work, y, scale, t, h, tLastStage, this.faccon, this.newtonOutcome);
+      at.tLastStage = tLastStage;
+      at.faccon = this.faccon;
+      const newton = solveCollocation(this.collocation, this.work, y, scale, at, this.newtonOutcome);
       this.faccon = newton.faccon;
       if (!newton.converged) {
         this.statsCur.newtonFailures++;
@@ -1170,7 +1186,7 @@ class RadauIntegrator implements DaeIntegrator {
       }
       lastNonFinite = undefined;
 
-      const err = radauErrorEstimate(this.countedRhs, this.multiplyMass, this.luReal, this.errorWork, t, y, this.fCur, z, h, scale, this.first || rejected);
+      const err = radauErrorEstimate(this.countedRhs, this.multiplyMass, this.luReal, this.errorWork, at, y, this.fCur, z, scale, this.first || rejected);
       const quot = errorQuotient(err, newton.iterations);
       if (err >= 1) {
         // Rejected.
@@ -1182,7 +1198,10 @@ class RadauIntegrator implements DaeIntegrator {
         if (!this.jacCurrent) this.ensureJacobian();
         continue;
       }
-      return this.accept(t, tNew, h, err, quot, rejected, newton.iterations, newton.theta, landed && isBreakpoint && tNew === tTarget);
+      at.tNew = tNew;
+      at.err = err;
+      at.quot = quot;
+      return this.accept(rejected, newton.iterations, landed && isBreakpoint && tNew === tTarget);
     }
   }
 
@@ -1200,17 +1219,29 @@ class RadauIntegrator implements DaeIntegrator {
     );
   }
 
-  /** Newton start values into work.z: the last step's collocation polynomial extrapolated, or zero (radau5 STARTN). */
-  private startValues(t: number, h: number): void {
+  /** Newton start values into work.z for the step (t, h) of `attempt`: the last step's collocation polynomial extrapolated, or zero (radau5 STARTN). */
+  private startValues(): void {
+    const { t, h } = this.attempt;
     const n = this.n;
     const z = this.work.z;
     const y = this.yCur;
     if (this.extrapolate && this.hasPiece) {
+      // The three stages in one pass, each written as evaluateCollocation writes it (the same operations).
       const it = this.piece;
-      const u = this.errorWork.ez;
-      for (let s = 0; s < 3; s++) {
-        evaluateCollocation(it, t + (s === 0 ? C1 : s === 1 ? C2 : 1) * h, u);
-        for (let i = 0; i < n; i++) z[s * n + i] = u[i]! - y[i]!;
+      const yOld = it.yOld;
+      const q = it.q;
+      const s1 = (t + C1 * h - it.tOld) / it.h;
+      const s2 = (t + C2 * h - it.tOld) / it.h;
+      const s3 = (t + h - it.tOld) / it.h;
+      for (let i = 0; i < n; i++) {
+        const yo = yOld[i]!;
+        const q1 = q[i]!;
+        const q2 = q[n + i]!;
+        const q3 = q[2 * n + i]!;
+        const yi = y[i]!;
+        z[i] = yo + s1 * (q1 + s1 * (q2 + s1 * q3)) - yi;
+        z[n + i] = yo + s2 * (q1 + s2 * (q2 + s2 * q3)) - yi;
+        z[2 * n + i] = yo + s3 * (q1 + s3 * (q2 + s3 * q3)) - yi;
       }
     } else if (this.slopeStart) {
       // After a cheap restart: the tangent y + c h y' (y' consistent), closer than zero by O(h^2).
@@ -1225,10 +1256,13 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /**
-   * Take the converged step [t, tNew]: controller memory and next h, the
+   * Take the converged step [t, tNew] (t, tNew, h, err, quot from `attempt`, the Newton rate from
+   * `newtonOutcome`): controller memory and next h, the
    * dense output, f at the new point, re-initialisation on a breakpoint, events.
    */
-  private accept(t: number, tNew: number, h: number, err: number, quot: number, rejected: boolean, iterations: number, theta: number, onBreakpoint: boolean): DaeStepResult {
+  private accept(rejected: boolean, iterations: number, onBreakpoint: boolean): DaeStepResult {
+    const { t, tNew, h, err, quot } = this.attempt;
+    const theta = this.newtonOutcome.theta;
     const p = this.p;
     const n = this.n;
     const z = this.work.z;

@@ -6,7 +6,9 @@ import { powerOfTwoInverse } from './linear-solver.js';
  * Golub and Van Loan, Matrix Computations, sect. 3.5.2) read straight from
  * the arrays: no per-entry callback, so a factorisation allocates nothing
  * and the loops stay monomorphic. Returns the column of the first
- * non-finite entry (rows scanned in order), or -1.
+ * non-finite entry (rows scanned in order), or -1 (rowScale and colScale
+ * are then overwritten, as the factorisation is). The same scales, exactly,
+ * as `equilibrationScales` (test/solver/dense-equilibration.test.ts).
  *
  * @internal
  * @example
@@ -15,6 +17,10 @@ import { powerOfTwoInverse } from './linear-solver.js';
  * ```
  */
 export function equilibrateReal(n: number, a: Float64Array, rowScale: Float64Array, colScale: Float64Array): number {
+  // colScale first collects the column maxima of rowScale_i |a_ij|, row by row while the row is at
+  // hand (one pass in storage order; max is exact, so the order of the rows does not matter; Math.max
+  // keeps a NaN from an infinite scale times 0, as the column pass by definition does).
+  for (let j = 0; j < n; j++) colScale[j] = 0;
   for (let i = 0; i < n; i++) {
     const row = i * n;
     let m = 0;
@@ -23,13 +29,13 @@ export function equilibrateReal(n: number, a: Float64Array, rowScale: Float64Arr
       if (!Number.isFinite(v)) return j;
       if (v > m) m = v;
     }
-    rowScale[i] = powerOfTwoInverse(m);
+    const r = powerOfTwoInverse(m);
+    rowScale[i] = r;
+    for (let j = 0; j < n; j++) {
+      colScale[j] = Math.max(colScale[j]!, r * Math.abs(a[row + j]!));
+    }
   }
-  for (let j = 0; j < n; j++) {
-    let m = 0;
-    for (let i = 0; i < n; i++) m = Math.max(m, rowScale[i]! * Math.abs(a[i * n + j]!));
-    colScale[j] = powerOfTwoInverse(m);
-  }
+  for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
   return -1;
 }
 
@@ -44,6 +50,7 @@ export function equilibrateReal(n: number, a: Float64Array, rowScale: Float64Arr
  * ```
  */
 export function equilibrateComplex(n: number, re: Float64Array, im: Float64Array, rowScale: Float64Array, colScale: Float64Array): number {
+  for (let j = 0; j < n; j++) colScale[j] = 0;
   for (let i = 0; i < n; i++) {
     const row = i * n;
     let m = 0;
@@ -52,12 +59,12 @@ export function equilibrateComplex(n: number, re: Float64Array, im: Float64Array
       if (!Number.isFinite(v)) return j;
       if (v > m) m = v;
     }
-    rowScale[i] = powerOfTwoInverse(m);
+    const r = powerOfTwoInverse(m);
+    rowScale[i] = r;
+    for (let j = 0; j < n; j++) {
+      colScale[j] = Math.max(colScale[j]!, r * (Math.abs(re[row + j]!) + Math.abs(im[row + j]!)));
+    }
   }
-  for (let j = 0; j < n; j++) {
-    let m = 0;
-    for (let i = 0; i < n; i++) m = Math.max(m, rowScale[i]! * (Math.abs(re[i * n + j]!) + Math.abs(im[i * n + j]!)));
-    colScale[j] = powerOfTwoInverse(m);
-  }
+  for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
   return -1;
 }

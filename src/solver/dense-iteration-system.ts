@@ -1,6 +1,7 @@
 import { createComplexLu } from './complex-lu.js';
 import { createDenseLu } from './dense-lu.js';
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
+import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import type { IterationSystem } from './iteration-system.js';
 import { createEmbeddedComplexLu, createMlMatrixLu } from './ml-matrix-lu.js';
 import type { NormalizedDae } from './normalize-problem.js';
@@ -10,6 +11,7 @@ import type { NormalizedDae } from './normalize-problem.js';
  * problem's Jacobian (or finite differences), the iteration matrices built
  * entry by entry and factored by the flat LU kernels (or ml-matrix's, with
  * `linearAlgebra: 'ml-matrix'`). The choice for small n, where it is fastest.
+ * Work arrays from `take` ({@link TakeFloat64}).
  *
  * @internal
  * @example
@@ -17,14 +19,14 @@ import type { NormalizedDae } from './normalize-problem.js';
  * const system = createDenseIterationSystem(normalizeDae(problem));
  * ```
  */
-export function createDenseIterationSystem(p: NormalizedDae): IterationSystem {
+export function createDenseIterationSystem(p: NormalizedDae, take: TakeFloat64 = ownFloat64): IterationSystem {
   const n = p.n;
-  const luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n);
-  const luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n);
-  const e1 = new Float64Array(n * n);
-  const e2r = new Float64Array(n * n);
-  const e2i = new Float64Array(n * n);
-  const fdWork = new Float64Array(n);
+  const luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n, take);
+  const luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n, take);
+  const e1 = take(n * n);
+  const e2r = take(n * n);
+  const e2i = take(n * n);
+  const fdWork = take(n);
   // Sparse copy of M (CSR) for adding its multiples; none for the identity.
   let mRowPtr: Int32Array | undefined;
   let mCol: Int32Array | undefined;

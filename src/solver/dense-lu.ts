@@ -1,4 +1,5 @@
 import { equilibrateReal } from './dense-equilibration.js';
+import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
 
 /**
@@ -17,12 +18,12 @@ import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver
  * }
  * ```
  */
-export function createDenseLu(n: number): RealLinearSolver {
-  const lu = new Float64Array(n * n);
+export function createDenseLu(n: number, take: TakeFloat64 = ownFloat64): RealLinearSolver {
+  const lu = take(n * n);
   const perm = new Int32Array(n);
-  const rowScale = new Float64Array(n);
-  const colScale = new Float64Array(n);
-  const tmp = new Float64Array(n);
+  const rowScale = take(n);
+  const colScale = take(n);
+  const tmp = take(n);
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function factor(a: Float64Array): number {
@@ -73,14 +74,12 @@ export function createDenseLu(n: number): RealLinearSolver {
   }
 
   function solve(b: Float64Array): void {
+    // Forward (L has a unit diagonal), reading the permuted, row-scaled b as it goes; then backward,
+    // writing each x_i scaled by its column as soon as it is final (the same operations as three passes).
     for (let i = 0; i < n; i++) {
       const p = perm[i]!;
-      tmp[i] = rowScale[p]! * b[p]!;
-    }
-    // Forward: L has a unit diagonal.
-    for (let i = 1; i < n; i++) {
       const ri = i * n;
-      let s = tmp[i]!;
+      let s = rowScale[p]! * b[p]!;
       for (let j = 0; j < i; j++) s -= lu[ri + j]! * tmp[j]!;
       tmp[i] = s;
     }
@@ -88,9 +87,10 @@ export function createDenseLu(n: number): RealLinearSolver {
       const ri = i * n;
       let s = tmp[i]!;
       for (let j = i + 1; j < n; j++) s -= lu[ri + j]! * tmp[j]!;
-      tmp[i] = s / lu[ri + i]!;
+      const x = s / lu[ri + i]!;
+      tmp[i] = x;
+      b[i] = colScale[i]! * x;
     }
-    for (let i = 0; i < n; i++) b[i] = colScale[i]! * tmp[i]!;
   }
 
   return { size: n, factor, solve };

@@ -41,3 +41,26 @@ export class Float64Chunks {
 
 /** Numbers per chunk (32 KiB): a few hundred steps of a small network, few enough that a streaming run frees them soon. */
 const CHUNK_LENGTH = 4096;
+
+/**
+ * Where a kernel takes its zero-filled work arrays from: a typed array of
+ * its own by default, or views into one integrator's chunk
+ * ({@link Float64Chunks.take}), so that setting up a solve allocates a few
+ * ArrayBuffers instead of one per array.
+ *
+ * @internal
+ */
+export type TakeFloat64 = (length: number) => Float64Array;
+
+/** @internal A typed array of its own (the default {@link TakeFloat64}). */
+export const ownFloat64: TakeFloat64 = (length) => new Float64Array(length);
+
+/**
+ * A view of `length` numbers from `offset` inside `a` (made by the
+ * constructor; `subarray` looks up the species constructor on every call).
+ *
+ * @internal
+ */
+export function float64View(a: Float64Array, offset: number, length: number): Float64Array {
+  return new Float64Array(a.buffer, a.byteOffset + offset * Float64Array.BYTES_PER_ELEMENT, length);
+}

@@ -1,3 +1,4 @@
+import type { CollocationStep } from './collocation-newton.js';
 import type { RealLinearSolver } from './linear-solver.js';
 import { E1, E2, E3 } from './radau-tableau.js';
 import { weightedRmsNorm } from './weighted-norm.js';
@@ -35,11 +36,12 @@ export interface ErrorEstimateWork {
  * for a non-finite value; the error vector is left in `work.err`.
  *
  * Shapes: y, f0 = f(t, y), scale (n); z (3n), stage k at [k n, k n + n).
+ * The step's t and h are read from `at` (no boxed numbers per call).
  *
  * @internal
  * @example
  * ```ts
- * const err = radauErrorEstimate(rhs, multiplyMass, luReal, work, t, y, f0, z, h, scale, first || rejected);
+ * const err = radauErrorEstimate(rhs, multiplyMass, luReal, work, at, y, f0, z, scale, first || rejected);
  * if (err >= 1) reject();
  * ```
  */
@@ -48,15 +50,16 @@ export function radauErrorEstimate(
   multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void,
   luReal: RealLinearSolver,
   work: ErrorEstimateWork,
-  t: number,
+  at: Pick<CollocationStep, 't' | 'h'>,
   y: Float64Array,
   f0: Float64Array,
   z: Float64Array,
-  h: number,
   scale: Float64Array,
   refine: boolean,
 ): number {
   const n = y.length;
+  const t = at.t;
+  const h = at.h;
   const { err: errv, mz, ez } = work;
   const hee1 = E1 / h;
   const hee2 = E2 / h;

@@ -3,8 +3,11 @@
  * row after row in chunks (none is moved once written): a step stores a
  * copy of n numbers and allocates nothing of its own, where a typed array
  * per point costs an allocation and garbage collection per step. Chunks
- * grow with the run (16 rows first, then as many rows as are stored, up to
- * about 32 KB), so a short solve pays for no large buffer. A row is handed
+ * grow with the run (64 rows first, then twice as many rows as are stored,
+ * up to about 32 KB), so a short solve pays for no large buffer, and a
+ * solve of a few hundred steps for three or four of them (each chunk costs
+ * an ArrayBuffer: with 16 rows first and then as many as stored, a third of
+ * a 270-step solve's bookkeeping was spent allocating its six chunks). A row is handed
  * out as a view only when it is asked for.
  *
  * @internal
@@ -40,7 +43,7 @@ export class StateRows {
     const n = this.n;
     let r = this.count - this.currentStart;
     if (r >= this.currentRows) {
-      const rows = Math.min(this.maxRows, Math.max(16, this.count));
+      const rows = Math.min(this.maxRows, Math.max(FIRST_ROWS, 2 * this.count));
       this.current = new Float64Array(rows * n);
       this.chunks.push(this.current);
       this.starts.push(this.count);
@@ -80,3 +83,6 @@ export class StateRows {
     return lo;
   }
 }
+
+/** Rows of the first chunk (fewer when a row is long: a chunk holds at most about 32 KB). */
+const FIRST_ROWS = 64;
