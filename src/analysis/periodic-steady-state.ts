@@ -97,7 +97,7 @@ export function periodicSteadyState(network: NetworkInput, options: PeriodicStea
   const tolerance = options.tolerance ?? 1;
   const maxIterations = options.maxIterations ?? 20;
   const diff = differentialUnknowns(compiled);
-  const stats: SolverStats = { acceptedSteps: 0, rejectedSteps: 0, rhsEvaluations: 0, jacobianEvaluations: 0, luFactorizations: 0, newtonIterations: 0, newtonFailures: 0 };
+  const stats: SolverStats = { acceptedSteps: 0, rejectedSteps: 0, rhsEvaluations: 0, jacobianEvaluations: 0, luFactorizations: 0, newtonIterations: 0, newtonFailures: 0, retakenSteps: 0 };
   let periods = 0;
   let iterations = 0;
   const began = Date.now();

@@ -167,6 +167,7 @@ export const diodeKind: ElementKind<DiodeDescription> = {
           // Everything the junction conducts is dissipated (Vf i + Ron i^2 when on, gOff v^2 when off).
           loss: { category: 'resistors' as const, power: (_t, y, inputs) => voltage(k, y) * conduction(k, y, inputs) },
           conducting: c > 0 || !ideal[k] ? () => true : (_t, inputs) => inputs.deviceOn(e.index),
+          offConductance: gOff[k]!,
           ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * voltage(k, y) ** 2 } : {}),
         };
       }),

@@ -127,6 +127,13 @@ export interface CompiledElement {
    * an inductive current cut off with no freewheeling path. Absent: always.
    */
   conducting?(t: number, inputs: InputView): boolean;
+  /**
+   * Conductance the element keeps while it does not conduct (an open
+   * switch's 1/offResistance, a blocking diode's offConductance), S: the
+   * freewheeling check takes a current this leakage carries at the
+   * circuit's voltages for no cut current. Absent: 0.
+   */
+  readonly offConductance?: number;
   /** Quantities only this kind has (a winding's EMF, copper loss, flux linkage). */
   readonly extra?: Readonly<Partial<Record<ExtraQuantity, (t: number, y: Float64Array) => number>>>;
 }

@@ -125,6 +125,7 @@ export const switchKind: ElementKind<SwitchDescription> = {
             : (t, y, inputs) => voltage(y) * conductance(t, inputs),
           loss: { category: 'resistors' as const, power: (t, y, inputs) => voltage(y) ** 2 * conductance(t, inputs) },
           conducting: c > 0 ? () => true : (t, inputs) => inputs.switchClosed(e.index, t),
+          offConductance: gOff[k]!,
           ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * voltage(y) ** 2 } : {}),
         };
       }),

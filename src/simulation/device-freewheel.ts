@@ -16,6 +16,14 @@ export interface CutInductiveCurrent {
 const CURRENT_FLOOR_ATOL = 100;
 /** ... or below this fraction of the largest inductive current before the jump. */
 const CURRENT_FLOOR_RELATIVE = 1e-6;
+/**
+ * ... or below what the off-state conductances of the devices that do not
+ * conduct carry at this many times the largest node voltage before the jump:
+ * such a current is their leakage (an open switch's 1e-7 S at 39 V is 3.9 uA
+ * in a flyback's primary), not a cut one, which would need I/G_off, megavolts.
+ * Our choice: a factor 10 covers the reflected voltages a turn-off adds.
+ */
+const LEAKAGE_VOLTAGE_FACTOR = 10;
 
 /**
  * Finds, after a jump (a gate edge, a diode turning off), an inductive
@@ -54,6 +62,7 @@ export function freewheelCheck(
   const parent = new Int32Array(d.electricNodes.length);
   const conducting = new Uint8Array(els.length);
   const atolOf = (i: number): number => (typeof atol === 'number' ? atol : atol[i]!);
+  const potentials = compiled.layout.kinds.flatMap((kind, i) => (kind === 'potential' ? [i] : []));
 
   const find = (a: number): number => {
     while (parent[a] !== a) {
@@ -85,12 +94,18 @@ export function freewheelCheck(
       const j = compiled.layout.branchCurrent[k]!;
       if (j >= 0) largest = Math.max(largest, Math.abs(yBefore[j]!));
     }
+    // The leakage the blocking devices can carry at the circuit's own voltages (see LEAKAGE_VOLTAGE_FACTOR).
+    let voltage = 0;
+    for (const i of potentials) voltage = Math.max(voltage, Math.abs(yBefore[i]!));
+    let offConductance = 0;
+    for (const k of switching) if (!conducting[k]) offConductance += compiled.elements[k]!.offConductance ?? 0;
+    const leakage = LEAKAGE_VOLTAGE_FACTOR * voltage * offConductance;
     const cut: number[] = [];
     for (const k of inductive) {
       const j = compiled.layout.branchCurrent[k]!;
       if (j < 0 || hasPath(k)) continue;
       // The settled current: what the flux (a winding) or the state (an inductor) still demands of the element.
-      if (Math.abs(ySettled[j]!) > Math.max(CURRENT_FLOOR_ATOL * atolOf(j), CURRENT_FLOOR_RELATIVE * largest)) cut.push(k);
+      if (Math.abs(ySettled[j]!) > Math.max(CURRENT_FLOOR_ATOL * atolOf(j), CURRENT_FLOOR_RELATIVE * largest, leakage)) cut.push(k);
     }
     if (cut.length === 0) return undefined;
     const opened = switching.filter((k) => (compiled.elements[k]!.conducting!(t, before) && !conducting[k]));

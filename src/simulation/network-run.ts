@@ -281,6 +281,8 @@ export class NetworkRun {
       fn: (t: number, y: Float64Array) => ev.value(t, deviceState(t, y), this.live),
       direction: ev.direction,
       terminal: true,
+      // The run restarts from the state at a commutation: it must be a step's end, not the dense output.
+      stepToEvent: true,
     }));
     const events = [...(settings.events ?? []), ...deviceEvents];
     this.solveAlgebraic = algebraicSolver(compiled, settings.atol, settings.rtol);

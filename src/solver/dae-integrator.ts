@@ -54,6 +54,17 @@ const MAX_NEWTON_FAILURES = 10;
 const FIRST_STEP_REJECT_SHRINK = 0.1;
 /** Stretch the step by up to this factor to land on a stop time instead of leaving a sliver (common practice). */
 const LANDING_STRETCH = 1.1;
+/**
+ * Short steps to the crossing after a retaken step that ended on a
+ * {@link DaeEvent.stepToEvent} event where its function still had the old
+ * sign, before the event is reported there anyway (our choice: one is the
+ * rule).
+ */
+const MAX_LANDING_TRIES = 3;
+/** A short step to a crossing goes this far past the secant's estimate of it, to land on the new side (our choice). */
+const LANDING_OVERSHOOT = 1.25;
+/** A retaken step, or a short step to a crossing, is at least this many round-off limits of h long. */
+const MIN_LANDING_STEPS = 100;
 
 /**
  * Outcome of one call to {@link DaeIntegrator.step}: `'accepted'` (one step
@@ -140,7 +151,16 @@ export interface DaeIntegratorSnapshot {
   readonly interpolant: DaeStepInterpolant | undefined;
   readonly eventValues: Float64Array;
   readonly stats: SolverStats;
+  /**
+   * A located {@link DaeEvent.stepToEvent} event that the next steps end on,
+   * when one is pending: its time, its index, the step size to take after it
+   * and the short steps to its crossing tried so far. (Added field.)
+   */
+  readonly landing?: { readonly t: number; readonly index: number; readonly hAfter: number; readonly tries: number };
 }
+
+/** A located {@link DaeEvent.stepToEvent} event that the next steps end on (see {@link DaeIntegratorSnapshot.landing}). */
+type EventLanding = NonNullable<DaeIntegratorSnapshot['landing']>;
 
 /**
  * An incremental Radau IIA integrator for M y' = f(t, y): owns the state,
@@ -266,6 +286,7 @@ function emptyStats(): SolverStats {
     luFactorizations: 0,
     newtonIterations: 0,
     newtonFailures: 0,
+    retakenSteps: 0,
   };
 }
 
@@ -392,6 +413,20 @@ class RadauIntegrator implements DaeIntegrator {
   /** The public copy of the piece ({@link DaeIntegrator.interpolant}), made on the first request after a step. */
   private pieceCopy: DaeStepInterpolant | undefined;
   private eventValues: Float64Array;
+  /** Whether any event is terminal with stepToEvent (only then is the start of each step kept for a retake). */
+  private readonly landingEvents: boolean;
+  /** The start of the step in hand, for a retake: f there and the controller's and Jacobian's memory before it. */
+  private readonly stepStart: {
+    readonly f: Float64Array;
+    hAcc: number;
+    errAcc: number;
+    first: boolean;
+    cheapRestartUnproven: boolean;
+    jacValid: boolean;
+    jacCurrent: boolean;
+  };
+  /** The located stepToEvent event the next steps end on, if any. */
+  private landing: EventLanding | undefined;
   private readonly statsCur: SolverStats = emptyStats();
   private statusCur: 'running' | DaeStatus = 'running';
   private adjustedCur: readonly number[] = [];
@@ -503,6 +538,11 @@ class RadauIntegrator implements DaeIntegrator {
     this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: take(n), q: take(3 * n) };
     this.jac = take(this.system.jacobianSize);
     this.eventValues = new Float64Array(p.events.length);
+    this.landingEvents = p.events.some((e) => e.terminal === true && e.stepToEvent === true);
+    this.stepStart = {
+      f: new Float64Array(this.landingEvents ? n : 0),
+      hAcc: NaN, errAcc: NaN, first: true, cheapRestartUnproven: false, jacValid: false, jacCurrent: false,
+    };
     this.startTime = performance.now();
 
     this.tCur = p.t0;
@@ -613,6 +653,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.pendingError = undefined;
     this.pendingFailure = undefined;
     this.forgetPiece();
+    this.landing = undefined; // the event was located with the old f: the restarted run finds its own
     const capByEstimate = options.capStepByEstimate ?? false;
     // A cheap restart that no step has proven, replaced by this one, leaves no trace: its estimate came
     // from the point it was leaving (measured: 1.6e-21 s at a flyback's turn-off where a smooth junction's
@@ -722,6 +763,7 @@ class RadauIntegrator implements DaeIntegrator {
       interpolant: this.hasPiece ? copyPiece(this.piece) : undefined,
       eventValues: Float64Array.from(this.eventValues),
       stats: { ...this.statsCur },
+      ...(this.landing ? { landing: { ...this.landing } } : {}),
     };
   }
 
@@ -762,6 +804,8 @@ class RadauIntegrator implements DaeIntegrator {
     }
     this.eventValues = Float64Array.from(s.eventValues);
     Object.assign(this.statsCur, s.stats); // the same object: the Newton kernel counts into it
+    this.statsCur.retakenSteps = s.stats.retakenSteps ?? 0; // a snapshot of an older version
+    this.landing = s.landing && this.landingEvents ? { ...s.landing } : undefined;
     this.pendingError = undefined;
     this.pendingFailure = undefined;
     this.failureCur = undefined;
@@ -887,6 +931,7 @@ class RadauIntegrator implements DaeIntegrator {
   private initialise(fresh: boolean, capByEstimate = false): void {
     const p = this.p;
     const n = this.n;
+    this.landing = undefined;
     this.first = true;
     this.extrapolate = false;
     this.slopeStart = false;
@@ -1075,8 +1120,13 @@ class RadauIntegrator implements DaeIntegrator {
     }
     // A step may not pass the next breakpoint, tStop or tEnd.
     const breakpoint = this.nextBreakpoint(tStopIn);
-    const isBreakpoint = breakpoint === breakpoint;
-    const tTarget = isBreakpoint ? breakpoint : Math.min(tStopIn, p.tEnd);
+    let isBreakpoint = breakpoint === breakpoint;
+    let tTarget = isBreakpoint ? breakpoint : Math.min(tStopIn, p.tEnd);
+    // ...nor a located event that the steps must end on (see DaeEvent.stepToEvent).
+    if (this.landing && this.landing.t < tTarget) {
+      tTarget = this.landing.t;
+      isBreakpoint = false;
+    }
     const z = this.work.z;
     const scale = this.scale;
     const y = this.yCur;
@@ -1091,7 +1141,7 @@ class RadauIntegrator implements DaeIntegrator {
 
     for (;;) {
       const st = this.statsCur;
-      if (st.acceptedSteps + st.rejectedSteps >= p.maxSteps) {
+      if (st.acceptedSteps + st.rejectedSteps + st.retakenSteps >= p.maxSteps) {
         return this.fail('step-budget', `stopped after maxSteps = ${p.maxSteps} steps at t = ${t}; raise maxSteps or loosen the tolerances`, []);
       }
       if (p.maxWallTimeMs !== Infinity && performance.now() - this.startTime > p.maxWallTimeMs) {
@@ -1267,6 +1317,17 @@ class RadauIntegrator implements DaeIntegrator {
     const n = this.n;
     const z = this.work.z;
     const y = this.yCur;
+    if (this.landingEvents) {
+      // What a retake of this step would start from (see retake).
+      const m = this.stepStart;
+      m.f.set(this.fCur);
+      m.hAcc = this.hAcc;
+      m.errAcc = this.errAcc;
+      m.first = this.first;
+      m.cheapRestartUnproven = this.cheapRestartUnproven;
+      m.jacValid = this.jacValid;
+      m.jacCurrent = this.jacCurrent;
+    }
     let hNew = h / predictiveQuotient(quot, h, err, this.hAcc, this.errAcc);
     this.hAcc = h;
     this.errAcc = Math.max(1e-2, err);
@@ -1315,7 +1376,8 @@ class RadauIntegrator implements DaeIntegrator {
     let events: readonly DaeEventRecord[] = NO_EVENTS;
     let terminal = false;
     if (p.events.length) {
-      const r = this.findEvents(t, tNew);
+      const r = this.findEvents(t, tNew, !onBreakpoint);
+      if (r.retake) return this.retake(t, r.retake.t, r.retake.index, r.retake.hAfter);
       events = r.events;
       terminal = r.terminal;
     }
@@ -1369,14 +1431,25 @@ class RadauIntegrator implements DaeIntegrator {
     this.luH = NaN;
   }
 
-  /** Sign changes of the event functions over [tOld, tNew]; cuts the step at the first terminal one. */
-  private findEvents(tOld: number, tNew: number): { events: DaeEventRecord[]; terminal: boolean } {
+  /**
+   * Sign changes of the event functions over [tOld, tNew]; cuts the step at
+   * the first terminal one, or asks for the step to be taken again to end on
+   * it (`retake`, for a {@link DaeEvent.stepToEvent} event when `mayRetake`).
+   * On a step that ends on a pending landing, that event is not located: it
+   * happens at tNew if its function has its new sign there; if not, a short
+   * step to the crossing is set up (see {@link DaeEvent.stepToEvent}).
+   */
+  private findEvents(tOld: number, tNew: number, mayRetake: boolean): { events: DaeEventRecord[]; terminal: boolean; retake?: { t: number; index: number; hAfter: number } } {
     const p = this.p;
     const evs = p.events;
     const gNew = new Float64Array(evs.length);
     this.evaluateEventsAt(tNew, this.yCur, gNew);
     const it = this.piece;
     const yb = new Float64Array(this.n);
+    const pending = this.landing;
+    const landed = pending !== undefined && pending.t === tNew ? pending : undefined;
+    if (landed) this.landing = undefined;
+    let landedOldSign = false;
     const found: { index: number; t: number }[] = [];
     for (let e = 0; e < evs.length; e++) {
       const ga = this.eventValues[e]!;
@@ -1384,7 +1457,15 @@ class RadauIntegrator implements DaeIntegrator {
       const dir = evs[e]!.direction ?? 0;
       const rising = ga < 0 && gb >= 0;
       const falling = ga > 0 && gb <= 0;
-      if (!((rising && dir >= 0) || (falling && dir <= 0))) continue;
+      const crossed = (rising && dir >= 0) || (falling && dir <= 0);
+      if (landed && e === landed.index) {
+        // The step ends where the event was located: it happens here (a sign change inside this step is the
+        // same crossing, seen on the error-controlled trajectory within the tolerance), unless g keeps its old sign.
+        if (crossed || landed.tries >= MAX_LANDING_TRIES) found.push({ index: e, t: tNew });
+        else landedOldSign = true;
+        continue;
+      }
+      if (!crossed) continue;
       const fn = evs[e]!.fn;
       const name = p.eventNames[e]!;
       const g = (tt: number): number => {
@@ -1402,16 +1483,24 @@ class RadauIntegrator implements DaeIntegrator {
     const records: DaeEventRecord[] = [];
     let terminal = false;
     for (const f of found) {
+      const ev = evs[f.index]!;
+      if (ev.terminal && ev.stepToEvent && mayRetake && f.t < tNew && f.t - tOld > this.shortestLanding(tOld)) {
+        // The caller restarts from the state here: take the step again to end on the event (the events
+        // before it are found again on the retaken steps).
+        // After it, the step proposed by the step that first located an event here (a retaken step's own proposal is cut short).
+        return { events: [], terminal: false, retake: { t: f.t, index: f.index, hAfter: pending?.hAfter ?? this.hCur } };
+      }
       const yE = new Float64Array(this.n);
       if (f.t === tNew) yE.set(this.yCur);
       else evaluateCollocation(it, f.t, yE);
       records.push({ index: f.index, name: p.eventNames[f.index]!, t: f.t, y: yE });
-      if (evs[f.index]!.terminal) {
+      if (ev.terminal) {
         terminal = true;
         break;
       }
     }
     if (terminal) {
+      this.landing = undefined; // the caller restarts (or stops) here
       const last = records[records.length - 1]!;
       if (last.t < tNew) {
         this.tCur = last.t;
@@ -1421,13 +1510,88 @@ class RadauIntegrator implements DaeIntegrator {
         this.callRhs(this.tCur, this.yCur, this.fCur);
         this.jacCurrent = false;
         if (this.statusCur === 'success') this.statusCur = 'running';
+      } else if (landed && last.index === landed.index) {
+        // After the event the step the located step proposed (the retake's own is cut short by the landing).
+        this.hCur = landed.hAfter;
       }
       this.evaluateEventsAt(this.tCur, this.yCur, this.eventValues);
       // The located event's function already has its new sign at the cut (right end of the final bracket).
     } else {
       this.eventValues = gNew;
+      if (landedOldSign) {
+        // The error-controlled trajectory crosses a little later: a short step to the crossing.
+        const tc = this.crossingAfter(landed!.index, tNew, gNew[landed!.index]!);
+        if (tc !== undefined) this.landing = { t: tc, index: landed!.index, hAfter: landed!.hAfter, tries: landed!.tries + 1 };
+      }
     }
     return { events: records, terminal };
+  }
+
+  /** The shortest step a landing takes (shorter ones keep the dense output): a hundred round-off limits. */
+  private shortestLanding(t: number): number {
+    return MIN_LANDING_STEPS * 10 * UROUND * Math.max(Math.abs(t), 1e-10 * (this.p.tEnd - this.p.t0));
+  }
+
+  /**
+   * Where event `index`, with the value g at the end of the step just
+   * taken (still on its old side), crosses: the secant through the step's
+   * midpoint and its end, a quarter further so that the step lands on the
+   * new side (the secant's own error is second order in that distance, the
+   * overshoot a quarter of it: within the time the interpolant's location
+   * was already off by). Undefined when
+   * the secant does not point to a crossing within a step's length (the
+   * event is then found as usual, by the next step's sign change).
+   */
+  private crossingAfter(index: number, tEnd: number, g: number): number | undefined {
+    const it = this.piece;
+    const tm = 0.5 * (it.tOld + tEnd);
+    const ym = evaluateCollocation(it, tm, new Float64Array(this.n));
+    let gm: number;
+    try {
+      gm = this.p.events[index]!.fn(tm, ym);
+    } catch (err) {
+      throw new UserCodeError(err, `event "${this.p.eventNames[index]}"`, tm);
+    }
+    const slope = (g - gm) / (tEnd - tm);
+    const d = -g / slope;
+    if (!(d > 0 && d < tEnd - it.tOld)) return undefined;
+    const tc = tEnd + Math.max(LANDING_OVERSHOOT * d, this.shortestLanding(tEnd));
+    return tc < this.p.tEnd ? tc : undefined;
+  }
+
+  /**
+   * Take the step just accepted over [tOld, tNew] again with h = tEvent -
+   * tOld, because an event after which the caller restarts was located at
+   * tEvent inside it: the restart then starts from an error-controlled state
+   * instead of the dense output (see {@link DaeEvent.stepToEvent}). State,
+   * f, controller and Jacobian memory go back to tOld; the discarded step's
+   * polynomial, which covers [tOld, tEvent], gives the Newton start values.
+   * An ordinary attempt loop follows: if rejected, the controller subdivides
+   * and the following steps end on tEvent.
+   */
+  private retake(tOld: number, tEvent: number, index: number, hAfter: number): DaeStepResult {
+    const m = this.stepStart;
+    this.statsCur.acceptedSteps--;
+    this.statsCur.retakenSteps++;
+    this.tCur = tOld;
+    this.yCur.set(this.piece.yOld);
+    this.fCur.set(m.f);
+    this.hAcc = m.hAcc;
+    this.errAcc = m.errAcc;
+    this.first = m.first;
+    this.cheapRestartUnproven = m.cheapRestartUnproven;
+    this.jacValid = m.jacValid;
+    this.jacCurrent = m.jacCurrent;
+    this.extrapolate = true;
+    this.slopeStart = false;
+    this.pieceCopy = undefined;
+    this.pendingError = undefined; // f at the discarded end
+    if (this.statusCur === 'success') this.statusCur = 'running';
+    this.landing = { t: tEvent, index, hAfter, tries: 0 };
+    this.hCur = tEvent - tOld;
+    const r = this.attemptStep(tEvent);
+    if (r.status !== 'accepted' && r.status !== 'terminal-event') this.forgetPiece();
+    return r;
   }
 }
 

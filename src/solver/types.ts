@@ -125,6 +125,19 @@ export interface DaeEvent {
   readonly direction?: -1 | 0 | 1;
   /** Stop the integration at this event (status `'terminal-event'`). */
   readonly terminal?: boolean;
+  /**
+   * With `terminal`: the caller restarts from the state at this event (a
+   * switch or diode changing state there), so that state must be
+   * error-controlled. When the event is located inside a step [t0, t1], the
+   * step is taken again from t0 with h = t* - t0 (an ordinary Radau step,
+   * subdivided by the controller if rejected), and the event is reported at
+   * the end of that step instead of at the step's dense output there (third
+   * order, not error-controlled). Should the event function still have its
+   * old sign at t* (the error-controlled trajectory crosses a little later),
+   * a short step to the crossing follows. Costs about one step per event.
+   * (Added field.)
+   */
+  readonly stepToEvent?: boolean;
 }
 
 /**
@@ -351,6 +364,13 @@ export interface SolverStats {
   newtonIterations: number;
   /** Newton iterations that failed to converge (each leads to a retry). */
   newtonFailures: number;
+  /**
+   * Steps that passed the error test but were taken again, shorter, to end
+   * on an event marked {@link DaeEvent.stepToEvent} located inside them
+   * (their work is counted in the other fields; they are not in
+   * `acceptedSteps`). (Added field.)
+   */
+  retakenSteps: number;
 }
 
 /**
