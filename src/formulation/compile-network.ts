@@ -100,7 +100,6 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   const elements: CompiledElement[] = new Array<CompiledElement>(d.elements.length);
   for (const g of groups) for (const e of g.elements) elements[e.index] = e;
   const tubeStates = tubes.flatMap((t) => (t.states ? [t.states] : []));
-  const tubeCount = tubes.length;
 
   const fluxOf = (y: Float64Array, b: number): number => {
     const { index, sign } = tubeLoops[b]!;
@@ -109,13 +108,17 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     return s;
   };
 
+  const terms = seriesTerms(d, tubes, tubeLoops);
+  const termCount = terms.length;
+
   function evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
     // A loop, not fill(): for a few unknowns the builtin's call costs more than the stores.
     for (let i = 0; i < out.length; i++) out[i] = 0;
-    // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
-    for (let b = 0; b < tubeCount; b++) {
-      const F = tubes[b]!.mmf(fluxOf(y, b), y);
-      const { index, sign } = tubeLoops[b]!;
+    // Magnetic loops: -sum_b B_lb F_b(phi_b) (tubes in series with one law as one term); windings add their MMFs.
+    for (let m = 0; m < termCount; m++) {
+      const term = terms[m]!;
+      const F = term.mmf(fluxOf(y, term.tube), y);
+      const { index, sign } = term;
       for (let k = 0; k < index.length; k++) out[index[k]!]! -= sign[k]! * F;
     }
     for (const s of tubeStates) s.residual(t, y, inp, out);
@@ -123,9 +126,10 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   }
 
   function stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
-    for (let b = 0; b < tubeCount; b++) {
-      const dF = tubes[b]!.mmfSlope(fluxOf(y, b), y);
-      const { index, sign } = tubeLoops[b]!;
+    for (let m = 0; m < termCount; m++) {
+      const term = terms[m]!;
+      const dF = term.mmfSlope(fluxOf(y, term.tube), y);
+      const { index, sign } = term;
       for (let k1 = 0; k1 < index.length; k1++) {
         for (let k2 = 0; k2 < index.length; k2++) J.add(index[k1]!, index[k2]!, -sign[k1]! * sign[k2]! * dF);
       }
@@ -204,6 +208,94 @@ function confirmIndexTwo(
   jacobian(y0, J);
   const jr = algebraicJacobian(spaces, J, new Float64Array(k * k));
   return createPatternAdaptiveLu(k).factor(jr) < 0 ? [] : structural;
+}
+
+/** One term of the loops' MMF balance: a tube, or tubes in series with one law (see seriesTerms). */
+interface MmfTerm {
+  /** The tube whose flux the term reads (the first of its series). */
+  readonly tube: number;
+  /** Loop incidence of the term's tubes, offset into y. */
+  readonly index: Int32Array;
+  readonly sign: Float64Array;
+  mmf(flux: number, y: Float64Array): number;
+  mmfSlope(flux: number, y: Float64Array): number;
+}
+
+/**
+ * The MMF terms of the loops. Material tubes that carry the same loop fluxes
+ * (the same incidence: tubes in series), with the same area and the same
+ * law, have the same flux density, so their MMF drops sum to
+ * (l_1 + l_2 + ...) H(phi / A): one law evaluation instead of one per tube
+ * (a core closed by two halves of one material, the flux walk of
+ * bench/flux-walk.ts). The same f within round-off (the lengths are summed
+ * before the product). A law is the same when it is the same law object or
+ * the same pair of functions, or, for a spec, an equal spec (a spec compiles
+ * to the same law every time). Tubes with internal states stay alone.
+ */
+function seriesTerms(
+  d: NetworkDescription,
+  tubes: readonly CompiledTube[],
+  tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
+): MmfTerm[] {
+  const terms: MmfTerm[] = [];
+  const groups: { lead: number; length: number }[] = [];
+  for (let b = 0; b < tubes.length; b++) {
+    const tube = tubes[b]!;
+    const group = mergeable(d, tubes, b) ? groups.find((g) => sameSeries(d, tubes, tubeLoops, g.lead, b)) : undefined;
+    if (group) group.length += tube.length;
+    else if (mergeable(d, tubes, b)) groups.push({ lead: b, length: tube.length });
+    else terms.push({ tube: b, ...tubeLoops[b]!, mmf: (flux, y) => tube.mmf(flux, y), mmfSlope: (flux, y) => tube.mmfSlope(flux, y) });
+  }
+  for (const g of groups) {
+    const lead = tubes[g.lead]!;
+    const law = lead.law!;
+    const length = g.length;
+    const area = lead.area;
+    if (length === lead.length) {
+      terms.push({ tube: g.lead, ...tubeLoops[g.lead]!, mmf: (flux, y) => lead.mmf(flux, y), mmfSlope: (flux, y) => lead.mmfSlope(flux, y) });
+    } else {
+      terms.push({
+        tube: g.lead,
+        ...tubeLoops[g.lead]!,
+        mmf: (flux) => length * law.fieldStrength(flux / area),
+        mmfSlope: (flux) => (length / area) * law.fieldSlope(flux / area),
+      });
+    }
+  }
+  // Evaluation order: the tubes' own (each term at its lead tube), as before the merge.
+  return terms.sort((a, b) => a.tube - b.tube);
+}
+
+/** Whether tube b is a material tube without internal states (its MMF is l H(phi / A)). */
+function mergeable(d: NetworkDescription, tubes: readonly CompiledTube[], b: number): boolean {
+  const tube = tubes[b]!;
+  return d.tubes[b]!.law.kind === 'material' && tube.law !== undefined && !tube.states && !tube.material;
+}
+
+/** Whether mergeable tubes a and b are in series (same incidence) with the same area and the same law. */
+function sameSeries(
+  d: NetworkDescription,
+  tubes: readonly CompiledTube[],
+  tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
+  a: number,
+  b: number,
+): boolean {
+  const ta = tubes[a]!;
+  const tb = tubes[b]!;
+  if (ta.area !== tb.area) return false;
+  const la = tubeLoops[a]!;
+  const lb = tubeLoops[b]!;
+  if (la.index.length !== lb.index.length) return false;
+  for (let k = 0; k < la.index.length; k++) if (la.index[k] !== lb.index[k] || la.sign[k] !== lb.sign[k]) return false;
+  if (ta.law === tb.law || (ta.law!.fieldStrength === tb.law!.fieldStrength && ta.law!.fieldSlope === tb.law!.fieldSlope)) return true;
+  const sa = (d.tubes[a]!.law as { material: unknown }).material;
+  const sb = (d.tubes[b]!.law as { material: unknown }).material;
+  return isSpec(sa) && isSpec(sb) && JSON.stringify(sa) === JSON.stringify(sb);
+}
+
+/** A material given as a spec (plain data with a kind), not as a law object of functions. */
+function isSpec(m: unknown): boolean {
+  return typeof m === 'object' && m !== null && !('fieldStrength' in m) && typeof (m as { kind?: unknown }).kind === 'string';
 }
 
 /** The positions the stamps touch, recorded in one pass at the initial state (values ignored). */
