@@ -121,8 +121,9 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
       const { index, sign } = term;
       for (let k = 0; k < index.length; k++) out[index[k]!]! -= sign[k]! * F;
     }
-    for (const s of tubeStates) s.residual(t, y, inp, out);
-    for (const g of groups) g.residual(t, y, inp, out);
+    // Indexed loops: this runs at every stage of every Newton iteration.
+    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.residual(t, y, inp, out);
+    for (let k = 0; k < groups.length; k++) groups[k]!.residual(t, y, inp, out);
   }
 
   function stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
@@ -134,8 +135,8 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
         for (let k2 = 0; k2 < index.length; k2++) J.add(index[k1]!, index[k2]!, -sign[k1]! * sign[k2]! * dF);
       }
     }
-    for (const s of tubeStates) s.jacobian(t, y, inp, J);
-    for (const g of groups) g.jacobian(t, y, inp, J);
+    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.jacobian(t, y, inp, J);
+    for (let k = 0; k < groups.length; k++) groups[k]!.jacobian(t, y, inp, J);
   }
 
   const jacobianTarget = new DenseStampTarget(n);

@@ -206,6 +206,8 @@ export class NetworkRun {
   private startState: Float64Array | undefined;
   private startStatePending = false;
   private restartPending = true;
+  /** The record's lengths after the step in hand (see advanceTo, stopAt). */
+  private readonly kept = { steps: 0, samples: 0 };
   private statusCur: 'running' | DaeStatus = 'running';
   private readonly horizon: number;
   /** Length of the run's span, for the breakpoint merge gap near t = 0. */
@@ -457,12 +459,16 @@ export class NetworkRun {
         }
         this.junctions?.stepped();
         let commutation = false;
-        for (const e of r.events) {
+        for (let k = 0; k < r.events.length; k++) {
+          const e = r.events[k]!;
           if (e.index < this.userEventCount) this.events.push(e);
           else commutation = r.status === 'terminal-event';
         }
         const step = this.recordStep(record);
-        const kept = { steps: this.steps.length, samples: this.samples.length };
+        // What to keep if the step is dropped (one object per run, rewritten per step).
+        const kept = this.kept;
+        kept.steps = this.steps.length;
+        kept.samples = this.samples.length;
         // Samples inside the step first (time order), then the step's end.
         while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
