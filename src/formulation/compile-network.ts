@@ -2,6 +2,7 @@ import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampConte
 import { elementKind, tubeKind } from '../elements/registry.js';
 import { DenseStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube } from '../elements/tube-kind.js';
+import type { MaterialLaw } from '../materials/material-law.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
 import { NetworkInputs } from './network-inputs.js';
@@ -108,17 +109,27 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     return s;
   };
 
+  // Tubes in series with one law share one evaluation of it per call (see seriesTerms).
   const terms = seriesTerms(d, tubes, tubeLoops);
-  const termCount = terms.length;
+  const groupCount = terms.reduce((m, term) => Math.max(m, term.group + 1), 0);
+  const lawValues = new Float64Array(groupCount);
+  const slopeValues = new Float64Array(groupCount);
+  const tubeCount = tubes.length;
 
   function evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
     // A loop, not fill(): for a few unknowns the builtin's call costs more than the stores.
     for (let i = 0; i < out.length; i++) out[i] = 0;
-    // Magnetic loops: -sum_b B_lb F_b(phi_b) (tubes in series with one law as one term); windings add their MMFs.
-    for (let m = 0; m < termCount; m++) {
-      const term = terms[m]!;
-      const F = term.mmf(fluxOf(y, term.tube), y);
-      const { index, sign } = term;
+    // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
+    for (let b = 0; b < tubeCount; b++) {
+      const term = terms[b]!;
+      let F: number;
+      if (term.group < 0) F = tubes[b]!.mmf(fluxOf(y, b), y);
+      else {
+        // The material tube's own l H(phi / A), with H read once for its series.
+        if (term.first) lawValues[term.group] = term.law!.fieldStrength(fluxOf(y, b) / term.area);
+        F = term.length * lawValues[term.group]!;
+      }
+      const { index, sign } = tubeLoops[b]!;
       for (let k = 0; k < index.length; k++) out[index[k]!]! -= sign[k]! * F;
     }
     // Indexed loops: this runs at every stage of every Newton iteration.
@@ -127,10 +138,15 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   }
 
   function stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
-    for (let m = 0; m < termCount; m++) {
-      const term = terms[m]!;
-      const dF = term.mmfSlope(fluxOf(y, term.tube), y);
-      const { index, sign } = term;
+    for (let b = 0; b < tubeCount; b++) {
+      const term = terms[b]!;
+      let dF: number;
+      if (term.group < 0) dF = tubes[b]!.mmfSlope(fluxOf(y, b), y);
+      else {
+        if (term.first) slopeValues[term.group] = term.law!.fieldSlope(fluxOf(y, b) / term.area);
+        dF = (term.length / term.area) * slopeValues[term.group]!;
+      }
+      const { index, sign } = tubeLoops[b]!;
       for (let k1 = 0; k1 < index.length; k1++) {
         for (let k2 = 0; k2 < index.length; k2++) J.add(index[k1]!, index[k2]!, -sign[k1]! * sign[k2]! * dF);
       }
@@ -211,60 +227,49 @@ function confirmIndexTwo(
   return createPatternAdaptiveLu(k).factor(jr) < 0 ? [] : structural;
 }
 
-/** One term of the loops' MMF balance: a tube, or tubes in series with one law (see seriesTerms). */
+/** How f reads one tube's MMF drop (see seriesTerms). */
 interface MmfTerm {
-  /** The tube whose flux the term reads (the first of its series). */
-  readonly tube: number;
-  /** Loop incidence of the term's tubes, offset into y. */
-  readonly index: Int32Array;
-  readonly sign: Float64Array;
-  mmf(flux: number, y: Float64Array): number;
-  mmfSlope(flux: number, y: Float64Array): number;
+  /** Index of the tube's series (tubes sharing one law evaluation), or -1 for a tube read on its own. */
+  readonly group: number;
+  /** The first tube of its series in tube order: it evaluates the law for the others. */
+  readonly first: boolean;
+  readonly law: MaterialLaw | undefined;
+  readonly length: number;
+  readonly area: number;
 }
 
 /**
- * The MMF terms of the loops. Material tubes that carry the same loop fluxes
- * (the same incidence: tubes in series), with the same area and the same
- * law, have the same flux density, so their MMF drops sum to
- * (l_1 + l_2 + ...) H(phi / A): one law evaluation instead of one per tube
- * (a core closed by two halves of one material, the flux walk of
- * bench/flux-walk.ts). The same f within round-off (the lengths are summed
- * before the product). A law is the same when it is the same law object or
- * the same pair of functions, or, for a spec, an equal spec (a spec compiles
- * to the same law every time). Tubes with internal states stay alone.
+ * One entry per tube, in tube order. Material tubes that carry the same
+ * loop fluxes (the same incidence: tubes in series), with the same area and
+ * the same law, have the same flux density B = phi / A, so H(B) is
+ * evaluated once for them all and each tube's drop is still its own
+ * l H(B), added where it was: f and df/dy bit for bit as tube by tube,
+ * with one law evaluation instead of one per tube (the two halves of the
+ * core of the flux walk, bench/flux-walk.ts). A law is the same when it is
+ * the same law object or the same pair of functions, or, for a spec, an
+ * equal spec (a spec compiles to the same law every time). Tubes with
+ * internal states, and tubes alone in their series, read their own mmf.
  */
 function seriesTerms(
   d: NetworkDescription,
   tubes: readonly CompiledTube[],
   tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
 ): MmfTerm[] {
-  const terms: MmfTerm[] = [];
-  const groups: { lead: number; length: number }[] = [];
+  const seriesOf = tubes.map(() => -1);
+  const leads: number[] = [];
   for (let b = 0; b < tubes.length; b++) {
-    const tube = tubes[b]!;
-    const group = mergeable(d, tubes, b) ? groups.find((g) => sameSeries(d, tubes, tubeLoops, g.lead, b)) : undefined;
-    if (group) group.length += tube.length;
-    else if (mergeable(d, tubes, b)) groups.push({ lead: b, length: tube.length });
-    else terms.push({ tube: b, ...tubeLoops[b]!, mmf: (flux, y) => tube.mmf(flux, y), mmfSlope: (flux, y) => tube.mmfSlope(flux, y) });
+    if (!mergeable(d, tubes, b)) continue;
+    const lead = leads.find((a) => sameSeries(d, tubes, tubeLoops, a, b));
+    if (lead === undefined) leads.push(b);
+    seriesOf[b] = lead ?? b;
   }
-  for (const g of groups) {
-    const lead = tubes[g.lead]!;
-    const law = lead.law!;
-    const length = g.length;
-    const area = lead.area;
-    if (length === lead.length) {
-      terms.push({ tube: g.lead, ...tubeLoops[g.lead]!, mmf: (flux, y) => lead.mmf(flux, y), mmfSlope: (flux, y) => lead.mmfSlope(flux, y) });
-    } else {
-      terms.push({
-        tube: g.lead,
-        ...tubeLoops[g.lead]!,
-        mmf: (flux) => length * law.fieldStrength(flux / area),
-        mmfSlope: (flux) => (length / area) * law.fieldSlope(flux / area),
-      });
-    }
-  }
-  // Evaluation order: the tubes' own (each term at its lead tube), as before the merge.
-  return terms.sort((a, b) => a.tube - b.tube);
+  // Only series of two or more tubes share; each series gets an index.
+  const groupOf = new Map<number, number>();
+  for (const a of leads) if (seriesOf.filter((x) => x === a).length > 1) groupOf.set(a, groupOf.size);
+  return tubes.map((tube, b) => {
+    const group = groupOf.get(seriesOf[b]!) ?? -1;
+    return { group, first: group >= 0 && seriesOf[b] === b, law: tube.law, length: tube.length, area: tube.area };
+  });
 }
 
 /** Whether tube b is a material tube without internal states (its MMF is l H(phi / A)). */
