@@ -2,6 +2,7 @@ import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampConte
 import { elementKind, tubeKind } from '../elements/registry.js';
 import { DenseStampTarget, EntryRecordingStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube } from '../elements/tube-kind.js';
+import type { MaterialLaw } from '../materials/material-law.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
 import { NetworkInputs } from './network-inputs.js';
@@ -114,7 +115,6 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   const elements: CompiledElement[] = new Array<CompiledElement>(d.elements.length);
   for (const g of groups) for (const e of g.elements) elements[e.index] = e;
   const tubeStates = tubes.flatMap((t) => (t.states ? [t.states] : []));
-  const tubeCount = tubes.length;
 
   const fluxOf = (y: Float64Array, b: number): number => {
     const { index, sign } = tubeLoops[b]!;
@@ -123,29 +123,50 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     return s;
   };
 
+  // Tubes in series with one law share one evaluation of it per call (see seriesTerms).
+  const terms = seriesTerms(d, tubes, tubeLoops);
+  const groupCount = terms.reduce((m, term) => Math.max(m, term.group + 1), 0);
+  const lawValues = new Float64Array(groupCount);
+  const slopeValues = new Float64Array(groupCount);
+  const tubeCount = tubes.length;
+
   function evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
     // A loop, not fill(): for a few unknowns the builtin's call costs more than the stores.
     for (let i = 0; i < out.length; i++) out[i] = 0;
     // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
     for (let b = 0; b < tubeCount; b++) {
-      const F = tubes[b]!.mmf(fluxOf(y, b), y);
+      const term = terms[b]!;
+      let F: number;
+      if (term.group < 0) F = tubes[b]!.mmf(fluxOf(y, b), y);
+      else {
+        // The material tube's own l H(phi / A), with H read once for its series.
+        if (term.first) lawValues[term.group] = term.law!.fieldStrength(fluxOf(y, b) / term.area);
+        F = term.length * lawValues[term.group]!;
+      }
       const { index, sign } = tubeLoops[b]!;
       for (let k = 0; k < index.length; k++) out[index[k]!]! -= sign[k]! * F;
     }
-    for (const s of tubeStates) s.residual(t, y, inp, out);
-    for (const g of groups) g.residual(t, y, inp, out);
+    // Indexed loops: this runs at every stage of every Newton iteration.
+    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.residual(t, y, inp, out);
+    for (let k = 0; k < groups.length; k++) groups[k]!.residual(t, y, inp, out);
   }
 
   function stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
     for (let b = 0; b < tubeCount; b++) {
-      const dF = tubes[b]!.mmfSlope(fluxOf(y, b), y);
+      const term = terms[b]!;
+      let dF: number;
+      if (term.group < 0) dF = tubes[b]!.mmfSlope(fluxOf(y, b), y);
+      else {
+        if (term.first) slopeValues[term.group] = term.law!.fieldSlope(fluxOf(y, b) / term.area);
+        dF = (term.length / term.area) * slopeValues[term.group]!;
+      }
       const { index, sign } = tubeLoops[b]!;
       for (let k1 = 0; k1 < index.length; k1++) {
         for (let k2 = 0; k2 < index.length; k2++) J.add(index[k1]!, index[k2]!, -sign[k1]! * sign[k2]! * dF);
       }
     }
-    for (const s of tubeStates) s.jacobian(t, y, inp, J);
-    for (const g of groups) g.jacobian(t, y, inp, J);
+    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.jacobian(t, y, inp, J);
+    for (let k = 0; k < groups.length; k++) groups[k]!.jacobian(t, y, inp, J);
   }
 
   const jacobianTarget = new DenseStampTarget(n);
@@ -227,6 +248,83 @@ function confirmIndexTwo(
   jacobian(y0, J);
   const jr = algebraicJacobian(spaces, J, new Float64Array(k * k));
   return createPatternAdaptiveLu(k).factor(jr) < 0 ? [] : structural;
+}
+
+/** How f reads one tube's MMF drop (see seriesTerms). */
+interface MmfTerm {
+  /** Index of the tube's series (tubes sharing one law evaluation), or -1 for a tube read on its own. */
+  readonly group: number;
+  /** The first tube of its series in tube order: it evaluates the law for the others. */
+  readonly first: boolean;
+  readonly law: MaterialLaw | undefined;
+  readonly length: number;
+  readonly area: number;
+}
+
+/**
+ * One entry per tube, in tube order. Material tubes that carry the same
+ * loop fluxes (the same incidence: tubes in series), with the same area and
+ * the same law, have the same flux density B = phi / A, so H(B) is
+ * evaluated once for them all and each tube's drop is still its own
+ * l H(B), added where it was: f and df/dy bit for bit as tube by tube,
+ * with one law evaluation instead of one per tube (the two halves of the
+ * core of the flux walk, bench/flux-walk.ts). A law is the same when it is
+ * the same law object or the same pair of functions, or, for a spec, an
+ * equal spec (a spec compiles to the same law every time). Tubes with
+ * internal states, and tubes alone in their series, read their own mmf.
+ */
+function seriesTerms(
+  d: NetworkDescription,
+  tubes: readonly CompiledTube[],
+  tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
+): MmfTerm[] {
+  const seriesOf = tubes.map(() => -1);
+  const leads: number[] = [];
+  for (let b = 0; b < tubes.length; b++) {
+    if (!mergeable(d, tubes, b)) continue;
+    const lead = leads.find((a) => sameSeries(d, tubes, tubeLoops, a, b));
+    if (lead === undefined) leads.push(b);
+    seriesOf[b] = lead ?? b;
+  }
+  // Only series of two or more tubes share; each series gets an index.
+  const groupOf = new Map<number, number>();
+  for (const a of leads) if (seriesOf.filter((x) => x === a).length > 1) groupOf.set(a, groupOf.size);
+  return tubes.map((tube, b) => {
+    const group = groupOf.get(seriesOf[b]!) ?? -1;
+    return { group, first: group >= 0 && seriesOf[b] === b, law: tube.law, length: tube.length, area: tube.area };
+  });
+}
+
+/** Whether tube b is a material tube without internal states (its MMF is l H(phi / A)). */
+function mergeable(d: NetworkDescription, tubes: readonly CompiledTube[], b: number): boolean {
+  const tube = tubes[b]!;
+  return d.tubes[b]!.law.kind === 'material' && tube.law !== undefined && !tube.states && !tube.material;
+}
+
+/** Whether mergeable tubes a and b are in series (same incidence) with the same area and the same law. */
+function sameSeries(
+  d: NetworkDescription,
+  tubes: readonly CompiledTube[],
+  tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
+  a: number,
+  b: number,
+): boolean {
+  const ta = tubes[a]!;
+  const tb = tubes[b]!;
+  if (ta.area !== tb.area) return false;
+  const la = tubeLoops[a]!;
+  const lb = tubeLoops[b]!;
+  if (la.index.length !== lb.index.length) return false;
+  for (let k = 0; k < la.index.length; k++) if (la.index[k] !== lb.index[k] || la.sign[k] !== lb.sign[k]) return false;
+  if (ta.law === tb.law || (ta.law!.fieldStrength === tb.law!.fieldStrength && ta.law!.fieldSlope === tb.law!.fieldSlope)) return true;
+  const sa = (d.tubes[a]!.law as { material: unknown }).material;
+  const sb = (d.tubes[b]!.law as { material: unknown }).material;
+  return isSpec(sa) && isSpec(sb) && JSON.stringify(sa) === JSON.stringify(sb);
+}
+
+/** A material given as a spec (plain data with a kind), not as a law object of functions. */
+function isSpec(m: unknown): boolean {
+  return typeof m === 'object' && m !== null && !('fieldStrength' in m) && typeof (m as { kind?: unknown }).kind === 'string';
 }
 
 /** The positions the stamps touch, recorded in one pass at the initial state (values ignored). */

@@ -265,6 +265,28 @@ export class InputSchedule {
     return this.waveforms[e]!.value(t);
   }
 
+  /**
+   * The value of each source element that holds one value at every time in
+   * [a, b], where no input has a breakpoint strictly between a and b (an
+   * input interval's sides): a held set-point, or a piecewise-linear
+   * waveform with equal values at a and b. Undefined for the others (and
+   * for other waveforms, which are never evaluated here: a user function is
+   * called only at the times the solver asks for).
+   */
+  heldSources(a: number, b: number): (number | undefined)[] {
+    const out = new Array<number | undefined>(this.waveforms.length);
+    for (let e = 0; e < this.waveforms.length; e++) {
+      const o = this.sourceOverride[e];
+      const w = this.waveforms[e];
+      if (o !== undefined) out[e] = o;
+      else if (w?.piecewiseLinear === true) {
+        const va = w.value(a);
+        out[e] = va === w.value(b) && Number.isFinite(va) ? va : undefined;
+      }
+    }
+    return out;
+  }
+
   /** Whether switch element e is closed at exactly time t (toggles at or before t count). */
   switchClosedAt(e: number, t: number): boolean {
     const o = this.switchOverride[e];
@@ -364,9 +386,18 @@ export class InputsInForce implements InputView {
     return t;
   }
 
+  /** Source values held over [rightOf, leftOf] (see InputSchedule.heldSources), found on first use. */
+  private held: (number | undefined)[] | undefined;
+
   /** Value of source element e at time t (V or A). */
   sourceValue(e: number, t: number): number {
-    return this.schedule.sourceValueAt(e, this.sided(t));
+    const u = this.sided(t);
+    if (u >= this.rightOf && u <= this.leftOf) {
+      // A drive held over the interval (a square wave between its edges): the value without the waveform's search.
+      const v = (this.held ??= this.schedule.heldSources(this.rightOf, this.leftOf))[e];
+      if (v !== undefined) return v;
+    }
+    return this.schedule.sourceValueAt(e, u);
   }
 
   /** Whether switch element e is closed at time t. */

@@ -134,9 +134,21 @@ export class SimulationResult {
     this.status = init.status;
     this.message = init.message;
     this.stats = Object.freeze({ ...init.stats });
-    this.time = Float64Array.from(init.samples, (x) => x.t);
-    this.states = init.samples.map((x) => x.y);
-    this.sampleInterval = Int32Array.from(init.samples, (x) => x.interval);
+    // Plain loops: Float64Array.from and map with a callback cost some 3 % of a warm flux walk
+    // (bench/flux-walk.ts, 5800 samples; CPU profile).
+    const count = init.samples.length;
+    const time = new Float64Array(count);
+    const states = new Array<Float64Array>(count);
+    const sampleInterval = new Int32Array(count);
+    for (let k = 0; k < count; k++) {
+      const x = init.samples[k]!;
+      time[k] = x.t;
+      states[k] = x.y;
+      sampleInterval[k] = x.interval;
+    }
+    this.time = time;
+    this.states = states;
+    this.sampleInterval = sampleInterval;
     const layout = init.compiled.layout;
     const d = init.compiled.description;
     this.warnings = Object.freeze([

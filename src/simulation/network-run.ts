@@ -192,7 +192,15 @@ export class NetworkRun {
   private standIn: InputsInForce | undefined;
   /** Storage of kept states and step polynomials: views into chunks, not a typed array each. */
   private readonly chunks = new Float64Chunks();
-  private readonly take = (length: number): Float64Array => this.chunks.take(length);
+  /** A step's start state as the integrator hands it over, before it is kept (see recordStep). */
+  private readonly stepStart: Float64Array;
+  private stepStartTaken = false;
+  /** Storage for copyInterpolant: the start state into stepStart, the polynomial into a chunk. */
+  private readonly takeForStep = (length: number): Float64Array => {
+    if (this.stepStartTaken) return this.chunks.take(length);
+    this.stepStartTaken = true;
+    return this.stepStart;
+  };
   /** A state checked but not kept. */
   private readonly scratch: Float64Array;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
@@ -201,6 +209,8 @@ export class NetworkRun {
   private startState: Float64Array | undefined;
   private startStatePending = false;
   private restartPending = true;
+  /** The record's lengths after the step in hand (see advanceTo, stopAt). */
+  private readonly kept = { steps: 0, samples: 0 };
   private statusCur: 'running' | DaeStatus = 'running';
   private readonly horizon: number;
   /** Length of the run's span, for the breakpoint merge gap near t = 0. */
@@ -227,6 +237,7 @@ export class NetworkRun {
     this.compiled = compiled;
     this.index2 = compiled.index2;
     this.scratch = new Float64Array(compiled.layout.size);
+    this.stepStart = new Float64Array(compiled.layout.size);
     this.horizon = settings.horizon;
     this.span = settings.horizon - settings.t0;
     this.check = settings.check;
@@ -459,12 +470,16 @@ export class NetworkRun {
         }
         this.junctions?.stepped();
         let commutation = false;
-        for (const e of r.events) {
+        for (let k = 0; k < r.events.length; k++) {
+          const e = r.events[k]!;
           if (e.index < this.userEventCount) this.events.push(e);
           else commutation = r.status === 'terminal-event';
         }
         const step = this.recordStep(record);
-        const kept = { steps: this.steps.length, samples: this.samples.length };
+        // What to keep if the step is dropped (one object per run, rewritten per step).
+        const kept = this.kept;
+        kept.steps = this.steps.length;
+        kept.samples = this.samples.length;
         // Samples inside the step first (time order), then the step's end.
         while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
@@ -744,10 +759,13 @@ export class NetworkRun {
   }
 
   private recordStep(record: RecordOptions): RecordedStep {
-    const it = this.integ.copyInterpolant(this.take)!;
+    this.stepStartTaken = false;
+    const it = this.integ.copyInterpolant(this.takeForStep)!;
+    // The step starts where the last sample was taken (its end, or the restart): one array for both.
+    const yOld = this.lastSampleEqualTo(it.tOld, this.stepStart) ?? this.chunks.copy(this.stepStart);
     const first = this.steps.length === 0 || this.steps[this.steps.length - 1]!.t !== it.tOld || this.lastStepEndedInterval();
     const step: RecordedStep = {
-      tOld: it.tOld, t: it.t, h: it.h, yOld: it.yOld, q: it.q,
+      tOld: it.tOld, t: it.t, h: it.h, yOld, q: it.q,
       interval: this.intervals.length - 1,
       firstAfterStart: first,
     };
@@ -769,6 +787,25 @@ export class NetworkRun {
       this.steps.splice(0, this.steps.length, step);
     }
     return step;
+  }
+
+  /**
+   * The last sample's state when it is the state `y` at time t of the present interval, bit for
+   * bit (a step's start state, kept already as the sample at the previous step's end or at the
+   * restart), else undefined. Not with index-2 unknowns: the first step after a restart rewrites
+   * them in the start sample, not in the step's start state.
+   */
+  private lastSampleEqualTo(t: number, y: Float64Array): Float64Array | undefined {
+    const last = this.samples[this.samples.length - 1];
+    if (last === undefined || last.t !== t || last.interval !== this.intervals.length - 1 || this.index2.length > 0) return undefined;
+    const kept = last.y;
+    if (kept.length !== y.length) return undefined;
+    for (let i = 0; i < y.length; i++) {
+      const a = kept[i]!;
+      const b = y[i]!;
+      if (a !== b || (a === 0 && 1 / a !== 1 / b)) return undefined;
+    }
+    return kept;
   }
 
   private lastStepEndedInterval(): boolean {

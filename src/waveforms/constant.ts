@@ -41,5 +41,5 @@ export function constantWaveform(spec: ConstantSpec, owner: WaveformOwner = 'wav
     throw waveformError(owner, `constant value ${spec.value} is not finite; give a finite number`);
   }
   const v = spec.value;
-  return { value: () => v, breakpoints: () => [], nextBreakpoint: () => Infinity };
+  return { value: () => v, breakpoints: () => [], nextBreakpoint: () => Infinity, piecewiseLinear: true };
 }

@@ -124,5 +124,7 @@ export function vertexWaveform(table: VertexTable): Waveform {
     return nextUp(after);
   };
 
-  return { value, breakpoints, nextBreakpoint };
+  // Every vertex is a breakpoint (the closing vertex of a period is the next period's first), so
+  // the value is affine between consecutive breakpoints.
+  return { value, breakpoints, nextBreakpoint, piecewiseLinear: true };
 }

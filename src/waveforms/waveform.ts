@@ -21,4 +21,10 @@ export interface Waveform {
    * float above `after` is returned.
    */
   nextBreakpoint(after: number): number;
+  /**
+   * True when the value is affine between consecutive breakpoints (a table
+   * of vertices, a constant): equal values at two times with no breakpoint
+   * strictly between them mean the same value at every time between.
+   */
+  readonly piecewiseLinear?: boolean;
 }

@@ -59,3 +59,36 @@ describe('NetworkInputs.breakpoints: edges closer than round-off count as one ju
     }
   });
 });
+
+// An interval's inputs return a source value held over the interval without searching the waveform
+// (InputSchedule.heldSources); the values must be those of the waveform's own definition at every
+// time: a pulse is low before its delay, rises linearly over `rise`, holds `high`, falls over
+// `fall` (the trapezoidal pulse of its spec; common practice).
+describe('InputsInForce.sourceValue: held values equal the waveform everywhere in the interval', () => {
+  const definition = (t: number, low: number, high: number, period: number, duty: number, rise: number, fall: number): number => {
+    const s = t - Math.floor(t / period) * period;
+    if (s < rise) return low + ((high - low) * s) / rise;
+    if (s < duty * period) return high;
+    if (s < duty * period + fall) return high - ((high - low) * (s - duty * period)) / fall;
+    return low;
+  };
+  for (const edge of [0, 1e-5]) {
+    it(`on a pulse with edges of ${edge} s (flat parts held, ramps evaluated)`, () => {
+      const inputs = new NetworkInputs(pulsed(edge).net.describe());
+      let t = 0;
+      let intervals = 0;
+      while (t < 2e-3) {
+        const iv = openInterval(inputs.schedule, t, 2e-3, 2e-3);
+        intervals++;
+        for (const f of [0.001, 0.25, 0.5, 0.999]) {
+          const ts = iv.start + f * (iv.end - iv.start);
+          const expected = edge === 0 ? (ts % 1e-3 < 5e-4 ? 1 : -1) : definition(ts, -1, 1, 1e-3, 0.5, edge, edge);
+          expect(Math.abs(iv.sourceValue(0, ts) - expected)).toBeLessThanOrEqual(1e-9);
+          expect(iv.sourceValue(0, ts)).toBe(inputs.schedule.sourceValueAt(0, ts));
+        }
+        t = iv.end;
+      }
+      expect(intervals).toBe(edge === 0 ? 4 : 8);
+    });
+  }
+});
