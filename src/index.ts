@@ -41,6 +41,7 @@ export { consistentInitialValues, type ConsistentInitialValues } from './solver/
 export type { RealLinearSolver, ComplexLinearSolver } from './solver/linear-solver.js';
 export { createDenseLu } from './solver/dense-lu.js';
 export { createComplexLu } from './solver/complex-lu.js';
+export type { TakeFloat64 } from './solver/float64-chunks.js';
 export { createSparseLu, type SparseRealLinearSolver } from './solver/sparse-lu.js';
 export { createSparseComplexLu, type SparseComplexLinearSolver } from './solver/sparse-complex-lu.js';
 export { createSparseMatrix, sparsePattern, patternOfDense, type SparseMatrix, type SparsePattern } from './solver/sparse-pattern.js';

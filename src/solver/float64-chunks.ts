@@ -45,10 +45,15 @@ const CHUNK_LENGTH = 4096;
 /**
  * Where a kernel takes its zero-filled work arrays from: a typed array of
  * its own by default, or views into one integrator's chunk
- * ({@link Float64Chunks.take}), so that setting up a solve allocates a few
- * ArrayBuffers instead of one per array.
+ * (an integrator's internal chunks), so that setting up a solve allocates a few
+ * ArrayBuffers instead of one per array. The LU kernels
+ * ({@link createDenseLu}, {@link createComplexLu}) take one as an optional
+ * second argument.
  *
- * @internal
+ * @example
+ * ```ts
+ * const lu = createComplexLu(4, (length) => new Float64Array(length));
+ * ```
  */
 export type TakeFloat64 = (length: number) => Float64Array;
 
