@@ -82,22 +82,44 @@ export interface CollocationWork {
 
 /** @internal @example `const work = createCollocationWork(3);` (arrays from `take`, see {@link TakeFloat64}) */
 export function createCollocationWork(n: number, take: TakeFloat64 = ownFloat64): CollocationWork {
-  const fz = take(3 * n);
-  const dw = take(3 * n);
-  return {
-    z: take(3 * n),
-    w: take(3 * n),
-    fz,
-    fzStage: [float64View(fz, 0, n), float64View(fz, n, n), float64View(fz, 2 * n, n)],
-    dw,
-    dwReal: float64View(dw, 0, n),
-    dwRe: float64View(dw, n, n),
-    dwIm: float64View(dw, 2 * n, n),
-    ys: take(n),
-    m1: take(n),
-    m2: take(n),
-    m3: take(n),
-  };
+  return new CollocationArrays(n, take);
+}
+
+/**
+ * The work arrays as a class: an object literal made once per integrator takes, at its second
+ * evaluation in a process, a map whose array fields are generalised, and the code compiled
+ * against the first integrator's objects is thrown away (a class keeps one map).
+ */
+class CollocationArrays implements CollocationWork {
+  readonly z: Float64Array;
+  readonly w: Float64Array;
+  readonly fz: Float64Array;
+  readonly fzStage: readonly [Float64Array, Float64Array, Float64Array];
+  readonly dw: Float64Array;
+  readonly dwReal: Float64Array;
+  readonly dwRe: Float64Array;
+  readonly dwIm: Float64Array;
+  readonly ys: Float64Array;
+  readonly m1: Float64Array;
+  readonly m2: Float64Array;
+  readonly m3: Float64Array;
+
+  constructor(n: number, take: TakeFloat64) {
+    const fz = take(3 * n);
+    const dw = take(3 * n);
+    this.z = take(3 * n);
+    this.w = take(3 * n);
+    this.fz = fz;
+    this.fzStage = [float64View(fz, 0, n), float64View(fz, n, n), float64View(fz, 2 * n, n)];
+    this.dw = dw;
+    this.dwReal = float64View(dw, 0, n);
+    this.dwRe = float64View(dw, n, n);
+    this.dwIm = float64View(dw, 2 * n, n);
+    this.ys = take(n);
+    this.m1 = take(n);
+    this.m2 = take(n);
+    this.m3 = take(n);
+  }
 }
 
 /**

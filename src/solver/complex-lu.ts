@@ -20,16 +20,38 @@ import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-sol
  * ```
  */
 export function createComplexLu(n: number, take: TakeFloat64 = ownFloat64): ComplexLinearSolver {
-  const ar = take(n * n);
-  const ai = take(n * n);
-  const perm = new Int32Array(n);
-  const rowScale = take(n);
-  const colScale = take(n);
-  const tr = take(n);
-  const ti = take(n);
-  const tol = PIVOT_RELATIVE_TOLERANCE * n;
+  return new ComplexLu(n, take);
+}
 
-  function factor(re: Float64Array, im: Float64Array): number {
+/**
+ * A class, not closures: its methods are one function for every instance, so a call site
+ * that saw one solver sees the same target with the next (closures made per solver are new
+ * targets, and the code specialised on the first deoptimised with the second).
+ */
+class ComplexLu implements ComplexLinearSolver {
+  private readonly ar: Float64Array;
+  private readonly ai: Float64Array;
+  private readonly perm: Int32Array;
+  private readonly rowScale: Float64Array;
+  private readonly colScale: Float64Array;
+  private readonly tr: Float64Array;
+  private readonly ti: Float64Array;
+  private readonly tol: number;
+
+  constructor(readonly size: number, take: TakeFloat64) {
+    const n = size;
+    this.ar = take(n * n);
+    this.ai = take(n * n);
+    this.perm = new Int32Array(n);
+    this.rowScale = take(n);
+    this.colScale = take(n);
+    this.tr = take(n);
+    this.ti = take(n);
+    this.tol = PIVOT_RELATIVE_TOLERANCE * n;
+  }
+
+  factor(re: Float64Array, im: Float64Array): number {
+    const { size: n, ar, ai, perm, rowScale, colScale, tol } = this;
     const nonFinite = equilibrateComplex(n, re, im, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
     for (let i = 0; i < n; i++) {
@@ -95,7 +117,8 @@ export function createComplexLu(n: number, take: TakeFloat64 = ownFloat64): Comp
     return -1;
   }
 
-  function solve(bRe: Float64Array, bIm: Float64Array): void {
+  solve(bRe: Float64Array, bIm: Float64Array): void {
+    const { size: n, ar, ai, perm, rowScale, colScale, tr, ti } = this;
     // Forward with the permuted, row-scaled b read as it goes; backward writing each scaled x_i once final.
     for (let i = 0; i < n; i++) {
       const p = perm[i]!;
@@ -134,6 +157,4 @@ export function createComplexLu(n: number, take: TakeFloat64 = ownFloat64): Comp
       bIm[i] = c * xi;
     }
   }
-
-  return { size: n, factor, solve };
 }

@@ -23,7 +23,7 @@ import { OutsidePatternError, type IterationSystem } from './iteration-system.js
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
-import { radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
+import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
 import { createSparseConsistency, type SparseConsistency } from './sparse-consistency.js';
 import { createSparseIterationSystem } from './sparse-iteration-system.js';
@@ -341,6 +341,54 @@ export function createDaeIntegratorFromNormalized(p: NormalizedDae): DaeIntegrat
   return new RadauIntegrator(p);
 }
 
+/**
+ * The integrator's f (counted and guarded) and M v as methods of one class, for the
+ * collocation kernel and the error estimate. Their call sites (`sys.rhs`, `sys.multiplyMass`)
+ * then see one function whatever the integrator: a closure per integrator is a new call target
+ * for each, and the next integrator in a process deoptimised the code specialised on the last.
+ */
+class IntegratorCalls implements CollocationSystem {
+  constructor(
+    private readonly integ: RadauIntegrator,
+    readonly n: number,
+    readonly identityMass: boolean,
+    readonly luReal: RealLinearSolver,
+    readonly luComplex: ComplexLinearSolver,
+    readonly fnewt: number,
+    readonly stats: SolverStats,
+  ) {}
+
+  rhs(t: number, y: Float64Array, out: Float64Array): void {
+    this.integ.callRhs(t, y, out);
+  }
+
+  multiplyMass(v: Float64Array, vOff: number, out: Float64Array): void {
+    this.integ.mulMass(v, vOff, out);
+  }
+}
+
+/** The integrator's {@link ConsistencyContext}: f and the dense J as methods, for the reason given at {@link IntegratorCalls}. */
+class IntegratorConsistency implements ConsistencyContext {
+  readonly scale: Float64Array;
+
+  constructor(
+    private readonly integ: RadauIntegrator,
+    readonly n: number,
+    readonly spaces: MassSpaces,
+    readonly algebraic: ConsistencyContext['algebraic'],
+  ) {
+    this.scale = new Float64Array(n);
+  }
+
+  rhs(t: number, y: Float64Array, out: Float64Array): void {
+    this.integ.callRhs(t, y, out);
+  }
+
+  jacobian(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
+    this.integ.callJacobianDense(t, y, f, out);
+  }
+}
+
 class RadauIntegrator implements DaeIntegrator {
   private readonly p: NormalizedDae;
   private readonly n: number;
@@ -444,11 +492,8 @@ class RadauIntegrator implements DaeIntegrator {
    * acceptance (rewritten per attempt: numbers passed as arguments are boxed per call).
    */
   private readonly attempt: CollocationStep & { tNew: number; err: number; quot: number } = { t: 0.5, h: 0.5, tLastStage: 0.5, faccon: 0.5, tNew: 0.5, err: 0.5, quot: 0.5 };
-  private readonly collocation: CollocationSystem;
-  /** f, counted and guarded (bound once). */
-  private readonly countedRhs: (t: number, y: Float64Array, out: Float64Array) => void;
-  /** out = M v[vOff..) (bound once). */
-  private readonly multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void;
+  /** f counted and guarded, and M v, for the kernels (see {@link IntegratorCalls}). */
+  private readonly collocation: IntegratorCalls;
   private readonly scale: Float64Array;
 
   constructor(p: NormalizedDae) {
@@ -484,19 +529,8 @@ class RadauIntegrator implements DaeIntegrator {
     this.luReal = this.system.luReal;
     this.luComplex = this.system.luComplex;
     this.work = createCollocationWork(n, take);
-    this.errorWork = { err: take(n), mz: take(n), ez: take(n), ys: take(n), fy: take(n) };
-    this.countedRhs = (t, y, out) => this.callRhs(t, y, out);
-    this.multiplyMass = (v, vOff, out) => this.mulMass(v, vOff, out);
-    this.collocation = {
-      n,
-      rhs: this.countedRhs,
-      multiplyMass: this.multiplyMass,
-      identityMass: !p.mass,
-      luReal: this.luReal,
-      luComplex: this.luComplex,
-      fnewt: this.fnewt,
-      stats: this.statsCur,
-    };
+    this.errorWork = new ErrorEstimateArrays(n, take);
+    this.collocation = new IntegratorCalls(this, n, !p.mass, this.luReal, this.luComplex, this.fnewt, this.statsCur);
     this.scale = take(n);
     this.ySaved = take(n);
     this.restartSlope = take(n);
@@ -509,29 +543,16 @@ class RadauIntegrator implements DaeIntegrator {
       this.sparseConsistency = sc;
       this.consistencyJac = jac;
       this.algebraic = sc.solver;
-      this.consistency = {
-        n,
-        spaces: this.spaces,
-        rhs: this.countedRhs,
-        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobianDense(t, y, f, out),
-        scale: new Float64Array(n),
-        algebraic: {
-          factorAt: (t: number, y: Float64Array, f: Float64Array): number => {
-            this.callJacobian(t, y, f, jac);
-            this.algebraicVersion = -1; // the shared factorisation no longer belongs to the held J
-            return sc.factorAlgebraic(jac) ? -1 : 0;
-          },
-          lu: sc.solver.lu,
+      this.consistency = new IntegratorConsistency(this, n, this.spaces, {
+        factorAt: (t: number, y: Float64Array, f: Float64Array): number => {
+          this.callJacobian(t, y, f, jac);
+          this.algebraicVersion = -1; // the shared factorisation no longer belongs to the held J
+          return sc.factorAlgebraic(jac) ? -1 : 0;
         },
-      };
+        lu: sc.solver.lu,
+      });
     } else if (this.spaces) {
-      this.consistency = {
-        n,
-        spaces: this.spaces,
-        rhs: this.countedRhs,
-        jacobian: (t: number, y: Float64Array, f: Float64Array, out: Float64Array) => this.callJacobianDense(t, y, f, out),
-        scale: new Float64Array(n),
-      };
+      this.consistency = new IntegratorConsistency(this, n, this.spaces, undefined);
       this.algebraic = createAlgebraicSolver(n, this.spaces.k);
       this.derivativeWork = createDerivativeWork(n);
     }
@@ -859,7 +880,7 @@ class RadauIntegrator implements DaeIntegrator {
     return { status, events: [] };
   }
 
-  private callRhs(t: number, y: Float64Array, out: Float64Array): void {
+  callRhs(t: number, y: Float64Array, out: Float64Array): void {
     this.statsCur.rhsEvaluations++;
     try {
       this.p.rhs(t, y, out);
@@ -869,7 +890,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /** Evaluate J at (t, y) with f = f(t, y), analytic or finite-difference, into `out` (the system's storage). */
-  private callJacobian(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
+  callJacobian(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
     this.statsCur.jacobianEvaluations++;
     try {
       this.statsCur.rhsEvaluations += this.system.evaluate(t, y, f, out);
@@ -883,7 +904,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /** {@link callJacobian} into a dense row-major n x n `out` (for the consistent initialisation). */
-  private callJacobianDense(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
+  callJacobianDense(t: number, y: Float64Array, f: Float64Array, out: Float64Array): void {
     if (this.system.jacobianSize === out.length) {
       this.callJacobian(t, y, f, out);
       return;
@@ -912,7 +933,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /** out = M v (v when M is the identity). */
-  private mulMass(v: Float64Array, vOff: number, out: Float64Array): void {
+  mulMass(v: Float64Array, vOff: number, out: Float64Array): void {
     const rp = this.mRowPtr;
     if (!rp) {
       for (let i = 0; i < this.n; i++) out[i] = v[vOff + i]!;
@@ -1236,7 +1257,7 @@ class RadauIntegrator implements DaeIntegrator {
       }
       lastNonFinite = undefined;
 
-      const err = radauErrorEstimate(this.countedRhs, this.multiplyMass, this.luReal, this.errorWork, at, y, this.fCur, z, scale, this.first || rejected);
+      const err = radauErrorEstimate(this.collocation, this.luReal, this.errorWork, at, y, this.fCur, z, scale, this.first || rejected);
       const quot = errorQuotient(err, newton.iterations);
       if (err >= 1) {
         // Rejected.

@@ -3,6 +3,7 @@ import { createDenseLu } from './dense-lu.js';
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
 import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import type { IterationSystem } from './iteration-system.js';
+import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { createEmbeddedComplexLu, createMlMatrixLu } from './ml-matrix-lu.js';
 import type { NormalizedDae } from './normalize-problem.js';
 
@@ -20,79 +21,108 @@ import type { NormalizedDae } from './normalize-problem.js';
  * ```
  */
 export function createDenseIterationSystem(p: NormalizedDae, take: TakeFloat64 = ownFloat64): IterationSystem {
-  const n = p.n;
-  const luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n, take);
-  const luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n, take);
-  const e1 = take(n * n);
-  const e2r = take(n * n);
-  const e2i = take(n * n);
-  const fdWork = take(n);
+  return new DenseIterationSystem(p, take);
+}
+
+/**
+ * A class, not closures, for the reason given at the dense LU: the integrator's call sites
+ * (`system.evaluate`, `system.factor`) see one target whatever the integrator.
+ */
+class DenseIterationSystem implements IterationSystem {
+  readonly luReal: RealLinearSolver;
+  readonly luComplex: ComplexLinearSolver;
+  readonly jacobianSize: number;
+  readonly analytic: boolean;
+  private readonly n: number;
+  private readonly p: NormalizedDae;
+  private readonly e1: Float64Array;
+  private readonly e2r: Float64Array;
+  private readonly e2i: Float64Array;
+  private readonly fdWork: Float64Array;
   // Sparse copy of M (CSR) for adding its multiples; none for the identity.
-  let mRowPtr: Int32Array | undefined;
-  let mCol: Int32Array | undefined;
-  let mVal: Float64Array | undefined;
-  if (p.mass) {
-    mRowPtr = p.mass.rowStart;
-    mCol = p.mass.col;
-    mVal = p.mass.value;
+  private readonly mRowPtr: Int32Array | undefined;
+  private readonly mCol: Int32Array | undefined;
+  private readonly mVal: Float64Array | undefined;
+  private readonly jf: NormalizedDae['jacobian'];
+
+  constructor(p: NormalizedDae, take: TakeFloat64) {
+    const n = p.n;
+    this.n = n;
+    this.p = p;
+    this.luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n, take);
+    this.luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n, take);
+    this.e1 = take(n * n);
+    this.e2r = take(n * n);
+    this.e2i = take(n * n);
+    this.fdWork = take(n);
+    this.mRowPtr = p.mass?.rowStart;
+    this.mCol = p.mass?.col;
+    this.mVal = p.mass?.value;
+    this.jf = p.jacobian;
+    this.jacobianSize = n * n;
+    this.analytic = this.jf !== undefined;
   }
-  const jf = p.jacobian;
-  return {
-    luReal,
-    luComplex,
-    jacobianSize: n * n,
-    analytic: jf !== undefined,
-    evaluate(t, y, f, out) {
-      if (jf) {
-        out.fill(0);
-        jf(t, y, out);
-        return 0;
+
+  evaluate(t: number, y: Float64Array, f: Float64Array, out: Float64Array): number {
+    const jf = this.jf;
+    if (jf) {
+      out.fill(0);
+      jf(t, y, out);
+      return 0;
+    }
+    return finiteDifferenceJacobian(this.p.rhs, t, y, f, out, this.fdWork);
+  }
+
+  nonFiniteRows(jac: Float64Array): number[] {
+    const n = this.n;
+    for (let k = 0; k < n * n; k++) {
+      if (!Number.isFinite(jac[k]!)) {
+        const rows = new Set<number>();
+        for (let m = k; m < n * n; m++) if (!Number.isFinite(jac[m]!)) rows.add(Math.floor(m / n));
+        return [...rows];
       }
-      return finiteDifferenceJacobian(p.rhs, t, y, f, out, fdWork);
-    },
-    nonFiniteRows(jac) {
-      for (let k = 0; k < n * n; k++) {
-        if (!Number.isFinite(jac[k]!)) {
-          const rows = new Set<number>();
-          for (let m = k; m < n * n; m++) if (!Number.isFinite(jac[m]!)) rows.add(Math.floor(m / n));
-          return [...rows];
+    }
+    return [];
+  }
+
+  factor(J: Float64Array, fac1: number, alphn: number, betan: number): number {
+    const { n, e1, e2r, e2i, mRowPtr } = this;
+    for (let k = 0; k < n * n; k++) {
+      const v = -J[k]!;
+      e1[k] = v;
+      e2r[k] = v;
+    }
+    e2i.fill(0);
+    if (!mRowPtr) {
+      for (let i = 0; i < n; i++) {
+        e1[i * n + i] = e1[i * n + i]! + fac1;
+        e2r[i * n + i] = e2r[i * n + i]! + alphn;
+        e2i[i * n + i] = betan;
+      }
+    } else {
+      const col = this.mCol!;
+      const val = this.mVal!;
+      for (let i = 0; i < n; i++) {
+        for (let k = mRowPtr[i]!; k < mRowPtr[i + 1]!; k++) {
+          const idx = i * n + col[k]!;
+          const m = val[k]!;
+          e1[idx] = e1[idx]! + fac1 * m;
+          e2r[idx] = e2r[idx]! + alphn * m;
+          e2i[idx] = betan * m;
         }
       }
-      return [];
-    },
-    factor(J, fac1, alphn, betan) {
-      for (let k = 0; k < n * n; k++) {
-        const v = -J[k]!;
-        e1[k] = v;
-        e2r[k] = v;
-      }
-      e2i.fill(0);
-      if (!mRowPtr) {
-        for (let i = 0; i < n; i++) {
-          e1[i * n + i] = e1[i * n + i]! + fac1;
-          e2r[i * n + i] = e2r[i * n + i]! + alphn;
-          e2i[i * n + i] = betan;
-        }
-      } else {
-        const col = mCol!;
-        const val = mVal!;
-        for (let i = 0; i < n; i++) {
-          for (let k = mRowPtr[i]!; k < mRowPtr[i + 1]!; k++) {
-            const idx = i * n + col[k]!;
-            const m = val[k]!;
-            e1[idx] = e1[idx]! + fac1 * m;
-            e2r[idx] = e2r[idx]! + alphn * m;
-            e2i[idx] = betan * m;
-          }
-        }
-      }
-      const real = luReal.factor(e1);
-      return real >= 0 ? real : luComplex.factor(e2r, e2i);
-    },
-    toDense(jac, out) {
-      out.set(jac);
-      return out;
-    },
-    storage: () => ({ jacobian: 0, iterationMatrices: 3 * n * n, factors: 3 * n * n }),
-  };
+    }
+    const real = this.luReal.factor(e1);
+    return real >= 0 ? real : this.luComplex.factor(e2r, e2i);
+  }
+
+  toDense(jac: Float64Array, out: Float64Array): Float64Array {
+    out.set(jac);
+    return out;
+  }
+
+  storage(): { jacobian: number; iterationMatrices: number; factors: number } {
+    const n = this.n;
+    return { jacobian: 0, iterationMatrices: 3 * n * n, factors: 3 * n * n };
+  }
 }

@@ -19,14 +19,34 @@ import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver
  * ```
  */
 export function createDenseLu(n: number, take: TakeFloat64 = ownFloat64): RealLinearSolver {
-  const lu = take(n * n);
-  const perm = new Int32Array(n);
-  const rowScale = take(n);
-  const colScale = take(n);
-  const tmp = take(n);
-  const tol = PIVOT_RELATIVE_TOLERANCE * n;
+  return new DenseLu(n, take);
+}
 
-  function factor(a: Float64Array): number {
+/**
+ * A class, not closures: its methods are one function for every instance, so a call site
+ * that saw one solver sees the same target with the next (closures made per solver are new
+ * targets, and the code specialised on the first deoptimised with the second).
+ */
+class DenseLu implements RealLinearSolver {
+  private readonly lu: Float64Array;
+  private readonly perm: Int32Array;
+  private readonly rowScale: Float64Array;
+  private readonly colScale: Float64Array;
+  private readonly tmp: Float64Array;
+  private readonly tol: number;
+
+  constructor(readonly size: number, take: TakeFloat64) {
+    const n = size;
+    this.lu = take(n * n);
+    this.perm = new Int32Array(n);
+    this.rowScale = take(n);
+    this.colScale = take(n);
+    this.tmp = take(n);
+    this.tol = PIVOT_RELATIVE_TOLERANCE * n;
+  }
+
+  factor(a: Float64Array): number {
+    const { size: n, lu, perm, rowScale, colScale, tol } = this;
     const nonFinite = equilibrateReal(n, a, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
     for (let i = 0; i < n; i++) {
@@ -73,7 +93,8 @@ export function createDenseLu(n: number, take: TakeFloat64 = ownFloat64): RealLi
     return -1;
   }
 
-  function solve(b: Float64Array): void {
+  solve(b: Float64Array): void {
+    const { size: n, lu, perm, rowScale, colScale, tmp } = this;
     // Forward (L has a unit diagonal), reading the permuted, row-scaled b as it goes; then backward,
     // writing each x_i scaled by its column as soon as it is final (the same operations as three passes).
     for (let i = 0; i < n; i++) {
@@ -92,6 +113,4 @@ export function createDenseLu(n: number, take: TakeFloat64 = ownFloat64): RealLi
       b[i] = colScale[i]! * x;
     }
   }
-
-  return { size: n, factor, solve };
 }

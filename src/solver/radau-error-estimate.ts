@@ -1,4 +1,4 @@
-import type { CollocationStep } from './collocation-newton.js';
+import type { CollocationStep, CollocationSystem } from './collocation-newton.js';
 import type { RealLinearSolver } from './linear-solver.js';
 import { E1, E2, E3 } from './radau-tableau.js';
 import { weightedRmsNorm } from './weighted-norm.js';
@@ -25,6 +25,23 @@ export interface ErrorEstimateWork {
   readonly fy: Float64Array;
 }
 
+/** The work arrays of {@link radauErrorEstimate} from `take`, as a class (one map: see the collocation work arrays). */
+export class ErrorEstimateArrays implements ErrorEstimateWork {
+  readonly err: Float64Array;
+  readonly mz: Float64Array;
+  readonly ez: Float64Array;
+  readonly ys: Float64Array;
+  readonly fy: Float64Array;
+
+  constructor(n: number, take: (length: number) => Float64Array) {
+    this.err = take(n);
+    this.mz = take(n);
+    this.ez = take(n);
+    this.ys = take(n);
+    this.fy = take(n);
+  }
+}
+
 /**
  * The embedded error estimate of Radau IIA with a mass matrix (Hairer and
  * Wanner II, sect. IV.8, eq. 8.19-8.20; radau5's ESTRAD):
@@ -41,13 +58,12 @@ export interface ErrorEstimateWork {
  * @internal
  * @example
  * ```ts
- * const err = radauErrorEstimate(rhs, multiplyMass, luReal, work, at, y, f0, z, scale, first || rejected);
+ * const err = radauErrorEstimate(sys, luReal, work, at, y, f0, z, scale, first || rejected);
  * if (err >= 1) reject();
  * ```
  */
 export function radauErrorEstimate(
-  rhs: (t: number, y: Float64Array, out: Float64Array) => void,
-  multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void,
+  sys: Pick<CollocationSystem, 'rhs' | 'multiplyMass'>,
   luReal: RealLinearSolver,
   work: ErrorEstimateWork,
   at: Pick<CollocationStep, 't' | 'h'>,
@@ -65,14 +81,14 @@ export function radauErrorEstimate(
   const hee2 = E2 / h;
   const hee3 = E3 / h;
   for (let i = 0; i < n; i++) ez[i] = hee1 * z[i]! + hee2 * z[n + i]! + hee3 * z[2 * n + i]!;
-  multiplyMass(ez, 0, mz);
+  sys.multiplyMass(ez, 0, mz);
   for (let i = 0; i < n; i++) errv[i] = f0[i]! + mz[i]!;
   luReal.solve(errv);
   let err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
   if (err >= 1 && refine) {
     const { ys, fy } = work;
     for (let i = 0; i < n; i++) ys[i] = y[i]! + errv[i]!;
-    rhs(t, ys, fy);
+    sys.rhs(t, ys, fy);
     for (let i = 0; i < n; i++) errv[i] = fy[i]! + mz[i]!;
     luReal.solve(errv);
     err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
