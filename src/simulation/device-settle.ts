@@ -1,9 +1,10 @@
 import type { ElementEvent, InputView } from '../elements/element-kind.js';
 import { DenseStampTarget } from '../elements/stamp-target.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import { algebraicJacobian, makeConsistent, massSpaces, type MassSpaces } from '../solver/consistent-initialization.js';
+import { algebraicJacobian, massSpaces, type MassSpaces } from '../solver/consistent-initialization.js';
 import { createDenseLu } from '../solver/dense-lu.js';
 import { SPARSE_MIN_SIZE } from '../solver/types.js';
+import { leastChangeSettle, unknownTolerance } from './least-change-settle.js';
 import { sparseAlgebraicSolver } from './sparse-algebraic-solver.js';
 
 /** Newton iterations of one algebraic solve (piecewise-linear circuits need one; saturating cores a few). */
@@ -168,21 +169,7 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
   let work = new Float64Array(0);
   let z = new Float64Array(0);
   let lu: ReturnType<typeof createDenseLu> | undefined;
-  const scale = new Float64Array(n);
-  const leastChange = (t: number, y: Float64Array, inputs: InputView): boolean => {
-    for (let i = 0; i < n; i++) scale[i] = (typeof atol === 'number' ? atol : atol[i]!) + rtol * Math.abs(y[i]!);
-    const ctx = {
-      n,
-      spaces: spaces!,
-      rhs: (tt: number, yy: Float64Array, out: Float64Array) => compiled.evaluate(tt, yy, inputs, out),
-      jacobian: (tt: number, yy: Float64Array, _f: Float64Array, out: Float64Array) => {
-        out.fill(0);
-        compiled.stampJacobian(tt, yy, inputs, new DenseStampTarget(n).bind(out));
-      },
-      scale,
-    };
-    return makeConsistent(ctx, t, y, false).ok;
-  };
+  const leastChange = leastChangeSettle(compiled, atol, rtol);
   return (t, y, inputs) => {
     if (!spaces) {
       spaces = massSpaces(compiled.sparseMass, n);
@@ -199,7 +186,7 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
       jac.fill(0);
       compiled.stampJacobian(t, y, inputs, target);
       algebraicJacobian(spaces, jac, reduced, work);
-      if (lu!.factor(reduced) >= 0) return leastChange(t, y, inputs);
+      if (lu!.factor(reduced) >= 0) return leastChange(t, y, inputs, spaces);
       for (let j = 0; j < k; j++) {
         let acc = 0;
         for (let i = 0; i < n; i++) acc += w0[i * k + j]! * f[i]!;
@@ -211,8 +198,7 @@ export function algebraicSolver(compiled: CompiledNetwork, atol: number | Float6
         let dy = 0;
         for (let j = 0; j < k; j++) dy += v0[i * k + j]! * z[j]!;
         y[i] = y[i]! + dy;
-        const scale = (typeof atol === 'number' ? atol : atol[i]!) + rtol * Math.abs(y[i]!);
-        norm = Math.max(norm, Math.abs(dy) / scale);
+        norm = Math.max(norm, Math.abs(dy) / unknownTolerance(atol, rtol, i, y[i]!));
       }
       if (!Number.isFinite(norm)) return false;
       if (norm <= NEWTON_TOLERANCE) return true;

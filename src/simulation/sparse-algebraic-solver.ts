@@ -1,10 +1,10 @@
 import type { InputView } from '../elements/element-kind.js';
-import { DenseStampTarget } from '../elements/stamp-target.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import { columnsTimes, columnsTransposeTimes, makeConsistent, massSpaces, type MassSpaces } from '../solver/consistent-initialization.js';
+import { columnsTimes, columnsTransposeTimes, massSpaces, type MassSpaces } from '../solver/consistent-initialization.js';
 import { createSparseAlgebraicJacobian, type SparseAlgebraicJacobian } from '../solver/sparse-consistency.js';
 import { PatternValuesTarget } from '../solver/sparse-iteration-system.js';
 import { sparsePattern } from '../solver/sparse-pattern.js';
+import { leastChangeSettle, unknownTolerance } from './least-change-settle.js';
 
 /**
  * The algebraic solve of device-settle.ts's `algebraicSolver` for large
@@ -34,25 +34,11 @@ export function sparseAlgebraicSolver(
   const target = new PatternValuesTarget(pattern).bind(values);
   const f = new Float64Array(n);
   const dy = new Float64Array(n);
-  const scale = new Float64Array(n);
   let spaces: MassSpaces | undefined;
   let algebraic: SparseAlgebraicJacobian | undefined;
   let z = new Float64Array(0);
-  const tolerance = (i: number, yi: number): number => (typeof atol === 'number' ? atol : atol[i]!) + rtol * Math.abs(yi);
-  const leastChange = (t: number, y: Float64Array, inputs: InputView): boolean => {
-    for (let i = 0; i < n; i++) scale[i] = tolerance(i, y[i]!);
-    const ctx = {
-      n,
-      spaces: spaces!,
-      rhs: (tt: number, yy: Float64Array, out: Float64Array) => compiled.evaluate(tt, yy, inputs, out),
-      jacobian: (tt: number, yy: Float64Array, _f: Float64Array, out: Float64Array) => {
-        out.fill(0);
-        compiled.stampJacobian(tt, yy, inputs, new DenseStampTarget(n).bind(out));
-      },
-      scale,
-    };
-    return makeConsistent(ctx, t, y, false).ok;
-  };
+  const tolerance = (i: number, yi: number): number => unknownTolerance(atol, rtol, i, yi);
+  const leastChange = leastChangeSettle(compiled, atol, rtol);
   return (t, y, inputs) => {
     if (!spaces) {
       spaces = massSpaces(compiled.sparseMass, n);
@@ -67,7 +53,7 @@ export function sparseAlgebraicSolver(
       compiled.evaluate(t, y, inputs, f);
       values.fill(0);
       compiled.stampJacobian(t, y, inputs, target);
-      if (algebraic!.factor(values) >= 0) return leastChange(t, y, inputs);
+      if (algebraic!.factor(values) >= 0) return leastChange(t, y, inputs, spaces);
       columnsTransposeTimes(w0, f, z);
       for (let j = 0; j < k; j++) z[j] = -z[j]!;
       algebraic!.lu.solve(z);
