@@ -3,7 +3,7 @@ import { OutsidePatternError, type IterationSystem } from './iteration-system.js
 import type { NormalizedDae } from './normalize-problem.js';
 import { createSparseComplexLu } from './sparse-complex-lu.js';
 import { createSparseLu } from './sparse-lu.js';
-import type { SparsePattern } from './sparse-pattern.js';
+import { gatherOnPattern, type SparsePattern } from './sparse-pattern.js';
 import type { JacobianEntryTarget } from './types.js';
 
 /**
@@ -71,8 +71,8 @@ export class PatternValuesTarget implements JacobianEntryTarget {
  * ```
  */
 export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
-  const pattern = p.iterationPattern;
-  if (!pattern) throw new Error('createSparseIterationSystem: the problem has no iteration pattern');
+  if (!p.iterationPattern) throw new Error('createSparseIterationSystem: the problem has no iteration pattern');
+  const pattern: SparsePattern = p.iterationPattern;
   const { n, rowStart, col } = pattern;
   const nnz = col.length;
   const luReal = createSparseLu(pattern);
@@ -105,25 +105,15 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
 
   /** values = the dense J on the pattern; throws for a non-zero outside it. */
   function gather(a: Float64Array, values: Float64Array): void {
-    for (let i = 0; i < n; i++) {
-      let inPattern = 0;
-      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
-        const v = a[i * n + col[e]!]!;
-        values[e] = v;
-        if (v !== 0) inPattern++;
-      }
-      let nonZero = 0;
-      for (let j = 0; j < n; j++) if (a[i * n + j] !== 0) nonZero++;
-      if (nonZero !== inPattern) {
-        let j = 0;
-        // The first non-zero the pattern does not hold, to name it.
-        for (let e = rowStart[i]!; j < n; j++) {
-          while (e < rowStart[i + 1]! && col[e]! < j) e++;
-          if (a[i * n + j] !== 0 && !(e < rowStart[i + 1]! && col[e] === j)) break;
-        }
-        throw new OutsidePatternError(i, j);
-      }
+    const i = gatherOnPattern(pattern, a, values);
+    if (i < 0) return;
+    let j = 0;
+    // The first non-zero the pattern does not hold, to name it.
+    for (let e = rowStart[i]!; j < n; j++) {
+      while (e < rowStart[i + 1]! && col[e]! < j) e++;
+      if (a[i * n + j] !== 0 && !(e < rowStart[i + 1]! && col[e] === j)) break;
     }
+    throw new OutsidePatternError(i, j);
   }
 
   return {

@@ -1,6 +1,6 @@
 import { analyseBand, type BandStructure } from './band-structure.js';
 import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } from './linear-solver.js';
-import type { SparsePattern } from './sparse-pattern.js';
+import { gatherOnPattern, type SparsePattern } from './sparse-pattern.js';
 
 /**
  * Componentwise backward error (max_i |b - A x|_i / (|A| |x| + |b|)_i) above
@@ -69,17 +69,8 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function gather(a: Float64Array): void {
-    for (let i = 0; i < n; i++) {
-      let inPattern = 0;
-      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
-        const v = a[i * n + col[e]!]!;
-        values[e] = v;
-        if (v !== 0) inPattern++;
-      }
-      let nonZero = 0;
-      for (let j = 0; j < n; j++) if (a[i * n + j] !== 0) nonZero++;
-      if (nonZero !== inPattern) throw new RangeError(`sparse LU: row ${i} has a non-zero entry outside the sparsity pattern`);
-    }
+    const row = gatherOnPattern(pattern, a, values);
+    if (row >= 0) throw new RangeError(`sparse LU: row ${row} has a non-zero entry outside the sparsity pattern`);
   }
 
   function factorValues(v: Float64Array): number {

@@ -53,6 +53,32 @@ export function sparsePattern(n: number, rows: ArrayLike<number>, cols: ArrayLik
 }
 
 /**
+ * Gather a dense row-major n x n matrix onto a pattern: values[e] =
+ * a[i n + col[e]]. Returns the first row holding a non-zero that the pattern
+ * does not, or -1 (the caller names it in its own error).
+ *
+ * @example
+ * ```ts
+ * if (gatherOnPattern(pattern, a, values) >= 0) throw new RangeError('an entry outside the pattern');
+ * ```
+ */
+export function gatherOnPattern(pattern: SparsePattern, a: Float64Array, values: Float64Array): number {
+  const { n, rowStart, col } = pattern;
+  for (let i = 0; i < n; i++) {
+    let inPattern = 0;
+    for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
+      const v = a[i * n + col[e]!]!;
+      values[e] = v;
+      if (v !== 0) inPattern++;
+    }
+    let nonZero = 0;
+    for (let j = 0; j < n; j++) if (a[i * n + j] !== 0) nonZero++;
+    if (nonZero !== inPattern) return i;
+  }
+  return -1;
+}
+
+/**
  * The pattern of the non-zero entries of a dense row-major n x n matrix (and the diagonal).
  *
  * @example
