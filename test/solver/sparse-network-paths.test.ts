@@ -89,6 +89,17 @@ function withEntries(c: CompiledNetwork, problem: DaeProblem): DaeProblem {
   return { ...problem, jacobianEntries: (t, y, target) => c.stampJacobian(t, y, c.inputs, target) };
 }
 
+/** Dense and sparse runs of one ladder: both succeed, the same accepted steps, final states within 1e-9 of the largest. */
+function expectSameLadderRun(c: CompiledNetwork, dense: ReturnType<typeof solveDae>, sparse: ReturnType<typeof solveDae>): void {
+  expect(dense.status).toBe('success');
+  expect(sparse.status).toBe('success');
+  expect(sparse.stats.acceptedSteps).toBe(dense.stats.acceptedSteps);
+  const a = dense.y[dense.y.length - 1]!;
+  const s = sparse.y[sparse.y.length - 1]!;
+  const big = Math.max(...Array.from(a, Math.abs));
+  for (let i = 0; i < a.length; i++) expect(Math.abs(a[i]! - s[i]!), c.layout.labels[i]).toBeLessThan(1e-9 * big);
+}
+
 
 describe('sparse paths of network runs against the dense ones', () => {
   it('the recorded Jacobian pattern holds every non-zero of df/dy at random states (property networks)', () => {
@@ -271,28 +282,15 @@ describe('sparse paths of network runs against the dense ones', () => {
     const options = { rtol: 1e-6, atol: 1e-9, maxStep: 1e-3, denseOutput: false };
     const dense = solveDae(asProblem(c, 0.02, false), { ...options, linearAlgebra: 'flat' });
     const sparse = solveDae(asProblem(c, 0.02, true), options); // the pattern alone switches at this size
-    expect(dense.status).toBe('success');
-    expect(sparse.status).toBe('success');
-    expect(sparse.stats.acceptedSteps).toBe(dense.stats.acceptedSteps);
-    const a = dense.y[dense.y.length - 1]!;
-    const s = sparse.y[sparse.y.length - 1]!;
-    const big = Math.max(...Array.from(a, Math.abs));
-    for (let i = 0; i < n; i++) expect(Math.abs(a[i]! - s[i]!), c.layout.labels[i]).toBeLessThan(1e-9 * big);
+    expectSameLadderRun(c, dense, sparse);
   });
 
   it('the ladder with its Jacobian given entry by entry (J held on the pattern) agrees with the dense LU as closely', () => {
     const c = compileNetwork(transformerLadder(12).describe());
-    const n = c.layout.size;
     const options = { rtol: 1e-6, atol: 1e-9, maxStep: 1e-3, denseOutput: false };
     const dense = solveDae(asProblem(c, 0.02, false), { ...options, linearAlgebra: 'flat' });
     const sparse = solveDae(withEntries(c, asProblem(c, 0.02, true)), options);
-    expect(dense.status).toBe('success');
-    expect(sparse.status).toBe('success');
-    expect(sparse.stats.acceptedSteps).toBe(dense.stats.acceptedSteps);
-    const a = dense.y[dense.y.length - 1]!;
-    const s = sparse.y[sparse.y.length - 1]!;
-    const big = Math.max(...Array.from(a, Math.abs));
-    for (let i = 0; i < n; i++) expect(Math.abs(a[i]! - s[i]!), c.layout.labels[i]).toBeLessThan(1e-9 * big);
+    expectSameLadderRun(c, dense, sparse);
   });
 
   it('a network of several thousand unknowns runs on the sparse path holding no n x n array in its linear algebra', () => {
