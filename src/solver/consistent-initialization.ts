@@ -580,7 +580,8 @@ export function consistentDerivativeWith(
 
 /**
  * Buffers and the factored algebraic Jacobian W0^T J V0 for
- * {@link resolveAlgebraic}, allocated once per integrator.
+ * {@link resolveAlgebraic}, allocated once per integrator. `f` holds
+ * f(t, y) for the re-solve (see there).
  *
  * @internal
  */
@@ -594,8 +595,20 @@ export interface AlgebraicSolver {
   readonly dy: Float64Array;
 }
 
+/**
+ * The dense path's {@link AlgebraicSolver}, which remembers the block it
+ * factored last (see {@link factorAlgebraic}).
+ *
+ * @internal
+ */
+export interface DenseAlgebraicSolver extends AlgebraicSolver {
+  /** W0^T J V0 as last factored (meaningful while `factored`). */
+  readonly factoredBlock: Float64Array;
+  factored: boolean;
+}
+
 /** @internal */
-export function createAlgebraicSolver(n: number, k: number): AlgebraicSolver {
+export function createAlgebraicSolver(n: number, k: number): DenseAlgebraicSolver {
   return {
     lu: createPatternAdaptiveLu(k),
     jr: new Float64Array(k * k),
@@ -604,56 +617,78 @@ export function createAlgebraicSolver(n: number, k: number): AlgebraicSolver {
     r: new Float64Array(k),
     dz: new Float64Array(k),
     dy: new Float64Array(n),
+    factoredBlock: new Float64Array(k * k),
+    factored: false,
   };
 }
 
 /**
  * Factor W0^T J V0 for the kept Jacobian J; false when it is singular (an
- * index-2 structure: the full initialisation must handle it).
+ * index-2 structure: the full initialisation must handle it). When the
+ * block equals, entry for entry, the one factored last, the factors are
+ * kept (the same matrix factored again gives the same factors): a Jacobian
+ * that changed only in its differential columns, such as a saturating
+ * core's dH/dB as the flux moves, leaves the algebraic block as it was.
  *
  * @internal
  */
-export function factorAlgebraic(spaces: MassSpaces, jac: Float64Array, solver: AlgebraicSolver): boolean {
-  algebraicJacobian(spaces, jac, solver.jr, solver.jv);
-  return solver.lu.factor(solver.jr) < 0;
+export function factorAlgebraic(spaces: MassSpaces, jac: Float64Array, solver: DenseAlgebraicSolver): boolean {
+  const block = algebraicJacobian(spaces, jac, solver.jr, solver.jv);
+  const held = solver.factoredBlock;
+  if (solver.factored) {
+    let same = true;
+    for (let e = 0; e < block.length; e++) {
+      if (block[e] !== held[e]) {
+        same = false;
+        break;
+      }
+    }
+    if (same) return true;
+  }
+  held.set(block); // copied before the LU reads it (an LU may scale its input)
+  solver.factored = solver.lu.factor(block) < 0;
+  return solver.factored;
 }
 
-/** Iterations of the simplified Newton method of {@link resolveAlgebraic} before it gives up. */
-const SIMPLIFIED_MAX_ITERATIONS = 8;
-/** Contraction rate above which the simplified iteration hands over to the full Newton method. */
-const SIMPLIFIED_MAX_RATE = 0.5;
+/**
+ * How {@link resolveAlgebraic} ended: `'current'` (y was consistent within
+ * the tolerance and is unchanged: `solver.f` still holds f(t, y)), `'moved'`
+ * (the update was applied: f is stale) or `'failed'` (a non-finite update).
+ *
+ * @internal
+ */
+export type AlgebraicResolve = 'current' | 'moved' | 'failed';
 
 /**
  * Re-solve the algebraic equations W0^T f(t, y + V0 z) = 0 after an input
- * jump with a kept factorisation of W0^T J V0 (simplified Newton: no new
- * Jacobian, no allocation). Converged when the contraction-corrected update
- * theta/(1 - theta) ||dy|| (or the first update itself) is within the same
- * tolerance as {@link makeConsistent}, rounding units excepted. Returns false
- * when it does not converge quickly (or meets a non-finite value): y may then
- * have moved, and the caller falls back to the full method from its saved state.
+ * jump by one simplified Newton update with a kept factorisation of
+ * W0^T J V0 (no new Jacobian, no allocation). `solver.f` holds f(t, y) on
+ * entry (the caller evaluates it with the new inputs). An update within the
+ * tolerance of {@link makeConsistent} (rounding units excepted) is not
+ * applied: y and f stay as they are.
+ *
+ * One update, unverified: for the linear dependence of a source's value it
+ * is exact to rounding; a nonlinear one (a smooth junction swinging through
+ * its knee) is left to the first step's Newton iteration, whose collocation
+ * equations hold the algebraic equations at every stage. Iterating here to
+ * convergence was tried: such a junction then fails to converge, and so
+ * does the full re-initialisation, where the first step's Newton iteration
+ * with its short step succeeds (test/devices/exponential-switch-off.test.ts).
  *
  * @internal
  */
-export function resolveAlgebraic(ctx: ConsistencyContext, t: number, y: Float64Array, solver: AlgebraicSolver): boolean {
+export function resolveAlgebraic(ctx: ConsistencyContext, t: number, y: Float64Array, solver: AlgebraicSolver): AlgebraicResolve {
   const { n, spaces, scale } = ctx;
   const { k } = spaces;
   const { v0, w0 } = spaces.columns;
   const { f, r, dz, dy } = solver;
-  let previous = Infinity;
-  for (let iter = 1; iter <= SIMPLIFIED_MAX_ITERATIONS; iter++) {
-    ctx.rhs(t, y, f);
-    columnsTransposeTimes(w0, f, r);
-    for (let j = 0; j < k; j++) dz[j] = -r[j]!;
-    solver.lu.solve(dz);
-    columnsTimes(v0, dz, dy);
-    const norm = roundingFlooredNorm(dy, y, scale);
-    if (!Number.isFinite(norm)) return false;
-    for (let i = 0; i < n; i++) y[i] = y[i]! + dy[i]!;
-    if (norm <= UPDATE_TOLERANCE) return true;
-    const theta = norm / previous;
-    if (theta >= SIMPLIFIED_MAX_RATE) return false;
-    if ((theta / (1 - theta)) * norm <= UPDATE_TOLERANCE) return true;
-    previous = norm;
-  }
-  return false;
+  columnsTransposeTimes(w0, f, r);
+  for (let j = 0; j < k; j++) dz[j] = -r[j]!;
+  solver.lu.solve(dz);
+  columnsTimes(v0, dz, dy);
+  const norm = roundingFlooredNorm(dy, y, scale);
+  if (!Number.isFinite(norm)) return 'failed';
+  if (norm <= UPDATE_TOLERANCE) return 'current';
+  for (let i = 0; i < n; i++) y[i] = y[i]! + dy[i]!;
+  return 'moved';
 }

@@ -12,6 +12,7 @@ import {
   resolveAlgebraic,
   type AlgebraicSolver,
   type ConsistencyContext,
+  type DenseAlgebraicSolver,
   type DerivativeWork,
   type MassSpaces,
 } from './consistent-initialization.js';
@@ -432,6 +433,8 @@ class RadauIntegrator implements DaeIntegrator {
   private algebraicVersion = -1;
   /** For cheap restarts (singular M only): W0^T J V0 factored for the kept J, and y' work. */
   private readonly algebraic: AlgebraicSolver | undefined;
+  /** The same solver on the dense path, which keeps its factors while the block is unchanged. */
+  private readonly denseAlgebraic: DenseAlgebraicSolver | undefined;
   private readonly derivativeWork: DerivativeWork | undefined;
   /** On the sparse path: the consistent initialisation's matrices from J on the pattern (no dense arrays), and J for it. */
   private readonly sparseConsistency: SparseConsistency | undefined;
@@ -553,7 +556,8 @@ class RadauIntegrator implements DaeIntegrator {
       });
     } else if (this.spaces) {
       this.consistency = new IntegratorConsistency(this, n, this.spaces, undefined);
-      this.algebraic = createAlgebraicSolver(n, this.spaces.k);
+      this.denseAlgebraic = createAlgebraicSolver(n, this.spaces.k);
+      this.algebraic = this.denseAlgebraic;
       this.derivativeWork = createDerivativeWork(n);
     }
     this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: take(n), q: take(3 * n) };
@@ -693,14 +697,23 @@ class RadauIntegrator implements DaeIntegrator {
 
   /**
    * Restart after an input jump keeping what is still valid (issue: cheap
-   * restarts): the step size (capped by a fresh estimate when asked); the
-   * Jacobian is evaluated once with the new inputs and the algebraic
-   * unknowns are re-solved by a simplified Newton iteration on W0^T J V0
-   * factored from it (no SVD, no least-change search, no allocation). The step history (controller memory, extrapolated start
-   * values) is dropped, as at any restart. Returns false, with the state as
-   * it was, when this is not enough (no convergence, a singular algebraic
-   * Jacobian, a non-finite f, user code throwing): the caller then does the
-   * full re-initialisation.
+   * restarts): the step size (capped by a fresh estimate when asked). f and
+   * the Jacobian are evaluated once with the new inputs, f first (the
+   * Jacobian's finite differences are taken from it: the f kept from the
+   * last step belongs to the old inputs), and the algebraic unknowns are
+   * re-solved by a simplified Newton iteration on W0^T J V0 factored from it
+   * (no SVD, no least-change search, no allocation), starting from that f.
+   * The step history (controller memory, extrapolated start values) is
+   * dropped, as at any restart. Returns false, with the state as it was,
+   * when this is not enough (no convergence, a singular algebraic Jacobian,
+   * a non-finite f, user code throwing): the caller then does the full
+   * re-initialisation.
+   *
+   * Evaluations for a jump that moves the algebraic unknowns linearly (a
+   * source's value): f twice (before and after the re-solve; the second
+   * confirms it and is kept as f), J once, and with `capByEstimate` f once
+   * more for df/dt of the consistent y' (the step estimate takes its second
+   * derivative from J y' + df/dt instead of a trial f on the dense path).
    */
   private restartCheaply(capByEstimate: boolean): boolean {
     const p = this.p;
@@ -708,33 +721,43 @@ class RadauIntegrator implements DaeIntegrator {
     const t = this.tCur;
     this.ySaved.set(y);
     try {
+      this.callRhs(t, y, this.fCur);
+      if (!allFinite(this.fCur)) return this.undoCheapRestart();
       // The Jacobian is evaluated afresh with the new inputs: a jump can change it (a switch's
       // conductance by nine orders of magnitude), and a stale one both slows the algebraic re-solve and,
       // worse, filters the first steps' error estimates through the wrong matrix, so that they accept
       // wrong steps (an energy audit off by 5 % across a switch-off was measured with the kept one).
       this.refreshJacobianKeepingEqual();
       let yp: Float64Array | undefined;
+      let secondDerivative: Float64Array | undefined;
+      let moved = false;
       if (this.spaces && this.spaces.k > 0 && p.consistentInit) {
         const solver = this.algebraic!;
         if (this.algebraicVersion !== this.jacVersion) {
-          const factored = this.sparseConsistency ? this.sparseConsistency.factorAlgebraic(this.jac) : factorAlgebraic(this.spaces, this.denseJacobian(), solver);
+          const factored = this.sparseConsistency ? this.sparseConsistency.factorAlgebraic(this.jac) : factorAlgebraic(this.spaces, this.denseJacobian(), this.denseAlgebraic!);
           if (!factored) return this.undoCheapRestart();
           this.algebraicVersion = this.jacVersion;
         }
         const ctx = this.consistencyContext();
-        if (!resolveAlgebraic(ctx, t, y, solver)) return this.undoCheapRestart();
-        this.callRhs(t, y, this.fCur);
+        solver.f.set(this.fCur);
+        const outcome = resolveAlgebraic(ctx, t, y, solver);
+        if (outcome === 'failed') return this.undoCheapRestart();
+        if (outcome === 'current') this.fCur.set(solver.f);
+        else this.callRhs(t, y, this.fCur);
         if (!allFinite(this.fCur)) return this.undoCheapRestart();
+        for (let i = 0; i < this.n && !moved; i++) moved = y[i] !== this.ySaved[i];
         if (capByEstimate) {
           const dt = Math.sqrt(UROUND) * Math.max(Math.abs(t), p.tEnd - p.t0);
-          yp = this.sparseConsistency
-            ? this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac)
-            : consistentDerivativeWith(ctx, p.denseMass()!, t, dt, y, this.fCur, this.denseJacobian(), this.derivativeWork!);
+          if (this.sparseConsistency) {
+            yp = this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac);
+          } else {
+            const work = this.derivativeWork!;
+            yp = consistentDerivativeWith(ctx, p.denseMass()!, t, dt, y, this.fCur, this.denseJacobian(), work);
+            if (yp) secondDerivative = linearisedSecondDerivative(this.denseJacobian(), yp, work.ft, this.fCur, dt, this.stepWork.f1);
+          }
         }
-      } else {
-        this.callRhs(t, y, this.fCur);
-        if (!allFinite(this.fCur)) return this.undoCheapRestart();
-        if (!p.mass) yp = this.fCur;
+      } else if (!p.mass) {
+        yp = this.fCur;
       }
       this.adjustedCur = [];
       this.first = true;
@@ -742,8 +765,9 @@ class RadauIntegrator implements DaeIntegrator {
       this.hAcc = NaN;
       this.errAcc = NaN;
       this.faccon = 1;
-      this.jacCurrent = false;
-      if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp, true));
+      // J was evaluated at (t, y) with the new inputs: current unless the re-solve moved y since.
+      this.jacCurrent = !moved;
+      if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur), true, secondDerivative));
       this.slopeStart = yp !== undefined;
       if (yp) this.restartSlope.set(yp);
       this.evaluateEventsAt(t, y, this.eventValues);
@@ -1018,9 +1042,12 @@ class RadauIntegrator implements DaeIntegrator {
   /**
    * Initial step (Hairer, Norsett and Wanner, Solving ODEs I, sect. II.4,
    * "starting step size"; the form used by SciPy's select_initial_step) from
-   * y' at t0: f for an ODE, the consistent derivative for a DAE.
+   * y' at t0: f for an ODE, the consistent derivative for a DAE. The second
+   * derivative's size comes from a trial f at t0 + h0, y0 + h0 y', or, when
+   * `secondDerivative` is given, from that vector (J y' + df/dt, the trial's
+   * difference quotient to first order in h0).
    */
-  private initialStepSize(yp: Float64Array | undefined, ignoreGiven = false): number {
+  private initialStepSize(yp: Float64Array | undefined, ignoreGiven = false, secondDerivative?: Float64Array): number {
     const p = this.p;
     const span = p.tEnd - p.t0;
     const cap = Math.min(p.maxStep, span);
@@ -1038,10 +1065,15 @@ class RadauIntegrator implements DaeIntegrator {
     const d1 = weightedRmsNorm(yp, scale);
     let h0 = d0 < 1e-5 || d1 < 1e-5 ? 1e-6 * span : (0.01 * d0) / d1;
     h0 = Math.min(h0, cap);
-    for (let i = 0; i < n; i++) y1[i] = this.yCur[i]! + h0 * yp[i]!;
-    this.callRhs(this.tCur + h0, y1, f1);
-    for (let i = 0; i < n; i++) f1[i] = f1[i]! - this.fCur[i]!;
-    const d2 = weightedRmsNorm(f1, scale) / h0;
+    let d2: number;
+    if (secondDerivative) {
+      d2 = weightedRmsNorm(secondDerivative, scale);
+    } else {
+      for (let i = 0; i < n; i++) y1[i] = this.yCur[i]! + h0 * yp[i]!;
+      this.callRhs(this.tCur + h0, y1, f1);
+      for (let i = 0; i < n; i++) f1[i] = f1[i]! - this.fCur[i]!;
+      d2 = weightedRmsNorm(f1, scale) / h0;
+    }
     let h1: number;
     if (!Number.isFinite(d2)) h1 = h0 * 1e-3;
     else if (d1 <= 1e-15 && d2 <= 1e-15) h1 = Math.max(1e-6 * span, h0 * 1e-3);
@@ -1637,4 +1669,22 @@ function copyPiece(p: DaeStepInterpolant): DaeStepInterpolant {
  */
 export function evaluateInterpolant(it: DaeStepInterpolant, t: number, out: Float64Array): void {
   evaluateCollocation(it, t, out);
+}
+
+/**
+ * J y' + df/dt into `out` (J dense row-major n x n, df/dt from f(t + dt, y)
+ * in `fAhead` and f(t, y) in `f`): the derivative of f along the solution,
+ * which the starting-step estimate otherwise takes from a trial evaluation
+ * (f(t + h0, y + h0 y') - f(t, y)) / h0, equal to it to first order in h0.
+ * At a restart both J and df/dt are at hand, so the trial f is saved.
+ */
+function linearisedSecondDerivative(jac: Float64Array, yp: Float64Array, fAhead: Float64Array, f: Float64Array, dt: number, out: Float64Array): Float64Array {
+  const n = yp.length;
+  for (let i = 0; i < n; i++) {
+    let s = (fAhead[i]! - f[i]!) / dt;
+    const row = i * n;
+    for (let j = 0; j < n; j++) s += jac[row + j]! * yp[j]!;
+    out[i] = s;
+  }
+  return out;
 }
