@@ -709,11 +709,12 @@ class RadauIntegrator implements DaeIntegrator {
    * a non-finite f, user code throwing): the caller then does the full
    * re-initialisation.
    *
-   * Evaluations for a jump that moves the algebraic unknowns linearly (a
-   * source's value): f twice (before and after the re-solve; the second
-   * confirms it and is kept as f), J once, and with `capByEstimate` f once
-   * more for df/dt of the consistent y' (the step estimate takes its second
-   * derivative from J y' + df/dt instead of a trial f on the dense path).
+   * Evaluations for a jump that moves the algebraic unknowns (a source's
+   * value): f twice (with the new inputs before the re-solve, and at the
+   * re-solved state; once when the re-solve moves nothing), J once, and
+   * with `capByEstimate` f once more for df/dt of the consistent y' (on the
+   * dense path the step estimate takes its second derivative from
+   * J y' + df/dt instead of a trial f; the sparse path keeps the trial f).
    */
   private restartCheaply(capByEstimate: boolean): boolean {
     const p = this.p;

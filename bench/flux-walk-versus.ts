@@ -1,0 +1,60 @@
+/**
+ * The flux walk (bench/flux-walk.ts) of this checkout against the same
+ * network run by another checkout of the project (a base commit), in one
+ * process, runs alternating so both meet the same load: the ratio of the
+ * medians of CPU ms (this / other), and each side's counts.
+ * usage: tsx bench/flux-walk-versus.ts <other checkout> [rounds]
+ */
+import { resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
+
+type Api = typeof import('../src/index.js');
+
+const other = process.argv[2];
+if (!other) throw new Error('usage: tsx bench/flux-walk-versus.ts <other checkout> [rounds]');
+const rounds = Number(process.argv[3] ?? 40);
+const here = (await import(pathToFileURL(resolve(import.meta.dirname, '../src/index.ts')).href)) as Api;
+const there = (await import(pathToFileURL(resolve(other, 'src/index.ts')).href)) as Api;
+
+/** The walk of bench/flux-walk.ts built with one checkout's API (its own classes). */
+function walk(api: Api) {
+  const { createNetwork, MU0, pulse } = api;
+  const net = createNetwork('flux walk, 100 kHz');
+  const law = {
+    name: 'B/(mu0 2000) + 2 sinh(B/0.04)',
+    fieldStrength: (b: number) => b / (MU0 * 2000) + 2 * Math.sinh(b / 0.04),
+    fieldSlope: (b: number) => 1 / (MU0 * 2000) + (2 / 0.04) * Math.cosh(b / 0.04),
+    energyDensity: (b: number) => (b * b) / (2 * MU0 * 2000) + 2 * 0.04 * (Math.cosh(b / 0.04) - 1),
+  };
+  const m1 = net.magneticNode('m1');
+  const m2 = net.magneticNode('m2');
+  const leg = net.fluxTube('leg', { from: m1, to: m2, length: 0.025, area: 1e-4, material: law });
+  net.fluxTube('rest', { from: m2, to: m1, length: 0.025, area: 1e-4, material: law });
+  const d = net.node('drive');
+  net.voltageSource('drive', d, net.ground, pulse({ low: -12, high: 12, period: 1e-5, duty: 0.52 }));
+  net.winding('coil', { tube: leg, turns: 20, resistance: 0.5, plus: d, minus: net.ground });
+  return () => api.simulate(net, { stopTime: 1e-2, rtol: 1e-6 });
+}
+
+function cpuMs(fn: () => unknown): number {
+  const c0 = process.cpuUsage();
+  fn();
+  const c = process.cpuUsage(c0);
+  return (c.user + c.system) / 1000;
+}
+
+const median = (a: number[]): number => [...a].sort((x, y) => x - y)[a.length >> 1]!;
+const runs = { here: walk(here), there: walk(there) };
+const stats = { here: runs.here().stats, there: runs.there().stats }; // the first (cold) runs are not timed
+const ms = { here: [] as number[], there: [] as number[] };
+for (let k = 0; k < rounds; k++) {
+  // Alternate which side goes first, so neither always follows the other's garbage.
+  if (k % 2 === 0) {
+    ms.here.push(cpuMs(runs.here));
+    ms.there.push(cpuMs(runs.there));
+  } else {
+    ms.there.push(cpuMs(runs.there));
+    ms.here.push(cpuMs(runs.here));
+  }
+}
+console.log(JSON.stringify({ rounds, here_cpu_ms: median(ms.here), other_cpu_ms: median(ms.there), ratio: median(ms.here) / median(ms.there), here: stats.here, other: stats.there }));
