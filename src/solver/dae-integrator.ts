@@ -27,7 +27,7 @@ import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from 
 import { firstIndexAbove } from './sorted-search.js';
 import { createSparseConsistency, type SparseConsistency } from './sparse-consistency.js';
 import { createSparseIterationSystem } from './sparse-iteration-system.js';
-import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-controller.js';
+import { errorQuotient, predictiveQuotient, stepAfterAccept, surelyKeepsStep } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
 
@@ -491,7 +491,7 @@ class RadauIntegrator implements DaeIntegrator {
    * The attempt's numbers for the Newton kernel, the error estimate, the start values and the
    * acceptance (rewritten per attempt: numbers passed as arguments are boxed per call).
    */
-  private readonly attempt: CollocationStep & { tNew: number; err: number; quot: number } = { t: 0.5, h: 0.5, tLastStage: 0.5, faccon: 0.5, tNew: 0.5, err: 0.5, quot: 0.5 };
+  private readonly attempt: CollocationStep & { tNew: number; err: number } = { t: 0.5, h: 0.5, tLastStage: 0.5, faccon: 0.5, tNew: 0.5, err: 0.5 };
   /** f counted and guarded, and M v, for the kernels (see {@link IntegratorCalls}). */
   private readonly collocation: IntegratorCalls;
   private readonly scale: Float64Array;
@@ -1258,20 +1258,18 @@ class RadauIntegrator implements DaeIntegrator {
       lastNonFinite = undefined;
 
       const err = radauErrorEstimate(this.collocation, this.luReal, this.errorWork, at, y, this.fCur, z, scale, this.first || rejected);
-      const quot = errorQuotient(err, newton.iterations);
       if (err >= 1) {
         // Rejected.
         this.statsCur.rejectedSteps++;
         lastErrorComponents = largestScaled(this.errorWork.err, scale);
         rejected = true;
-        this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : h / quot;
+        this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : h / errorQuotient(err, newton.iterations);
         this.luH = NaN;
         if (!this.jacCurrent) this.ensureJacobian();
         continue;
       }
       at.tNew = tNew;
       at.err = err;
-      at.quot = quot;
       return this.accept(rejected, newton.iterations, landed && isBreakpoint && tNew === tTarget);
     }
   }
@@ -1327,12 +1325,12 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /**
-   * Take the converged step [t, tNew] (t, tNew, h, err, quot from `attempt`, the Newton rate from
+   * Take the converged step [t, tNew] (t, tNew, h, err from `attempt`, the Newton rate from
    * `newtonOutcome`): controller memory and next h, the
    * dense output, f at the new point, re-initialisation on a breakpoint, events.
    */
   private accept(rejected: boolean, iterations: number, onBreakpoint: boolean): DaeStepResult {
-    const { t, tNew, h, err, quot } = this.attempt;
+    const { t, tNew, h, err } = this.attempt;
     const theta = this.newtonOutcome.theta;
     const p = this.p;
     const n = this.n;
@@ -1349,7 +1347,15 @@ class RadauIntegrator implements DaeIntegrator {
       m.jacValid = this.jacValid;
       m.jacCurrent = this.jacCurrent;
     }
-    let hNew = h / predictiveQuotient(quot, h, err, this.hAcc, this.errAcc);
+    // The next h: kept when the proposal surely says so (no powers), else radau5's proposal.
+    const recomputeJac = iterations > 2 && theta > JACOBIAN_RATE_THRESHOLD;
+    let hNext = h;
+    if (recomputeJac || !surelyKeepsStep(h, err, iterations, this.hAcc, this.errAcc, p.maxStep, rejected)) {
+      let hNew = h / predictiveQuotient(errorQuotient(err, iterations), h, err, this.hAcc, this.errAcc);
+      hNew = Math.min(hNew, p.maxStep);
+      if (rejected) hNew = Math.min(hNew, h);
+      hNext = stepAfterAccept(h, hNew, recomputeJac);
+    }
     this.hAcc = h;
     this.errAcc = Math.max(1e-2, err);
     this.statsCur.acceptedSteps++;
@@ -1384,12 +1390,9 @@ class RadauIntegrator implements DaeIntegrator {
       else throw e;
     }
 
-    hNew = Math.min(hNew, p.maxStep);
-    if (rejected) hNew = Math.min(hNew, h);
-    const recomputeJac = iterations > 2 && theta > JACOBIAN_RATE_THRESHOLD;
     this.jacCurrent = false;
     if (recomputeJac) this.jacValid = false;
-    this.hCur = stepAfterAccept(h, hNew, recomputeJac);
+    this.hCur = hNext;
     const jumpFrom = onBreakpoint ? this.reinitialiseAtBreakpoint(tNew) : undefined;
     if (tNew >= p.tEnd) this.statusCur = 'success';
 
