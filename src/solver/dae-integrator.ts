@@ -27,7 +27,7 @@ import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from 
 import { firstIndexAbove } from './sorted-search.js';
 import { createSparseConsistency, type SparseConsistency } from './sparse-consistency.js';
 import { createSparseIterationSystem } from './sparse-iteration-system.js';
-import { errorQuotient, predictiveQuotient, stepAfterAccept, surelyKeepsStep } from './step-size-controller.js';
+import { errorQuotient, nextStepSize, type AcceptedStep } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
 
@@ -492,6 +492,8 @@ class RadauIntegrator implements DaeIntegrator {
    * acceptance (rewritten per attempt: numbers passed as arguments are boxed per call).
    */
   private readonly attempt: CollocationStep & { tNew: number; err: number } = { t: 0.5, h: 0.5, tLastStage: 0.5, faccon: 0.5, tNew: 0.5, err: 0.5 };
+  /** The accepted step as the step-size controller reads it (rewritten per step, see {@link AcceptedStep}). */
+  private readonly acceptedStep: AcceptedStep = { h: 0.5, err: 0.5, hAcc: 0.5, errAcc: 0.5, maxStep: 0.5, newtonIterations: 0, rejected: false, recomputeJacobian: false, hNext: 0.5 };
   /** f counted and guarded, and M v, for the kernels (see {@link IntegratorCalls}). */
   private readonly collocation: IntegratorCalls;
   private readonly scale: Float64Array;
@@ -1347,15 +1349,17 @@ class RadauIntegrator implements DaeIntegrator {
       m.jacValid = this.jacValid;
       m.jacCurrent = this.jacCurrent;
     }
-    // The next h: kept when the proposal surely says so (no powers), else radau5's proposal.
     const recomputeJac = iterations > 2 && theta > JACOBIAN_RATE_THRESHOLD;
-    let hNext = h;
-    if (recomputeJac || !surelyKeepsStep(h, err, iterations, this.hAcc, this.errAcc, p.maxStep, rejected)) {
-      let hNew = h / predictiveQuotient(errorQuotient(err, iterations), h, err, this.hAcc, this.errAcc);
-      hNew = Math.min(hNew, p.maxStep);
-      if (rejected) hNew = Math.min(hNew, h);
-      hNext = stepAfterAccept(h, hNew, recomputeJac);
-    }
+    const next = this.acceptedStep;
+    next.h = h;
+    next.err = err;
+    next.hAcc = this.hAcc;
+    next.errAcc = this.errAcc;
+    next.maxStep = p.maxStep;
+    next.newtonIterations = iterations;
+    next.rejected = rejected;
+    next.recomputeJacobian = recomputeJac;
+    nextStepSize(next);
     this.hAcc = h;
     this.errAcc = Math.max(1e-2, err);
     this.statsCur.acceptedSteps++;
@@ -1392,7 +1396,7 @@ class RadauIntegrator implements DaeIntegrator {
 
     this.jacCurrent = false;
     if (recomputeJac) this.jacValid = false;
-    this.hCur = hNext;
+    this.hCur = next.hNext;
     const jumpFrom = onBreakpoint ? this.reinitialiseAtBreakpoint(tNew) : undefined;
     if (tNew >= p.tEnd) this.statusCur = 'success';
 
