@@ -1,6 +1,7 @@
 import { equilibrateComplex } from './dense-equilibration.js';
 import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
+import type { SparseMass } from './sparse-mass.js';
 
 /**
  * Complex LU factorisation with partial pivoting on split real/imaginary
@@ -27,8 +28,10 @@ export function createComplexLu(n: number, take: TakeFloat64 = ownFloat64): Comp
  * A class, not closures: its methods are one function for every instance, so a call site
  * that saw one solver sees the same target with the next (closures made per solver are new
  * targets, and the code specialised on the first deoptimised with the second).
+ *
+ * @internal
  */
-class ComplexLu implements ComplexLinearSolver {
+export class ComplexLu implements ComplexLinearSolver {
   private readonly ar: Float64Array;
   private readonly ai: Float64Array;
   private readonly perm: Int32Array;
@@ -51,7 +54,7 @@ class ComplexLu implements ComplexLinearSolver {
   }
 
   factor(re: Float64Array, im: Float64Array): number {
-    const { size: n, ar, ai, perm, rowScale, colScale, tol } = this;
+    const { size: n, ar, ai, perm, rowScale, colScale } = this;
     const nonFinite = equilibrateComplex(n, re, im, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
     for (let i = 0; i < n; i++) {
@@ -64,6 +67,55 @@ class ComplexLu implements ComplexLinearSolver {
         ai[row + j] = c * im[row + j]!;
       }
     }
+    return this.eliminate();
+  }
+
+  /**
+   * Factor (shiftRe + i shiftIm) M - J (M the identity when `mass` is undefined) without
+   * matrices of their own: formed, equilibrated and scaled in the factor's storage, with the
+   * same operations as {@link factor} of the formed matrix (the same factors and result, bit
+   * for bit), and no separate pass to form them and copy them in.
+   */
+  factorShifted(jac: Float64Array, shiftRe: number, shiftIm: number, mass: SparseMass | undefined): number {
+    const { size: n, ar, ai, perm, rowScale, colScale } = this;
+    for (let k = 0; k < n * n; k++) {
+      ar[k] = -jac[k]!;
+      ai[k] = 0;
+    }
+    if (!mass) {
+      for (let i = 0; i < n; i++) {
+        ar[i * n + i] = ar[i * n + i]! + shiftRe;
+        ai[i * n + i] = shiftIm;
+      }
+    } else {
+      const { rowStart, col, value } = mass;
+      for (let i = 0; i < n; i++) {
+        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
+          const idx = i * n + col[k]!;
+          const m = value[k]!;
+          ar[idx] = ar[idx]! + shiftRe * m;
+          ai[idx] = shiftIm * m;
+        }
+      }
+    }
+    const nonFinite = equilibrateComplex(n, ar, ai, rowScale, colScale);
+    if (nonFinite >= 0) return nonFinite;
+    for (let i = 0; i < n; i++) {
+      perm[i] = i;
+      const row = i * n;
+      const r = rowScale[i]!;
+      for (let j = 0; j < n; j++) {
+        const c = r * colScale[j]!;
+        ar[row + j] = c * ar[row + j]!;
+        ai[row + j] = c * ai[row + j]!;
+      }
+    }
+    return this.eliminate();
+  }
+
+  /** Gaussian elimination with partial pivoting of the equilibrated matrix in (ar, ai) (perm the identity on entry). */
+  private eliminate(): number {
+    const { size: n, ar, ai, perm, tol } = this;
     for (let k = 0; k < n; k++) {
       let p = k;
       let pmax = Math.abs(ar[k * n + k]!) + Math.abs(ai[k * n + k]!);

@@ -28,7 +28,7 @@ import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from 
 import { firstIndexAbove } from './sorted-search.js';
 import { createSparseConsistency, type SparseConsistency } from './sparse-consistency.js';
 import { createSparseIterationSystem } from './sparse-iteration-system.js';
-import { errorQuotient, predictiveQuotient, stepAfterAccept } from './step-size-controller.js';
+import { errorQuotient, nextStepSize, type AcceptedStep } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
 
@@ -494,7 +494,9 @@ class RadauIntegrator implements DaeIntegrator {
    * The attempt's numbers for the Newton kernel, the error estimate, the start values and the
    * acceptance (rewritten per attempt: numbers passed as arguments are boxed per call).
    */
-  private readonly attempt: CollocationStep & { tNew: number; err: number; quot: number } = { t: 0.5, h: 0.5, tLastStage: 0.5, faccon: 0.5, tNew: 0.5, err: 0.5, quot: 0.5 };
+  private readonly attempt: CollocationStep & { tNew: number; err: number } = { t: 0.5, h: 0.5, tLastStage: 0.5, faccon: 0.5, tNew: 0.5, err: 0.5 };
+  /** The accepted step as the step-size controller reads it (rewritten per step, see {@link AcceptedStep}). */
+  private readonly acceptedStep: AcceptedStep = { h: 0.5, err: 0.5, hAcc: 0.5, errAcc: 0.5, maxStep: 0.5, newtonIterations: 0, rejected: false, recomputeJacobian: false, hNext: 0.5 };
   /** f counted and guarded, and M v, for the kernels (see {@link IntegratorCalls}). */
   private readonly collocation: IntegratorCalls;
   private readonly scale: Float64Array;
@@ -504,8 +506,9 @@ class RadauIntegrator implements DaeIntegrator {
     const n = p.n;
     this.n = n;
     // The work arrays as views into one chunk (a typed array of its own costs an ArrayBuffer each, and
-    // a short solve's set-up was mostly those): 7 n x n arrays on the dense path and about 43 of length n.
-    const chunks = new Float64Chunks(Math.min((p.iterationPattern ? 0 : 7 * n * n) + 44 * n, 1 << 16));
+    // a short solve's set-up was mostly those): 4 n x n arrays on the dense path (J, and the factors that
+    // form the iteration matrices in place, or those matrices for ml-matrix) and about 43 of length n.
+    const chunks = new Float64Chunks(Math.min((p.iterationPattern ? 0 : 4 * n * n) + 44 * n, 1 << 16));
     const take = (length: number): Float64Array => chunks.take(length);
     if (p.mass) {
       // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
@@ -1291,20 +1294,18 @@ class RadauIntegrator implements DaeIntegrator {
       lastNonFinite = undefined;
 
       const err = radauErrorEstimate(this.collocation, this.luReal, this.errorWork, at, y, this.fCur, z, scale, this.first || rejected);
-      const quot = errorQuotient(err, newton.iterations);
       if (err >= 1) {
         // Rejected.
         this.statsCur.rejectedSteps++;
         lastErrorComponents = largestScaled(this.errorWork.err, scale);
         rejected = true;
-        this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : h / quot;
+        this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : h / errorQuotient(err, newton.iterations);
         this.luH = NaN;
         if (!this.jacCurrent) this.ensureJacobian();
         continue;
       }
       at.tNew = tNew;
       at.err = err;
-      at.quot = quot;
       return this.accept(rejected, newton.iterations, landed && isBreakpoint && tNew === tTarget);
     }
   }
@@ -1360,12 +1361,12 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /**
-   * Take the converged step [t, tNew] (t, tNew, h, err, quot from `attempt`, the Newton rate from
+   * Take the converged step [t, tNew] (t, tNew, h, err from `attempt`, the Newton rate from
    * `newtonOutcome`): controller memory and next h, the
    * dense output, f at the new point, re-initialisation on a breakpoint, events.
    */
   private accept(rejected: boolean, iterations: number, onBreakpoint: boolean): DaeStepResult {
-    const { t, tNew, h, err, quot } = this.attempt;
+    const { t, tNew, h, err } = this.attempt;
     const theta = this.newtonOutcome.theta;
     const p = this.p;
     const n = this.n;
@@ -1382,7 +1383,17 @@ class RadauIntegrator implements DaeIntegrator {
       m.jacValid = this.jacValid;
       m.jacCurrent = this.jacCurrent;
     }
-    let hNew = h / predictiveQuotient(quot, h, err, this.hAcc, this.errAcc);
+    const recomputeJac = iterations > 2 && theta > JACOBIAN_RATE_THRESHOLD;
+    const next = this.acceptedStep;
+    next.h = h;
+    next.err = err;
+    next.hAcc = this.hAcc;
+    next.errAcc = this.errAcc;
+    next.maxStep = p.maxStep;
+    next.newtonIterations = iterations;
+    next.rejected = rejected;
+    next.recomputeJacobian = recomputeJac;
+    nextStepSize(next);
     this.hAcc = h;
     this.errAcc = Math.max(1e-2, err);
     this.statsCur.acceptedSteps++;
@@ -1417,12 +1428,9 @@ class RadauIntegrator implements DaeIntegrator {
       else throw e;
     }
 
-    hNew = Math.min(hNew, p.maxStep);
-    if (rejected) hNew = Math.min(hNew, h);
-    const recomputeJac = iterations > 2 && theta > JACOBIAN_RATE_THRESHOLD;
     this.jacCurrent = false;
     if (recomputeJac) this.jacValid = false;
-    this.hCur = stepAfterAccept(h, hNew, recomputeJac);
+    this.hCur = next.hNext;
     const jumpFrom = onBreakpoint ? this.reinitialiseAtBreakpoint(tNew) : undefined;
     if (tNew >= p.tEnd) this.statusCur = 'success';
 

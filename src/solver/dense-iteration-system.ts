@@ -1,5 +1,5 @@
-import { createComplexLu } from './complex-lu.js';
-import { createDenseLu } from './dense-lu.js';
+import { ComplexLu } from './complex-lu.js';
+import { DenseLu } from './dense-lu.js';
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
 import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import type { IterationSystem } from './iteration-system.js';
@@ -9,9 +9,9 @@ import type { NormalizedDae } from './normalize-problem.js';
 
 /**
  * The {@link IterationSystem} on dense row-major n x n arrays: J from the
- * problem's Jacobian (or finite differences), the iteration matrices built
- * entry by entry and factored by the flat LU kernels (or ml-matrix's, with
- * `linearAlgebra: 'ml-matrix'`). The choice for small n, where it is fastest.
+ * problem's Jacobian (or finite differences), the iteration matrices formed
+ * inside the flat LU kernels' own storage as they are factored (or built
+ * entry by entry and factored by ml-matrix's, with `linearAlgebra: 'ml-matrix'`). The choice for small n, where it is fastest.
  * Work arrays from `take` ({@link TakeFloat64}).
  *
  * @internal
@@ -35,29 +35,29 @@ class DenseIterationSystem implements IterationSystem {
   readonly analytic: boolean;
   private readonly n: number;
   private readonly p: NormalizedDae;
-  private readonly e1: Float64Array;
-  private readonly e2r: Float64Array;
-  private readonly e2i: Float64Array;
+  /** The flat kernels, which form the iteration matrices themselves (undefined with ml-matrix). */
+  private readonly flatReal: DenseLu | undefined;
+  private readonly flatComplex: ComplexLu | undefined;
+  /** The iteration matrices, formed here for ml-matrix's kernels only. */
+  private readonly formed: { readonly e1: Float64Array; readonly e2r: Float64Array; readonly e2i: Float64Array } | undefined;
   private readonly fdWork: Float64Array;
-  // Sparse copy of M (CSR) for adding its multiples; none for the identity.
-  private readonly mRowPtr: Int32Array | undefined;
-  private readonly mCol: Int32Array | undefined;
-  private readonly mVal: Float64Array | undefined;
+  private readonly mass: NormalizedDae['mass'];
   private readonly jf: NormalizedDae['jacobian'];
 
   constructor(p: NormalizedDae, take: TakeFloat64) {
     const n = p.n;
     this.n = n;
     this.p = p;
-    this.luReal = p.linearAlgebra === 'ml-matrix' ? createMlMatrixLu(n) : createDenseLu(n, take);
-    this.luComplex = p.linearAlgebra === 'ml-matrix' ? createEmbeddedComplexLu(n) : createComplexLu(n, take);
-    this.e1 = take(n * n);
-    this.e2r = take(n * n);
-    this.e2i = take(n * n);
+    if (p.linearAlgebra === 'ml-matrix') {
+      this.luReal = createMlMatrixLu(n);
+      this.luComplex = createEmbeddedComplexLu(n);
+      this.formed = { e1: take(n * n), e2r: take(n * n), e2i: take(n * n) };
+    } else {
+      this.luReal = this.flatReal = new DenseLu(n, take);
+      this.luComplex = this.flatComplex = new ComplexLu(n, take);
+    }
     this.fdWork = take(n);
-    this.mRowPtr = p.mass?.rowStart;
-    this.mCol = p.mass?.col;
-    this.mVal = p.mass?.value;
+    this.mass = p.mass;
     this.jf = p.jacobian;
     this.jacobianSize = n * n;
     this.analytic = this.jf !== undefined;
@@ -86,34 +86,40 @@ class DenseIterationSystem implements IterationSystem {
   }
 
   factor(J: Float64Array, fac1: number, alphn: number, betan: number): number {
-    const { n, e1, e2r, e2i, mRowPtr } = this;
+    const real = this.flatReal;
+    if (real) {
+      const bad = real.factorShifted(J, fac1, this.mass);
+      return bad >= 0 ? bad : this.flatComplex!.factorShifted(J, alphn, betan, this.mass);
+    }
+    const { n } = this;
+    const { e1, e2r, e2i } = this.formed!;
     for (let k = 0; k < n * n; k++) {
       const v = -J[k]!;
       e1[k] = v;
       e2r[k] = v;
     }
     e2i.fill(0);
-    if (!mRowPtr) {
+    const mass = this.mass;
+    if (!mass) {
       for (let i = 0; i < n; i++) {
         e1[i * n + i] = e1[i * n + i]! + fac1;
         e2r[i * n + i] = e2r[i * n + i]! + alphn;
         e2i[i * n + i] = betan;
       }
     } else {
-      const col = this.mCol!;
-      const val = this.mVal!;
+      const { rowStart, col, value } = mass;
       for (let i = 0; i < n; i++) {
-        for (let k = mRowPtr[i]!; k < mRowPtr[i + 1]!; k++) {
+        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
           const idx = i * n + col[k]!;
-          const m = val[k]!;
+          const m = value[k]!;
           e1[idx] = e1[idx]! + fac1 * m;
           e2r[idx] = e2r[idx]! + alphn * m;
           e2i[idx] = betan * m;
         }
       }
     }
-    const real = this.luReal.factor(e1);
-    return real >= 0 ? real : this.luComplex.factor(e2r, e2i);
+    const r = this.luReal.factor(e1);
+    return r >= 0 ? r : this.luComplex.factor(e2r, e2i);
   }
 
   toDense(jac: Float64Array, out: Float64Array): Float64Array {
@@ -123,6 +129,6 @@ class DenseIterationSystem implements IterationSystem {
 
   storage(): { jacobian: number; iterationMatrices: number; factors: number } {
     const n = this.n;
-    return { jacobian: 0, iterationMatrices: 3 * n * n, factors: 3 * n * n };
+    return { jacobian: 0, iterationMatrices: this.formed ? 3 * n * n : 0, factors: 3 * n * n };
   }
 }

@@ -1,6 +1,7 @@
 import { InputError } from '../errors.js';
 import { evaluateCollocation } from './collocation-polynomial.js';
 import { createDaeIntegratorFromNormalized, type DaeStepInterpolant } from './dae-integrator.js';
+import { float64View } from './float64-chunks.js';
 import { normalizeDae } from './normalize-problem.js';
 import { firstIndexAbove } from './sorted-search.js';
 import { StateRows } from './state-rows.js';
@@ -43,11 +44,14 @@ import type { DaeEventRecord, DaeProblem, DaeSolution, SolveDaeOptions } from '.
 export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): DaeSolution {
   const p = normalizeDae(problem, options);
   const integ = createDaeIntegratorFromNormalized(p);
-  const ts: number[] = [integ.t];
-  // The states row after row (no typed array per step); sol.y makes the per-point views on first use.
+  // The times and states row after row (no typed array per step); sol.y makes the per-point views on first use.
   const ys = new StateRows(p.n);
-  const scratch = new Float64Array(p.n);
-  ys.push(integ.readState(scratch));
+  // The point being stored: its time at 0, its state (a view) after it.
+  const point = new Float64Array(p.n + 1);
+  const state = float64View(point, 1, p.n);
+  point[0] = integ.t;
+  integ.readState(state);
+  ys.push(point);
   const pieces: DaeStepInterpolant[] = [];
   const events: DaeEventRecord[] = [];
   const outT = p.outputTimes;
@@ -68,14 +72,16 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
     const it: DaeStepInterpolant | undefined = step && { tOld: step.tOld, t: step.t, h: step.h, yOld: ys.row(ys.length - 1), q: step.q };
     if (r.jumpFrom) {
       // Re-initialised at a breakpoint: keep the left limit, then the right limit, at the same time.
-      ts.push(integ.t);
-      ys.push(r.jumpFrom);
+      point[0] = integ.t;
+      state.set(r.jumpFrom);
+      ys.push(point);
       if (p.denseOutput) pieces.push(it!, { tOld: integ.t, t: integ.t, h: 1, yOld: integ.y, q: new Float64Array(3 * p.n) });
     } else if (p.denseOutput) {
       pieces.push(it!);
     }
-    ts.push(integ.t);
-    ys.push(integ.readState(scratch));
+    point[0] = integ.t;
+    integ.readState(state);
+    ys.push(point);
     for (let k = 0; k < r.events.length; k++) events.push(r.events[k]!);
     while (outK < outT.length && outT[outK]! <= integ.t) {
       outY.push(evaluateCollocation(it!, outT[outK]!, new Float64Array(p.n)));
@@ -97,7 +103,7 @@ export function solveDae(problem: DaeProblem, options: SolveDaeOptions = {}): Da
   }
 
   const status = integ.status === 'running' ? 'success' : integ.status;
-  const tArr = Float64Array.from(ts);
+  const tArr = ys.times();
   const tReached = tArr[tArr.length - 1]!;
   const n = p.n;
   const message =

@@ -1,7 +1,9 @@
 /**
- * The states a run keeps, one row of n numbers per accepted point, stored
- * row after row in chunks (none is moved once written): a step stores a
- * copy of n numbers and allocates nothing of its own, where a typed array
+ * The points a run keeps, one row per accepted point (its time, then its n
+ * state numbers), stored row after row in chunks (none is moved once
+ * written): a step stores a copy of n + 1 numbers and allocates nothing of
+ * its own (the times in an array of their own grew it, and copying it into
+ * the solution's typed array took as long again), where a typed array
  * per point costs an allocation and garbage collection per step. Chunks
  * grow with the run (64 rows first, then twice as many rows as are stored,
  * up to about 32 KB), so a short solve pays for no large buffer, and a
@@ -14,9 +16,10 @@
  * @example
  * ```ts
  * const rows = new StateRows(2);
- * rows.push(Float64Array.of(1, 2));
+ * rows.push(Float64Array.of(0.5, 1, 2)); // t = 0.5, state [1, 2]
  * rows.row(0); // Float64Array [1, 2] (a view)
  * rows.get(0, 1); // 2
+ * rows.times(); // Float64Array [0.5]
  * ```
  */
 export class StateRows {
@@ -29,8 +32,12 @@ export class StateRows {
   private currentRows = 0;
   private count = 0;
 
+  /** Numbers per row: the time, then the state. */
+  private readonly width: number;
+
   constructor(private readonly n: number) {
-    this.maxRows = Math.max(16, Math.floor(4096 / Math.max(n, 1)));
+    this.width = n + 1;
+    this.maxRows = Math.max(16, Math.floor(4096 / this.width));
   }
 
   /** Rows stored. */
@@ -38,13 +45,17 @@ export class StateRows {
     return this.count;
   }
 
-  /** Append a copy of `state` (length n). */
-  push(state: Float64Array): void {
-    const n = this.n;
+  /**
+   * Append a copy of `point` (length n + 1): the time, then the state. One
+   * array rather than the time as an argument of its own: a number passed to
+   * a call that is not inlined is boxed on the heap, once per step.
+   */
+  push(point: Float64Array): void {
+    const width = this.width;
     let r = this.count - this.currentStart;
     if (r >= this.currentRows) {
       const rows = Math.min(this.maxRows, Math.max(FIRST_ROWS, 2 * this.count));
-      this.current = new Float64Array(rows * n);
+      this.current = new Float64Array(rows * width);
       this.chunks.push(this.current);
       this.starts.push(this.count);
       this.currentStart = this.count;
@@ -52,22 +63,35 @@ export class StateRows {
       r = 0;
     }
     const chunk = this.current;
-    const off = r * n;
-    for (let i = 0; i < n; i++) chunk[off + i] = state[i]!;
+    const off = r * width;
+    for (let i = 0; i < width; i++) chunk[off + i] = point[i]!;
     this.count++;
   }
 
-  /** Row k as a view of the storage (length n). */
+  /** The state of row k as a view of the storage (length n). */
   row(k: number): Float64Array {
     const c = this.chunkOf(k);
-    const off = (k - this.starts[c]!) * this.n;
+    const off = (k - this.starts[c]!) * this.width + 1;
     return new Float64Array(this.chunks[c]!.buffer, off * Float64Array.BYTES_PER_ELEMENT, this.n);
   }
 
-  /** Entry i of row k. */
+  /** Entry i of row k's state. */
   get(k: number, i: number): number {
     const c = this.chunkOf(k);
-    return this.chunks[c]![(k - this.starts[c]!) * this.n + i]!;
+    return this.chunks[c]![(k - this.starts[c]!) * this.width + 1 + i]!;
+  }
+
+  /** The times of all rows, in a typed array of their own. */
+  times(): Float64Array {
+    const out = new Float64Array(this.count);
+    const width = this.width;
+    for (let c = 0; c < this.chunks.length; c++) {
+      const chunk = this.chunks[c]!;
+      const start = this.starts[c]!;
+      const end = c + 1 < this.starts.length ? this.starts[c + 1]! : this.count;
+      for (let k = start; k < end; k++) out[k] = chunk[(k - start) * width]!;
+    }
+    return out;
   }
 
   /** Index of the chunk holding row k (the last chunk starting at or before k). */

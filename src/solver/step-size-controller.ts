@@ -60,3 +60,102 @@ export function stepAfterAccept(h: number, hNew: number, recomputeJacobian: bool
   const qt = hNew / h;
   return !recomputeJacobian && qt >= KEEP_STEP_LOW && qt <= KEEP_STEP_HIGH ? h : hNew;
 }
+
+/**
+ * An accepted step as the controller reads it, in one record the integrator
+ * rewrites per step (numbers passed to, or returned from, a call that is not
+ * inlined are boxed on the heap: half a dozen per step), with the next step
+ * size written back into `hNext` by {@link nextStepSize}.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const s: AcceptedStep = { h: 0.1, err: 0.3, hAcc: NaN, errAcc: NaN, maxStep: 1, newtonIterations: 2, rejected: false, recomputeJacobian: false, hNext: 0 };
+ * ```
+ */
+export interface AcceptedStep {
+  h: number;
+  /** Its error norm (below 1). */
+  err: number;
+  /** The previous accepted step and its error (NaN hAcc: no history). */
+  hAcc: number;
+  errAcc: number;
+  maxStep: number;
+  newtonIterations: number;
+  /** Whether an attempt of this step was rejected before. */
+  rejected: boolean;
+  /** Whether the Jacobian is evaluated afresh for the next step. */
+  recomputeJacobian: boolean;
+  /** Out: the step size to try next. */
+  hNext: number;
+}
+
+/**
+ * radau5's next step size after an accepted step (into `s.hNext`): the
+ * proposal h / max({@link errorQuotient}, {@link predictiveQuotient}) capped
+ * by maxStep and, after a rejection, by h; then {@link stepAfterAccept}.
+ * When {@link surelyKeepsStep} says h is kept, h without the powers.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * nextStepSize(s);
+ * this.hCur = s.hNext;
+ * ```
+ */
+export function nextStepSize(s: AcceptedStep): void {
+  const h = s.h;
+  if (!s.recomputeJacobian && surelyKeepsStep(s)) {
+    s.hNext = h;
+    return;
+  }
+  let hNew = h / predictiveQuotient(errorQuotient(s.err, s.newtonIterations), h, s.err, s.hAcc, s.errAcc);
+  hNew = Math.min(hNew, s.maxStep);
+  if (s.rejected) hNew = Math.min(hNew, h);
+  s.hNext = stepAfterAccept(h, hNew, s.recomputeJacobian);
+}
+
+/** Relative margin around the keep band: far above the few ulp between a fourth root by square roots and by the power. */
+const KEEP_MARGIN = 1e-12;
+
+/**
+ * Whether the proposal after the accepted step `s` surely lies in the keep
+ * band of {@link stepAfterAccept} (1 <= hNew/h <= 1.2), decided with fourth
+ * roots by two square roots instead of the powers of {@link errorQuotient}
+ * and {@link predictiveQuotient}: the two differ by a few ulp, and every
+ * step of the proposal (the bounds, the larger quotient, h / quot, the caps
+ * by maxStep and, after a rejection, by h) is monotone, so when the proposal
+ * with the quotient moved by a margin far above that either way still lies
+ * inside the band, the exact one does too. False when it cannot decide (the
+ * caller then takes the powers): about a third of the steps keep h, and the
+ * powers were a tenth of a small problem's time per step.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * if (!s.recomputeJacobian && surelyKeepsStep(s)) hNext = s.h;
+ * ```
+ */
+export function surelyKeepsStep(s: Omit<AcceptedStep, 'recomputeJacobian' | 'hNext'>): boolean {
+  const { h, err, hAcc, errAcc, maxStep, rejected } = s;
+  const cfac = SAFETY * (1 + 2 * NEWTON_MAX_ITERATIONS);
+  const fac = Math.min(SAFETY, cfac / (s.newtonIterations + 2 * NEWTON_MAX_ITERATIONS));
+  let quot = bounded(Math.sqrt(Math.sqrt(err)) / fac);
+  if (!Number.isNaN(hAcc)) quot = Math.max(quot, bounded(((hAcc / h) * Math.sqrt(Math.sqrt((err * err) / errAcc))) / SAFETY));
+  const lowest = capped(h, h / (quot * (1 + KEEP_MARGIN)), maxStep, rejected);
+  const highest = capped(h, h / (quot * (1 - KEEP_MARGIN)), maxStep, rejected);
+  if (lowest === highest) {
+    // A cap decided (maxStep, or h after a rejection): the exact proposal is capped to the same number.
+    const qt = lowest / h;
+    return qt >= KEEP_STEP_LOW && qt <= KEEP_STEP_HIGH;
+  }
+  const qLow = lowest / h;
+  const qHigh = highest / h;
+  return qLow >= KEEP_STEP_LOW * (1 + KEEP_MARGIN) && qHigh <= KEEP_STEP_HIGH * (1 - KEEP_MARGIN);
+}
+
+/** The proposal hNew capped as on acceptance: by maxStep, and by h after a rejection. */
+function capped(h: number, hNew: number, maxStep: number, rejected: boolean): number {
+  const c = Math.min(hNew, maxStep);
+  return rejected ? Math.min(c, h) : c;
+}

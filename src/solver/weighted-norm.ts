@@ -51,12 +51,20 @@ export function keepLargest(top: number[], size: number[], count: number, i: num
   let p = top.length;
   while (p > 0 && size[p - 1]! < a) p--;
   if (p >= count) return;
-  top.splice(p, 0, i);
-  size.splice(p, 0, a);
-  if (top.length > count) {
-    top.pop();
-    size.pop();
+  // Shift the smaller entries down by hand (splice allocates the array of removed entries per call).
+  let q = top.length;
+  if (q < count) {
+    top.push(i);
+    size.push(a);
+  } else {
+    q = count - 1;
   }
+  for (; q > p; q--) {
+    top[q] = top[q - 1]!;
+    size[q] = size[q - 1]!;
+  }
+  top[p] = i;
+  size[p] = a;
 }
 
 /**

@@ -4,18 +4,20 @@ import { StateRows } from '../../src/solver/state-rows.js';
 
 /** Storage only (common practice: a store must give back what was put in, across chunk boundaries). */
 describe('StateRows', () => {
-  it('gives back every row pushed, as views and entry by entry, across chunks', () => {
+  it('gives back every row pushed, as views and entry by entry, and every time, across chunks', () => {
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 700 }), fc.integer({ min: 0, max: 400 }), (n, rows) => {
         const store = new StateRows(n);
         const plain: Float64Array[] = [];
-        const state = new Float64Array(n);
+        const point = new Float64Array(n + 1);
         for (let k = 0; k < rows; k++) {
-          for (let i = 0; i < n; i++) state[i] = k * 1000 + i + 0.5;
-          store.push(state); // a copy: the caller reuses its array
-          plain.push(state.slice());
+          point[0] = k / 3;
+          for (let i = 0; i < n; i++) point[1 + i] = k * 1000 + i + 0.5;
+          store.push(point); // a copy: the caller reuses its array
+          plain.push(point.slice(1));
         }
         expect(store.length).toBe(rows);
+        expect(Array.from(store.times())).toEqual(Array.from({ length: rows }, (_, k) => k / 3));
         for (let k = 0; k < rows; k++) {
           expect(Array.from(store.row(k))).toEqual(Array.from(plain[k]!));
           expect(store.get(k, n - 1)).toBe(plain[k]![n - 1]);
