@@ -4,6 +4,7 @@ import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } f
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { SampleRecord } from './sample-record.js';
+import { emptyObjectArray } from './empty-object-array.js';
 import { StepBuffer, StepRecord } from './step-record.js';
 import { createProjector } from './projection.js';
 import type { InputView } from '../elements/element-kind.js';
@@ -153,7 +154,7 @@ export class NetworkRun {
   private readonly integ: DaeIntegrator;
   private readonly index2: readonly number[];
   /** The inputs in force over each input interval, in time order (immutable values; steps and samples refer to them by index). */
-  readonly intervals: InputsInForce[] = [];
+  readonly intervals = emptyObjectArray<InputsInForce>();
   /** Samples recorded so far, in time order (one row of numbers each). */
   readonly sampleRecord: SampleRecord;
   /** Step interpolants recorded so far, in time order (one row of numbers each; only the last when streaming). */

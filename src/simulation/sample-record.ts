@@ -44,12 +44,12 @@ export class SampleRecord {
   /** Keep a sample: a copy of y at time t in input interval `interval`. */
   push(t: number, interval: number, y: Float64Array): void {
     const k = this.rows.pushZeros();
-    const block = this.rows.writable(k);
+    const data = this.rows.writable(k);
     const o = this.rows.offsetOf(k);
-    block[o + TIME] = t;
-    block[o + INTERVAL] = interval;
+    data[o + TIME] = t;
+    data[o + INTERVAL] = interval;
     const n = this.size;
-    for (let i = 0; i < n; i++) block[o + STATE + i] = y[i]!;
+    for (let i = 0; i < n; i++) data[o + STATE + i] = y[i]!;
   }
 
   /** Time of sample k, s. */
@@ -75,18 +75,6 @@ export class SampleRecord {
   /** Sample k's state copied into out; returns out. */
   state(k: number, out: Float64Array): Float64Array {
     return this.rows.copyOut(k, STATE, this.size, out);
-  }
-
-  /** Whether sample k's state is y bit for bit (signed zeros told apart). */
-  stateEquals(k: number, y: Float64Array): boolean {
-    const block = this.rows.blockOf(k);
-    const o = this.rows.offsetOf(k) + STATE;
-    for (let i = 0; i < this.size; i++) {
-      const a = block[o + i]!;
-      const b = y[i]!;
-      if (a !== b || (a === 0 && 1 / a !== 1 / b)) return false;
-    }
-    return true;
   }
 
   /** Keep the first `count` samples only. */

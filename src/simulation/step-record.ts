@@ -24,9 +24,9 @@ const Y_OLD = 5;
  * @internal
  */
 export class StepBuffer implements RecordedStep {
-  tOld = 0;
-  t = 0;
-  h = 0;
+  tOld = NaN;
+  t = NaN;
+  h = NaN;
   interval = 0;
   firstAfterStart = false;
   readonly yOld: Float64Array;
@@ -78,18 +78,18 @@ export class StepRecord {
   /** Keep a copy of a step. */
   push(step: RecordedStep): void {
     const k = this.rows.pushZeros();
-    const block = this.rows.writable(k);
+    const data = this.rows.writable(k);
     const o = this.rows.offsetOf(k);
-    block[o + T_OLD] = step.tOld;
-    block[o + T] = step.t;
-    block[o + H] = step.h;
-    block[o + INTERVAL] = step.interval;
-    block[o + FIRST] = step.firstAfterStart ? 1 : 0;
+    data[o + T_OLD] = step.tOld;
+    data[o + T] = step.t;
+    data[o + H] = step.h;
+    data[o + INTERVAL] = step.interval;
+    data[o + FIRST] = step.firstAfterStart ? 1 : 0;
     const n = this.size;
     const yOld = step.yOld;
     const q = step.q;
-    for (let i = 0; i < n; i++) block[o + Y_OLD + i] = yOld[i]!;
-    for (let i = 0; i < 3 * n; i++) block[o + Y_OLD + n + i] = q[i]!;
+    for (let i = 0; i < n; i++) data[o + Y_OLD + i] = yOld[i]!;
+    for (let i = 0; i < 3 * n; i++) data[o + Y_OLD + n + i] = q[i]!;
   }
 
   /** Start time of step k, s. */
@@ -109,13 +109,13 @@ export class StepRecord {
 
   /** Step k copied into `into`; returns it. */
   load(k: number, into: StepBuffer): StepBuffer {
-    const block = this.rows.blockOf(k);
+    const data = this.rows.buffer;
     const o = this.rows.offsetOf(k);
-    into.tOld = block[o + T_OLD]!;
-    into.t = block[o + T]!;
-    into.h = block[o + H]!;
-    into.interval = block[o + INTERVAL]!;
-    into.firstAfterStart = block[o + FIRST] === 1;
+    into.tOld = data[o + T_OLD]!;
+    into.t = data[o + T]!;
+    into.h = data[o + H]!;
+    into.interval = data[o + INTERVAL]!;
+    into.firstAfterStart = data[o + FIRST] === 1;
     const n = this.size;
     this.rows.copyOut(k, Y_OLD, n, into.yOld);
     this.rows.copyOut(k, Y_OLD + n, 3 * n, into.q);

@@ -1,6 +1,6 @@
 /**
- * What a run records, stored as rows of numbers in blocks (Float64Rows,
- * SampleRecord, StepRecord) instead of an object and a typed array per
+ * What a run records, stored as rows of numbers in one growing buffer
+ * (Float64Rows, SampleRecord, StepRecord) instead of an object and a typed array per
  * sample and per step: the rows read back the solver's states bit for bit,
  * the memory they hold is bounded by the count of numbers recorded, and a
  * result taken from a live run does not change as the run goes on.
@@ -48,11 +48,10 @@ function recordedRun(stop: number, interpolants = true) {
   return { run, compiled, coil, solverStates };
 }
 
-describe('Float64Rows (rows of numbers in blocks)', () => {
-  it('reads back every entry across block boundaries, and truncation drops rows', () => {
-    // Width 3, blocks of 8 numbers: two rows per block, so 9 rows span five blocks.
+describe('Float64Rows (rows of numbers in one growing buffer)', () => {
+  it('reads back every entry as the buffer grows, and truncation drops rows', () => {
+    // Width 3, a first buffer of 8 numbers: it grows at the third row, then doubles.
     const rows = new Float64Rows(3, 8);
-    expect(rows.rowsPerBlock).toBe(2);
     for (let k = 0; k < 9; k++) {
       const r = rows.pushZeros();
       for (let j = 0; j < 3; j++) rows.set(r, j, 10 * k + j);
@@ -66,29 +65,32 @@ describe('Float64Rows (rows of numbers in blocks)', () => {
     expect([rows.get(r, 0), rows.get(r, 1), rows.get(r, 2)]).toEqual([0, 0, 0]);
   });
 
-  it('holds at most one block beyond the numbers recorded (memory by count of numbers)', () => {
+  it('holds at most twice the numbers recorded, or its first buffer (memory by count of numbers)', () => {
     const width = 7;
-    const rows = new Float64Rows(width, 100);
-    for (let k = 0; k < 1000; k++) rows.pushZeros();
-    // 14 rows per block of 98 numbers: the rows' numbers plus at most one partly filled block.
-    expect(rows.storedNumbers).toBeLessThanOrEqual(1000 * width + rows.rowsPerBlock * width);
-    expect(rows.storedNumbers).toBeGreaterThanOrEqual(1000 * width);
+    for (const count of [1, 10, 1000, 12345]) {
+      const rows = new Float64Rows(width, 100);
+      for (let k = 0; k < count; k++) rows.pushZeros();
+      expect(rows.storedNumbers).toBeGreaterThanOrEqual(count * width);
+      expect(rows.storedNumbers).toBeLessThanOrEqual(Math.max(2 * count * width, 100));
+    }
   });
 
   it('keeps a snapshot unchanged while the table goes on, is truncated and written again', () => {
-    const rows = new Float64Rows(2, 6);
+    const rows = new Float64Rows(2, 64);
     for (let k = 0; k < 5; k++) {
       const r = rows.pushZeros();
       rows.set(r, 0, k);
       rows.set(r, 1, -k);
     }
     const snap = rows.snapshot();
-    rows.set(4, 1, 99); // into the shared, partly filled last block
+    rows.set(4, 1, 99); // a correction of the last row, which the snapshot holds
+    rows.pushZeros(); // appended in the shared buffer, past the snapshot's rows
+    rows.set(5, 0, 55);
     rows.truncate(2);
     for (let k = 0; k < 4; k++) rows.set(rows.pushZeros(), 0, 100 + k);
     expect(snap.length).toBe(5);
     for (let k = 0; k < 5; k++) expect([snap.get(k, 0), snap.get(k, 1)]).toEqual([k, -k]);
-    expect([rows.get(4, 0), rows.get(5, 0)]).toEqual([102, 103]);
+    expect([rows.get(1, 0), rows.get(4, 0), rows.get(5, 0)]).toEqual([1, 102, 103]);
   });
 });
 
@@ -134,16 +136,19 @@ describe('a run records its samples and steps as rows', () => {
     }
   });
 
-  it('holds memory in proportion to the numbers recorded, and one block of steps when streaming', () => {
+  it('holds memory in proportion to the numbers recorded, and one buffer of steps when streaming', () => {
     const n = samples.size;
     const sampleRows = new SampleRecord(n);
     const stepRows = new StepRecord(n);
-    expect(samples.storedNumbers).toBeLessThanOrEqual((samples.length + 4096) * (n + 2));
-    expect(run.stepRecord.storedNumbers).toBeLessThanOrEqual((run.stepRecord.length + 4096) * (4 * n + 5));
+    // Per sample its time, interval and state; per step its span, interval, flag, start state and 3n
+    // coefficients: at most twice those numbers, or the first buffer (16384 numbers).
+    expect(samples.storedNumbers).toBeLessThanOrEqual(Math.max(2 * samples.length * (n + 2), 16384));
+    expect(run.stepRecord.storedNumbers).toBeLessThanOrEqual(Math.max(2 * run.stepRecord.length * (4 * n + 5), 16384));
+    // Nothing before the first row.
     expect(sampleRows.storedNumbers + stepRows.storedNumbers).toBe(0);
     const streamed = recordedRun(stop, false).run;
     expect(streamed.stepRecord.length).toBe(1);
-    expect(streamed.stepRecord.storedNumbers).toBeLessThanOrEqual(4096 + 4 * n + 5);
+    expect(streamed.stepRecord.storedNumbers).toBeLessThanOrEqual(16384);
   });
 });
 
