@@ -1,22 +1,25 @@
+import { emptyObjectArray } from './empty-object-array.js';
+
 /**
- * A growing table of rows of `width` numbers, stored row after row in one
- * Float64Array that doubles when full: what a run records (its samples, its
- * steps) without an object or a typed array per row. A run of thousands of
- * steps then makes a handful of buffers instead of thousands of small
- * objects for the garbage collector to trace.
+ * A growing table of rows of `width` numbers, stored row after row in
+ * blocks that double in size up to a cap (never moved once made): what a
+ * run records (its samples, its steps) without an object or a typed array
+ * per row, so a run of thousands of steps makes a handful of buffers
+ * instead of thousands of small objects for the garbage collector to trace.
  *
- * Why one buffer that doubles rather than many small blocks: each
- * ArrayBuffer costs a fixed amount on top of its size, and measured on our
- * bench machine that fixed cost dominates (30 Float64Arrays of 4096 numbers:
- * about 3 ms; one of 30 x 4096 numbers, written in full: about 0.25 ms).
- * Doubling copies each number about once on average; the buffer holds at
- * most twice the numbers recorded (plus the first buffer).
+ * Why few blocks that are never copied: on our bench machine memory a
+ * process touches for the first time costs about 4 ms per MiB (measured:
+ * writing one number per 4 KiB page of a fresh 1 MiB Float64Array), and
+ * each ArrayBuffer costs a fixed amount on top of that. Blocks of 32 KiB
+ * paid the fixed cost some thirty times per flux-walk run; one buffer that
+ * doubles and copies touches about twice the memory it keeps. Blocks that
+ * double touch only the pages they fill (a large block's untouched end is
+ * not paid for) and number O(log rows).
  *
- * Snapshots share the buffer: {@link Float64Rows.snapshot} gives a table of
- * the rows so far that never changes. This table goes on appending past
- * them in the same buffer (the snapshot reads only its own rows), and
- * copies the buffer before it writes into a row the snapshot holds (after a
- * truncation, or a correction of the last row).
+ * Snapshots share blocks: {@link Float64Rows.snapshot} gives a table of the
+ * rows so far that never changes, and this table copies a shared block
+ * before it writes into it again (appending into a partly filled last
+ * block, after a truncation, or correcting a row).
  *
  * @example
  * ```ts
@@ -29,23 +32,23 @@
  * @internal
  */
 export class Float64Rows {
-  /** Numbers in the first buffer. */
-  private readonly firstLength: number;
-  private data: Float64Array;
+  /** Rows in the first block; block b holds firstRows 2^min(b, MAX_DOUBLINGS) rows. */
+  readonly firstRows: number;
+  /** First row past the blocks that double (where the blocks of the largest size begin). */
+  private readonly cappedStart: number;
+  private readonly cappedRows: number;
+  private blocks = emptyObjectArray<Float64Array>();
+  /** Whether block b is shared with a snapshot (copied before the next write into it). */
+  private shared = emptyObjectArray<boolean>();
   private count = 0;
-  /** Rows below this index are shared with a snapshot: the buffer is copied before any of them is written. */
-  private sharedRows = 0;
 
   constructor(
     readonly width: number,
     firstLength = FIRST_LENGTH,
-    data?: Float64Array,
-    count = 0,
   ) {
-    this.data = data ?? new Float64Array(0);
-    this.count = count;
-    this.sharedRows = data ? count : 0;
-    this.firstLength = firstLength;
+    this.firstRows = Math.max(1, Math.floor(firstLength / Math.max(1, width)));
+    this.cappedRows = this.firstRows * 2 ** MAX_DOUBLINGS;
+    this.cappedStart = this.firstRows * (2 ** MAX_DOUBLINGS - 1);
   }
 
   /** Number of rows. */
@@ -53,89 +56,111 @@ export class Float64Rows {
     return this.count;
   }
 
-  /** Numbers held (the memory the table keeps: its rows plus the unused end of its buffer). */
+  /** Numbers held in blocks (the memory the table keeps: its rows plus the unused end of the last block). */
   get storedNumbers(): number {
-    return this.data.length;
+    let s = 0;
+    for (let b = 0; b < this.blocks.length; b++) s += this.blocks[b]!.length;
+    return s;
+  }
+
+  /** Index of the block holding row k. */
+  blockIndex(k: number): number {
+    if (k < this.cappedStart) return 31 - Math.clz32(Math.floor(k / this.firstRows) + 1);
+    return MAX_DOUBLINGS + Math.floor((k - this.cappedStart) / this.cappedRows);
+  }
+
+  /** First row of block b. */
+  private blockStart(b: number): number {
+    if (b <= MAX_DOUBLINGS) return this.firstRows * (2 ** b - 1);
+    return this.cappedStart + (b - MAX_DOUBLINGS) * this.cappedRows;
   }
 
   /**
    * Append a zero-filled row; returns its index (fill it through
-   * {@link Float64Rows.buffer} and {@link Float64Rows.offsetOf}, or
-   * {@link Float64Rows.set}). Numbers past the last row are kept zero (see
-   * truncate), so this writes nothing unless the buffer grows.
+   * {@link Float64Rows.writable} and {@link Float64Rows.offsetOf}, or
+   * {@link Float64Rows.set}). Rows past the count are kept zero (see
+   * truncate), so this writes nothing.
    */
   pushZeros(): number {
     const k = this.count;
-    const end = (k + 1) * this.width;
-    if (end > this.data.length) this.grow(end);
+    const b = this.blockIndex(k);
+    if (b === this.blocks.length) {
+      this.blocks.push(new Float64Array(Math.min(this.firstRows * 2 ** b, this.cappedRows) * this.width));
+      this.shared.push(false);
+    }
     this.count = k + 1;
     return k;
   }
 
-  /** A buffer of at least `length` numbers holding the rows so far (double the old one, at least the first length). */
-  private grow(length: number): void {
-    const bigger = new Float64Array(Math.max(length, 2 * this.data.length, this.firstLength));
-    bigger.set(this.count * this.width === this.data.length ? this.data : this.data.subarray(0, this.count * this.width));
-    this.data = bigger;
-    this.sharedRows = 0;
-  }
-
-  /**
-   * The buffer that holds row k, ready to write into it (copied first when a
-   * snapshot holds row k); the row starts at {@link Float64Rows.offsetOf}.
-   * Valid until the next push.
-   */
+  /** The block holding row k, made writable (a shared block is copied first); the row starts at {@link Float64Rows.offsetOf}. */
   writable(k: number): Float64Array {
-    if (k < this.sharedRows) {
-      this.data = this.data.slice();
-      this.sharedRows = 0;
+    const b = this.blockIndex(k);
+    if (this.shared[b]) {
+      this.blocks[b] = this.blocks[b]!.slice();
+      this.shared[b] = false;
     }
-    return this.data;
+    return this.blocks[b]!;
   }
 
-  /** The buffer, for reading only (valid until the next push). */
-  get buffer(): Float64Array {
-    return this.data;
+  /** The block holding row k (for reading only). */
+  blockOf(k: number): Float64Array {
+    return this.blocks[this.blockIndex(k)]!;
   }
 
-  /** Where row k starts in the buffer. */
+  /** Where row k starts in its block. */
   offsetOf(k: number): number {
-    return k * this.width;
+    return (k - this.blockStart(this.blockIndex(k))) * this.width;
   }
 
   /** Entry j of row k. */
   get(k: number, j: number): number {
-    return this.data[k * this.width + j]!;
+    return this.blockOf(k)[this.offsetOf(k) + j]!;
   }
 
   /** Set entry j of row k. */
   set(k: number, j: number, value: number): void {
-    this.writable(k)[k * this.width + j] = value;
+    this.writable(k)[this.offsetOf(k) + j] = value;
   }
 
   /** Copy `length` entries of row k from entry j on into out[at...]; returns out. */
   copyOut(k: number, j: number, length: number, out: Float64Array, at = 0): Float64Array {
-    const data = this.data;
-    const o = k * this.width + j;
-    for (let i = 0; i < length; i++) out[at + i] = data[o + i]!;
+    const block = this.blockOf(k);
+    const o = this.offsetOf(k) + j;
+    for (let i = 0; i < length; i++) out[at + i] = block[o + i]!;
     return out;
   }
 
-  /** Keep the first `count` rows only (the buffer keeps its size). */
+  /** Keep the first `count` rows only (blocks past them are released). */
   truncate(count: number): void {
     if (count >= this.count) return;
     const keep = Math.max(0, count);
-    // The dropped rows go back to zero (pushZeros relies on it), in a copy if a snapshot holds them.
-    this.writable(keep).fill(0, keep * this.width, this.count * this.width);
+    const old = this.count;
     this.count = keep;
+    const blocks = keep === 0 ? 0 : this.blockIndex(keep - 1) + 1;
+    this.blocks.length = blocks;
+    this.shared.length = blocks;
+    // The dropped rows of the last block kept go back to zero (pushZeros relies on it).
+    if (blocks > 0 && this.blockIndex(keep) === blocks - 1) {
+      const end = this.blockIndex(old - 1) === blocks - 1 ? this.offsetOf(old - 1) + this.width : undefined;
+      this.writable(keep).fill(0, this.offsetOf(keep), end);
+    }
   }
 
-  /** The rows so far as a table that never changes (it shares this table's buffer; see the class comment). */
+  /** The rows so far as a table that never changes (blocks shared until this one writes into them). */
   snapshot(): Float64Rows {
-    this.sharedRows = this.count;
-    return new Float64Rows(this.width, this.firstLength, this.data, this.count);
+    const s = new Float64Rows(this.width, this.firstRows * Math.max(1, this.width));
+    for (let b = 0; b < this.blocks.length; b++) {
+      s.blocks.push(this.blocks[b]!);
+      s.shared.push(true);
+      this.shared[b] = true;
+    }
+    s.count = this.count;
+    return s;
   }
 }
 
-/** Numbers in the first buffer (128 KiB): the few thousand samples of a short run without growing. */
+/** Numbers in the first block (128 KiB: a few thousand samples of a small network). */
 const FIRST_LENGTH = 16384;
+
+/** Times the block size doubles (the largest blocks hold 64 times the first). */
+const MAX_DOUBLINGS = 6;

@@ -109,7 +109,7 @@ export class StepRecord {
 
   /** Step k copied into `into`; returns it. */
   load(k: number, into: StepBuffer): StepBuffer {
-    const data = this.rows.buffer;
+    const data = this.rows.blockOf(k);
     const o = this.rows.offsetOf(k);
     into.tOld = data[o + T_OLD]!;
     into.t = data[o + T]!;

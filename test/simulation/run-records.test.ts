@@ -48,35 +48,42 @@ function recordedRun(stop: number, interpolants = true) {
   return { run, compiled, coil, solverStates };
 }
 
-describe('Float64Rows (rows of numbers in one growing buffer)', () => {
+describe('Float64Rows (rows of numbers in blocks that double)', () => {
   it('reads back every entry as the buffer grows, and truncation drops rows', () => {
-    // Width 3, a first buffer of 8 numbers: it grows at the third row, then doubles.
+    // Width 3, a first block of 8 numbers: blocks of 2, 4, 8, ... rows; 40 rows span five blocks.
     const rows = new Float64Rows(3, 8);
-    for (let k = 0; k < 9; k++) {
+    expect(rows.firstRows).toBe(2);
+    for (let k = 0; k < 40; k++) {
       const r = rows.pushZeros();
       for (let j = 0; j < 3; j++) rows.set(r, j, 10 * k + j);
     }
-    expect(rows.length).toBe(9);
-    for (let k = 0; k < 9; k++) for (let j = 0; j < 3; j++) expect(rows.get(k, j)).toBe(10 * k + j);
+    expect(rows.length).toBe(40);
+    expect([0, 1, 2, 5, 6, 13, 14, 29, 30, 39].map((k) => rows.blockIndex(k))).toEqual([0, 0, 1, 1, 2, 2, 3, 3, 4, 4]);
+    for (let k = 0; k < 40; k++) for (let j = 0; j < 3; j++) expect(rows.get(k, j)).toBe(10 * k + j);
     rows.truncate(3);
     expect(rows.length).toBe(3);
+    expect(rows.storedNumbers).toBe((2 + 4) * 3);
     // A row pushed after a truncation starts at zero, not at what the dropped row held.
     const r = rows.pushZeros();
     expect([rows.get(r, 0), rows.get(r, 1), rows.get(r, 2)]).toEqual([0, 0, 0]);
   });
 
-  it('holds at most twice the numbers recorded, or its first buffer (memory by count of numbers)', () => {
+  it('holds less than twice the numbers recorded plus its first block (memory by count of numbers)', () => {
     const width = 7;
-    for (const count of [1, 10, 1000, 12345]) {
+    // Past 63 first blocks the blocks stop doubling (64 first blocks each): the bound holds there too.
+    for (const count of [1, 10, 1000, 12345, 60000]) {
       const rows = new Float64Rows(width, 100);
       for (let k = 0; k < count; k++) rows.pushZeros();
       expect(rows.storedNumbers).toBeGreaterThanOrEqual(count * width);
-      expect(rows.storedNumbers).toBeLessThanOrEqual(Math.max(2 * count * width, 100));
+      expect(rows.storedNumbers).toBeLessThan(2 * count * width + rows.firstRows * width);
+      // Every row reads back as zero (nothing written).
+      expect(rows.get(count - 1, width - 1)).toBe(0);
     }
   });
 
   it('keeps a snapshot unchanged while the table goes on, is truncated and written again', () => {
-    const rows = new Float64Rows(2, 64);
+    // Blocks of 3, 6, 12... rows: the snapshot's five rows end inside the second block.
+    const rows = new Float64Rows(2, 6);
     for (let k = 0; k < 5; k++) {
       const r = rows.pushZeros();
       rows.set(r, 0, k);
@@ -84,7 +91,7 @@ describe('Float64Rows (rows of numbers in one growing buffer)', () => {
     }
     const snap = rows.snapshot();
     rows.set(4, 1, 99); // a correction of the last row, which the snapshot holds
-    rows.pushZeros(); // appended in the shared buffer, past the snapshot's rows
+    rows.pushZeros(); // appended in a block the snapshot shares, past its rows
     rows.set(5, 0, 55);
     rows.truncate(2);
     for (let k = 0; k < 4; k++) rows.set(rows.pushZeros(), 0, 100 + k);
@@ -136,14 +143,14 @@ describe('a run records its samples and steps as rows', () => {
     }
   });
 
-  it('holds memory in proportion to the numbers recorded, and one buffer of steps when streaming', () => {
+  it('holds memory in proportion to the numbers recorded, and one block of steps when streaming', () => {
     const n = samples.size;
     const sampleRows = new SampleRecord(n);
     const stepRows = new StepRecord(n);
     // Per sample its time, interval and state; per step its span, interval, flag, start state and 3n
-    // coefficients: at most twice those numbers, or the first buffer (16384 numbers).
-    expect(samples.storedNumbers).toBeLessThanOrEqual(Math.max(2 * samples.length * (n + 2), 16384));
-    expect(run.stepRecord.storedNumbers).toBeLessThanOrEqual(Math.max(2 * run.stepRecord.length * (4 * n + 5), 16384));
+    // coefficients: less than twice those numbers plus the first block (16384 numbers).
+    expect(samples.storedNumbers).toBeLessThan(2 * samples.length * (n + 2) + 16384);
+    expect(run.stepRecord.storedNumbers).toBeLessThan(2 * run.stepRecord.length * (4 * n + 5) + 16384);
     // Nothing before the first row.
     expect(sampleRows.storedNumbers + stepRows.storedNumbers).toBe(0);
     const streamed = recordedRun(stop, false).run;
