@@ -503,12 +503,13 @@ export function resultFromRun(
 ): SimulationResult {
   // A terminal event is handled by the stepper (it resumes); it is not an outcome of the record.
   const status = run.status === 'running' || run.status === 'terminal-event' ? 'success' : run.status;
+  const samples = run.sampleRecord.snapshot();
   return new SimulationResult({
     compiled,
     networkId,
-    samples: run.sampleRecord.snapshot(),
+    samples,
     intervals: [...run.intervals],
-    steps: run.stepRecord.snapshot(),
+    steps: run.stepRecord.snapshot(samples),
     initialState: run.initialState,
     finalState: run.y,
     stats: run.stats,

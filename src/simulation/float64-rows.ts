@@ -130,18 +130,24 @@ export class Float64Rows {
     return out;
   }
 
-  /** Keep the first `count` rows only (blocks past them are released). */
+  /**
+   * Keep the first `count` rows only. Blocks past the one the next row goes
+   * into are released; that one is kept (a streaming run keeps one step and
+   * truncates to none at every step: no block is made again each time).
+   */
   truncate(count: number): void {
     if (count >= this.count) return;
     const keep = Math.max(0, count);
     const old = this.count;
     this.count = keep;
-    const blocks = keep === 0 ? 0 : this.blockIndex(keep - 1) + 1;
-    this.blocks.length = blocks;
-    this.shared.length = blocks;
-    // The dropped rows of the last block kept go back to zero (pushZeros relies on it).
-    if (blocks > 0 && this.blockIndex(keep) === blocks - 1) {
-      const end = this.blockIndex(old - 1) === blocks - 1 ? this.offsetOf(old - 1) + this.width : undefined;
+    const next = this.blockIndex(keep);
+    if (this.blocks.length > next + 1) {
+      this.blocks.length = next + 1;
+      this.shared.length = next + 1;
+    }
+    // The dropped rows of that block go back to zero (pushZeros relies on it).
+    if (next < this.blocks.length) {
+      const end = this.blockIndex(old - 1) === next ? this.offsetOf(old - 1) + this.width : undefined;
       this.writable(keep).fill(0, this.offsetOf(keep), end);
     }
   }

@@ -242,7 +242,7 @@ export class NetworkRun {
     this.inside = new Float64Array(compiled.layout.size);
     this.hand = new StepBuffer(compiled.layout.size);
     this.sampleRecord = new SampleRecord(compiled.layout.size);
-    this.stepRecord = new StepRecord(compiled.layout.size);
+    this.stepRecord = new StepRecord(compiled.layout.size, this.sampleRecord);
     this.horizon = settings.horizon;
     this.span = settings.horizon - settings.t0;
     this.check = settings.check;
@@ -796,8 +796,22 @@ export class NetworkRun {
       this.everyStepKept = false;
       steps.truncate(0);
     }
-    steps.push(step);
+    // The step starts where the last sample was taken (its end, or the restart): named, not copied.
+    steps.push(step, this.lastSampleEqualTo(step.tOld, step.yOld));
     return step;
+  }
+
+  /**
+   * The index of the last sample when it is the state `y` at time t of the present interval, bit
+   * for bit (a step's start state, kept already as the sample at the previous step's end or at the
+   * restart), else -1. Not with index-2 unknowns: the first step after a restart rewrites them in
+   * the start sample, not in the step's start state.
+   */
+  private lastSampleEqualTo(t: number, y: Float64Array): number {
+    const samples = this.sampleRecord;
+    const last = samples.length - 1;
+    if (last < 0 || this.index2.length > 0 || samples.time(last) !== t || samples.interval(last) !== this.intervals.length - 1) return -1;
+    return samples.stateEquals(last, y) ? last : -1;
   }
 
   /** The last step kept, in arrays of its own (undefined before the first step). */

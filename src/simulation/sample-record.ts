@@ -77,6 +77,18 @@ export class SampleRecord {
     return this.rows.copyOut(k, STATE, this.size, out);
   }
 
+  /** Whether sample k's state is y bit for bit (signed zeros told apart). */
+  stateEquals(k: number, y: Float64Array): boolean {
+    const data = this.rows.blockOf(k);
+    const o = this.rows.offsetOf(k) + STATE;
+    for (let i = 0; i < this.size; i++) {
+      const a = data[o + i]!;
+      const b = y[i]!;
+      if (a !== b || (a === 0 && 1 / a !== 1 / b)) return false;
+    }
+    return true;
+  }
+
   /** Keep the first `count` samples only. */
   truncate(count: number): void {
     this.rows.truncate(count);

@@ -39,12 +39,12 @@ function rl() {
 }
 
 /** The RL circuit run by a NetworkRun directly, with the solver's state after every step captured. */
-function recordedRun(stop: number, interpolants = true) {
+function recordedRun(stop: number, interpolants = true, steps = true) {
   const { net, coil } = rl();
   const { compiled } = acceptNetwork(net, 'test');
   const run = new NetworkRun(compiled, { t0: 0, horizon: stop, rtol: 1e-8, atol: 1e-8 });
   const solverStates: { t: number; y: Float64Array }[] = [];
-  run.advanceTo(stop, { steps: true, interpolants, onStep: (t) => solverStates.push({ t, y: run.y }) });
+  run.advanceTo(stop, { steps, interpolants, onStep: (t) => solverStates.push({ t, y: run.y }) });
   return { run, compiled, coil, solverStates };
 }
 
@@ -143,14 +143,27 @@ describe('a run records its samples and steps as rows', () => {
     }
   });
 
+  it('keeps a start state of its own for steps that start on no sample (a run keeping steps, not samples)', () => {
+    const other = recordedRun(stop, true, false);
+    const steps = other.run.stepRecord;
+    expect(other.run.sampleRecord.length).toBe(0);
+    expect(steps.length).toBe(other.solverStates.length);
+    const step = new StepBuffer(steps.size);
+    for (let k = 1; k < steps.length; k++) {
+      // Bit for bit the solver's state at the previous step's end.
+      expect(Array.from(steps.load(k, step).yOld)).toEqual(Array.from(other.solverStates[k - 1]!.y));
+    }
+  });
+
   it('holds memory in proportion to the numbers recorded, and one block of steps when streaming', () => {
     const n = samples.size;
     const sampleRows = new SampleRecord(n);
-    const stepRows = new StepRecord(n);
-    // Per sample its time, interval and state; per step its span, interval, flag, start state and 3n
-    // coefficients: less than twice those numbers plus the first block (16384 numbers).
+    const stepRows = new StepRecord(n, sampleRows);
+    // Per sample its time, interval and state; per step its span, interval, flag, where its start state
+    // is and 3n coefficients: less than twice those numbers plus the first block (16384 numbers). Every
+    // step here starts on a kept sample (no breakpoints, no index-2 unknowns): no start state is copied.
     expect(samples.storedNumbers).toBeLessThan(2 * samples.length * (n + 2) + 16384);
-    expect(run.stepRecord.storedNumbers).toBeLessThan(2 * run.stepRecord.length * (4 * n + 5) + 16384);
+    expect(run.stepRecord.storedNumbers).toBeLessThan(2 * run.stepRecord.length * (3 * n + 6) + 16384);
     // Nothing before the first row.
     expect(sampleRows.storedNumbers + stepRows.storedNumbers).toBe(0);
     const streamed = recordedRun(stop, false).run;
