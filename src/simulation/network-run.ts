@@ -759,7 +759,7 @@ export class NetworkRun {
       this.startState = this.integ.y;
       this.startStatePending = true;
     }
-    if (record.steps || (record.sampleTimes ?? []).includes(this.t)) {
+    if (record.steps || record.sampleTimes?.includes(this.t) === true) {
       this.pushSample(this.t, this.integ.readState(this.scratch));
       this.pendingStartSample = this.sampleRecord.length - 1;
     } else {
