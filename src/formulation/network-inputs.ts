@@ -75,6 +75,9 @@ function nextGateEdge(w: Waveform, after: number): number {
   return Infinity;
 }
 
+/** Held-value lists a schedule remembers for sharing (a drive with a few levels needs a few). */
+const HELD_LISTS_KEPT = 4;
+
 /**
  * Relative spacing below which two breakpoints count as one: 1000 units of
  * round-off (about 1.1e-13 relative), 100 times the solver's smallest step.
@@ -273,18 +276,45 @@ export class InputSchedule {
    * for other waveforms, which are never evaluated here: a user function is
    * called only at the times the solver asks for).
    */
-  heldSources(a: number, b: number): (number | undefined)[] {
-    const out = new Array<number | undefined>(this.waveforms.length);
+  heldSources(a: number, b: number): readonly (number | undefined)[] {
+    const out = (this.heldScratch ??= new Array<number | undefined>(this.waveforms.length));
     for (let e = 0; e < this.waveforms.length; e++) {
       const o = this.sourceOverride[e];
       const w = this.waveforms[e];
-      if (o !== undefined) out[e] = o;
+      let v: number | undefined;
+      if (o !== undefined) v = o;
       else if (w?.piecewiseLinear === true) {
         const va = w.value(a);
-        out[e] = va === w.value(b) && Number.isFinite(va) ? va : undefined;
+        v = va === w.value(b) && Number.isFinite(va) ? va : undefined;
       }
+      out[e] = v;
     }
-    return out;
+    return this.internHeld(out);
+  }
+
+  /** Held-value lists handed out so far, most recent first (see internHeld). */
+  private heldSeen: (readonly (number | undefined)[])[] | undefined;
+  private heldScratch: (number | undefined)[] | undefined;
+
+  /**
+   * A list equal to `values` (entry by entry, Object.is: 0 and -0 apart)
+   * handed out before, else a copy of it, remembered. A square drive holds
+   * one of two values interval after interval: its thousands of intervals
+   * share two lists instead of making one each (garbage the run's
+   * collections had to copy). The lists are read only.
+   */
+  private internHeld(values: readonly (number | undefined)[]): readonly (number | undefined)[] {
+    const seen = (this.heldSeen ??= []);
+    for (let k = 0; k < seen.length; k++) {
+      const list = seen[k]!;
+      let same = true;
+      for (let e = 0; same && e < values.length; e++) same = Object.is(list[e], values[e]);
+      if (same) return list;
+    }
+    const copy = values.slice();
+    seen.unshift(copy);
+    if (seen.length > HELD_LISTS_KEPT) seen.length = HELD_LISTS_KEPT;
+    return copy;
   }
 
   /** Whether switch element e is closed at exactly time t (toggles at or before t count). */
@@ -387,7 +417,7 @@ export class InputsInForce implements InputView {
   }
 
   /** Source values held over [rightOf, leftOf] (see InputSchedule.heldSources), found on first use. */
-  private held: (number | undefined)[] | undefined;
+  private held: readonly (number | undefined)[] | undefined;
 
   /** Value of source element e at time t (V or A). */
   sourceValue(e: number, t: number): number {

@@ -2,10 +2,11 @@ import type { LossCategory, RateReader } from '../elements/element-kind.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
 import type { InputsInForce } from '../formulation/network-inputs.js';
 import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
+import { StepBuffer, type StepRecord } from '../simulation/step-record.js';
 
 /** What the audit integrates: the run's steps, the inputs in force over each of its input intervals and its end states. */
 export interface AuditInput {
-  readonly steps: readonly RecordedStep[];
+  readonly steps: StepRecord;
   readonly intervals: readonly InputsInForce[];
   readonly start: Float64Array | undefined;
   readonly end: Float64Array | undefined;
@@ -180,7 +181,10 @@ export function computeEnergyAudit(
   // At most 64 panels per step on average over the run.
   const budget = 64 * run.steps.length;
   let panels = 0;
-  for (const step of run.steps) {
+  // One buffer the steps are loaded into in turn (the audit holds one step at a time).
+  const step = new StepBuffer(c.layout.size);
+  for (let k = 0; k < run.steps.length; k++) {
+    run.steps.load(k, step);
     if (step.t - step.tOld <= 0) continue;
     // The inputs recorded for the step's interval, for this step only (a live run keeps its own).
     const part = c.inputs.during(run.intervals[step.interval]!, () => adaptive(step, step.tOld, step.t, gauss(step, step.tOld, step.t), 0));

@@ -6,8 +6,10 @@ import type { ElectricNode, FluxTube, MagneticNode, TwoTerminal, Winding } from 
 import { elementKind } from '../elements/registry.js';
 import { StateReader, type QuantityRequest } from './state-reader.js';
 import type { DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
-import { evaluateRecordedStep, type RecordedStep } from '../simulation/recorded-step.js';
-import type { NetworkRun, RunSample } from '../simulation/network-run.js';
+import { evaluateRecordedStep } from '../simulation/recorded-step.js';
+import type { NetworkRun } from '../simulation/network-run.js';
+import type { SampleRecord } from '../simulation/sample-record.js';
+import { StepBuffer, type StepRecord } from '../simulation/step-record.js';
 import { computeEnergyAudit, type EnergyAudit } from './energy-audit.js';
 import { resultToCsv, resultToJson, type CsvOptions, type ResultJson } from './export.js';
 
@@ -35,12 +37,12 @@ export interface SimulationFailure {
 export interface SimulationResultInit {
   readonly compiled: CompiledNetwork;
   readonly networkId: number | undefined;
-  /** Samples in time order, each with the input interval it belongs to. */
-  readonly samples: readonly RunSample[];
+  /** Samples in time order, each with the input interval it belongs to (a record that does not change). */
+  readonly samples: SampleRecord;
   /** The inputs in force over each input interval (between breakpoints of sources and switches, and input changes). */
   readonly intervals: readonly InputsInForce[];
-  /** Every accepted step's collocation polynomial, for the energy audit. */
-  readonly steps: readonly RecordedStep[];
+  /** Every accepted step's collocation polynomial, for the energy audit (a record that does not change). */
+  readonly steps: StepRecord;
   /** State at the start of the run (after consistent initialisation). */
   readonly initialState: Float64Array | undefined;
   /** State at the end of the run. */
@@ -102,11 +104,10 @@ export class SimulationResult {
   readonly networkId: number | undefined;
 
   private readonly compiled: CompiledNetwork;
-  private readonly states: readonly Float64Array[];
-  /** Input interval of every sample, so inputs are evaluated on the right side of breakpoints. */
-  private readonly sampleInterval: Int32Array;
+  /** The samples' states (and their input intervals, so inputs are evaluated on the right side of breakpoints). */
+  private readonly samples: SampleRecord;
   private readonly intervals: readonly InputsInForce[];
-  private readonly steps: readonly RecordedStep[];
+  private readonly steps: StepRecord;
   private readonly stepsKept: boolean;
   private readonly finalState: Float64Array;
   private readonly initialState: Float64Array | undefined;
@@ -134,21 +135,10 @@ export class SimulationResult {
     this.status = init.status;
     this.message = init.message;
     this.stats = Object.freeze({ ...init.stats });
-    // Plain loops: Float64Array.from and map with a callback cost some 3 % of a warm flux walk
-    // (bench/flux-walk.ts, 5800 samples; CPU profile).
-    const count = init.samples.length;
-    const time = new Float64Array(count);
-    const states = new Array<Float64Array>(count);
-    const sampleInterval = new Int32Array(count);
-    for (let k = 0; k < count; k++) {
-      const x = init.samples[k]!;
-      time[k] = x.t;
-      states[k] = x.y;
-      sampleInterval[k] = x.interval;
-    }
+    this.samples = init.samples;
+    const time = new Float64Array(init.samples.length);
+    for (let k = 0; k < time.length; k++) time[k] = init.samples.time(k);
     this.time = time;
-    this.states = states;
-    this.sampleInterval = sampleInterval;
     const layout = init.compiled.layout;
     const d = init.compiled.description;
     this.warnings = Object.freeze([
@@ -168,7 +158,7 @@ export class SimulationResult {
     ]);
     if (init.failure) {
       this.failure = {
-        time: init.steps.length > 0 ? init.steps[init.steps.length - 1]!.t : this.time[0] ?? NaN,
+        time: init.steps.length > 0 ? init.steps.t(init.steps.length - 1) : this.time[0] ?? NaN,
         unknowns: init.failure.components.map((i) => ({
           index: i,
           label: layout.labels[i] ?? `unknown ${i}`,
@@ -374,9 +364,8 @@ export class SimulationResult {
    * ```
    */
   state(k: number): Float64Array {
-    const y = this.states[k];
-    if (!y) throw new InputError('bad-sample', `sample ${k} is outside 0..${this.length - 1}`, []);
-    return y.slice();
+    if (!(Number.isInteger(k) && k >= 0 && k < this.length)) throw new InputError('bad-sample', `sample ${k} is outside 0..${this.length - 1}`, []);
+    return this.samples.state(k, new Float64Array(this.samples.size));
   }
 
   /**
@@ -436,8 +425,9 @@ export class SimulationResult {
     const fn = this.reader.build(request);
     const steps = this.steps;
     const y = new Float64Array(this.compiled.layout.size);
+    const step = new StepBuffer(this.compiled.layout.size);
     return (t) => {
-      if (steps.length === 0 || !(t >= steps[0]!.tOld && t <= steps[steps.length - 1]!.t)) {
+      if (steps.length === 0 || !(t >= steps.tOld(0) && t <= steps.t(steps.length - 1))) {
         throw new InputError('outside-result', `evaluator: t = ${t} s lies outside the simulated span`, []);
       }
       // Last step with tOld <= t (a switching instant belongs to the step that starts there).
@@ -445,10 +435,10 @@ export class SimulationResult {
       let hi = steps.length - 1;
       while (lo < hi) {
         const mid = (lo + hi + 1) >> 1;
-        if (steps[mid]!.tOld <= t) lo = mid;
+        if (steps.tOld(mid) <= t) lo = mid;
         else hi = mid - 1;
       }
-      const step = steps[lo]!;
+      steps.load(lo, step);
       // The inputs recorded for the step's interval, for this call only: a live run goes on with its own.
       return this.compiled.inputs.during(this.intervals[step.interval]!, () => {
         evaluateRecordedStep(step, t, this.compiled.index2, y);
@@ -473,10 +463,21 @@ export class SimulationResult {
     if (!s) {
       const fn = this.reader.build(request);
       const series = new Float64Array(this.time.length);
-      // Each sample with the inputs recorded for it, for this call only: a live run goes on with its own.
-      for (let k = 0; k < series.length; k++) {
-        const p = this.intervals[this.sampleInterval[k]!];
-        series[k] = p ? this.compiled.inputs.during(p, () => fn(this.states[k]!, this.time[k]!)) : fn(this.states[k]!, this.time[k]!);
+      const samples = this.samples;
+      const y = new Float64Array(samples.size);
+      // Each sample with the inputs recorded for it, for this call only: a live run goes on with its own
+      // (as inputs.during per sample, without a closure per sample).
+      const inputs = this.compiled.inputs;
+      const before = inputs.inForce;
+      try {
+        for (let k = 0; k < series.length; k++) {
+          const p = this.intervals[samples.interval(k)];
+          if (p) inputs.use(p);
+          else inputs.use(before);
+          series[k] = fn(samples.state(k, y), this.time[k]!);
+        }
+      } finally {
+        inputs.use(before);
       }
       s = series;
       this.cache.set(key, s);
@@ -502,12 +503,13 @@ export function resultFromRun(
 ): SimulationResult {
   // A terminal event is handled by the stepper (it resumes); it is not an outcome of the record.
   const status = run.status === 'running' || run.status === 'terminal-event' ? 'success' : run.status;
+  const samples = run.sampleRecord.snapshot();
   return new SimulationResult({
     compiled,
     networkId,
-    samples: [...run.samples],
+    samples,
     intervals: [...run.intervals],
-    steps: [...run.steps],
+    steps: run.stepRecord.snapshot(samples),
     initialState: run.initialState,
     finalState: run.y,
     stats: run.stats,

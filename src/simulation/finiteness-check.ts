@@ -92,7 +92,9 @@ export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array
   };
   return (t, y) => {
     if (finiteWithin(y, QUICK_PASS_BOUND)) {
-      c.evaluate(t, y, c.inputs, f);
+      // The inputs in force themselves, not the network's view that forwards to them (the same
+      // values): the elements' residuals then see one kind of inputs from the solver and from here.
+      c.evaluate(t, y, c.inputs.inForce, f);
       if (finiteWithin(f, QUICK_PASS_BOUND)) return undefined;
       fresh = true; // f at (t, y) is in hand for the quantities below
     } else {

@@ -3,8 +3,10 @@ import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } from '../solver/dae-integrator.js';
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
+import { SampleRecord } from './sample-record.js';
+import { emptyObjectArray } from './empty-object-array.js';
+import { StepBuffer, StepRecord } from './step-record.js';
 import { createProjector } from './projection.js';
-import { Float64Chunks } from '../solver/float64-chunks.js';
 import type { InputView } from '../elements/element-kind.js';
 import { DenseStampTarget } from '../elements/stamp-target.js';
 import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
@@ -101,7 +103,7 @@ export interface RunSnapshot {
   readonly inputsChanged: boolean;
 }
 
-/** One stored sample. */
+/** One stored sample, as {@link NetworkRun.samples} lists them. */
 export interface RunSample {
   readonly t: number;
   readonly y: Float64Array;
@@ -152,11 +154,11 @@ export class NetworkRun {
   private readonly integ: DaeIntegrator;
   private readonly index2: readonly number[];
   /** The inputs in force over each input interval, in time order (immutable values; steps and samples refer to them by index). */
-  readonly intervals: InputsInForce[] = [];
-  /** Samples recorded so far, in time order. */
-  readonly samples: RunSample[] = [];
-  /** Step interpolants recorded so far, in time order. */
-  readonly steps: RecordedStep[] = [];
+  readonly intervals = emptyObjectArray<InputsInForce>();
+  /** Samples recorded so far, in time order (one row of numbers each). */
+  readonly sampleRecord: SampleRecord;
+  /** Step interpolants recorded so far, in time order (one row of numbers each; only the last when streaming). */
+  readonly stepRecord: StepRecord;
   /** Events located so far (threshold crossings; device commutations are in {@link NetworkRun.deviceChanges}). */
   readonly events: DaeEventRecord[] = [];
   /** Every change of a device's own state so far (ideal diodes), in time order. */
@@ -190,19 +192,19 @@ export class NetworkRun {
   private everyStepKept = true;
   /** What replaces an interval no sample refers to when streaming (see releaseUnreferencedInterval). */
   private standIn: InputsInForce | undefined;
-  /** Storage of kept states and step polynomials: views into chunks, not a typed array each. */
-  private readonly chunks = new Float64Chunks();
-  /** A step's start state as the integrator hands it over, before it is kept (see recordStep). */
-  private readonly stepStart: Float64Array;
-  private stepStartTaken = false;
-  /** Storage for copyInterpolant: the start state into stepStart, the polynomial into a chunk. */
-  private readonly takeForStep = (length: number): Float64Array => {
-    if (this.stepStartTaken) return this.chunks.take(length);
-    this.stepStartTaken = true;
-    return this.stepStart;
+  /** The step in hand: the last step's interpolant as the integrator hands it over (refilled per step, then copied into stepRecord). */
+  private readonly hand: StepBuffer;
+  private handStartTaken = false;
+  /** Storage for copyInterpolant: the start state, then the polynomial, into the step in hand. */
+  private readonly takeForStep = (_length: number): Float64Array => {
+    if (this.handStartTaken) return this.hand.q;
+    this.handStartTaken = true;
+    return this.hand.yOld;
   };
-  /** A state checked but not kept. */
+  /** A state about to be checked (and kept, copied into sampleRecord). */
   private readonly scratch: Float64Array;
+  /** A sample interpolated inside a step, about to be projected, checked and kept. */
+  private readonly inside: Float64Array;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
   private pendingStartSample: number | undefined;
   /** The state at the start of the run (after initialisation; index-2 values from the first step). */
@@ -237,7 +239,10 @@ export class NetworkRun {
     this.compiled = compiled;
     this.index2 = compiled.index2;
     this.scratch = new Float64Array(compiled.layout.size);
-    this.stepStart = new Float64Array(compiled.layout.size);
+    this.inside = new Float64Array(compiled.layout.size);
+    this.hand = new StepBuffer(compiled.layout.size);
+    this.sampleRecord = new SampleRecord(compiled.layout.size);
+    this.stepRecord = new StepRecord(compiled.layout.size, this.sampleRecord);
     this.horizon = settings.horizon;
     this.span = settings.horizon - settings.t0;
     this.check = settings.check;
@@ -346,7 +351,7 @@ export class NetworkRun {
     if (!this.stop) this.statusCur = this.integ.status;
   }
 
-  /** Whether every step's interpolant so far is in {@link NetworkRun.steps} (false once a step was streamed past). */
+  /** Whether every step's interpolant so far is in {@link NetworkRun.stepRecord} (false once a step was streamed past). */
   get keptEveryStep(): boolean {
     return this.everyStepKept;
   }
@@ -478,12 +483,12 @@ export class NetworkRun {
         const step = this.recordStep(record);
         // What to keep if the step is dropped (one object per run, rewritten per step).
         const kept = this.kept;
-        kept.steps = this.steps.length;
-        kept.samples = this.samples.length;
+        kept.steps = this.stepRecord.length;
+        kept.samples = this.sampleRecord.length;
         // Samples inside the step first (time order), then the step's end.
         while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
-          const y = evaluateRecordedStep(step, ts, this.index2, this.sampleArray(record));
+          const y = evaluateRecordedStep(step, ts, this.index2, this.inside);
           // An input that throws here (a user function failing exactly at a sampling instant) ends the run as 'rhs-error'.
           try {
             this.projector(ts, y, this.live);
@@ -496,7 +501,7 @@ export class NetworkRun {
         const endIsSample = nextSample < samples.length && samples[nextSample] === this.t;
         if (endIsSample) nextSample++;
         if (record.steps || endIsSample) {
-          if (!this.pushChecked(this.t, this.integ.readState(this.sampleArray(record)), step, kept)) return this.statusCur;
+          if (!this.pushChecked(this.t, this.integ.readState(this.scratch), step, kept)) return this.statusCur;
         } else if (record.interpolants && !this.checked(this.t, this.integ.readState(this.scratch), step, kept)) {
           return this.statusCur;
         }
@@ -546,8 +551,12 @@ export class NetworkRun {
     this.integ.restore(s.integrator);
     this.schedule = this.compiled.inputs.schedule.withState(s.inputs);
     const t = s.integrator.t;
-    while (this.samples.length > 0 && this.samples[this.samples.length - 1]!.t > t) this.samples.pop();
-    while (this.steps.length > 0 && this.steps[this.steps.length - 1]!.t > t) this.steps.pop();
+    let samples = this.sampleRecord.length;
+    while (samples > 0 && this.sampleRecord.time(samples - 1) > t) samples--;
+    this.sampleRecord.truncate(samples);
+    let steps = this.stepRecord.length;
+    while (steps > 0 && this.stepRecord.t(steps - 1) > t) steps--;
+    this.stepRecord.truncate(steps);
     while (this.events.length > 0 && this.events[this.events.length - 1]!.t > t) this.events.pop();
     this.live = new InputsInForce(this.schedule, s.interval.start, s.interval.end, s.interval.rightOf, s.interval.leftOf);
     this.intervals.push(this.live);
@@ -613,8 +622,8 @@ export class NetworkRun {
   private releaseUnreferencedInterval(): void {
     const k = this.intervals.length - 1;
     if (this.everyStepKept || k < 0) return;
-    const last = this.samples[this.samples.length - 1];
-    if (last !== undefined && last.interval === k) return;
+    const samples = this.sampleRecord;
+    if (samples.length > 0 && samples.interval(samples.length - 1) === k) return;
     this.intervals[k] = this.standIn ??= new InputsInForce(this.schedule, NaN, NaN, NaN, NaN);
   }
 
@@ -698,7 +707,7 @@ export class NetworkRun {
     const status = this.integ.status;
     if (!this.junctions || (status !== 'step-size-underflow' && status !== 'newton-failure')) return false;
     const t = this.integ.t;
-    const landed = this.junctions.cross(t, this.integ.y, this.steps[this.steps.length - 1], edge, this.live);
+    const landed = this.junctions.cross(t, this.integ.y, this.stepRecord.last(), edge, this.live);
     if (!landed) {
       this.stop = { message: this.integ.message + this.junctions.hint(), failure: this.integ.failure! };
       return false;
@@ -750,83 +759,77 @@ export class NetworkRun {
       this.startState = this.integ.y;
       this.startStatePending = true;
     }
-    if (record.steps || (record.sampleTimes ?? []).includes(this.t)) {
-      this.pushSample(this.t, this.integ.readState(this.sampleArray(record)));
-      this.pendingStartSample = this.samples.length - 1;
+    if (record.steps || record.sampleTimes?.includes(this.t) === true) {
+      this.pushSample(this.t, this.integ.readState(this.scratch));
+      this.pendingStartSample = this.sampleRecord.length - 1;
     } else {
       this.pendingStartSample = undefined;
     }
   }
 
+  /** Take the step just accepted into the step in hand and keep a copy of it; returns the step in hand. */
   private recordStep(record: RecordOptions): RecordedStep {
-    this.stepStartTaken = false;
+    this.handStartTaken = false;
+    // The integrator copies its start state and polynomial into the step in hand (see takeForStep).
     const it = this.integ.copyInterpolant(this.takeForStep)!;
-    // The step starts where the last sample was taken (its end, or the restart): one array for both.
-    const yOld = this.lastSampleEqualTo(it.tOld, this.stepStart) ?? this.chunks.copy(this.stepStart);
-    const first = this.steps.length === 0 || this.steps[this.steps.length - 1]!.t !== it.tOld || this.lastStepEndedInterval();
-    const step: RecordedStep = {
-      tOld: it.tOld, t: it.t, h: it.h, yOld, q: it.q,
-      interval: this.intervals.length - 1,
-      firstAfterStart: first,
-    };
+    const steps = this.stepRecord;
+    const last = steps.length - 1;
+    const first = last < 0 || steps.t(last) !== it.tOld || steps.interval(last) !== this.intervals.length - 1;
+    const step = this.hand;
+    step.tOld = it.tOld;
+    step.t = it.t;
+    step.h = it.h;
+    step.interval = this.intervals.length - 1;
+    step.firstAfterStart = first;
     if (first && this.index2.length > 0) {
       // The index-1 initialisation cannot set index-2 unknowns; take them from this step's stages.
       const y0 = stageExtrapolation(step, this.index2);
       if (this.pendingStartSample !== undefined) {
-        const sample = this.samples[this.pendingStartSample]!;
-        for (const j of this.index2) sample.y[j] = y0[j]!;
+        for (const j of this.index2) this.sampleRecord.setValue(this.pendingStartSample, j, y0[j]!);
       }
       if (this.startStatePending && this.startState) for (const j of this.index2) this.startState[j] = y0[j]!;
     }
     this.pendingStartSample = undefined;
     this.startStatePending = false;
     // Streaming: without interpolants only the step in hand is kept (the samples inside it are taken from it).
-    if (record.interpolants) this.steps.push(step);
-    else {
+    if (!record.interpolants) {
       this.everyStepKept = false;
-      this.steps.splice(0, this.steps.length, step);
+      steps.truncate(0);
     }
+    // The step starts where the last sample was taken (its end, or the restart): named, not copied.
+    steps.push(step, this.lastSampleEqualTo(step.tOld, step.yOld));
     return step;
   }
 
   /**
-   * The last sample's state when it is the state `y` at time t of the present interval, bit for
-   * bit (a step's start state, kept already as the sample at the previous step's end or at the
-   * restart), else undefined. Not with index-2 unknowns: the first step after a restart rewrites
-   * them in the start sample, not in the step's start state.
+   * The index of the last sample when it is the state `y` at time t of the present interval, bit
+   * for bit (a step's start state, kept already as the sample at the previous step's end or at the
+   * restart), else -1. Not with index-2 unknowns: the first step after a restart rewrites them in
+   * the start sample, not in the step's start state.
    */
-  private lastSampleEqualTo(t: number, y: Float64Array): Float64Array | undefined {
-    const last = this.samples[this.samples.length - 1];
-    if (last === undefined || last.t !== t || last.interval !== this.intervals.length - 1 || this.index2.length > 0) return undefined;
-    const kept = last.y;
-    if (kept.length !== y.length) return undefined;
-    for (let i = 0; i < y.length; i++) {
-      const a = kept[i]!;
-      const b = y[i]!;
-      if (a !== b || (a === 0 && 1 / a !== 1 / b)) return undefined;
-    }
-    return kept;
+  private lastSampleEqualTo(t: number, y: Float64Array): number {
+    const samples = this.sampleRecord;
+    const last = samples.length - 1;
+    if (last < 0 || this.index2.length > 0 || samples.time(last) !== t || samples.interval(last) !== this.intervals.length - 1) return -1;
+    return samples.stateEquals(last, y) ? last : -1;
   }
 
-  private lastStepEndedInterval(): boolean {
-    const last = this.steps[this.steps.length - 1];
-    return last !== undefined && last.interval !== this.intervals.length - 1;
+  /** The last step kept, in arrays of its own (undefined before the first step). */
+  lastStep(): RecordedStep | undefined {
+    return this.stepRecord.last();
   }
 
-  /**
-   * The array for a sample to keep: a chunk view when samples come with every
-   * step or every step is kept (many, kept together); an array of its own
-   * when streaming on a grid (few, far apart: a view would keep its whole
-   * chunk alive).
-   */
-  private sampleArray(record: RecordOptions): Float64Array {
-    const n = this.scratch.length;
-    return record.steps || record.interpolants ? this.chunks.take(n) : new Float64Array(n);
+  /** Samples recorded so far, in time order, each with a copy of its state (for inspection: the run keeps them in {@link NetworkRun.sampleRecord}). */
+  get samples(): RunSample[] {
+    const r = this.sampleRecord;
+    const out: RunSample[] = [];
+    for (let k = 0; k < r.length; k++) out.push({ t: r.time(k), y: r.state(k, new Float64Array(r.size)), interval: r.interval(k) });
+    return out;
   }
 
-  /** Keep a sample; y becomes the sample's own (every caller passes a fresh array). */
+  /** Keep a sample: a copy of y at time t in the present input interval. */
   private pushSample(t: number, y: Float64Array): void {
-    this.samples.push({ t, y, interval: this.intervals.length - 1 });
+    this.sampleRecord.push(t, this.intervals.length - 1, y);
   }
 
   /** Record a sample after the finiteness check; false when the check stopped the run. */
@@ -888,8 +891,9 @@ export class NetworkRun {
     message: string,
     extra: { cause?: unknown; nonFinite?: NonFiniteValue & { time: number } },
   ): DaeStatus {
-    if (this.steps[kept.steps - 1] === step) this.steps.length = kept.steps - 1;
-    this.samples.length = Math.min(this.samples.length, kept.samples);
+    // The step in hand was kept last (kept.steps counts it).
+    this.stepRecord.truncate(kept.steps - 1);
+    this.sampleRecord.truncate(kept.samples);
     this.endState = Float64Array.from(step.yOld);
     this.stop = {
       message,

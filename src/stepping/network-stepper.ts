@@ -489,8 +489,7 @@ export class NetworkStepper {
     const before = this.run.inputs;
     const status = this.run.advanceTo(target, this.record);
     if (status !== 'running' && status !== 'terminal-event') return status;
-    const steps = this.run.steps;
-    const step = steps[steps.length - 1];
+    const step = this.run.lastStep();
     if (this.thresholds.length > 0 && step && step.t === this.time && this.run.inputs !== before) {
       const y = evaluateRecordedStep(step, step.t, this.compiled.index2);
       this.settled = this.compiled.inputs.during(before, () => this.thresholdValues(y, step.t));
