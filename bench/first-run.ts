@@ -4,7 +4,7 @@
  * median CPU time of warm calls. usage: tsx bench/first-run.ts ROBER|VDPOL|HIRES|TRANSAMP|RINGMOD rtol
  * Prints one JSON line.
  */
-import { solveDae } from '../src/index.js';
+import { createDaeIntegrator, solveDae } from '../src/index.js';
 import { hires, maxRelativeError, ringModulator, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
 
 const make: Record<string, () => TestProblem> = {
@@ -42,4 +42,6 @@ const y = sol.y[sol.y.length - 1]!;
 console.log(JSON.stringify({
   problem: name, rtol, status: sol.status, steps: sol.stats.acceptedSteps,
   first_cpu_ms: first, warm_cpu_ms: warm[warm.length >> 1], err: maxRelativeError(y, tp.reference, atol),
+  // The solver's own first step, for a yardstick that should start from the same h.
+  h0: createDaeIntegrator(tp.problem, { rtol, atol, denseOutput: false }).h,
 }));

@@ -22,6 +22,7 @@ import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
 import { benchDevices } from './devices.js';
 import { benchLadder } from './ladder.js';
+import { benchLoaderCost } from './loader-cost.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -156,4 +157,5 @@ await benchSweep();
 benchColdWarm();
 benchMemory();
 benchAgainstRadau5();
+benchLoaderCost();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);

@@ -1,0 +1,129 @@
+/**
+ * What the TypeScript loader costs: the same Test Set solves run from the
+ * sources through tsx (as the bench-anchor yardstick and `npm run bench` run
+ * them) and from the JavaScript that TypeScript emits for them (what a user
+ * of the built package runs), alternated process by process in this run,
+ * warm CPU time per solve (median of each process's median). When the
+ * bench-anchor's RADAU5 sources are beside the checkout and gfortran is at
+ * hand, compiled RADAU5 is run on the same problems from the same first step
+ * and both are printed as ratios to it.
+ *
+ * usage: tsx bench/loader-cost.ts [rounds]
+ */
+import { spawnSync } from 'node:child_process';
+import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, relative, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import ts from 'typescript';
+import { printTable } from './timing.js';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const root = resolve(here, '..');
+
+/** Every .ts file under `dir` (relative to the root), test files and declarations left out. */
+function sources(dir: string): string[] {
+  const out: string[] = [];
+  for (const name of readdirSync(join(root, dir))) {
+    const rel = join(dir, name);
+    if (statSync(join(root, rel)).isDirectory()) out.push(...sources(rel));
+    else if (name.endsWith('.ts') && !name.endsWith('.d.ts') && !name.includes('.test')) out.push(rel);
+  }
+  return out;
+}
+
+/**
+ * The emitted JavaScript of the library, the Test Set fixtures and the
+ * first-run script, laid out as in the checkout (relative imports keep
+ * working), with the project's compiler options (ES modules: a file-by-file
+ * transpile cannot read the package's module type). Returns the folder.
+ */
+function emitJavaScript(): string {
+  const out = mkdtempSync(join(tmpdir(), 'fluxstate-emitted-'));
+  const config = ts.readConfigFile(join(root, 'tsconfig.json'), (f) => ts.sys.readFile(f));
+  const options = ts.convertCompilerOptionsFromJson(config.config.compilerOptions, root).options;
+  const files = [...sources('src'), 'test/solver/fixtures/test-set.ts', 'bench/problems.ts', 'bench/first-run.ts'];
+  for (const rel of files) {
+    const js = ts.transpileModule(readFileSync(join(root, rel), 'utf8'), { compilerOptions: { ...options, module: ts.ModuleKind.ESNext, noEmit: false, sourceMap: false }, fileName: rel }).outputText;
+    const target = join(out, rel.replace(/\.ts$/, '.js'));
+    mkdirSync(dirname(target), { recursive: true });
+    writeFileSync(target, js);
+  }
+  writeFileSync(join(out, 'package.json'), JSON.stringify({ type: 'module' }));
+  symlinkSync(join(root, 'node_modules'), join(out, 'node_modules'));
+  return out;
+}
+
+interface Run {
+  warm_cpu_ms: number;
+  steps: number;
+  h0: number;
+  status: string;
+}
+
+function runOnce(args: string[], cwd: string): Run | undefined {
+  const r = spawnSync(process.execPath, args, { cwd, encoding: 'utf8', maxBuffer: 1 << 20 });
+  try {
+    return JSON.parse(r.stdout.trim().split('\n').pop() ?? '') as Run;
+  } catch {
+    return undefined;
+  }
+}
+
+const median = (a: number[]): number => [...a].sort((x, y) => x - y)[a.length >> 1] ?? NaN;
+
+/** RADAU5 built from the bench-anchor's sources into a temporary folder, or undefined. */
+function buildRadau5(): string | undefined {
+  const candidates = [process.env.FLUXSTATE_BENCH_ANCHOR ? dirname(process.env.FLUXSTATE_BENCH_ANCHOR) : undefined, resolve(root, '../shared/bench-anchor'), resolve(root, '../../shared/bench-anchor')];
+  const anchor = candidates.find((c): c is string => c !== undefined && existsSync(join(c, 'radau5', 'build.sh')));
+  if (!anchor || spawnSync('sh', ['-c', 'command -v gfortran']).status !== 0) return undefined;
+  const dir = mkdtempSync(join(tmpdir(), 'fluxstate-radau5-'));
+  cpSync(join(anchor, 'radau5'), join(dir, 'radau5'), { recursive: true });
+  const built = spawnSync('sh', [join(dir, 'radau5', 'build.sh')], { encoding: 'utf8' });
+  return built.status === 0 ? join(dir, 'radau5', 'driver') : undefined;
+}
+
+// The bench-anchor driver's problem numbers and the Test Set's tolerances (ROBER's atol six orders below rtol).
+const problems = [['ROBER', 1], ['VDPOL', 2], ['HIRES', 3], ['TRANSAMP', 5]] as const;
+
+export function benchLoaderCost(rounds = 3): void {
+  console.log('\n## The TypeScript loader against emitted JavaScript (same solves, alternated processes, warm CPU ms per solve)');
+  const emitted = emitJavaScript();
+  const driver = buildRadau5();
+  const rows: (string | number)[][] = [];
+  try {
+    for (const [name, id] of problems) {
+      const rtol = 1e-6;
+      const atol = name === 'ROBER' ? rtol * 1e-6 : rtol;
+      const viaTsx: number[] = [];
+      const emittedJs: number[] = [];
+      let last: Run | undefined;
+      for (let k = 0; k < rounds; k++) {
+        const a = runOnce(['--import', 'tsx', join(root, 'bench', 'first-run.ts'), name, String(rtol)], root);
+        const b = runOnce([join(emitted, 'bench', 'first-run.js'), name, String(rtol)], emitted);
+        if (a) viaTsx.push(a.warm_cpu_ms);
+        if (b) emittedJs.push(b.warm_cpu_ms);
+        last = b ?? a;
+      }
+      let radau5 = NaN;
+      if (driver && last) {
+        const r = spawnSync(driver, [String(id), String(rtol), String(atol), String(last.h0), '1'], { encoding: 'utf8' });
+        try {
+          radau5 = 1000 * (JSON.parse(r.stdout.replace(/\s+/g, '')) as { median_cpu_s: number }).median_cpu_s;
+        } catch {
+          radau5 = NaN;
+        }
+      }
+      const t = median(viaTsx);
+      const e = median(emittedJs);
+      rows.push([`${name} rtol ${rtol}`, last?.steps ?? NaN, t, e, t / e, radau5, t / radau5, e / radau5]);
+    }
+  } finally {
+    rmSync(emitted, { recursive: true, force: true });
+    if (driver) rmSync(dirname(dirname(driver)), { recursive: true, force: true });
+  }
+  printTable(['problem', 'steps', 'via tsx ms', 'emitted JS ms', 'tsx / JS', 'RADAU5 ms', 'tsx / RADAU5', 'JS / RADAU5'], rows);
+  console.log(`(${relative(root, here)}/loader-cost.ts; RADAU5 columns are NaN when the bench-anchor or gfortran is not at hand)`);
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) benchLoaderCost(Number(process.argv[2] ?? 3));
