@@ -6,6 +6,7 @@ import type { MaterialLaw } from '../materials/material-law.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
 import { NetworkInputs } from './network-inputs.js';
+import { NetworkEquations, type MmfTerm } from './network-equations.js';
 import { layoutUnknowns, type UnknownLayout } from './unknown-layout.js';
 import { checkTopology } from './topology-checks.js';
 import { findIndexTwoUnknowns } from './index-analysis.js';
@@ -45,6 +46,8 @@ export interface CompiledNetwork {
   readonly sparseMass: SparseMass;
   /** Whether the n x n {@link CompiledNetwork.mass} has been made (for tests of the sparse path). @internal */
   denseMassMade(): boolean;
+  /** f and df/dy as methods of one object (the solver's hot call sites). @internal */
+  readonly equations: NetworkEquations;
   /** f(t, y) into out, with the inputs in force given explicitly. */
   evaluate(t: number, y: Float64Array, inputs: InputView, out: Float64Array): void;
   /** df/dy added into a stamp target (zero-filled by the caller), with the inputs given explicitly. */
@@ -116,58 +119,10 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   for (const g of groups) for (const e of g.elements) elements[e.index] = e;
   const tubeStates = tubes.flatMap((t) => (t.states ? [t.states] : []));
 
-  const fluxOf = (y: Float64Array, b: number): number => {
-    const { index, sign } = tubeLoops[b]!;
-    let s = 0;
-    for (let k = 0; k < index.length; k++) s += sign[k]! * y[index[k]!]!;
-    return s;
-  };
-
   // Tubes in series with one law share one evaluation of it per call (see seriesTerms).
-  const terms = seriesTerms(d, tubes, tubeLoops);
-  const groupCount = terms.reduce((m, term) => Math.max(m, term.group + 1), 0);
-  const lawValues = new Float64Array(groupCount);
-  const slopeValues = new Float64Array(groupCount);
-  const tubeCount = tubes.length;
-
-  function evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
-    // A loop, not fill(): for a few unknowns the builtin's call costs more than the stores.
-    for (let i = 0; i < out.length; i++) out[i] = 0;
-    // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
-    for (let b = 0; b < tubeCount; b++) {
-      const term = terms[b]!;
-      let F: number;
-      if (term.group < 0) F = tubes[b]!.mmf(fluxOf(y, b), y);
-      else {
-        // The material tube's own l H(phi / A), with H read once for its series.
-        if (term.first) lawValues[term.group] = term.law!.fieldStrength(fluxOf(y, b) / term.area);
-        F = term.length * lawValues[term.group]!;
-      }
-      const { index, sign } = tubeLoops[b]!;
-      for (let k = 0; k < index.length; k++) out[index[k]!]! -= sign[k]! * F;
-    }
-    // Indexed loops: this runs at every stage of every Newton iteration.
-    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.residual(t, y, inp, out);
-    for (let k = 0; k < groups.length; k++) groups[k]!.residual(t, y, inp, out);
-  }
-
-  function stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
-    for (let b = 0; b < tubeCount; b++) {
-      const term = terms[b]!;
-      let dF: number;
-      if (term.group < 0) dF = tubes[b]!.mmfSlope(fluxOf(y, b), y);
-      else {
-        if (term.first) slopeValues[term.group] = term.law!.fieldSlope(fluxOf(y, b) / term.area);
-        dF = (term.length / term.area) * slopeValues[term.group]!;
-      }
-      const { index, sign } = tubeLoops[b]!;
-      for (let k1 = 0; k1 < index.length; k1++) {
-        for (let k2 = 0; k2 < index.length; k2++) J.add(index[k1]!, index[k2]!, -sign[k1]! * sign[k2]! * dF);
-      }
-    }
-    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.jacobian(t, y, inp, J);
-    for (let k = 0; k < groups.length; k++) groups[k]!.jacobian(t, y, inp, J);
-  }
+  const equations = new NetworkEquations(tubes, tubeLoops, seriesTerms(d, tubes, tubeLoops), tubeStates, groups);
+  const evaluate = (t: number, y: Float64Array, inp: InputView, out: Float64Array): void => equations.evaluate(t, y, inp, out);
+  const stampJacobian = (t: number, y: Float64Array, inp: InputView, J: StampTarget): void => equations.stampJacobian(t, y, inp, J);
 
   const jacobianTarget = new DenseStampTarget(n);
   // M by its stamps, recorded entry by entry: no n x n array unless a dense reader asks for one.
@@ -210,6 +165,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     massEntries,
     sparseMass,
     denseMassMade: () => denseMass !== undefined,
+    equations,
     evaluate,
     stampJacobian,
     rhs,
@@ -219,7 +175,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     index2,
     inputs,
     events: groups.flatMap((g) => g.events ?? []).sort((a, b) => a.element - b.element),
-    tubeFlux: fluxOf,
+    tubeFlux: (y, b) => equations.fluxOf(y, b),
     tubeMmf: (b, flux, y) => tubes[b]!.mmf(flux, y),
     tubeEnergy: (b, flux, y) => tubes[b]!.energy(flux, y),
   };
@@ -248,17 +204,6 @@ function confirmIndexTwo(
   jacobian(y0, J);
   const jr = algebraicJacobian(spaces, J, new Float64Array(k * k));
   return createPatternAdaptiveLu(k).factor(jr) < 0 ? [] : structural;
-}
-
-/** How f reads one tube's MMF drop (see seriesTerms). */
-interface MmfTerm {
-  /** Index of the tube's series (tubes sharing one law evaluation), or -1 for a tube read on its own. */
-  readonly group: number;
-  /** The first tube of its series in tube order: it evaluates the law for the others. */
-  readonly first: boolean;
-  readonly law: MaterialLaw | undefined;
-  readonly length: number;
-  readonly area: number;
 }
 
 /**

@@ -8,7 +8,7 @@ import { emptyObjectArray } from './empty-object-array.js';
 import { StepBuffer, StepRecord } from './step-record.js';
 import { createProjector } from './projection.js';
 import type { InputView } from '../elements/element-kind.js';
-import { DenseStampTarget } from '../elements/stamp-target.js';
+import { NetworkDae } from './network-dae.js';
 import { InputsInForce, openInterval, type InputSchedule, type InputState } from '../formulation/network-inputs.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { ResolvedSolverSettings } from './solver-settings.js';
@@ -266,7 +266,6 @@ export class NetworkRun {
     } else {
       this.project = (t, y) => this.projector(t, y);
     }
-    const jacobianTarget = new DenseStampTarget(compiled.layout.size);
     this.userEventCount = settings.events?.length ?? 0;
     const eventProjector = createProjector(compiled, settings.atol, settings.rtol);
     const projected = new Float64Array(compiled.layout.size);
@@ -317,23 +316,18 @@ export class NetworkRun {
     // Diodes fed by a sine: a step must not jump over a conduction window (see deviceStepCap).
     const maxStep = settings.maxStep ?? deviceStepCap(compiled.description);
     this.integ = createDaeIntegrator(
-      {
+      // The run's own inputs in force, read from the run at each call: nothing a reader does to the network's can reach it.
+      new NetworkDae(compiled.equations, this, {
         size: compiled.layout.size,
-        // The run's own inputs in force, passed explicitly: nothing a reader does to the network's can reach it.
-        rhs: (t, y, out) => compiled.evaluate(t, y, this.live, out),
-        jacobian: (t, y, out) => compiled.stampJacobian(t, y, this.live, jacobianTarget.bind(out)),
         // M by its stamps: the set-up reads only its non-zeros.
         massEntries: compiled.massEntries,
-        // The stamps' positions, fixed at compile time: large networks factor on them sparsely.
-        ...(compiled.jacobianPattern ? { jacobianPattern: compiled.jacobianPattern } : {}),
-        // The same stamps entry by entry: the sparse path holds J on the pattern alone.
-        jacobianEntries: (t, y, target) => compiled.stampJacobian(t, y, this.live, target),
+        jacobianPattern: compiled.jacobianPattern,
         y0: settings.initialState ?? compiled.y0,
         t0: settings.t0,
         tEnd: settings.horizon,
         index2: compiled.index2,
-        ...(events.length > 0 ? { events } : {}),
-      },
+        events,
+      }),
       {
         rtol: settings.rtol,
         atol: settings.atol,

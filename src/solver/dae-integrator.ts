@@ -911,7 +911,7 @@ class RadauIntegrator implements DaeIntegrator {
   callRhs(t: number, y: Float64Array, out: Float64Array): void {
     this.statsCur.rhsEvaluations++;
     try {
-      this.p.rhs(t, y, out);
+      this.p.calls.rhs(t, y, out);
     } catch (e) {
       throw new UserCodeError(e, 'f', t);
     }

@@ -64,10 +64,9 @@ class DenseIterationSystem implements IterationSystem {
   }
 
   evaluate(t: number, y: Float64Array, f: Float64Array, out: Float64Array): number {
-    const jf = this.jf;
-    if (jf) {
+    if (this.jf) {
       out.fill(0);
-      jf(t, y, out);
+      this.p.calls.jacobian(t, y, out);
       return 0;
     }
     return finiteDifferenceJacobian(this.p.rhs, t, y, f, out, this.fdWork);

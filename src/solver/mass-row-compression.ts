@@ -158,13 +158,27 @@ export function compressedSparseMass(mass: SparseMass, c: MassRowCompression): S
 export function compressedRhs(rhs: RhsFunction, c: MassRowCompression): RhsFunction {
   return (t, y, out) => {
     rhs(t, y, out);
-    for (let i = 0; i < out.length; i++) if (!Number.isFinite(out[i]!)) return;
-    for (const d of c.dependent) {
-      let s = out[d.row]!;
-      for (let k = 0; k < d.rows.length; k++) s -= d.coefficients[k]! * out[d.rows[k]!]!;
-      out[d.row] = s;
-    }
+    recombineRhsRows(out, c);
   };
+}
+
+/**
+ * The recombination of {@link compressedRhs} on f already in `out`.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * problem.rhs(t, y, out);
+ * recombineRhsRows(out, compression);
+ * ```
+ */
+export function recombineRhsRows(out: Float64Array, c: MassRowCompression): void {
+  for (let i = 0; i < out.length; i++) if (!Number.isFinite(out[i]!)) return;
+  for (const d of c.dependent) {
+    let s = out[d.row]!;
+    for (let k = 0; k < d.rows.length; k++) s -= d.coefficients[k]! * out[d.rows[k]!]!;
+    out[d.row] = s;
+  }
 }
 
 /**
@@ -177,16 +191,30 @@ export function compressedRhs(rhs: RhsFunction, c: MassRowCompression): RhsFunct
  * ```
  */
 export function compressedJacobian(jacobian: JacobianFunction, n: number, c: MassRowCompression): JacobianFunction {
-  // Dependent rows only combine independent rows (rows kept as they are), so the order of updates does not matter.
   return (t, y, out) => {
     jacobian(t, y, out);
-    for (const d of c.dependent) {
-      const base = d.row * n;
-      for (let k = 0; k < d.rows.length; k++) {
-        const src = d.rows[k]! * n;
-        const ck = d.coefficients[k]!;
-        for (let j = 0; j < n; j++) out[base + j] = out[base + j]! - ck * out[src + j]!;
-      }
-    }
+    recombineJacobianRows(out, n, c);
   };
+}
+
+/**
+ * The recombination of {@link compressedJacobian} on df/dy already in `out` (row-major n x n).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * problem.jacobian(t, y, out);
+ * recombineJacobianRows(out, n, compression);
+ * ```
+ */
+export function recombineJacobianRows(out: Float64Array, n: number, c: MassRowCompression): void {
+  // Dependent rows only combine independent rows (rows kept as they are), so the order of updates does not matter.
+  for (const d of c.dependent) {
+    const base = d.row * n;
+    for (let k = 0; k < d.rows.length; k++) {
+      const src = d.rows[k]! * n;
+      const ck = d.coefficients[k]!;
+      for (let j = 0; j < n; j++) out[base + j] = out[base + j]! - ck * out[src + j]!;
+    }
+  }
 }

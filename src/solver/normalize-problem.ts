@@ -1,5 +1,6 @@
 import { InputError } from '../errors.js';
-import { compressedJacobian, compressedRhs, compressedSparseMass, massRowCompression, type MassRowCompression } from './mass-row-compression.js';
+import { compressedSparseMass, massRowCompression, type MassRowCompression } from './mass-row-compression.js';
+import { ProblemCalls } from './problem-calls.js';
 import { denseOfSparseMass, isIdentityMass, sparseMassOfDense, sparseMassOfEntries, type SparseMass } from './sparse-mass.js';
 import { sparsePattern, type SparsePattern } from './sparse-pattern.js';
 import { SPARSE_MIN_SIZE, type DaeEvent, type DaeProblem, type JacobianEntriesFunction, type JacobianFunction, type RhsFunction, type SolveDaeOptions, type DaeProgress } from './types.js';
@@ -12,7 +13,11 @@ import { SPARSE_MIN_SIZE, type DaeEvent, type DaeProblem, type JacobianEntriesFu
  */
 export interface NormalizedDae {
   readonly n: number;
+  /** f and J called as methods of the problem (the hot call sites: one call target whatever the run). */
+  readonly calls: ProblemCalls;
+  /** f as a function (recombined), for the paths that take one: it calls {@link NormalizedDae.calls}. */
   readonly rhs: RhsFunction;
+  /** The dense J as a function (recombined), or undefined when the problem gives none. */
   readonly jacobian: JacobianFunction | undefined;
   /** The Jacobian entry by entry as the problem gave it (for the sparse path): rows not yet recombined by `massCompression`. */
   readonly jacobianEntries: JacobianEntriesFunction | undefined;
@@ -52,20 +57,6 @@ export interface NormalizedDae {
   readonly linearAlgebra: 'flat' | 'ml-matrix' | 'sparse';
   /** Pattern of (gamma/h) M - J (J's declared pattern, M, the diagonal), when the sparse LU is used. */
   readonly iterationPattern: SparsePattern | undefined;
-}
-
-/** A dense-storage Jacobian function from one given entry by entry. */
-function denseJacobianOf(entries: JacobianEntriesFunction, n: number): JacobianFunction {
-  let out: Float64Array = new Float64Array(0);
-  const target = {
-    add(row: number, col: number, value: number): void {
-      if (row >= 0 && col >= 0) out[row * n + col] = out[row * n + col]! + value;
-    },
-  };
-  return (t, y, o) => {
-    out = o;
-    entries(t, y, target);
-  };
 }
 
 function bad(code: string, message: string, elements: string[] = []): never {
@@ -266,8 +257,7 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   }
 
   // A problem giving its Jacobian entry by entry only has the dense form too (the dense path, recombined rows).
-  const entries = problem.jacobianEntries;
-  const jacobian: JacobianFunction | undefined = problem.jacobian ?? (entries ? denseJacobianOf(entries, n) : undefined);
+  const calls = new ProblemCalls(problem, n, compression);
 
   const ot: number[] = [];
   for (const v of Array.from(options.outputTimes ?? [])) {
@@ -280,9 +270,10 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   let dense: Float64Array | undefined;
   return {
     n,
-    rhs: compression ? compressedRhs(problem.rhs, compression) : problem.rhs,
-    jacobian: compression && jacobian ? compressedJacobian(jacobian, n, compression) : jacobian,
-    jacobianEntries: problem.jacobianEntries,
+    calls,
+    rhs: (t, y, out) => calls.rhs(t, y, out),
+    jacobian: calls.hasJacobian ? (t, y, out) => calls.jacobian(t, y, out) : undefined,
+    jacobianEntries: calls.hasJacobianEntries ? (t, y, target) => calls.jacobianEntries(t, y, target) : undefined,
     massCompression: compression,
     mass: massUsed,
     denseMass: () => (massUsed ? (dense ??= denseOfSparseMass(massUsed)) : undefined),

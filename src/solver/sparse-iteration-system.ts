@@ -125,7 +125,7 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
     evaluate(t, y, f, out) {
       if (entries) {
         out.fill(0);
-        entries(t, y, target.bind(out));
+        p.calls.jacobianEntries(t, y, target.bind(out));
         // Dependent rows of M become explicit algebraic equations (normalize-problem.ts): the same rows of J.
         for (let r = 0; r < recombine.destination.length; r++) {
           out[recombine.destination[r]!] = out[recombine.destination[r]!]! - recombine.coefficient[r]! * out[recombine.source[r]!]!;
@@ -136,7 +136,7 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
       let evaluations = 0;
       if (jf) {
         dense.fill(0);
-        jf(t, y, dense);
+        p.calls.jacobian(t, y, dense);
       } else {
         evaluations = finiteDifferenceJacobian(p.rhs, t, y, f, dense, (fdWork ??= new Float64Array(n)));
       }

@@ -34,97 +34,122 @@ export interface VertexTable {
  * @internal
  */
 export function vertexWaveform(table: VertexTable): Waveform {
-  const times = Float64Array.from(table.times);
-  const values = Float64Array.from(table.values);
-  const last = times.length - 1;
-  const period = table.period;
-  const before = table.before;
-  const first = times[0] ?? 0;
+  return new VertexWaveform(table);
+}
 
-  // Breakpoint vertices: distinct times, and for a repeating table none at (or
-  // within rounding of) the closing vertex: that edge is the next period's first.
-  const closing = times[last] ?? first;
-  const eps = 8 * Number.EPSILON * Math.max(Math.abs(first), Math.abs(closing), period ?? 0);
-  const edgeVertices: number[] = [];
-  const limit = period === undefined ? last : last - 1;
-  for (let j = 0; j <= limit; j++) {
-    const tj = times[j] ?? 0;
-    if (j > 0 && tj === times[j - 1]) continue;
-    if (period !== undefined && j > 0 && closing - tj <= eps) continue;
-    edgeVertices.push(j);
+/**
+ * The waveform of {@link vertexWaveform} as a class: its methods are the same
+ * functions for every waveform compiled, so a caller that walks edges run
+ * after run (the input schedule's nextEdge) keeps one call target (closures
+ * per compile were a new target each time, and deoptimised that caller).
+ */
+class VertexWaveform implements Waveform {
+  private readonly times: Float64Array;
+  private readonly values: Float64Array;
+  private readonly last: number;
+  private readonly period: number | undefined;
+  private readonly before: number;
+  private readonly first: number;
+  private readonly closing: number;
+  private readonly edgeVertices: number[];
+  // Every vertex is a breakpoint (the closing vertex of a period is the next period's first), so
+  // the value is affine between consecutive breakpoints.
+  readonly piecewiseLinear = true;
+
+  constructor(table: VertexTable) {
+    const times = (this.times = Float64Array.from(table.times));
+    this.values = Float64Array.from(table.values);
+    const last = (this.last = times.length - 1);
+    const period = (this.period = table.period);
+    this.before = table.before;
+    const first = (this.first = times[0] ?? 0);
+
+    // Breakpoint vertices: distinct times, and for a repeating table none at (or
+    // within rounding of) the closing vertex: that edge is the next period's first.
+    const closing = (this.closing = times[last] ?? first);
+    const eps = 8 * Number.EPSILON * Math.max(Math.abs(first), Math.abs(closing), period ?? 0);
+    const edgeVertices: number[] = (this.edgeVertices = []);
+    const limit = period === undefined ? last : last - 1;
+    for (let j = 0; j <= limit; j++) {
+      const tj = times[j] ?? 0;
+      if (j > 0 && tj === times[j - 1]) continue;
+      if (period !== undefined && j > 0 && closing - tj <= eps) continue;
+      edgeVertices.push(j);
+    }
   }
 
-  const edgeTime = (j: number, k: number): number => (times[j] ?? 0) + k * (period ?? 0);
+  private edgeTime(j: number, k: number): number {
+    return (this.times[j] ?? 0) + k * (this.period ?? 0);
+  }
 
   /** Largest j with edgeTime(j, k) <= t (t >= edgeTime(0, k) assumed). */
-  const findVertex = (t: number, k: number): number => {
+  private findVertex(t: number, k: number): number {
     let lo = 0;
-    let hi = last;
+    let hi = this.last;
     while (lo < hi) {
       const mid = (lo + hi + 1) >> 1;
-      if (edgeTime(mid, k) <= t) lo = mid;
+      if (this.edgeTime(mid, k) <= t) lo = mid;
       else hi = mid - 1;
     }
     return lo;
-  };
+  }
 
-  const value = (t: number): number => {
+  value(t: number): number {
+    const { values, last, period, first } = this;
     if (Number.isNaN(t)) return Number.NaN;
-    if (t < first) return before;
+    if (t < first) return this.before;
     let k = 0;
     if (period !== undefined) {
       k = Math.floor((t - first) / period);
       // Rounding in the division can put k one off; settle it against the edge formula. Bounded:
       // a period below the rounding unit of t (k + 1 === k, or edges that no longer advance) ends it.
-      for (let settle = 0; settle < 4 && k > 0 && edgeTime(0, k) > t; settle++) k--;
-      for (let settle = 0; settle < 4 && edgeTime(0, k + 1) <= t && edgeTime(0, k + 1) > edgeTime(0, k); settle++) k++;
+      for (let settle = 0; settle < 4 && k > 0 && this.edgeTime(0, k) > t; settle++) k--;
+      for (let settle = 0; settle < 4 && this.edgeTime(0, k + 1) <= t && this.edgeTime(0, k + 1) > this.edgeTime(0, k); settle++) k++;
     }
-    const j = findVertex(t, k);
+    const j = this.findVertex(t, k);
     const vj = values[j] ?? 0;
     if (j >= last) return vj;
-    const tj = edgeTime(j, k);
-    const tn = edgeTime(j + 1, k);
+    const tj = this.edgeTime(j, k);
+    const tn = this.edgeTime(j + 1, k);
     const vn = values[j + 1] ?? vj;
     if (vn === vj || !(tn > tj)) return vj;
     return vj + ((vn - vj) * (t - tj)) / (tn - tj);
-  };
+  }
 
-  const breakpoints = (t0: number, t1: number): number[] => {
+  breakpoints(t0: number, t1: number): number[] {
+    const { period, edgeVertices, closing } = this;
     const out: number[] = [];
     if (!(t1 >= t0) || edgeVertices.length === 0) return out;
     const push = (b: number): void => {
       if (b >= t0 && b <= t1 && (out.length === 0 || b > (out[out.length - 1] ?? -Infinity))) out.push(b);
     };
     if (period === undefined) {
-      for (const j of edgeVertices) push(edgeTime(j, 0));
+      for (const j of edgeVertices) push(this.edgeTime(j, 0));
       return out;
     }
     // First period whose edges can reach t0, computed (not scanned); one period of slack for rounding.
     let k = Math.max(0, Math.ceil((t0 - closing) / period) - 1);
     // k + 1 === k: the period is below the rounding unit of k (no further edge can be told apart).
-    while (edgeTime(0, k) <= t1 && k + 1 > k) {
-      for (const j of edgeVertices) push(edgeTime(j, k));
+    while (this.edgeTime(0, k) <= t1 && k + 1 > k) {
+      for (const j of edgeVertices) push(this.edgeTime(j, k));
       k++;
     }
     return out;
-  };
+  }
 
-  const nextBreakpoint = (after: number): number => {
+  nextBreakpoint(after: number): number {
+    const { period, edgeVertices, first } = this;
     if (edgeVertices.length === 0 || Number.isNaN(after)) return Infinity;
     if (period === undefined) {
-      for (const j of edgeVertices) if (edgeTime(j, 0) > after) return edgeTime(j, 0);
+      for (const j of edgeVertices) if (this.edgeTime(j, 0) > after) return this.edgeTime(j, 0);
       return Infinity;
     }
     // The period index is computed, then at most a few periods are tried (one of slack each side for rounding).
     const k0 = Math.max(0, Math.floor((after - first) / period) - 1);
     for (let k = k0; k < k0 + 4; k++) {
-      for (const j of edgeVertices) if (edgeTime(j, k) > after) return edgeTime(j, k);
+      for (const j of edgeVertices) if (this.edgeTime(j, k) > after) return this.edgeTime(j, k);
     }
     // Edges denser than the floats around `after`: the next float is an edge.
     return nextUp(after);
-  };
-
-  // Every vertex is a breakpoint (the closing vertex of a period is the next period's first), so
-  // the value is affine between consecutive breakpoints.
-  return { value, breakpoints, nextBreakpoint, piecewiseLinear: true };
+  }
 }

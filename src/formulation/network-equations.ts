@@ -1,0 +1,105 @@
+import type { ElementGroup, InputView } from '../elements/element-kind.js';
+import type { StampTarget } from '../elements/stamp-target.js';
+import type { CompiledTube, TubeStateStamps } from '../elements/tube-kind.js';
+import type { MaterialLaw } from '../materials/material-law.js';
+
+/** How f reads one tube's MMF drop (see seriesTerms in compile-network.ts). */
+export interface MmfTerm {
+  /** Index of the tube's series (tubes sharing one law evaluation), or -1 for a tube read on its own. */
+  readonly group: number;
+  /** The first tube of its series in tube order: it evaluates the law for the others. */
+  readonly first: boolean;
+  readonly law: MaterialLaw | undefined;
+  readonly length: number;
+  readonly area: number;
+}
+
+/** Tube -> loop incidence, loop indices offset into y. */
+export interface TubeLoops {
+  readonly index: Int32Array;
+  readonly sign: Float64Array;
+}
+
+/**
+ * A compiled network's f and df/dy as methods of one class. The solver
+ * calls them at every stage of every Newton iteration; as closures made per
+ * compile they were a new call target for each network compiled, and the
+ * next run in a process deoptimised the code specialised on the last.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const equations = new NetworkEquations(tubes, tubeLoops, terms, tubeStates, groups);
+ * equations.evaluate(t, y, inputs, out);
+ * ```
+ */
+export class NetworkEquations {
+  private readonly tubeCount: number;
+  private readonly lawValues: Float64Array;
+  private readonly slopeValues: Float64Array;
+
+  constructor(
+    private readonly tubes: readonly CompiledTube[],
+    private readonly tubeLoops: readonly TubeLoops[],
+    /** Tubes in series with one law share one evaluation of it per call (see seriesTerms). */
+    private readonly terms: readonly MmfTerm[],
+    private readonly tubeStates: readonly TubeStateStamps[],
+    private readonly groups: readonly ElementGroup[],
+  ) {
+    this.tubeCount = tubes.length;
+    const groupCount = terms.reduce((m, term) => Math.max(m, term.group + 1), 0);
+    this.lawValues = new Float64Array(groupCount);
+    this.slopeValues = new Float64Array(groupCount);
+  }
+
+  /** Flux of tube b in the state y, Wb. */
+  fluxOf(y: Float64Array, b: number): number {
+    const { index, sign } = this.tubeLoops[b]!;
+    let s = 0;
+    for (let k = 0; k < index.length; k++) s += sign[k]! * y[index[k]!]!;
+    return s;
+  }
+
+  /** f(t, y) into out, with the inputs in force given explicitly. */
+  evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
+    const { terms, tubes, tubeLoops, lawValues, tubeStates, groups } = this;
+    // A loop, not fill(): for a few unknowns the builtin's call costs more than the stores.
+    for (let i = 0; i < out.length; i++) out[i] = 0;
+    // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
+    for (let b = 0; b < this.tubeCount; b++) {
+      const term = terms[b]!;
+      let F: number;
+      if (term.group < 0) F = tubes[b]!.mmf(this.fluxOf(y, b), y);
+      else {
+        // The material tube's own l H(phi / A), with H read once for its series.
+        if (term.first) lawValues[term.group] = term.law!.fieldStrength(this.fluxOf(y, b) / term.area);
+        F = term.length * lawValues[term.group]!;
+      }
+      const { index, sign } = tubeLoops[b]!;
+      for (let k = 0; k < index.length; k++) out[index[k]!]! -= sign[k]! * F;
+    }
+    // Indexed loops: this runs at every stage of every Newton iteration.
+    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.residual(t, y, inp, out);
+    for (let k = 0; k < groups.length; k++) groups[k]!.residual(t, y, inp, out);
+  }
+
+  /** df/dy added into a stamp target (zero-filled by the caller), with the inputs given explicitly. */
+  stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
+    const { terms, tubes, tubeLoops, slopeValues, tubeStates, groups } = this;
+    for (let b = 0; b < this.tubeCount; b++) {
+      const term = terms[b]!;
+      let dF: number;
+      if (term.group < 0) dF = tubes[b]!.mmfSlope(this.fluxOf(y, b), y);
+      else {
+        if (term.first) slopeValues[term.group] = term.law!.fieldSlope(this.fluxOf(y, b) / term.area);
+        dF = (term.length / term.area) * slopeValues[term.group]!;
+      }
+      const { index, sign } = tubeLoops[b]!;
+      for (let k1 = 0; k1 < index.length; k1++) {
+        for (let k2 = 0; k2 < index.length; k2++) J.add(index[k1]!, index[k2]!, -sign[k1]! * sign[k2]! * dF);
+      }
+    }
+    for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.jacobian(t, y, inp, J);
+    for (let k = 0; k < groups.length; k++) groups[k]!.jacobian(t, y, inp, J);
+  }
+}
