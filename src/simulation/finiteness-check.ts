@@ -60,26 +60,68 @@ function finiteWithin(v: Float64Array, bound: number): boolean {
  *
  * @internal
  */
-export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array) => NonFiniteValue | undefined {
+export function finitenessCheck(c: CompiledNetwork): FinitenessCheck {
+  return new FinitenessCheck(c);
+}
+
+/** A quantity the check reads, by name. */
+type Check = { readonly quantity: string; readonly name: string; readonly fn: StateFunction };
+
+/**
+ * The check of {@link finitenessCheck}, a class so that the run calls one
+ * function (`check.check(t, y)`) in every run: a closure per run was a new
+ * call target each time and deoptimised the run's code in the next run.
+ *
+ * @internal
+ */
+export class FinitenessCheck {
   // Quantities that need a derivative of the state evaluate f(t, y); within one check (one t, one y,
   // one set of inputs) it is the same f, so it is evaluated once per check instead of once per quantity.
-  const f = new Float64Array(c.layout.size);
-  let fresh = false;
-  const once: CompiledNetwork = {
-    ...c,
-    evaluate: (t, y, inputs, out) => {
-      if (!fresh) {
-        c.evaluate(t, y, inputs, f);
-        fresh = true;
-      }
-      out.set(f);
-    },
-  };
+  private readonly f: Float64Array;
+  private fresh = false;
   // Built on the first state that needs them (most runs never do).
-  type Check = { readonly quantity: string; readonly name: string; readonly fn: StateFunction };
-  let checks: Check[] | undefined;
-  const build = (): Check[] => {
-    const reader = new StateReader(once, undefined);
+  private checks: Check[] | undefined;
+  /** The network with f evaluated once per check (for the quantities' readers). */
+  private readonly once: CompiledNetwork;
+
+  constructor(private readonly c: CompiledNetwork) {
+    this.f = new Float64Array(c.layout.size);
+    this.once = {
+      ...c,
+      evaluate: (t, y, inputs, out) => {
+        if (!this.fresh) {
+          c.evaluate(t, y, inputs, this.f);
+          this.fresh = true;
+        }
+        out.set(this.f);
+      },
+    };
+  }
+
+  /** The first non-finite value at (t, y) under the network's inputs in force, or undefined. */
+  check(t: number, y: Float64Array): NonFiniteValue | undefined {
+    const c = this.c;
+    const f = this.f;
+    if (finiteWithin(y, QUICK_PASS_BOUND)) {
+      // The inputs in force themselves, not the network's view that forwards to them (the same
+      // values): the elements' residuals then see one kind of inputs from the solver and from here.
+      c.equations.evaluate(t, y, c.inputs.inForce, f);
+      if (finiteWithin(f, QUICK_PASS_BOUND)) return undefined;
+      this.fresh = true; // f at (t, y) is in hand for the quantities below
+    } else {
+      this.fresh = false;
+    }
+    const list = (this.checks ??= this.build());
+    for (const check of list) {
+      const value = check.fn(y, t);
+      if (!Number.isFinite(value)) return { quantity: check.quantity, name: check.name, value };
+    }
+    return undefined;
+  }
+
+  private build(): Check[] {
+    const c = this.c;
+    const reader = new StateReader(this.once, undefined);
     const list: Check[] = [];
     for (const request of everyRequest(c)) {
       try {
@@ -89,22 +131,5 @@ export function finitenessCheck(c: CompiledNetwork): (t: number, y: Float64Array
       }
     }
     return list;
-  };
-  return (t, y) => {
-    if (finiteWithin(y, QUICK_PASS_BOUND)) {
-      // The inputs in force themselves, not the network's view that forwards to them (the same
-      // values): the elements' residuals then see one kind of inputs from the solver and from here.
-      c.evaluate(t, y, c.inputs.inForce, f);
-      if (finiteWithin(f, QUICK_PASS_BOUND)) return undefined;
-      fresh = true; // f at (t, y) is in hand for the quantities below
-    } else {
-      fresh = false;
-    }
-    const list = (checks ??= build());
-    for (const check of list) {
-      const value = check.fn(y, t);
-      if (!Number.isFinite(value)) return { quantity: check.quantity, name: check.name, value };
-    }
-    return undefined;
-  };
+  }
 }

@@ -81,7 +81,16 @@ export interface RunSettings extends Omit<ResolvedSolverSettings, 'maxSteps'> {
    * current): the first non-finite quantity, or undefined. A hit ends the
    * run with status `'non-finite'`, keeping what came before.
    */
-  readonly check?: (t: number, y: Float64Array) => NonFiniteValue | undefined;
+  readonly check?: StateCheck;
+}
+
+/**
+ * A check of recorded states (see {@link RunSettings.check}), called as a
+ * method: a class instance keeps the run's call site on one function from
+ * run to run.
+ */
+export interface StateCheck {
+  check(t: number, y: Float64Array): NonFiniteValue | undefined;
 }
 
 /**
@@ -194,13 +203,6 @@ export class NetworkRun {
   private standIn: InputsInForce | undefined;
   /** The step in hand: the last step's interpolant as the integrator hands it over (refilled per step, then copied into stepRecord). */
   private readonly hand: StepBuffer;
-  private handStartTaken = false;
-  /** Storage for copyInterpolant: the start state, then the polynomial, into the step in hand. */
-  private readonly takeForStep = (_length: number): Float64Array => {
-    if (this.handStartTaken) return this.hand.q;
-    this.handStartTaken = true;
-    return this.hand.yOld;
-  };
   /** A state about to be checked (and kept, copied into sampleRecord). */
   private readonly scratch: Float64Array;
   /** A sample interpolated inside a step, about to be projected, checked and kept. */
@@ -763,9 +765,8 @@ export class NetworkRun {
 
   /** Take the step just accepted into the step in hand and keep a copy of it; returns the step in hand. */
   private recordStep(record: RecordOptions): RecordedStep {
-    this.handStartTaken = false;
-    // The integrator copies its start state and polynomial into the step in hand (see takeForStep).
-    const it = this.integ.copyInterpolant(this.takeForStep)!;
+    // The integrator copies its start state and polynomial into the step in hand.
+    const it = this.integ.copyInterpolantInto(this.hand.yOld, this.hand.q)!;
     const steps = this.stepRecord;
     const last = steps.length - 1;
     const first = last < 0 || steps.t(last) !== it.tOld || steps.interval(last) !== this.intervals.length - 1;
@@ -847,7 +848,7 @@ export class NetworkRun {
         const before = inputs.inForce;
         inputs.use(this.live);
         try {
-          hit = check(t, y);
+          hit = check.check(t, y);
         } finally {
           inputs.use(before);
         }

@@ -236,6 +236,12 @@ export interface DaeIntegrator {
    * for callers that keep many steps in storage of their own.
    */
   copyInterpolant(take: (length: number) => Float64Array): DaeStepInterpolant | undefined;
+  /**
+   * The same copy into two arrays of the caller's (n, then 3n numbers), or
+   * undefined before the first step: no callback, so the integrator's code
+   * sees no function of the caller's that changes from run to run.
+   */
+  copyInterpolantInto(yOld: Float64Array, q: Float64Array): DaeStepInterpolant | undefined;
   /** Copy the present state into `out` (length n) without allocating; returns `out`. */
   readState(out: Float64Array): Float64Array;
 }
@@ -864,10 +870,14 @@ class RadauIntegrator implements DaeIntegrator {
 
   copyInterpolant(take: (length: number) => Float64Array): DaeStepInterpolant | undefined {
     if (!this.hasPiece) return undefined;
-    const p = this.piece;
     const yOld = take(this.n);
+    return this.copyInterpolantInto(yOld, take(3 * this.n));
+  }
+
+  copyInterpolantInto(yOld: Float64Array, q: Float64Array): DaeStepInterpolant | undefined {
+    if (!this.hasPiece) return undefined;
+    const p = this.piece;
     yOld.set(p.yOld);
-    const q = take(3 * this.n);
     q.set(p.q);
     return { tOld: p.tOld, t: p.t, h: p.h, yOld, q };
   }
