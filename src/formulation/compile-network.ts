@@ -2,7 +2,6 @@ import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampConte
 import { elementKind, tubeKind } from '../elements/registry.js';
 import { DenseStampTarget, EntryRecordingStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube } from '../elements/tube-kind.js';
-import type { MaterialLaw } from '../materials/material-law.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
 import { NetworkInputs } from './network-inputs.js';
