@@ -54,20 +54,10 @@ export class ComplexLu implements ComplexLinearSolver {
   }
 
   factor(re: Float64Array, im: Float64Array): number {
-    const { size: n, ar, ai, perm, rowScale, colScale } = this;
+    const { size: n, rowScale, colScale } = this;
     const nonFinite = equilibrateComplex(n, re, im, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
-    for (let i = 0; i < n; i++) {
-      perm[i] = i;
-      const row = i * n;
-      const r = rowScale[i]!;
-      for (let j = 0; j < n; j++) {
-        const c = r * colScale[j]!;
-        ar[row + j] = c * re[row + j]!;
-        ai[row + j] = c * im[row + j]!;
-      }
-    }
-    return this.eliminate();
+    return this.scaleAndEliminate(re, im);
   }
 
   /**
@@ -77,7 +67,7 @@ export class ComplexLu implements ComplexLinearSolver {
    * for bit), and no separate pass to form them and copy them in.
    */
   factorShifted(jac: Float64Array, shiftRe: number, shiftIm: number, mass: SparseMass | undefined): number {
-    const { size: n, ar, ai, perm, rowScale, colScale } = this;
+    const { size: n, ar, ai, rowScale, colScale } = this;
     for (let k = 0; k < n * n; k++) {
       ar[k] = -jac[k]!;
       ai[k] = 0;
@@ -100,14 +90,20 @@ export class ComplexLu implements ComplexLinearSolver {
     }
     const nonFinite = equilibrateComplex(n, ar, ai, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
+    return this.scaleAndEliminate(ar, ai);
+  }
+
+  /** The equilibrated (re, im) (which may be the factor's own storage) into (ar, ai), then the elimination. */
+  private scaleAndEliminate(re: Float64Array, im: Float64Array): number {
+    const { size: n, ar, ai, perm, rowScale, colScale } = this;
     for (let i = 0; i < n; i++) {
       perm[i] = i;
       const row = i * n;
       const r = rowScale[i]!;
       for (let j = 0; j < n; j++) {
         const c = r * colScale[j]!;
-        ar[row + j] = c * ar[row + j]!;
-        ai[row + j] = c * ai[row + j]!;
+        ar[row + j] = c * re[row + j]!;
+        ai[row + j] = c * im[row + j]!;
       }
     }
     return this.eliminate();

@@ -49,16 +49,10 @@ export class DenseLu implements RealLinearSolver {
   }
 
   factor(a: Float64Array): number {
-    const { size: n, lu, perm, rowScale, colScale } = this;
+    const { size: n, rowScale, colScale } = this;
     const nonFinite = equilibrateReal(n, a, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
-    for (let i = 0; i < n; i++) {
-      perm[i] = i;
-      const row = i * n;
-      const r = rowScale[i]!;
-      for (let j = 0; j < n; j++) lu[row + j] = r * a[row + j]! * colScale[j]!;
-    }
-    return this.eliminate();
+    return this.scaleAndEliminate(a);
   }
 
   /**
@@ -68,7 +62,7 @@ export class DenseLu implements RealLinearSolver {
    * separate pass to form it and copy it in (a third of a small factorisation's time).
    */
   factorShifted(jac: Float64Array, shift: number, mass: SparseMass | undefined): number {
-    const { size: n, lu, perm, rowScale, colScale } = this;
+    const { size: n, lu, rowScale, colScale } = this;
     for (let k = 0; k < n * n; k++) lu[k] = -jac[k]!;
     if (!mass) {
       for (let i = 0; i < n; i++) lu[i * n + i] = lu[i * n + i]! + shift;
@@ -83,11 +77,17 @@ export class DenseLu implements RealLinearSolver {
     }
     const nonFinite = equilibrateReal(n, lu, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
+    return this.scaleAndEliminate(lu);
+  }
+
+  /** The equilibrated `a` (which may be the factor's own storage) into `lu`, then the elimination. */
+  private scaleAndEliminate(a: Float64Array): number {
+    const { size: n, lu, perm, rowScale, colScale } = this;
     for (let i = 0; i < n; i++) {
       perm[i] = i;
       const row = i * n;
       const r = rowScale[i]!;
-      for (let j = 0; j < n; j++) lu[row + j] = r * lu[row + j]! * colScale[j]!;
+      for (let j = 0; j < n; j++) lu[row + j] = r * a[row + j]! * colScale[j]!;
     }
     return this.eliminate();
   }
