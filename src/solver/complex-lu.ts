@@ -1,6 +1,7 @@
 import { equilibrateComplex } from './dense-equilibration.js';
 import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
+import { formShifted, scaledMass } from './shifted-matrix.js';
 import type { SparseMass } from './sparse-mass.js';
 
 /**
@@ -68,26 +69,8 @@ export class ComplexLu implements ComplexLinearSolver {
    */
   factorShifted(jac: Float64Array, shiftRe: number, shiftIm: number, mass: SparseMass | undefined): number {
     const { size: n, ar, ai, rowScale, colScale } = this;
-    for (let k = 0; k < n * n; k++) {
-      ar[k] = -jac[k]!;
-      ai[k] = 0;
-    }
-    if (!mass) {
-      for (let i = 0; i < n; i++) {
-        ar[i * n + i] = ar[i * n + i]! + shiftRe;
-        ai[i * n + i] = shiftIm;
-      }
-    } else {
-      const { rowStart, col, value } = mass;
-      for (let i = 0; i < n; i++) {
-        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
-          const idx = i * n + col[k]!;
-          const m = value[k]!;
-          ar[idx] = ar[idx]! + shiftRe * m;
-          ai[idx] = shiftIm * m;
-        }
-      }
-    }
+    formShifted(n, jac, shiftRe, mass, ar);
+    scaledMass(n, shiftIm, mass, ai);
     const nonFinite = equilibrateComplex(n, ar, ai, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
     return this.scaleAndEliminate(ar, ai);

@@ -6,6 +6,7 @@ import type { IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { createEmbeddedComplexLu, createMlMatrixLu } from './ml-matrix-lu.js';
 import type { NormalizedDae } from './normalize-problem.js';
+import { formShifted, scaledMass } from './shifted-matrix.js';
 
 /**
  * The {@link IterationSystem} on dense row-major n x n arrays: J from the
@@ -90,33 +91,11 @@ class DenseIterationSystem implements IterationSystem {
       const bad = real.factorShifted(J, fac1, this.mass);
       return bad >= 0 ? bad : this.flatComplex!.factorShifted(J, alphn, betan, this.mass);
     }
-    const { n } = this;
+    const { n, mass } = this;
     const { e1, e2r, e2i } = this.formed!;
-    for (let k = 0; k < n * n; k++) {
-      const v = -J[k]!;
-      e1[k] = v;
-      e2r[k] = v;
-    }
-    e2i.fill(0);
-    const mass = this.mass;
-    if (!mass) {
-      for (let i = 0; i < n; i++) {
-        e1[i * n + i] = e1[i * n + i]! + fac1;
-        e2r[i * n + i] = e2r[i * n + i]! + alphn;
-        e2i[i * n + i] = betan;
-      }
-    } else {
-      const { rowStart, col, value } = mass;
-      for (let i = 0; i < n; i++) {
-        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
-          const idx = i * n + col[k]!;
-          const m = value[k]!;
-          e1[idx] = e1[idx]! + fac1 * m;
-          e2r[idx] = e2r[idx]! + alphn * m;
-          e2i[idx] = betan * m;
-        }
-      }
-    }
+    formShifted(n, J, fac1, mass, e1);
+    formShifted(n, J, alphn, mass, e2r);
+    scaledMass(n, betan, mass, e2i);
     const r = this.luReal.factor(e1);
     return r >= 0 ? r : this.luComplex.factor(e2r, e2i);
   }

@@ -1,6 +1,7 @@
 import { equilibrateReal } from './dense-equilibration.js';
 import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
+import { formShifted } from './shifted-matrix.js';
 import type { SparseMass } from './sparse-mass.js';
 
 /**
@@ -63,18 +64,7 @@ export class DenseLu implements RealLinearSolver {
    */
   factorShifted(jac: Float64Array, shift: number, mass: SparseMass | undefined): number {
     const { size: n, lu, rowScale, colScale } = this;
-    for (let k = 0; k < n * n; k++) lu[k] = -jac[k]!;
-    if (!mass) {
-      for (let i = 0; i < n; i++) lu[i * n + i] = lu[i * n + i]! + shift;
-    } else {
-      const { rowStart, col, value } = mass;
-      for (let i = 0; i < n; i++) {
-        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
-          const idx = i * n + col[k]!;
-          lu[idx] = lu[idx]! + shift * value[k]!;
-        }
-      }
-    }
+    formShifted(n, jac, shift, mass, lu);
     const nonFinite = equilibrateReal(n, lu, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
     return this.scaleAndEliminate(lu);
