@@ -50,7 +50,11 @@ export interface CollocationSystem {
 /**
  * Work arrays of the iteration, allocated once per integrator. Shapes (n
  * unknowns): z, w, fz, dw are 3n, stage k at [k n, k n + n); the views are
- * made once here so the iteration itself allocates nothing.
+ * made once here so the iteration itself allocates nothing. A class, not an
+ * object literal: a literal made once per integrator takes, at its second
+ * evaluation in a process, a map whose array fields are generalised, and the
+ * code compiled against the first integrator's objects is thrown away (a
+ * class keeps one map).
  *
  * @internal
  * @example
@@ -59,7 +63,7 @@ export interface CollocationSystem {
  * work.z.fill(0); // start values
  * ```
  */
-export interface CollocationWork {
+export class CollocationWork {
   /** Stage increments Z_k = Y_k - y (3n): start values in, solution out. */
   readonly z: Float64Array;
   /** Transformed increments W = T^-1 Z (3n). */
@@ -75,31 +79,6 @@ export interface CollocationWork {
   /** Stage state y + Z_k (n). */
   readonly ys: Float64Array;
   /** M W_k (n each). */
-  readonly m1: Float64Array;
-  readonly m2: Float64Array;
-  readonly m3: Float64Array;
-}
-
-/** @internal @example `const work = createCollocationWork(3);` (arrays from `take`, see {@link TakeFloat64}) */
-export function createCollocationWork(n: number, take: TakeFloat64 = ownFloat64): CollocationWork {
-  return new CollocationArrays(n, take);
-}
-
-/**
- * The work arrays as a class: an object literal made once per integrator takes, at its second
- * evaluation in a process, a map whose array fields are generalised, and the code compiled
- * against the first integrator's objects is thrown away (a class keeps one map).
- */
-class CollocationArrays implements CollocationWork {
-  readonly z: Float64Array;
-  readonly w: Float64Array;
-  readonly fz: Float64Array;
-  readonly fzStage: readonly [Float64Array, Float64Array, Float64Array];
-  readonly dw: Float64Array;
-  readonly dwReal: Float64Array;
-  readonly dwRe: Float64Array;
-  readonly dwIm: Float64Array;
-  readonly ys: Float64Array;
   readonly m1: Float64Array;
   readonly m2: Float64Array;
   readonly m3: Float64Array;
@@ -120,6 +99,11 @@ class CollocationArrays implements CollocationWork {
     this.m2 = take(n);
     this.m3 = take(n);
   }
+}
+
+/** @internal @example `const work = createCollocationWork(3);` (arrays from `take`, see {@link TakeFloat64}) */
+export function createCollocationWork(n: number, take: TakeFloat64 = ownFloat64): CollocationWork {
+  return new CollocationWork(n, take);
 }
 
 /**
