@@ -7,6 +7,7 @@
  */
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { fluxWalk } from './flux-walk.js';
 
 type Api = typeof import('../src/index.js');
 
@@ -18,22 +19,8 @@ const there = (await import(pathToFileURL(resolve(other, 'src/index.ts')).href))
 
 /** The walk of bench/flux-walk.ts built with one checkout's API (its own classes). */
 function walk(api: Api) {
-  const { createNetwork, MU0, pulse } = api;
-  const net = createNetwork('flux walk, 100 kHz');
-  const law = {
-    name: 'B/(mu0 2000) + 2 sinh(B/0.04)',
-    fieldStrength: (b: number) => b / (MU0 * 2000) + 2 * Math.sinh(b / 0.04),
-    fieldSlope: (b: number) => 1 / (MU0 * 2000) + (2 / 0.04) * Math.cosh(b / 0.04),
-    energyDensity: (b: number) => (b * b) / (2 * MU0 * 2000) + 2 * 0.04 * (Math.cosh(b / 0.04) - 1),
-  };
-  const m1 = net.magneticNode('m1');
-  const m2 = net.magneticNode('m2');
-  const leg = net.fluxTube('leg', { from: m1, to: m2, length: 0.025, area: 1e-4, material: law });
-  net.fluxTube('rest', { from: m2, to: m1, length: 0.025, area: 1e-4, material: law });
-  const d = net.node('drive');
-  net.voltageSource('drive', d, net.ground, pulse({ low: -12, high: 12, period: 1e-5, duty: 0.52 }));
-  net.winding('coil', { tube: leg, turns: 20, resistance: 0.5, plus: d, minus: net.ground });
-  return () => api.simulate(net, { stopTime: 1e-2, rtol: 1e-6 });
+  const { net, stopTime } = fluxWalk(1000, api);
+  return () => api.simulate(net, { stopTime, rtol: 1e-6 });
 }
 
 function cpuMs(fn: () => unknown): number {

@@ -20,15 +20,18 @@ export const walkLaw: MaterialLaw = {
   energyDensity: (b) => (b * b) / (2 * MU0 * 2000) + 2 * 0.04 * (Math.cosh(b / 0.04) - 1),
 };
 
+/** The network builders the walk needs: this checkout's by default, another checkout's to compare (bench/flux-walk-versus.ts). */
+export type WalkApi = Pick<typeof import('../src/index.js'), 'createNetwork' | 'pulse'>;
+
 /** The flux-walk network and its stop time for `periods` periods of the drive. */
-export function fluxWalk(periods = 1000) {
-  const net = createNetwork('flux walk, 100 kHz');
+export function fluxWalk(periods = 1000, api: WalkApi = { createNetwork, pulse }) {
+  const net = api.createNetwork('flux walk, 100 kHz');
   const m1 = net.magneticNode('m1');
   const m2 = net.magneticNode('m2');
   const leg = net.fluxTube('leg', { from: m1, to: m2, length: 0.025, area: 1e-4, material: walkLaw });
   net.fluxTube('rest', { from: m2, to: m1, length: 0.025, area: 1e-4, material: walkLaw });
   const d = net.node('drive');
-  net.voltageSource('drive', d, net.ground, pulse({ low: -12, high: 12, period: 1e-5, duty: 0.52 }));
+  net.voltageSource('drive', d, net.ground, api.pulse({ low: -12, high: 12, period: 1e-5, duty: 0.52 }));
   const coil = net.winding('coil', { tube: leg, turns: 20, resistance: 0.5, plus: d, minus: net.ground });
   return { net, leg, coil, stopTime: periods * 1e-5 };
 }
