@@ -12,6 +12,7 @@ import {
   T,
   TI,
 } from './radau-tableau.js';
+import { packedDoubles } from './packed-doubles.js';
 import { keepLargest } from './weighted-norm.js';
 
 /** Unit round-off (radau5's UROUND). */
@@ -36,7 +37,7 @@ export interface CollocationSystem {
   /** f(t, y) into out (length n). Counted and guarded by the caller; may throw. */
   readonly rhs: (t: number, y: Float64Array, out: Float64Array) => void;
   /** out = M v[vOff .. vOff + n). */
-  readonly multiplyMass: (v: Float64Array, vOff: number, out: Float64Array) => void;
+  readonly multiplyMass: (v: number[], vOff: number, out: number[]) => void;
   /** M is the identity (an ODE): M W is W itself, read in place instead of copied. */
   readonly identityMass?: boolean;
   readonly luReal: RealLinearSolver;
@@ -50,7 +51,10 @@ export interface CollocationSystem {
 /**
  * Work arrays of the iteration, allocated once per integrator. Shapes (n
  * unknowns): z, w, fz, dw are 3n, stage k at [k n, k n + n); the views are
- * made once here so the iteration itself allocates nothing. A class, not an
+ * made once here so the iteration itself allocates nothing. What only the
+ * iteration and the integrator read (z, w and M W) is kept in plain arrays
+ * of doubles ({@link packedDoubles} says why); what f writes and the
+ * factorisations solve in place stays in Float64Arrays. A class, not an
  * object literal: a literal made once per integrator takes, at its second
  * evaluation in a process, a map whose array fields are generalised, and the
  * code compiled against the first integrator's objects is thrown away (a
@@ -65,9 +69,9 @@ export interface CollocationSystem {
  */
 export class CollocationWork {
   /** Stage increments Z_k = Y_k - y (3n): start values in, solution out. */
-  readonly z: Float64Array;
+  readonly z: number[];
   /** Transformed increments W = T^-1 Z (3n). */
-  readonly w: Float64Array;
+  readonly w: number[];
   /** f at the stages (3n), and its per-stage views. */
   readonly fz: Float64Array;
   readonly fzStage: readonly [Float64Array, Float64Array, Float64Array];
@@ -79,15 +83,15 @@ export class CollocationWork {
   /** Stage state y + Z_k (n). */
   readonly ys: Float64Array;
   /** M W_k (n each). */
-  readonly m1: Float64Array;
-  readonly m2: Float64Array;
-  readonly m3: Float64Array;
+  readonly m1: number[];
+  readonly m2: number[];
+  readonly m3: number[];
 
   constructor(n: number, take: TakeFloat64) {
     const fz = take(3 * n);
     const dw = take(3 * n);
-    this.z = take(3 * n);
-    this.w = take(3 * n);
+    this.z = packedDoubles(3 * n);
+    this.w = packedDoubles(3 * n);
     this.fz = fz;
     this.fzStage = [float64View(fz, 0, n), float64View(fz, n, n), float64View(fz, 2 * n, n)];
     this.dw = dw;
@@ -95,9 +99,9 @@ export class CollocationWork {
     this.dwRe = float64View(dw, n, n);
     this.dwIm = float64View(dw, 2 * n, n);
     this.ys = take(n);
-    this.m1 = take(n);
-    this.m2 = take(n);
-    this.m3 = take(n);
+    this.m1 = packedDoubles(n);
+    this.m2 = packedDoubles(n);
+    this.m3 = packedDoubles(n);
   }
 }
 
@@ -216,14 +220,17 @@ export function solveCollocation(
   const betan = MU_COMPLEX_IM / h;
   const fnewt = sys.fnewt;
   const identity = sys.identityMass === true;
+  // The transformation's entries as locals, read once per call rather than in every loop pass.
+  const ti0 = TI[0]!, ti1 = TI[1]!, ti2 = TI[2]!, ti3 = TI[3]!, ti4 = TI[4]!, ti5 = TI[5]!, ti6 = TI[6]!, ti7 = TI[7]!, ti8 = TI[8]!;
+  const t0 = T[0]!, t1 = T[1]!, t2 = T[2]!, t3 = T[3]!, t4 = T[4]!, t5 = T[5]!, t6 = T[6]!, t7 = T[7]!, t8 = T[8]!;
   // w = T^-1 z
   for (let i = 0; i < n; i++) {
     const z1 = z[i]!;
     const z2 = z[n + i]!;
     const z3 = z[2 * n + i]!;
-    w[i] = TI[0]! * z1 + TI[1]! * z2 + TI[2]! * z3;
-    w[n + i] = TI[3]! * z1 + TI[4]! * z2 + TI[5]! * z3;
-    w[2 * n + i] = TI[6]! * z1 + TI[7]! * z2 + TI[8]! * z3;
+    w[i] = ti0 * z1 + ti1 * z2 + ti2 * z3;
+    w[n + i] = ti3 * z1 + ti4 * z2 + ti5 * z3;
+    w[2 * n + i] = ti6 * z1 + ti7 * z2 + ti8 * z3;
   }
   // radau5 carries FACCON^0.8 into the step; the power is taken only where that value is read (the
   // first iteration's stopping test, when bounds cannot decide it, and an early return): most steps
@@ -270,9 +277,9 @@ export function solveCollocation(
       const a1 = mw1[o1 + i]!;
       const a2 = mw2[o2 + i]!;
       const a3 = mw3[o3 + i]!;
-      dw[i] = TI[0]! * f1 + TI[1]! * f2 + TI[2]! * f3 - fac1 * a1;
-      const cr = TI[3]! * f1 + TI[4]! * f2 + TI[5]! * f3;
-      const ci = TI[6]! * f1 + TI[7]! * f2 + TI[8]! * f3;
+      dw[i] = ti0 * f1 + ti1 * f2 + ti2 * f3 - fac1 * a1;
+      const cr = ti3 * f1 + ti4 * f2 + ti5 * f3;
+      const ci = ti6 * f1 + ti7 * f2 + ti8 * f3;
       dw[n + i] = cr - (alphn * a2 - betan * a3);
       dw[2 * n + i] = ci - (alphn * a3 + betan * a2);
     }
@@ -323,9 +330,9 @@ export function solveCollocation(
       const w1 = w[i]!;
       const w2 = w[n + i]!;
       const w3 = w[2 * n + i]!;
-      z[i] = T[0]! * w1 + T[1]! * w2 + T[2]! * w3;
-      z[n + i] = T[3]! * w1 + T[4]! * w2 + T[5]! * w3;
-      z[2 * n + i] = T[6]! * w1 + T[7]! * w2 + T[8]! * w3;
+      z[i] = t0 * w1 + t1 * w2 + t2 * w3;
+      z[n + i] = t3 * w1 + t4 * w2 + t5 * w3;
+      z[2 * n + i] = t6 * w1 + t7 * w2 + t8 * w3;
     }
     if (!facconPowered && !surelyAbove(faccon, dyno, fnewt)) {
       faccon = faccon ** 0.8;

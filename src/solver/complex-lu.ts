@@ -1,6 +1,6 @@
 import { equilibrateComplex } from './dense-equilibration.js';
-import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
+import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import { formShifted, scaledMass } from './shifted-matrix.js';
 import type { SparseMass } from './sparse-mass.js';
 
@@ -9,7 +9,8 @@ import type { SparseMass } from './sparse-mass.js';
  * row-major Float64Arrays, for the complex Radau iteration matrix
  * ((alpha - i beta)/h) M - J. Same algorithm as {@link createDenseLu} in
  * complex arithmetic (Golub and Van Loan, Algorithm 3.4.1); it does about half
- * the floating-point work of the real 2n x 2n embedding. Checked against
+ * the floating-point work of the real 2n x 2n embedding. The factors are
+ * kept in plain arrays of doubles ({@link packedDoubles} says why). Checked against
  * ml-matrix on the real embedding in test/solver/complex-lu.test.ts;
  * `npm run bench` measures both.
  *
@@ -21,8 +22,8 @@ import type { SparseMass } from './sparse-mass.js';
  * lu.solve(re, im); // x = -2i
  * ```
  */
-export function createComplexLu(n: number, take: TakeFloat64 = ownFloat64): ComplexLinearSolver {
-  return new ComplexLu(n, take);
+export function createComplexLu(n: number): ComplexLinearSolver {
+  return new ComplexLu(n);
 }
 
 /**
@@ -33,32 +34,37 @@ export function createComplexLu(n: number, take: TakeFloat64 = ownFloat64): Comp
  * @internal
  */
 export class ComplexLu implements ComplexLinearSolver {
-  private readonly ar: Float64Array;
-  private readonly ai: Float64Array;
-  private readonly perm: Int32Array;
-  private readonly rowScale: Float64Array;
-  private readonly colScale: Float64Array;
-  private readonly tr: Float64Array;
-  private readonly ti: Float64Array;
+  private readonly ar: number[];
+  private readonly ai: number[];
+  private readonly perm: number[];
+  private readonly rowScale: number[];
+  private readonly colScale: number[];
+  private readonly tr: number[];
+  private readonly ti: number[];
   private readonly tol: number;
 
-  constructor(readonly size: number, take: TakeFloat64) {
+  constructor(readonly size: number) {
     const n = size;
-    this.ar = take(n * n);
-    this.ai = take(n * n);
-    this.perm = new Int32Array(n);
-    this.rowScale = take(n);
-    this.colScale = take(n);
-    this.tr = take(n);
-    this.ti = take(n);
+    this.ar = packedDoubles(n * n);
+    this.ai = packedDoubles(n * n);
+    this.perm = identityPermutation(n);
+    this.rowScale = packedDoubles(n);
+    this.colScale = packedDoubles(n);
+    this.tr = packedDoubles(n);
+    this.ti = packedDoubles(n);
     this.tol = PIVOT_RELATIVE_TOLERANCE * n;
   }
 
   factor(re: Float64Array, im: Float64Array): number {
-    const { size: n, rowScale, colScale } = this;
-    const nonFinite = equilibrateComplex(n, re, im, rowScale, colScale);
+    const { size: n, ar, ai, rowScale, colScale } = this;
+    // Copied in first, as in the real LU: the loops below read only the factor's own storage.
+    for (let k = 0; k < n * n; k++) {
+      ar[k] = re[k]!;
+      ai[k] = im[k]!;
+    }
+    const nonFinite = equilibrateComplex(n, ar, ai, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
-    return this.scaleAndEliminate(re, im);
+    return this.scaleAndEliminate();
   }
 
   /**
@@ -73,11 +79,11 @@ export class ComplexLu implements ComplexLinearSolver {
     scaledMass(n, shiftIm, mass, ai);
     const nonFinite = equilibrateComplex(n, ar, ai, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
-    return this.scaleAndEliminate(ar, ai);
+    return this.scaleAndEliminate();
   }
 
-  /** The equilibrated (re, im) (which may be the factor's own storage) into (ar, ai), then the elimination. */
-  private scaleAndEliminate(re: Float64Array, im: Float64Array): number {
+  /** The matrix in (ar, ai) equilibrated in place, then the elimination. */
+  private scaleAndEliminate(): number {
     const { size: n, ar, ai, perm, rowScale, colScale } = this;
     for (let i = 0; i < n; i++) {
       perm[i] = i;
@@ -85,8 +91,8 @@ export class ComplexLu implements ComplexLinearSolver {
       const r = rowScale[i]!;
       for (let j = 0; j < n; j++) {
         const c = r * colScale[j]!;
-        ar[row + j] = c * re[row + j]!;
-        ai[row + j] = c * im[row + j]!;
+        ar[row + j] = c * ar[row + j]!;
+        ai[row + j] = c * ai[row + j]!;
       }
     }
     return this.eliminate();

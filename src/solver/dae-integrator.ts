@@ -23,6 +23,7 @@ import { Float64Chunks } from './float64-chunks.js';
 import { OutsidePatternError, type IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
+import { packedDoublesFrom } from './packed-doubles.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
 import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
@@ -369,7 +370,7 @@ class IntegratorCalls implements CollocationSystem {
     this.integ.callRhs(t, y, out);
   }
 
-  multiplyMass(v: Float64Array, vOff: number, out: Float64Array): void {
+  multiplyMass(v: number[], vOff: number, out: number[]): void {
     this.integ.mulMass(v, vOff, out);
   }
 }
@@ -400,9 +401,10 @@ class RadauIntegrator implements DaeIntegrator {
   private readonly p: NormalizedDae;
   private readonly n: number;
   /** Sparse copy of M (CSR), or undefined for the identity. */
-  private readonly mRowPtr: Int32Array | undefined;
-  private readonly mCol: Int32Array | undefined;
-  private readonly mVal: Float64Array | undefined;
+  /** M in compressed rows, as plain arrays for M W in every Newton iteration (see packedDoubles). */
+  private readonly mRowPtr: number[] | undefined;
+  private readonly mCol: number[] | undefined;
+  private readonly mVal: number[] | undefined;
   private readonly spaces: MassSpaces | undefined;
   /** radau5's transformed tolerances. */
   private readonly rtolT: Float64Array;
@@ -518,9 +520,9 @@ class RadauIntegrator implements DaeIntegrator {
     const take = (length: number): Float64Array => chunks.take(length);
     if (p.mass) {
       // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
-      this.mRowPtr = p.mass.rowStart;
-      this.mCol = p.mass.col;
-      this.mVal = p.mass.value;
+      this.mRowPtr = Array.from(p.mass.rowStart);
+      this.mCol = Array.from(p.mass.col);
+      this.mVal = packedDoublesFrom(p.mass.value);
       this.spaces = massSpaces(p.mass, n);
     }
     // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
@@ -971,7 +973,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   /** out = M v (v when M is the identity). */
-  mulMass(v: Float64Array, vOff: number, out: Float64Array): void {
+  mulMass(v: number[], vOff: number, out: number[]): void {
     const rp = this.mRowPtr;
     if (!rp) {
       for (let i = 0; i < this.n; i++) out[i] = v[vOff + i]!;

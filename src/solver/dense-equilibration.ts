@@ -13,10 +13,10 @@ import { powerOfTwoInverse } from './linear-solver.js';
  * @internal
  * @example
  * ```ts
- * const bad = equilibrateReal(2, Float64Array.of(4, 1, 2, 3), rowScale, colScale); // -1
+ * const bad = equilibrateReal(2, [4, 1, 2, 3], rowScale, colScale); // -1
  * ```
  */
-export function equilibrateReal(n: number, a: Float64Array, rowScale: Float64Array, colScale: Float64Array): number {
+export function equilibrateReal(n: number, a: number[], rowScale: number[], colScale: number[]): number {
   // colScale first collects the column maxima of rowScale_i |a_ij|, row by row while the row is at
   // hand (one pass in storage order; max is exact, so the order of the rows does not matter; Math.max
   // keeps a NaN from an infinite scale times 0, as the column pass by definition does).
@@ -46,10 +46,10 @@ export function equilibrateReal(n: number, a: Float64Array, rowScale: Float64Arr
  * @internal
  * @example
  * ```ts
- * const bad = equilibrateComplex(1, Float64Array.of(0), Float64Array.of(2), rowScale, colScale); // -1
+ * const bad = equilibrateComplex(1, [0], [2], rowScale, colScale); // -1
  * ```
  */
-export function equilibrateComplex(n: number, re: Float64Array, im: Float64Array, rowScale: Float64Array, colScale: Float64Array): number {
+export function equilibrateComplex(n: number, re: number[], im: number[], rowScale: number[], colScale: number[]): number {
   for (let j = 0; j < n; j++) colScale[j] = 0;
   for (let i = 0; i < n; i++) {
     const row = i * n;

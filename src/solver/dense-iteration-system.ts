@@ -54,8 +54,8 @@ class DenseIterationSystem implements IterationSystem {
       this.luComplex = createEmbeddedComplexLu(n);
       this.formed = { e1: take(n * n), e2r: take(n * n), e2i: take(n * n) };
     } else {
-      this.luReal = this.flatReal = new DenseLu(n, take);
-      this.luComplex = this.flatComplex = new ComplexLu(n, take);
+      this.luReal = this.flatReal = new DenseLu(n);
+      this.luComplex = this.flatComplex = new ComplexLu(n);
     }
     this.fdWork = take(n);
     this.mass = p.mass;

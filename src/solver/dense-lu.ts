@@ -1,6 +1,6 @@
 import { equilibrateReal } from './dense-equilibration.js';
-import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
+import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import { formShifted } from './shifted-matrix.js';
 import type { SparseMass } from './sparse-mass.js';
 
@@ -8,7 +8,8 @@ import type { SparseMass } from './sparse-mass.js';
  * Real LU factorisation with partial pivoting on a flat row-major
  * Float64Array (Doolittle, row-oriented k-i-j loop; Golub and Van Loan,
  * Matrix Computations, Algorithm 3.4.1). Buffers are allocated once; factor
- * and solve allocate nothing. Checked against ml-matrix's LuDecomposition in
+ * and solve allocate nothing. The factors are kept in plain arrays of
+ * doubles, not typed arrays ({@link packedDoubles} says why). Checked against ml-matrix's LuDecomposition in
  * test/solver/dense-lu.test.ts; `npm run bench` measures both.
  *
  * @example
@@ -20,8 +21,8 @@ import type { SparseMass } from './sparse-mass.js';
  * }
  * ```
  */
-export function createDenseLu(n: number, take: TakeFloat64 = ownFloat64): RealLinearSolver {
-  return new DenseLu(n, take);
+export function createDenseLu(n: number): RealLinearSolver {
+  return new DenseLu(n);
 }
 
 /**
@@ -32,28 +33,31 @@ export function createDenseLu(n: number, take: TakeFloat64 = ownFloat64): RealLi
  * @internal
  */
 export class DenseLu implements RealLinearSolver {
-  private readonly lu: Float64Array;
-  private readonly perm: Int32Array;
-  private readonly rowScale: Float64Array;
-  private readonly colScale: Float64Array;
-  private readonly tmp: Float64Array;
+  private readonly lu: number[];
+  private readonly perm: number[];
+  private readonly rowScale: number[];
+  private readonly colScale: number[];
+  private readonly tmp: number[];
   private readonly tol: number;
 
-  constructor(readonly size: number, take: TakeFloat64) {
+  constructor(readonly size: number) {
     const n = size;
-    this.lu = take(n * n);
-    this.perm = new Int32Array(n);
-    this.rowScale = take(n);
-    this.colScale = take(n);
-    this.tmp = take(n);
+    this.lu = packedDoubles(n * n);
+    this.perm = identityPermutation(n);
+    this.rowScale = packedDoubles(n);
+    this.colScale = packedDoubles(n);
+    this.tmp = packedDoubles(n);
     this.tol = PIVOT_RELATIVE_TOLERANCE * n;
   }
 
   factor(a: Float64Array): number {
-    const { size: n, rowScale, colScale } = this;
-    const nonFinite = equilibrateReal(n, a, rowScale, colScale);
+    const { size: n, lu, rowScale, colScale } = this;
+    // Copied in first, so that equilibration and elimination only ever read the factor's own
+    // storage (one kind of array at their loads); the same values as reading `a`, bit for bit.
+    for (let k = 0; k < n * n; k++) lu[k] = a[k]!;
+    const nonFinite = equilibrateReal(n, lu, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
-    return this.scaleAndEliminate(a);
+    return this.scaleAndEliminate();
   }
 
   /**
@@ -67,17 +71,17 @@ export class DenseLu implements RealLinearSolver {
     formShifted(n, jac, shift, mass, lu);
     const nonFinite = equilibrateReal(n, lu, rowScale, colScale);
     if (nonFinite >= 0) return nonFinite;
-    return this.scaleAndEliminate(lu);
+    return this.scaleAndEliminate();
   }
 
-  /** The equilibrated `a` (which may be the factor's own storage) into `lu`, then the elimination. */
-  private scaleAndEliminate(a: Float64Array): number {
+  /** The matrix in `lu` equilibrated in place, then the elimination. */
+  private scaleAndEliminate(): number {
     const { size: n, lu, perm, rowScale, colScale } = this;
     for (let i = 0; i < n; i++) {
       perm[i] = i;
       const row = i * n;
       const r = rowScale[i]!;
-      for (let j = 0; j < n; j++) lu[row + j] = r * a[row + j]! * colScale[j]!;
+      for (let j = 0; j < n; j++) lu[row + j] = r * lu[row + j]! * colScale[j]!;
     }
     return this.eliminate();
   }

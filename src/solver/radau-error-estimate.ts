@@ -1,5 +1,6 @@
 import type { CollocationStep, CollocationSystem } from './collocation-newton.js';
 import type { RealLinearSolver } from './linear-solver.js';
+import { packedDoubles } from './packed-doubles.js';
 import { E1, E2, E3 } from './radau-tableau.js';
 import { weightedRmsNorm } from './weighted-norm.js';
 
@@ -9,16 +10,16 @@ import { weightedRmsNorm } from './weighted-norm.js';
  * @internal
  * @example
  * ```ts
- * const work: ErrorEstimateWork = { err: new Float64Array(n), mz: new Float64Array(n), ez: new Float64Array(n), ys: new Float64Array(n), fy: new Float64Array(n) };
+ * const work: ErrorEstimateWork = { err: new Float64Array(n), mz: packedDoubles(n), ez: packedDoubles(n), ys: new Float64Array(n), fy: new Float64Array(n) };
  * ```
  */
 export interface ErrorEstimateWork {
   /** The error vector (out): the components behind a rejection are read from it. */
   readonly err: Float64Array;
   /** M (e . Z)/h. */
-  readonly mz: Float64Array;
+  readonly mz: number[];
   /** (e . Z)/h. */
-  readonly ez: Float64Array;
+  readonly ez: number[];
   /** y + err, for the refined estimate. */
   readonly ys: Float64Array;
   /** f(t, y + err). */
@@ -28,15 +29,15 @@ export interface ErrorEstimateWork {
 /** The work arrays of {@link radauErrorEstimate} from `take`, as a class (one map: see the collocation work arrays). */
 export class ErrorEstimateArrays implements ErrorEstimateWork {
   readonly err: Float64Array;
-  readonly mz: Float64Array;
-  readonly ez: Float64Array;
+  readonly mz: number[];
+  readonly ez: number[];
   readonly ys: Float64Array;
   readonly fy: Float64Array;
 
   constructor(n: number, take: (length: number) => Float64Array) {
     this.err = take(n);
-    this.mz = take(n);
-    this.ez = take(n);
+    this.mz = packedDoubles(n);
+    this.ez = packedDoubles(n);
     this.ys = take(n);
     this.fy = take(n);
   }
@@ -69,7 +70,7 @@ export function radauErrorEstimate(
   at: Pick<CollocationStep, 't' | 'h'>,
   y: Float64Array,
   f0: Float64Array,
-  z: Float64Array,
+  z: number[],
   scale: Float64Array,
   refine: boolean,
 ): number {

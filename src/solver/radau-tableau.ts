@@ -1,3 +1,5 @@
+import { packedDoublesFrom } from './packed-doubles.js';
+
 /**
  * Constants of the 3-stage Radau IIA method (order 5) and of its
  * implementation, after E. Hairer and G. Wanner, Solving Ordinary
@@ -13,7 +15,6 @@
  *
  * @internal
  */
-
 const S6 = Math.sqrt(6);
 
 /** Collocation nodes c_i (Radau IIA, book Table IV.5.6). */
@@ -36,18 +37,18 @@ export const MU_COMPLEX_RE = 3 + 0.5 * (3 ** (1 / 3) - 3 ** (2 / 3));
 export const MU_COMPLEX_IM = -0.5 * (3 ** (5 / 6) + 3 ** (7 / 6));
 
 /** T (row-major 3x3): A^-1 = T Lambda T^-1 (book sect. IV.8, "transformation to block-diagonal form"). */
-export const T = Float64Array.of(
+export const T: readonly number[] = packedDoublesFrom([
   0.09443876248897524, -0.14125529502095421, 0.03002919410514742,
   0.25021312296533332, 0.20412935229379994, -0.38294211275726192,
   1, 1, 0,
-);
+]);
 
 /** T^-1 (row-major 3x3). */
-export const TI = Float64Array.of(
+export const TI: readonly number[] = packedDoublesFrom([
   4.17871859155190428, 0.32768282076106237, 0.52337644549944951,
   -4.17871859155190428, -0.32768282076106237, 0.47662355450055044,
   0.50287263494578682, -2.57192694985560522, 0.59603920482822492,
-);
+]);
 
 /**
  * Error-estimate weights e_i/gamma0 (book eq. IV.8.19-8.20; radau5's DD1..DD3):
@@ -63,11 +64,11 @@ export const E3 = -1 / 3;
  * 3x3, rows: stages, columns: powers s, s^2, s^3). P is the inverse of the
  * Vandermonde matrix [c_i^(k+1)] transposed, so u passes through y0 + z_i at c_i.
  */
-export const P = Float64Array.of(
+export const P: readonly number[] = packedDoublesFrom([
   13 / 3 + (7 * S6) / 3, -23 / 3 - (22 * S6) / 3, 10 / 3 + 5 * S6,
   13 / 3 - (7 * S6) / 3, -23 / 3 + (22 * S6) / 3, 10 / 3 - 5 * S6,
   1 / 3, -8 / 3, 10 / 3,
-);
+]);
 
 /** Most simplified Newton iterations per step (radau5's NIT default 7). */
 export const NEWTON_MAX_ITERATIONS = 7;

@@ -3,12 +3,13 @@ import type { SparseMass } from './sparse-mass.js';
 /**
  * out = shift M - J, row-major n x n (M the identity when `mass` is
  * undefined): the real part of a Radau iteration matrix. `out` may be the
- * storage a factorisation then works in.
+ * storage a factorisation then works in (a plain array: the flat LUs'), or
+ * a Float64Array (the ml-matrix path's formed matrices).
  *
  * @internal
  * @example `formShifted(n, jac, gamma / h, p.mass, lu)`
  */
-export function formShifted(n: number, jac: Float64Array, shift: number, mass: SparseMass | undefined, out: Float64Array): void {
+export function formShifted(n: number, jac: Float64Array, shift: number, mass: SparseMass | undefined, out: number[] | Float64Array): void {
   for (let k = 0; k < n * n; k++) out[k] = -jac[k]!;
   if (!mass) {
     for (let i = 0; i < n; i++) out[i * n + i] = out[i * n + i]! + shift;
@@ -30,7 +31,7 @@ export function formShifted(n: number, jac: Float64Array, shift: number, mass: S
  * @internal
  * @example `scaledMass(n, beta / h, p.mass, im)`
  */
-export function scaledMass(n: number, scale: number, mass: SparseMass | undefined, out: Float64Array): void {
+export function scaledMass(n: number, scale: number, mass: SparseMass | undefined, out: number[] | Float64Array): void {
   out.fill(0, 0, n * n);
   if (!mass) {
     for (let i = 0; i < n; i++) out[i * n + i] = scale;

@@ -30,7 +30,7 @@ describe('solveCollocation (one Radau IIA step as a pure function)', () => {
         rhs: (_t: number, y: Float64Array, out: Float64Array) => {
           out[0] = lambda * y[0]!;
         },
-        multiplyMass: (v: Float64Array, off: number, out: Float64Array) => {
+        multiplyMass: (v: number[], off: number, out: number[]) => {
           out[0] = v[off]!;
         },
         luReal,

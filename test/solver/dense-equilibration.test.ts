@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { equilibrateComplex, equilibrateReal } from '../../src/solver/dense-equilibration.js';
 import { equilibrationScales } from '../../src/solver/linear-solver.js';
+import { packedDoubles } from '../../src/solver/packed-doubles.js';
 
 /**
  * Reference: the row-then-column equilibration by its definition (LAPACK's
@@ -24,9 +25,9 @@ describe('dense equilibration kernels', () => {
   it('give the same power-of-two factors as the definition (real)', () => {
     fc.assert(
       fc.property(matrices, ([n, a]) => {
-        const m = Float64Array.from(a);
-        const r1 = new Float64Array(n);
-        const c1 = new Float64Array(n);
+        const m = Array.from(a);
+        const r1 = packedDoubles(n);
+        const c1 = packedDoubles(n);
         const r2 = new Float64Array(n);
         const c2 = new Float64Array(n);
         expect(equilibrateReal(n, m, r1, c1)).toBe(-1);
@@ -41,10 +42,10 @@ describe('dense equilibration kernels', () => {
   it('give the same power-of-two factors as the definition (complex, |re| + |im|)', () => {
     fc.assert(
       fc.property(matrices, ([n, a, b]) => {
-        const re = Float64Array.from(a);
-        const im = Float64Array.from(b);
-        const r1 = new Float64Array(n);
-        const c1 = new Float64Array(n);
+        const re = Array.from(a);
+        const im = Array.from(b);
+        const r1 = packedDoubles(n);
+        const c1 = packedDoubles(n);
         const r2 = new Float64Array(n);
         const c2 = new Float64Array(n);
         expect(equilibrateComplex(n, re, im, r1, c1)).toBe(-1);
@@ -58,10 +59,10 @@ describe('dense equilibration kernels', () => {
 
   it('report the column of the first non-finite entry, rows scanned in order', () => {
     const n = 3;
-    const a = Float64Array.of(1, 2, 3, 4, Infinity, 6, NaN, 8, 9);
-    const r = new Float64Array(n);
-    const c = new Float64Array(n);
+    const a = [1, 2, 3, 4, Infinity, 6, NaN, 8, 9];
+    const r = packedDoubles(n);
+    const c = packedDoubles(n);
     expect(equilibrateReal(n, a, r, c)).toBe(1);
-    expect(equilibrateComplex(n, Float64Array.of(1, 2, 3, 4, 5, 6, 7, 8, 9), Float64Array.of(0, 0, 0, 0, 0, 0, 0, 0, NaN), r, c)).toBe(2);
+    expect(equilibrateComplex(n, [1, 2, 3, 4, 5, 6, 7, 8, 9], [0, 0, 0, 0, 0, 0, 0, 0, NaN], r, c)).toBe(2);
   });
 });

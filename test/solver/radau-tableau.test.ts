@@ -9,7 +9,7 @@ const A = [
   [(296 + 169 * S6) / 1800, (88 + 7 * S6) / 360, (-2 - 3 * S6) / 225],
   [(16 - S6) / 36, (16 + S6) / 36, 1 / 9],
 ];
-const mat = (a: Float64Array): number[][] => [0, 1, 2].map((i) => [0, 1, 2].map((j) => a[i * 3 + j]!));
+const mat = (a: readonly number[]): number[][] => [0, 1, 2].map((i) => [0, 1, 2].map((j) => a[i * 3 + j]!));
 const mul = (a: number[][], b: number[][]): number[][] => a.map((r) => b[0]!.map((_, j) => r.reduce((s, _v, k) => s + r[k]! * b[k]![j]!, 0)));
 function inv3(m: number[][]): number[][] {
   const [[a, b, c], [d, e, f], [g, h, i]] = m as [[number, number, number], [number, number, number], [number, number, number]];

@@ -3,7 +3,6 @@ import { LuDecomposition, Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import { ComplexLu } from '../../src/solver/complex-lu.js';
 import { DenseLu } from '../../src/solver/dense-lu.js';
-import { ownFloat64 } from '../../src/solver/float64-chunks.js';
 import { sparseMassOfDense, type SparseMass } from '../../src/solver/sparse-mass.js';
 
 /**
@@ -61,8 +60,8 @@ describe('iteration matrices formed in the factors', () => {
         const shift = 40;
         for (let i = 0; i < n; i++) if (massDense && massDense[i * n + i] === 0) J[i * n + i] = J[i * n + i]! + 10 * n;
         const a = formed(J, n, shift, massDense);
-        const inPlace = new DenseLu(n, ownFloat64);
-        const reference = new DenseLu(n, ownFloat64);
+        const inPlace = new DenseLu(n);
+        const reference = new DenseLu(n);
         expect(inPlace.factorShifted(J, shift, mass)).toBe(reference.factor(a));
         const x = Float64Array.from(b.slice(0, n));
         const y = Float64Array.from(x);
@@ -88,8 +87,8 @@ describe('iteration matrices formed in the factors', () => {
         const beta = -35;
         const re = formed(J, n, alpha, massDense);
         const im = formedImaginary(n, beta, massDense);
-        const inPlace = new ComplexLu(n, ownFloat64);
-        const reference = new ComplexLu(n, ownFloat64);
+        const inPlace = new ComplexLu(n);
+        const reference = new ComplexLu(n);
         expect(inPlace.factorShifted(J, alpha, beta, mass)).toBe(reference.factor(re, im));
         const xr = Float64Array.from(b.slice(0, n));
         const xi = Float64Array.from(b.slice(n));
