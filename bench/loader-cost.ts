@@ -3,7 +3,10 @@
  * sources through tsx (as the bench-anchor yardstick and `npm run bench` run
  * them) and from the JavaScript that TypeScript emits for them (what a user
  * of the built package runs), alternated process by process in this run,
- * warm CPU time per solve (median of each process's median). When the
+ * and the emitted JavaScript once more in a process where one ArrayBuffer
+ * was detached first (what tsx does while loading, and many applications
+ * do: V8 then checks every typed-array access for detachment; see
+ * docs/solver.md, "Typed arrays and the detach check"), warm CPU time per solve (median of each process's median). When the
  * bench-anchor's RADAU5 sources are beside the checkout and gfortran is at
  * hand, compiled RADAU5 is run on the same problems from the same first step
  * and both are printed as ratios to it.
@@ -50,6 +53,8 @@ function emitJavaScript(): string {
     writeFileSync(target, js);
   }
   writeFileSync(join(out, 'package.json'), JSON.stringify({ type: 'module' }));
+  // Preloaded by the third variant: detaching one buffer is enough to switch V8's check on for the process.
+  writeFileSync(join(out, 'detach-one-buffer.js'), 'const b = new ArrayBuffer(8);\nstructuredClone(b, { transfer: [b] });\n');
   symlinkSync(join(root, 'node_modules'), join(out, 'node_modules'));
   return out;
 }
@@ -97,12 +102,15 @@ export function benchLoaderCost(rounds = 3): void {
       const atol = name === 'ROBER' ? rtol * 1e-6 : rtol;
       const viaTsx: number[] = [];
       const emittedJs: number[] = [];
+      const detached: number[] = [];
       let last: Run | undefined;
       for (let k = 0; k < rounds; k++) {
         const a = runOnce(['--import', 'tsx', join(root, 'bench', 'first-run.ts'), name, String(rtol)], root);
         const b = runOnce([join(emitted, 'bench', 'first-run.js'), name, String(rtol)], emitted);
+        const c = runOnce(['--import', join(emitted, 'detach-one-buffer.js'), join(emitted, 'bench', 'first-run.js'), name, String(rtol)], emitted);
         if (a) viaTsx.push(a.warm_cpu_ms);
         if (b) emittedJs.push(b.warm_cpu_ms);
+        if (c) detached.push(c.warm_cpu_ms);
         last = b ?? a;
       }
       let radau5 = NaN;
@@ -116,13 +124,14 @@ export function benchLoaderCost(rounds = 3): void {
       }
       const t = median(viaTsx);
       const e = median(emittedJs);
-      rows.push([`${name} rtol ${rtol}`, last?.steps ?? NaN, t, e, t / e, radau5, t / radau5, e / radau5]);
+      const d = median(detached);
+      rows.push([`${name} rtol ${rtol}`, last?.steps ?? NaN, t, e, t / e, d / e, radau5, t / radau5, e / radau5]);
     }
   } finally {
     rmSync(emitted, { recursive: true, force: true });
     if (driver) rmSync(dirname(dirname(driver)), { recursive: true, force: true });
   }
-  printTable(['problem', 'steps', 'via tsx ms', 'emitted JS ms', 'tsx / JS', 'RADAU5 ms', 'tsx / RADAU5', 'JS / RADAU5'], rows);
+  printTable(['problem', 'steps', 'via tsx ms', 'emitted JS ms', 'tsx / JS', 'JS detached / JS', 'RADAU5 ms', 'tsx / RADAU5', 'JS / RADAU5'], rows);
   console.log(`(${relative(root, here)}/loader-cost.ts; RADAU5 columns are NaN when the bench-anchor or gfortran is not at hand)`);
 }
 

@@ -514,9 +514,10 @@ class RadauIntegrator implements DaeIntegrator {
     const n = p.n;
     this.n = n;
     // The work arrays as views into one chunk (a typed array of its own costs an ArrayBuffer each, and
-    // a short solve's set-up was mostly those): 4 n x n arrays on the dense path (J, and the factors that
-    // form the iteration matrices in place, or those matrices for ml-matrix) and about 43 of length n.
-    const chunks = new Float64Chunks(Math.min((p.iterationPattern ? 0 : 4 * n * n) + 44 * n, 1 << 16));
+    // a short solve's set-up was mostly those): on the dense path J, and the three iteration matrices
+    // for ml-matrix (the flat LUs keep theirs in plain arrays), and about 43 of length n.
+    const denseMatrices = p.iterationPattern ? 0 : p.linearAlgebra === 'ml-matrix' ? 4 : 1;
+    const chunks = new Float64Chunks(Math.min(denseMatrices * n * n + 44 * n, 1 << 16));
     const take = (length: number): Float64Array => chunks.take(length);
     if (p.mass) {
       // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
