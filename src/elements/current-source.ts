@@ -25,9 +25,9 @@ export const currentSourceKind: ElementKind<CurrentSourceDescription> = {
     return { kind: 'current-source', name: d.name, plus: d.plus, minus: d.minus, waveform: clonePlain(d.waveform) };
   },
   compile(list, ctx) {
-    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
-    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
-    const element = Int32Array.from(list, (e) => e.index);
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const element = Array.from(list, (e) => e.index);
     return {
       residual(t, _y, inputs, f) {
         for (let k = 0; k < p.length; k++) {

@@ -1,6 +1,7 @@
 import { InputError } from '../errors.js';
 import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
 import type { DiodeDescription } from '../network/description.js';
+import { packedDoubles, packedDoublesFrom } from '../simulation/packed-doubles.js';
 import type { ElementEvent, ElementKind, InputView } from './element-kind.js';
 import { stampConductance } from './stamp-target.js';
 import { stateValue } from './state-value.js';
@@ -74,20 +75,20 @@ export const diodeKind: ElementKind<DiodeDescription> = {
     };
   },
   compile(list, ctx) {
-    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
-    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
-    const element = Int32Array.from(list, (e) => e.index);
-    const ideal = Uint8Array.from(list, (e) => (e.d.junction === 'ideal' ? 1 : 0));
-    const vf = Float64Array.from(list, (e) => e.d.forwardVoltage);
-    const gOn = Float64Array.from(list, (e) => 1 / e.d.onResistance);
-    const ron = Float64Array.from(list, (e) => e.d.onResistance);
-    const gOff = Float64Array.from(list, (e) => e.d.offConductance);
-    const is = Float64Array.from(list, (e) => e.d.saturationCurrent);
-    const nvt = Float64Array.from(list, (e) => e.d.emissionCoefficient * e.d.thermalVoltage);
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const element = Array.from(list, (e) => e.index);
+    const ideal = list.map((e) => e.d.junction === 'ideal');
+    const vf = packedDoublesFrom(list, (e) => e.d.forwardVoltage);
+    const gOn = packedDoublesFrom(list, (e) => 1 / e.d.onResistance);
+    const ron = packedDoublesFrom(list, (e) => e.d.onResistance);
+    const gOff = packedDoublesFrom(list, (e) => e.d.offConductance);
+    const is = packedDoublesFrom(list, (e) => e.d.saturationCurrent);
+    const nvt = packedDoublesFrom(list, (e) => e.d.emissionCoefficient * e.d.thermalVoltage);
     const voltage = (k: number, y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
     /** Current of the exponential junction and its slope di/dv, into `out`. */
-    const slope = new Float64Array(1);
-    const exponentialCurrent = (k: number, v: number, out: Float64Array): number => {
+    const slope = packedDoubles(1);
+    const exponentialCurrent = (k: number, v: number, out: number[]): number => {
       const a = nvt[k]!;
       const s = is[k]!;
       const r = ron[k]!;

@@ -1,6 +1,7 @@
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import type { WaveformSpec } from '../waveforms/waveform-spec.js';
 import type { StampTarget } from './stamp-target.js';
+import type { TubeLoops } from './tube-kind.js';
 
 /**
  * The inputs in force for one evaluation: source values, switch states and
@@ -77,7 +78,7 @@ export interface StampContext {
   /** Index in y of an element's branch current; -1 when it has none. */
   branchCurrent(element: number): number;
   /** Loops through tube b: indices in y of their loop fluxes and the signs (flux of b = sum sign * y[index]). */
-  tubeLoops(b: number): { readonly index: Int32Array; readonly sign: Float64Array };
+  tubeLoops(b: number): TubeLoops;
   /** Index in y of the first internal state of element `element` (see {@link ElementKind.internalStates}); -1 if none. */
   internalStates(element: number): number;
 }

@@ -25,9 +25,9 @@ export const inductorKind: ElementKind<InductorDescription> = {
     return { kind: 'inductor', name: d.name, plus: d.plus, minus: d.minus, inductance, initialCurrent };
   },
   compile(list, ctx) {
-    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
-    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
-    const b = Int32Array.from(list, (e) => ctx.branchCurrent(e.index));
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const b = Array.from(list, (e) => ctx.branchCurrent(e.index));
     return {
       residual(_t, y, _inputs, f) {
         for (let k = 0; k < b.length; k++) {

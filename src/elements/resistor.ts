@@ -1,5 +1,6 @@
 import { requirePositive } from '../network/argument-checks.js';
 import type { ResistorDescription } from '../network/description.js';
+import { packedDoublesFrom } from '../simulation/packed-doubles.js';
 import type { ElementKind } from './element-kind.js';
 import { stampConductance } from './stamp-target.js';
 import { stateValue } from './state-value.js';
@@ -22,9 +23,9 @@ export const resistorKind: ElementKind<ResistorDescription> = {
     return { kind: 'resistor', name: d.name, plus: d.plus, minus: d.minus, resistance };
   },
   compile(list, ctx) {
-    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
-    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
-    const g = Float64Array.from(list, (e) => 1 / e.d.resistance);
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const g = packedDoublesFrom(list, (e) => 1 / e.d.resistance);
     return {
       residual(_t, y, _inputs, f) {
         for (let k = 0; k < g.length; k++) {

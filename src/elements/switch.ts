@@ -3,6 +3,7 @@ import { requireFinite, requireNonNegative, requirePositive } from '../network/a
 import { clonePlain } from '../network/clone-plain.js';
 import type { SwitchDescription } from '../network/description.js';
 import { compileWaveform } from '../waveforms/waveform-spec.js';
+import { packedDoublesFrom } from '../simulation/packed-doubles.js';
 import { describeWaveform } from './describe-waveform.js';
 import type { ElementKind, InputView, RateReader } from './element-kind.js';
 import { stampConductance, type StampTarget } from './stamp-target.js';
@@ -88,11 +89,11 @@ export const switchKind: ElementKind<SwitchDescription> = {
     };
   },
   compile(list, ctx) {
-    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
-    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
-    const gOn = Float64Array.from(list, (e) => 1 / e.d.onResistance);
-    const gOff = Float64Array.from(list, (e) => 1 / e.d.offResistance);
-    const element = Int32Array.from(list, (e) => e.index);
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const gOn = packedDoublesFrom(list, (e) => 1 / e.d.onResistance);
+    const gOff = packedDoublesFrom(list, (e) => 1 / e.d.offResistance);
+    const element = Array.from(list, (e) => e.index);
     return {
       residual(t, y, inputs, f) {
         for (let k = 0; k < p.length; k++) {

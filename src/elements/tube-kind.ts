@@ -76,18 +76,35 @@ export interface TubeStateStamps {
 }
 
 /**
+ * Loop fluxes through one tube: positions in y and signs (flux of the tube
+ * = sum sign[k] y[index[k]]). Plain arrays, not typed ones: they are read in
+ * every f and Jacobian call, and a typed array's element access carries a
+ * detach check in a process where any buffer was ever detached (see
+ * packedDoubles); `index` holds small integers, `sign` packed doubles.
+ *
+ * @example
+ * ```ts
+ * const loops: TubeLoops = { index: [4], sign: packedDoublesFrom([1]) };
+ * ```
+ */
+export interface TubeLoops {
+  readonly index: readonly number[];
+  readonly sign: readonly number[];
+}
+
+/**
  * What a tube kind gets when it compiles one tube.
  *
  * @example
  * ```ts
- * const ctx: TubeCompileContext = { stateOffset: -1, loops: { index: Int32Array.of(4), sign: Float64Array.of(1) } };
+ * const ctx: TubeCompileContext = { stateOffset: -1, loops: { index: [4], sign: packedDoublesFrom([1]) } };
  * ```
  */
 export interface TubeCompileContext {
   /** Index in y of the tube's first internal state; -1 when it has none. */
   readonly stateOffset: number;
   /** Loop fluxes through the tube: positions in y and signs. */
-  readonly loops: { readonly index: Int32Array; readonly sign: Float64Array };
+  readonly loops: TubeLoops;
 }
 
 /**

@@ -24,10 +24,10 @@ export const voltageSourceKind: ElementKind<VoltageSourceDescription> = {
     return { kind: 'voltage-source', name: d.name, plus: d.plus, minus: d.minus, waveform: clonePlain(d.waveform) };
   },
   compile(list, ctx) {
-    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
-    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
-    const b = Int32Array.from(list, (e) => ctx.branchCurrent(e.index));
-    const element = Int32Array.from(list, (e) => e.index);
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const b = Array.from(list, (e) => ctx.branchCurrent(e.index));
+    const element = Array.from(list, (e) => e.index);
     return {
       residual(t, y, inputs, f) {
         for (let k = 0; k < b.length; k++) {

@@ -1,6 +1,7 @@
 import { InputError } from '../errors.js';
 import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
 import type { WindingDescription } from '../network/description.js';
+import { packedDoublesFrom } from '../simulation/packed-doubles.js';
 import type { ElementKind } from './element-kind.js';
 import { stampBranch } from './stamp-target.js';
 import { stateValue } from './state-value.js';
@@ -35,11 +36,11 @@ export const windingKind: ElementKind<WindingDescription> = {
     return { kind: 'winding', name: d.name, plus: d.plus, minus: d.minus, tube: d.tube, turns, resistance, orientation };
   },
   compile(list, ctx) {
-    const p = Int32Array.from(list, (e) => ctx.potential(e.d.plus));
-    const q = Int32Array.from(list, (e) => ctx.potential(e.d.minus));
-    const b = Int32Array.from(list, (e) => ctx.branchCurrent(e.index));
-    const r = Float64Array.from(list, (e) => e.d.resistance);
-    const sN = Float64Array.from(list, (e) => e.d.orientation * e.d.turns);
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const b = Array.from(list, (e) => ctx.branchCurrent(e.index));
+    const r = packedDoublesFrom(list, (e) => e.d.resistance);
+    const sN = packedDoublesFrom(list, (e) => e.d.orientation * e.d.turns);
     const loops = list.map((e) => ctx.tubeLoops(e.d.tube));
     const flux = (k: number, y: Float64Array): number => {
       const { index, sign } = loops[k]!;

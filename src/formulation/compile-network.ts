@@ -1,7 +1,8 @@
 import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampContext } from '../elements/element-kind.js';
 import { elementKind, tubeKind } from '../elements/registry.js';
 import { DenseStampTarget, EntryRecordingStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
-import type { CompiledTube } from '../elements/tube-kind.js';
+import type { CompiledTube, TubeLoops } from '../elements/tube-kind.js';
+import { packedDoublesFrom } from '../simulation/packed-doubles.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
 import { NetworkInputs } from './network-inputs.js';
@@ -101,8 +102,8 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
 
   // Tube -> loop incidence, with loop indices already offset into y.
   const tubeLoops = loops.tubeLoops.map((entries) => ({
-    index: Int32Array.from(entries, (en) => layout.loopOffset + en.loop),
-    sign: Float64Array.from(entries, (en) => en.sign),
+    index: Array.from(entries, (en) => layout.loopOffset + en.loop),
+    sign: packedDoublesFrom(entries, (en) => en.sign),
   }));
   const tubes: CompiledTube[] = d.tubes.map((t, b) =>
     tubeKind(t.law).compile(t.law, t, { stateOffset: layout.tubeStates[b]!, loops: tubeLoops[b]! }),
@@ -220,7 +221,7 @@ function confirmIndexTwo(
 function seriesTerms(
   d: NetworkDescription,
   tubes: readonly CompiledTube[],
-  tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
+  tubeLoops: readonly TubeLoops[],
 ): MmfTerm[] {
   const seriesOf = tubes.map(() => -1);
   const leads: number[] = [];
@@ -249,7 +250,7 @@ function mergeable(d: NetworkDescription, tubes: readonly CompiledTube[], b: num
 function sameSeries(
   d: NetworkDescription,
   tubes: readonly CompiledTube[],
-  tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
+  tubeLoops: readonly TubeLoops[],
   a: number,
   b: number,
 ): boolean {

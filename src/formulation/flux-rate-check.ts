@@ -1,4 +1,4 @@
-import type { CompiledTube } from '../elements/tube-kind.js';
+import type { CompiledTube, TubeLoops } from '../elements/tube-kind.js';
 import { algebraicJacobian, massSpaces } from '../solver/consistent-initialization.js';
 import { Matrix, SVD } from 'ml-matrix';
 
@@ -33,7 +33,7 @@ const MAX_TUBES_TESTED_ALONE = 16;
  */
 export function checkFluxRatesDetermined(
   tubes: readonly (CompiledTube & { readonly name: string })[],
-  tubeLoops: readonly { readonly index: Int32Array; readonly sign: Float64Array }[],
+  tubeLoops: readonly TubeLoops[],
   massOf: () => Float64Array,
   n: number,
   jacobian: (y: Float64Array, J: Float64Array) => void,

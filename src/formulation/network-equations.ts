@@ -1,7 +1,8 @@
 import type { ElementGroup, InputView } from '../elements/element-kind.js';
 import type { StampTarget } from '../elements/stamp-target.js';
-import type { CompiledTube, TubeStateStamps } from '../elements/tube-kind.js';
+import type { CompiledTube, TubeLoops, TubeStateStamps } from '../elements/tube-kind.js';
 import type { MaterialLaw } from '../materials/material-law.js';
+import { packedDoubles } from '../simulation/packed-doubles.js';
 
 /** How f reads one tube's MMF drop (see seriesTerms in compile-network.ts). */
 export interface MmfTerm {
@@ -12,12 +13,6 @@ export interface MmfTerm {
   readonly law: MaterialLaw | undefined;
   readonly length: number;
   readonly area: number;
-}
-
-/** Tube -> loop incidence, loop indices offset into y. */
-export interface TubeLoops {
-  readonly index: Int32Array;
-  readonly sign: Float64Array;
 }
 
 /**
@@ -35,8 +30,9 @@ export interface TubeLoops {
  */
 export class NetworkEquations {
   private readonly tubeCount: number;
-  private readonly lawValues: Float64Array;
-  private readonly slopeValues: Float64Array;
+  /** Per series, H and dH/dB of its last evaluation (plain arrays: see packedDoubles). */
+  private readonly lawValues: number[];
+  private readonly slopeValues: number[];
 
   constructor(
     private readonly tubes: readonly CompiledTube[],
@@ -48,8 +44,8 @@ export class NetworkEquations {
   ) {
     this.tubeCount = tubes.length;
     const groupCount = terms.reduce((m, term) => Math.max(m, term.group + 1), 0);
-    this.lawValues = new Float64Array(groupCount);
-    this.slopeValues = new Float64Array(groupCount);
+    this.lawValues = packedDoubles(groupCount);
+    this.slopeValues = packedDoubles(groupCount);
   }
 
   /** Flux of tube b in the state y, Wb. */

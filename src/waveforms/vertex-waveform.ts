@@ -1,4 +1,5 @@
 import { nextUp } from '../solver/float-neighbours.js';
+import { packedDoublesFrom } from '../simulation/packed-doubles.js';
 import type { Waveform } from './waveform.js';
 
 /**
@@ -44,8 +45,9 @@ export function vertexWaveform(table: VertexTable): Waveform {
  * per compile were a new target each time, and deoptimised that caller).
  */
 class VertexWaveform implements Waveform {
-  private readonly times: Float64Array;
-  private readonly values: Float64Array;
+  /** The table's vertices in plain arrays (see packedDoubles): read at every source value the drive is not held. */
+  private readonly times: number[];
+  private readonly values: number[];
   private readonly last: number;
   private readonly period: number | undefined;
   private readonly before: number;
@@ -57,8 +59,8 @@ class VertexWaveform implements Waveform {
   readonly piecewiseLinear = true;
 
   constructor(table: VertexTable) {
-    const times = (this.times = Float64Array.from(table.times));
-    this.values = Float64Array.from(table.values);
+    const times = (this.times = packedDoublesFrom(table.times));
+    this.values = packedDoublesFrom(table.values);
     const last = (this.last = times.length - 1);
     const period = (this.period = table.period);
     this.before = table.before;

@@ -2,6 +2,7 @@ import { tubeKind } from '../../elements/registry.js';
 import { FluxstateError, InputError } from '../../errors.js';
 import { fundamentalLoops, type MagneticLoops } from '../../formulation/magnetic-graph.js';
 import type { NetworkDescription, TubeDescription, WindingDescription } from '../../network/description.js';
+import { packedDoubles } from '../../simulation/packed-doubles.js';
 import { createDenseLu } from '../../solver/dense-lu.js';
 
 /**
@@ -41,7 +42,7 @@ export function magnetostaticModel(description: NetworkDescription): Magnetostat
         [t.name],
       );
     }
-    const c = kind.compile(t.law, t, { stateOffset: -1, loops: { index: new Int32Array(0), sign: new Float64Array(0) } });
+    const c = kind.compile(t.law, t, { stateOffset: -1, loops: { index: [], sign: packedDoubles(0) } });
     return {
       mmf: (phi: number) => c.mmf(phi, noState),
       slope: (phi: number) => c.mmfSlope(phi, noState),
