@@ -1,7 +1,7 @@
 import { InputError } from '../errors.js';
 import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
 import type { DiodeDescription } from '../network/description.js';
-import { packedDoubles, packedDoublesFrom } from '../simulation/packed-doubles.js';
+import { packedDoubles, packedDoublesFrom } from '../solver/packed-doubles.js';
 import type { ElementEvent, ElementKind, InputView } from './element-kind.js';
 import { stampConductance } from './stamp-target.js';
 import { stateValue } from './state-value.js';

@@ -1,6 +1,6 @@
 import { requirePositive } from '../network/argument-checks.js';
 import type { ResistorDescription } from '../network/description.js';
-import { packedDoublesFrom } from '../simulation/packed-doubles.js';
+import { packedDoublesFrom } from '../solver/packed-doubles.js';
 import type { ElementKind } from './element-kind.js';
 import { stampConductance } from './stamp-target.js';
 import { stateValue } from './state-value.js';

@@ -3,7 +3,7 @@ import { requireFinite, requireNonNegative, requirePositive } from '../network/a
 import { clonePlain } from '../network/clone-plain.js';
 import type { SwitchDescription } from '../network/description.js';
 import { compileWaveform } from '../waveforms/waveform-spec.js';
-import { packedDoublesFrom } from '../simulation/packed-doubles.js';
+import { packedDoublesFrom } from '../solver/packed-doubles.js';
 import { describeWaveform } from './describe-waveform.js';
 import type { ElementKind, InputView, RateReader } from './element-kind.js';
 import { stampConductance, type StampTarget } from './stamp-target.js';

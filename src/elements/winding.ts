@@ -1,7 +1,7 @@
 import { InputError } from '../errors.js';
 import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
 import type { WindingDescription } from '../network/description.js';
-import { packedDoublesFrom } from '../simulation/packed-doubles.js';
+import { packedDoublesFrom } from '../solver/packed-doubles.js';
 import type { ElementKind } from './element-kind.js';
 import { stampBranch } from './stamp-target.js';
 import { stateValue } from './state-value.js';

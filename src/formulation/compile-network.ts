@@ -2,7 +2,7 @@ import type { CompiledElement, ElementEvent, ElementGroup, InputView, StampConte
 import { elementKind, tubeKind } from '../elements/registry.js';
 import { DenseStampTarget, EntryRecordingStampTarget, PatternRecordingStampTarget, type StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube, TubeLoops } from '../elements/tube-kind.js';
-import { packedDoublesFrom } from '../simulation/packed-doubles.js';
+import { packedDoublesFrom } from '../solver/packed-doubles.js';
 import type { ElementDescription, NetworkDescription } from '../network/description.js';
 import { fundamentalLoops, type MagneticLoops } from './magnetic-graph.js';
 import { NetworkInputs } from './network-inputs.js';

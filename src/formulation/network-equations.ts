@@ -2,7 +2,7 @@ import type { ElementGroup, InputView } from '../elements/element-kind.js';
 import type { StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube, TubeLoops, TubeStateStamps } from '../elements/tube-kind.js';
 import type { MaterialLaw } from '../materials/material-law.js';
-import { packedDoubles } from '../simulation/packed-doubles.js';
+import { packedDoubles } from '../solver/packed-doubles.js';
 
 /** How f reads one tube's MMF drop (see seriesTerms in compile-network.ts). */
 export interface MmfTerm {

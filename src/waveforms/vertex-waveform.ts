@@ -1,5 +1,5 @@
 import { nextUp } from '../solver/float-neighbours.js';
-import { packedDoublesFrom } from '../simulation/packed-doubles.js';
+import { packedDoublesFrom } from '../solver/packed-doubles.js';
 import type { Waveform } from './waveform.js';
 
 /**

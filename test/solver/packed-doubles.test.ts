@@ -1,20 +1,72 @@
+/**
+ * packedDoubles and packedDoublesFrom: plain arrays that stand in for
+ * Float64Array storage in the solver's kernels and the network's f and
+ * Jacobian, so they must hold what a Float64Array would: `new Float64Array(n)` is n entries of +0
+ * (ECMAScript 2024, sect. 23.2.5.1: TypedArray(length) allocates a buffer
+ * whose bytes are all zero, and the all-zero IEEE 754 binary64 pattern is
+ * +0), and `Float64Array.from(values)` keeps each number's binary64 value.
+ * Their elements kind (packed doubles) is V8's and not observable from
+ * JavaScript; bench/network-calls-versus.ts measures what it is for.
+ */
 import { describe, expect, it } from 'vitest';
 import { createComplexLu } from '../../src/solver/complex-lu.js';
 import { createDenseLu } from '../../src/solver/dense-lu.js';
 import { identityPermutation, packedDoubles, packedDoublesFrom } from '../../src/solver/packed-doubles.js';
 
-describe("packed double arrays (the factorisations' storage)", () => {
-  it('hold n zeros and keep every double stored in them exactly (IEEE 754 binary64 round trip)', () => {
-    const a = packedDoubles(5);
-    expect(a).toEqual([0, 0, 0, 0, 0]);
-    const values = [Math.PI, -0, 5e-324, Number.MAX_VALUE, 1 / 3];
-    for (let i = 0; i < 5; i++) a[i] = values[i]!;
-    for (let i = 0; i < 5; i++) expect(Object.is(a[i], values[i])).toBe(true);
-    expect(packedDoublesFrom(Float64Array.of(1, 0, 20))).toEqual([1, 0, 20]);
-    expect(identityPermutation(4)).toEqual([0, 1, 2, 3]);
+describe('packedDoubles', () => {
+  it('holds n entries of +0, as new Float64Array(n) does (the -0 it starts from is not left behind)', () => {
+    for (const n of [0, 1, 2, 7, 100]) {
+      const a = packedDoubles(n);
+      const reference = new Float64Array(n);
+      expect(Array.isArray(a)).toBe(true);
+      expect(a.length).toBe(n);
+      for (let i = 0; i < n; i++) expect(Object.is(a[i], reference[i])).toBe(true);
+    }
   });
 
-  it('leave the LUs solving as before after an ArrayBuffer was detached in the process', () => {
+  it('takes doubles and integers stored into it and reads them back as stored', () => {
+    const a = packedDoubles(3);
+    a[0] = 2.5;
+    a[1] = -1;
+    a[2] = -0;
+    expect(a).toEqual([2.5, -1, -0]);
+    expect(Object.is(a[2], -0)).toBe(true);
+  });
+});
+
+describe('packedDoublesFrom', () => {
+  it('keeps every value bit for bit, as Float64Array.from does (integers, -0, subnormals, infinities, NaN)', () => {
+    const values = [1, -1, 0.1, -0, 5e-324, 1.7976931348623157e308, Infinity, -Infinity, NaN, 20];
+    const a = packedDoublesFrom(values);
+    const reference = Float64Array.from(values);
+    expect(a.length).toBe(values.length);
+    for (let i = 0; i < values.length; i++) expect(Object.is(a[i], reference[i])).toBe(true);
+  });
+
+  it('maps each element with its index when given a function', () => {
+    const windings = [{ turns: 20, orientation: -1 }, { turns: 3.5, orientation: 1 }];
+    expect(packedDoublesFrom(windings, (w, i) => w.orientation * w.turns + i)).toEqual([-20, 4.5]);
+    expect(packedDoublesFrom([], (x: number) => x)).toEqual([]);
+  });
+
+  it('converts what is not a number as Float64Array.from does (ToNumber)', () => {
+    const fields = [undefined, '2.5', null, true] as unknown as number[];
+    const a = packedDoublesFrom(fields);
+    const reference = Float64Array.from(fields);
+    for (let i = 0; i < fields.length; i++) expect(Object.is(a[i], reference[i])).toBe(true);
+    expect(a.every((v) => typeof v === 'number')).toBe(true);
+  });
+});
+
+describe('identityPermutation', () => {
+  it('is 0, 1, ..., n - 1', () => {
+    expect(identityPermutation(4)).toEqual([0, 1, 2, 3]);
+    expect(identityPermutation(0)).toEqual([]);
+  });
+});
+
+describe('the LUs on plain arrays', () => {
+  it('solve as before after an ArrayBuffer was detached in the process', () => {
     // Detaching a buffer changes how V8 compiles typed-array accesses, not their values: the same
     // system solved before and after gives the same bits. Reference values: x = A^-1 b by hand
     // (A = [[4, 1], [2, 3]], b = [1, 2]: x = [0.1, 0.6]; Cramer's rule, det A = 10).

@@ -2,7 +2,7 @@ import { tubeKind } from '../../elements/registry.js';
 import { FluxstateError, InputError } from '../../errors.js';
 import { fundamentalLoops, type MagneticLoops } from '../../formulation/magnetic-graph.js';
 import type { NetworkDescription, TubeDescription, WindingDescription } from '../../network/description.js';
-import { packedDoubles } from '../../simulation/packed-doubles.js';
+import { packedDoubles } from '../../solver/packed-doubles.js';
 import { createDenseLu } from '../../solver/dense-lu.js';
 
 /**
