@@ -1,7 +1,8 @@
 import { analyseBand, type BandStructure } from './band-structure.js';
 import { REFINEMENT_THRESHOLD } from './sparse-lu.js';
 import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type ComplexLinearSolver } from './linear-solver.js';
-import type { SparsePattern } from './sparse-pattern.js';
+import { identityPermutation, packedDoubles } from './packed-doubles.js';
+import { packedIndices, type SparsePattern } from './sparse-pattern.js';
 
 /**
  * A {@link ComplexLinearSolver} that also factors values given on the pattern.
@@ -32,26 +33,36 @@ export interface SparseComplexLinearSolver extends ComplexLinearSolver {
  * ```
  */
 export function createSparseComplexLu(pattern: SparsePattern, structure: BandStructure = analyseBand(pattern)): SparseComplexLinearSolver {
-  const { n, rowStart, col } = pattern;
-  const { order, lower: kl, upper: ku, width: w, slotOfEntry } = structure;
-  const br = new Float64Array(n * w);
-  const bi = new Float64Array(n * w);
-  const mr = new Float64Array(n * kl);
-  const mi = new Float64Array(n * kl);
-  const pivotRow = new Int32Array(n);
-  const rowScale = new Float64Array(n);
-  const colScale = new Float64Array(n);
-  const xr = new Float64Array(n);
-  const xi = new Float64Array(n);
-  const valuesRe = new Float64Array(col.length);
-  const valuesIm = new Float64Array(col.length);
+  const { n } = pattern;
+  const { lower: kl, upper: ku, width: w } = structure;
+  // Plain arrays of small integers and of doubles, inputs copied in: as the real kernel ({@link createSparseLu}).
+  const rowStart = packedIndices(pattern.rowStart);
+  const col = packedIndices(pattern.col);
+  const order = packedIndices(structure.order);
+  const slotOfEntry = packedIndices(structure.slotOfEntry);
+  const nnz = col.length;
+  const br = packedDoubles(n * w);
+  const bi = packedDoubles(n * w);
+  const mr = packedDoubles(n * kl);
+  const mi = packedDoubles(n * kl);
+  const pivotRow = identityPermutation(n);
+  const rowScale = packedDoubles(n);
+  const colScale = packedDoubles(n);
+  const xr = packedDoubles(n);
+  const xi = packedDoubles(n);
+  /** The dense matrix gathered onto the pattern by factor(). */
+  const valuesRe = new Float64Array(nnz);
+  const valuesIm = new Float64Array(nnz);
   /** The matrix last factored (unscaled, on the pattern), for the refinement step. */
-  const factoredRe = new Float64Array(col.length);
-  const factoredIm = new Float64Array(col.length);
-  const b0Re = new Float64Array(n);
-  const b0Im = new Float64Array(n);
-  const rRe = new Float64Array(n);
-  const rIm = new Float64Array(n);
+  const factoredRe = packedDoubles(nnz);
+  const factoredIm = packedDoubles(nnz);
+  /** The right-hand side, the solution before refinement and its residual. */
+  const b0Re = packedDoubles(n);
+  const b0Im = packedDoubles(n);
+  const solRe = packedDoubles(n);
+  const solIm = packedDoubles(n);
+  const rRe = packedDoubles(n);
+  const rIm = packedDoubles(n);
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function gather(re: Float64Array, im: Float64Array): void {
@@ -69,9 +80,13 @@ export function createSparseComplexLu(pattern: SparsePattern, structure: BandStr
     }
   }
 
-  function factorValues(re: Float64Array, im: Float64Array): number {
-    factoredRe.set(re);
-    factoredIm.set(im);
+  function factorValues(inputRe: Float64Array, inputIm: Float64Array): number {
+    const re = factoredRe;
+    const im = factoredIm;
+    for (let e = 0; e < nnz; e++) {
+      re[e] = inputRe[e]!;
+      im[e] = inputIm[e]!;
+    }
     for (let i = 0; i < n; i++) {
       let m = 0;
       for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
@@ -81,7 +96,7 @@ export function createSparseComplexLu(pattern: SparsePattern, structure: BandStr
       }
       rowScale[i] = powerOfTwoInverse(m);
     }
-    colScale.fill(0);
+    for (let j = 0; j < n; j++) colScale[j] = 0;
     for (let i = 0; i < n; i++) {
       const r = rowScale[i]!;
       for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
@@ -89,8 +104,10 @@ export function createSparseComplexLu(pattern: SparsePattern, structure: BandStr
       }
     }
     for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
-    br.fill(0);
-    bi.fill(0);
+    for (let s = 0; s < n * w; s++) {
+      br[s] = 0;
+      bi[s] = 0;
+    }
     for (let i = 0; i < n; i++) {
       const r = rowScale[i]!;
       for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
@@ -155,11 +172,33 @@ export function createSparseComplexLu(pattern: SparsePattern, structure: BandStr
     return -1;
   }
 
-  /** Solve, then one step of iterative refinement where the backward error asks for it, as the real kernel ({@link createSparseLu}). */
+  /**
+   * Solve, then one step of iterative refinement where the backward error asks for it, as the real
+   * kernel ({@link createSparseLu}): b read once and written with the solution (again when refined),
+   * the rest on the kernel's arrays.
+   */
   function solve(bRe: Float64Array, bIm: Float64Array): void {
-    b0Re.set(bRe);
-    b0Im.set(bIm);
-    substitute(bRe, bIm);
+    for (let k = 0; k < n; k++) {
+      const i = order[k]!;
+      const r = rowScale[i]!;
+      const vr = bRe[i]!;
+      const vi = bIm[i]!;
+      b0Re[i] = vr;
+      b0Im[i] = vi;
+      xr[k] = r * vr;
+      xi[k] = r * vi;
+    }
+    substitute();
+    for (let k = 0; k < n; k++) {
+      const i = order[k]!;
+      const c = colScale[i]!;
+      const sr = c * xr[k]!;
+      const si = c * xi[k]!;
+      solRe[i] = sr;
+      solIm[i] = si;
+      bRe[i] = sr;
+      bIm[i] = si;
+    }
     let backward = 0;
     for (let i = 0; i < n; i++) {
       let sr = b0Re[i]!;
@@ -168,8 +207,8 @@ export function createSparseComplexLu(pattern: SparsePattern, structure: BandStr
       for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
         const ar = factoredRe[e]!;
         const ai = factoredIm[e]!;
-        const xr = bRe[col[e]!]!;
-        const xi = bIm[col[e]!]!;
+        const xr = solRe[col[e]!]!;
+        const xi = solIm[col[e]!]!;
         const tr = ar * xr - ai * xi;
         const ti = ar * xi + ai * xr;
         sr -= tr;
@@ -181,20 +220,21 @@ export function createSparseComplexLu(pattern: SparsePattern, structure: BandStr
       if (size > 0) backward = Math.max(backward, (Math.abs(sr) + Math.abs(si)) / size);
     }
     if (!(backward > REFINEMENT_THRESHOLD) || !Number.isFinite(backward)) return;
-    substitute(rRe, rIm);
-    for (let i = 0; i < n; i++) {
-      bRe[i] = bRe[i]! + rRe[i]!;
-      bIm[i] = bIm[i]! + rIm[i]!;
+    for (let k = 0; k < n; k++) {
+      const i = order[k]!;
+      xr[k] = rowScale[i]! * rRe[i]!;
+      xi[k] = rowScale[i]! * rIm[i]!;
+    }
+    substitute();
+    for (let k = 0; k < n; k++) {
+      const i = order[k]!;
+      bRe[i] = solRe[i]! + colScale[i]! * xr[k]!;
+      bIm[i] = solIm[i]! + colScale[i]! * xi[k]!;
     }
   }
 
-  /** Forward and back substitution with the factors, in place. */
-  function substitute(bRe: Float64Array, bIm: Float64Array): void {
-    for (let k = 0; k < n; k++) {
-      const i = order[k]!;
-      xr[k] = rowScale[i]! * bRe[i]!;
-      xi[k] = rowScale[i]! * bIm[i]!;
-    }
+  /** Forward and back substitution with the factors on (xr, xi) (the permuted, row-scaled right-hand side), in place. */
+  function substitute(): void {
     for (let k = 0; k < n; k++) {
       const p = pivotRow[k]!;
       if (p !== k) {
@@ -232,11 +272,6 @@ export function createSparseComplexLu(pattern: SparsePattern, structure: BandStr
       const d = pr * pr + pi * pi;
       xr[k] = (sr * pr + si * pi) / d;
       xi[k] = (si * pr - sr * pi) / d;
-    }
-    for (let k = 0; k < n; k++) {
-      const i = order[k]!;
-      bRe[i] = colScale[i]! * xr[k]!;
-      bIm[i] = colScale[i]! * xi[k]!;
     }
   }
 

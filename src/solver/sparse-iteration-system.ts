@@ -3,7 +3,8 @@ import { OutsidePatternError, type IterationSystem } from './iteration-system.js
 import type { NormalizedDae } from './normalize-problem.js';
 import { createSparseComplexLu } from './sparse-complex-lu.js';
 import { createSparseLu } from './sparse-lu.js';
-import { gatherOnPattern, type SparsePattern } from './sparse-pattern.js';
+import { packedDoublesFrom } from './packed-doubles.js';
+import { gatherOnPattern, packedIndices, type SparsePattern } from './sparse-pattern.js';
 import type { JacobianEntryTarget } from './types.js';
 
 /**
@@ -21,12 +22,13 @@ import type { JacobianEntryTarget } from './types.js';
  */
 export class PatternValuesTarget implements JacobianEntryTarget {
   private values: Float64Array;
-  private readonly rowStart: Int32Array;
-  private readonly col: Int32Array;
+  /** The pattern's row starts and columns as plain arrays of small integers (no typed-array detach check in the search). */
+  private readonly rowStart: number[];
+  private readonly col: number[];
 
   constructor(pattern: SparsePattern) {
-    this.rowStart = pattern.rowStart;
-    this.col = pattern.col;
+    this.rowStart = packedIndices(pattern.rowStart);
+    this.col = packedIndices(pattern.col);
     this.values = new Float64Array(0);
   }
 
@@ -93,6 +95,8 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
       massValues[e] = m.value[k]!;
     }
   }
+  // M read by every factorisation: a copy in a plain array of doubles (packedDoubles says why).
+  const mass = packedDoublesFrom(massValues);
   const e1 = new Float64Array(nnz);
   const e2r = new Float64Array(nnz);
   const e2i = new Float64Array(nnz);
@@ -157,7 +161,7 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
     },
     factor(J, fac1, alphn, betan) {
       for (let e = 0; e < nnz; e++) {
-        const m = massValues[e]!;
+        const m = mass[e]!;
         const v = -J[e]!;
         e1[e] = v + fac1 * m;
         e2r[e] = v + alphn * m;
@@ -173,13 +177,17 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
     },
     storage() {
       const { width, lower } = luReal.structure;
-      // Band and multipliers (real: once, complex: twice), the values kept for refinement, vectors of n.
+      // Band and multipliers (real: once, complex: twice), the values gathered and kept for refinement,
+      // vectors of n (7 real, 11 complex, pivots included), and the copies of the pattern (n + 1 row starts, nnz
+      // columns) and of the ordering and band slots (n + nnz) in each LU and of the pattern in the target.
       const band = n * width + n * lower;
+      const patternCopy = n + 1 + nnz;
       return {
         // The integrator holds J itself; the system only a dense scratch for a problem without jacobianEntries.
         jacobian: dense ? n * n : 0,
-        iterationMatrices: 4 * nnz,
-        factors: 3 * band + 6 * nnz + 16 * n,
+        // e1, e2r, e2i, M on the pattern and its copy.
+        iterationMatrices: 5 * nnz,
+        factors: 3 * band + 6 * nnz + 18 * n + 2 * (patternCopy + n + nnz) + patternCopy,
       };
     },
   };
@@ -192,7 +200,7 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
  * values[source], for each entry of each source row. The pattern holds the
  * destinations (normalizeDae adds the source rows' entries to the dependent rows).
  */
-function recombination(pattern: SparsePattern, p: NormalizedDae): { destination: Int32Array; source: Int32Array; coefficient: Float64Array } {
+function recombination(pattern: SparsePattern, p: NormalizedDae): { destination: number[]; source: number[]; coefficient: number[] } {
   const destination: number[] = [];
   const source: number[] = [];
   const coefficient: number[] = [];
@@ -211,5 +219,6 @@ function recombination(pattern: SparsePattern, p: NormalizedDae): { destination:
       }
     }
   }
-  return { destination: Int32Array.from(destination), source: Int32Array.from(source), coefficient: Float64Array.from(coefficient) };
+  // Indices pushed as small integers; the coefficients as doubles from birth (packedDoublesFrom).
+  return { destination, source, coefficient: packedDoublesFrom(coefficient) };
 }

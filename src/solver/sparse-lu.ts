@@ -1,6 +1,7 @@
 import { analyseBand, type BandStructure } from './band-structure.js';
 import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } from './linear-solver.js';
-import { gatherOnPattern, type SparsePattern } from './sparse-pattern.js';
+import { identityPermutation, packedDoubles } from './packed-doubles.js';
+import { gatherOnPattern, packedIndices, type SparsePattern } from './sparse-pattern.js';
 
 /**
  * Componentwise backward error (max_i |b - A x|_i / (|A| |x| + |b|)_i) above
@@ -53,19 +54,31 @@ export interface SparseRealLinearSolver extends RealLinearSolver {
  */
 export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
   const structure = analyseBand(pattern);
-  const { n, rowStart, col } = pattern;
-  const { order, lower: kl, upper: ku, width: w, slotOfEntry } = structure;
-  const band = new Float64Array(n * w);
-  const multipliers = new Float64Array(n * kl);
-  const pivotRow = new Int32Array(n);
-  const rowScale = new Float64Array(n);
-  const colScale = new Float64Array(n);
-  const x = new Float64Array(n);
-  const values = new Float64Array(col.length);
+  const { n } = pattern;
+  const { lower: kl, upper: ku, width: w } = structure;
+  // The pattern and the ordering as plain arrays of small integers, and the factors, scales and
+  // work vectors as plain arrays of doubles: no typed-array detach check in the loops below
+  // ({@link packedDoubles} says why). Inputs (Float64Array) are copied in first, so that the
+  // loops read one kind of array only.
+  const rowStart = packedIndices(pattern.rowStart);
+  const col = packedIndices(pattern.col);
+  const order = packedIndices(structure.order);
+  const slotOfEntry = packedIndices(structure.slotOfEntry);
+  const nnz = col.length;
+  const band = packedDoubles(n * w);
+  const multipliers = packedDoubles(n * kl);
+  const pivotRow = identityPermutation(n);
+  const rowScale = packedDoubles(n);
+  const colScale = packedDoubles(n);
+  const x = packedDoubles(n);
+  /** The dense matrix gathered onto the pattern by factor(). */
+  const values = new Float64Array(nnz);
   /** The matrix last factored (unscaled, on the pattern), for the refinement step. */
-  const factored = new Float64Array(col.length);
-  const b0 = new Float64Array(n);
-  const residual = new Float64Array(n);
+  const factored = packedDoubles(nnz);
+  /** The right-hand side, the solution before refinement and its residual. */
+  const b0 = packedDoubles(n);
+  const solution = packedDoubles(n);
+  const residual = packedDoubles(n);
   const tol = PIVOT_RELATIVE_TOLERANCE * n;
 
   function gather(a: Float64Array): void {
@@ -73,8 +86,9 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
     if (row >= 0) throw new RangeError(`sparse LU: row ${row} has a non-zero entry outside the sparsity pattern`);
   }
 
-  function factorValues(v: Float64Array): number {
-    factored.set(v);
+  function factorValues(input: Float64Array): number {
+    const v = factored;
+    for (let e = 0; e < nnz; e++) v[e] = input[e]!;
     // Equilibration (as the dense kernels: rows, then columns, powers of two).
     for (let i = 0; i < n; i++) {
       let m = 0;
@@ -85,13 +99,13 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
       }
       rowScale[i] = powerOfTwoInverse(m);
     }
-    colScale.fill(0);
+    for (let j = 0; j < n; j++) colScale[j] = 0;
     for (let i = 0; i < n; i++) {
       const r = rowScale[i]!;
       for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) colScale[col[e]!] = Math.max(colScale[col[e]!]!, r * Math.abs(v[e]!));
     }
     for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
-    band.fill(0);
+    for (let s = 0; s < n * w; s++) band[s] = 0;
     for (let i = 0; i < n; i++) {
       const r = rowScale[i]!;
       for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) band[slotOfEntry[e]!] = r * v[e]! * colScale[col[e]!]!;
@@ -146,16 +160,30 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
    * (R. D. Skeel, Iterative refinement implies numerical stability for
    * Gaussian elimination, Math. Comp. 35, 1980; Higham, Accuracy and
    * Stability of Numerical Algorithms, sect. 12.2).
+   *
+   * b is read once (into b0) and written with the solution (again when
+   * refined); everything in between runs on the kernel's own arrays.
    */
   function solve(b: Float64Array): void {
-    b0.set(b);
-    substitute(b);
+    for (let k = 0; k < n; k++) {
+      const i = order[k]!;
+      const bi = b[i]!;
+      b0[i] = bi;
+      x[k] = rowScale[i]! * bi;
+    }
+    substitute();
+    for (let k = 0; k < n; k++) {
+      const i = order[k]!;
+      const s = colScale[i]! * x[k]!;
+      solution[i] = s;
+      b[i] = s;
+    }
     let backward = 0;
     for (let i = 0; i < n; i++) {
       let s = b0[i]!;
       let size = Math.abs(s);
       for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
-        const t = factored[e]! * b[col[e]!]!;
+        const t = factored[e]! * solution[col[e]!]!;
         s -= t;
         size += Math.abs(t);
       }
@@ -164,16 +192,20 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
     }
     // Not finite: leave it to the caller's checks. Already at round-off: nothing to refine.
     if (!(backward > REFINEMENT_THRESHOLD) || !Number.isFinite(backward)) return;
-    substitute(residual);
-    for (let i = 0; i < n; i++) b[i] = b[i]! + residual[i]!;
-  }
-
-  /** Forward and back substitution with the factors: b is overwritten with A^-1 b. */
-  function substitute(b: Float64Array): void {
     for (let k = 0; k < n; k++) {
       const i = order[k]!;
-      x[k] = rowScale[i]! * b[i]!;
+      x[k] = rowScale[i]! * residual[i]!;
     }
+    substitute();
+    // The correction A^-1 r (colScale[i] x[k]) added to the solution.
+    for (let k = 0; k < n; k++) {
+      const i = order[k]!;
+      b[i] = solution[i]! + colScale[i]! * x[k]!;
+    }
+  }
+
+  /** Forward and back substitution with the factors on x (the permuted, row-scaled right-hand side), in place. */
+  function substitute(): void {
     for (let k = 0; k < n; k++) {
       const p = pivotRow[k]!;
       if (p !== k) {
@@ -192,10 +224,6 @@ export function createSparseLu(pattern: SparsePattern): SparseRealLinearSolver {
       let s = x[k]!;
       for (let j = k + 1; j <= right; j++) s -= band[rowK + j]! * x[j]!;
       x[k] = s / band[rowK + k]!;
-    }
-    for (let k = 0; k < n; k++) {
-      const i = order[k]!;
-      b[i] = colScale[i]! * x[k]!;
     }
   }
 

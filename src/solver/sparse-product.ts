@@ -74,9 +74,10 @@ export function sparseProduct(a: RowStructure, b: RowStructure): SparseProduct {
     rowStart[i + 1] = cols.length;
   }
   const structure: RowStructure = { rows: a.rows, cols: b.cols, rowStart, col: Int32Array.from(cols) };
-  const slot = Int32Array.from(outSlot);
-  const ae = Int32Array.from(aEntry);
-  const be = Int32Array.from(bEntry);
+  // The triples stay in the plain arrays of small integers they were pushed into (no typed-array detach check).
+  const slot = outSlot;
+  const ae = aEntry;
+  const be = bEntry;
   const terms = slot.length;
   return {
     structure,

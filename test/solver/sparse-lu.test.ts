@@ -1,4 +1,5 @@
 import fc from 'fast-check';
+import { LuDecomposition, Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import { analyseBand } from '../../src/solver/band-structure.js';
 import { createComplexLu } from '../../src/solver/complex-lu.js';
@@ -149,5 +150,69 @@ describe('sparse LU (reverse Cuthill-McKee + band LU with partial pivoting)', ()
     const y = Float64Array.of(1, 0, 0);
     dense.solve(y);
     for (let i = 0; i < 3; i++) expect(x[i]!).toBeCloseTo(y[i]!, 14);
+  });
+
+  it('solves into a view of a larger buffer after a buffer was detached, leaving the rest alone (real and complex, against ml-matrix)', () => {
+    // A detached ArrayBuffer in the process (as the TypeScript loader makes one): the kernels keep
+    // their storage in plain arrays and only read and write the caller's Float64Array.
+    const detached = new ArrayBuffer(8);
+    structuredClone(detached, { transfer: [detached] });
+    expect(detached.byteLength).toBe(0);
+    // A grounded RC ladder's nodal matrix (diagonally dominant, common practice) plus a coupling
+    // from the last node back to the first, so that the band ordering is not the identity.
+    const n = 12;
+    const a = new Float64Array(n * n);
+    const im = new Float64Array(n * n);
+    for (let i = 0; i < n; i++) {
+      a[i * n + i] = 3 + i / 7;
+      im[i * n + i] = 0.5 + (i % 4) / 3;
+      if (i + 1 < n) {
+        a[i * n + i + 1] = -1;
+        a[(i + 1) * n + i] = -1.25;
+      }
+    }
+    a[(n - 1) * n] = 0.5;
+    a[n - 1] = -0.75;
+    const b = Array.from({ length: n }, (_, i) => Math.sin(i + 1));
+    const bIm = Array.from({ length: n }, (_, i) => Math.cos(2 * i));
+    // Reference: ml-matrix's LuDecomposition (general-purpose npm library); the complex system
+    // through its real embedding [[A, -B], [B, A]] [xr; xi] = [br; bi].
+    const rows = (m: Float64Array) => Array.from({ length: n }, (_, i) => Array.from(m.subarray(i * n, i * n + n)));
+    const ref = new LuDecomposition(new Matrix(rows(a))).solve(Matrix.columnVector(b)).getColumn(0);
+    const embedded = new Matrix(2 * n, 2 * n);
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        embedded.set(i, j, a[i * n + j]!);
+        embedded.set(i, n + j, -im[i * n + j]!);
+        embedded.set(n + i, j, im[i * n + j]!);
+        embedded.set(n + i, n + j, a[i * n + j]!);
+      }
+    }
+    const refC = new LuDecomposition(embedded).solve(Matrix.columnVector([...b, ...bIm])).getColumn(0);
+    const guard = -7;
+    const view = (values: number[]) => {
+      const buffer = new Float64Array(n + 6).fill(guard);
+      buffer.set(values, 3);
+      return { buffer, x: buffer.subarray(3, 3 + n) };
+    };
+    const guardsKept = (buffer: Float64Array) => [0, 1, 2, n + 3, n + 4, n + 5].every((k) => buffer[k] === guard);
+    const lu = createSparseLu(patternOfDense(a, n));
+    expect(lu.factor(a)).toBe(-1);
+    const real = view(b);
+    lu.solve(real.x);
+    expect(guardsKept(real.buffer)).toBe(true);
+    for (let i = 0; i < n; i++) expect(Math.abs(real.x[i]! - ref[i]!)).toBeLessThan(1e-13);
+    const both = new Float64Array(n * n);
+    for (let k = 0; k < n * n; k++) both[k] = a[k] !== 0 || im[k] !== 0 ? 1 : 0;
+    const clu = createSparseComplexLu(patternOfDense(both, n));
+    expect(clu.factor(a, im)).toBe(-1);
+    const re = view(b);
+    const imag = view(bIm);
+    clu.solve(re.x, imag.x);
+    expect(guardsKept(re.buffer) && guardsKept(imag.buffer)).toBe(true);
+    for (let i = 0; i < n; i++) {
+      expect(Math.abs(re.x[i]! - refC[i]!)).toBeLessThan(1e-13);
+      expect(Math.abs(imag.x[i]! - refC[n + i]!)).toBeLessThan(1e-13);
+    }
   });
 });
