@@ -23,7 +23,7 @@ import { Float64Chunks } from './float64-chunks.js';
 import { OutsidePatternError, type IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
-import { packedDoublesFrom } from './packed-doubles.js';
+import { packedDoublesFrom, packedIndices } from './packed-doubles.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
 import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
@@ -521,8 +521,8 @@ class RadauIntegrator implements DaeIntegrator {
     const take = (length: number): Float64Array => chunks.take(length);
     if (p.mass) {
       // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
-      this.mRowPtr = Array.from(p.mass.rowStart);
-      this.mCol = Array.from(p.mass.col);
+      this.mRowPtr = packedIndices(p.mass.rowStart);
+      this.mCol = packedIndices(p.mass.col);
       this.mVal = packedDoublesFrom(p.mass.value);
       this.spaces = massSpaces(p.mass, n);
     }

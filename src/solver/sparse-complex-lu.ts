@@ -1,8 +1,8 @@
 import { analyseBand, type BandStructure } from './band-structure.js';
 import { REFINEMENT_THRESHOLD } from './sparse-lu.js';
 import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type ComplexLinearSolver } from './linear-solver.js';
-import { identityPermutation, packedDoubles } from './packed-doubles.js';
-import { packedIndices, type SparsePattern } from './sparse-pattern.js';
+import { identityPermutation, packedDoubles, packedIndices } from './packed-doubles.js';
+import type { SparsePattern } from './sparse-pattern.js';
 
 /**
  * A {@link ComplexLinearSolver} that also factors values given on the pattern.

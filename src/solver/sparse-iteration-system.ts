@@ -3,8 +3,8 @@ import { OutsidePatternError, type IterationSystem } from './iteration-system.js
 import type { NormalizedDae } from './normalize-problem.js';
 import { createSparseComplexLu } from './sparse-complex-lu.js';
 import { createSparseLu } from './sparse-lu.js';
-import { packedDoublesFrom } from './packed-doubles.js';
-import { gatherOnPattern, packedIndices, type SparsePattern } from './sparse-pattern.js';
+import { packedDoublesFrom, packedIndices } from './packed-doubles.js';
+import { gatherOnPattern, type SparsePattern } from './sparse-pattern.js';
 import type { JacobianEntryTarget } from './types.js';
 
 /**

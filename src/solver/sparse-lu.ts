@@ -1,7 +1,7 @@
 import { analyseBand, type BandStructure } from './band-structure.js';
 import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } from './linear-solver.js';
-import { identityPermutation, packedDoubles } from './packed-doubles.js';
-import { gatherOnPattern, packedIndices, type SparsePattern } from './sparse-pattern.js';
+import { identityPermutation, packedDoubles, packedIndices } from './packed-doubles.js';
+import { gatherOnPattern, type SparsePattern } from './sparse-pattern.js';
 
 /**
  * Componentwise backward error (max_i |b - A x|_i / (|A| |x| + |b|)_i) above

@@ -24,24 +24,6 @@ export interface SparsePattern {
 }
 
 /**
- * A copy of integer indices (a pattern's row starts or columns, an
- * ordering) in a plain array of small integers (PACKED_SMI_ELEMENTS), built
- * by push: read in the sparse kernels' loops without a typed array's detach
- * check (see packedDoubles in packed-doubles.ts).
- *
- * @internal
- * @example
- * ```ts
- * const rowStart = packedIndices(pattern.rowStart); // [0, 2, 5, ...]
- * ```
- */
-export function packedIndices(values: ArrayLike<number>): number[] {
-  const a: number[] = [];
-  for (let i = 0; i < values.length; i++) a.push(values[i]! | 0);
-  return a;
-}
-
-/**
  * The pattern holding the given (row, col) positions (duplicates merged),
  * plus the diagonal, which the iteration matrices (gamma/h) M - J always need.
  *

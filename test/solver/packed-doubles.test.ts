@@ -11,7 +11,7 @@
 import { describe, expect, it } from 'vitest';
 import { createComplexLu } from '../../src/solver/complex-lu.js';
 import { createDenseLu } from '../../src/solver/dense-lu.js';
-import { identityPermutation, packedDoubles, packedDoublesFrom } from '../../src/solver/packed-doubles.js';
+import { identityPermutation, packedDoubles, packedDoublesFrom, packedIndices } from '../../src/solver/packed-doubles.js';
 
 describe('packedDoubles', () => {
   it('holds n entries of +0, as new Float64Array(n) does (the -0 it starts from is not left behind)', () => {
@@ -58,10 +58,15 @@ describe('packedDoublesFrom', () => {
   });
 });
 
-describe('identityPermutation', () => {
-  it('is 0, 1, ..., n - 1', () => {
+describe('identityPermutation and packedIndices', () => {
+  it('are 0, 1, ..., n - 1, and a copy of the indices given', () => {
     expect(identityPermutation(4)).toEqual([0, 1, 2, 3]);
     expect(identityPermutation(0)).toEqual([]);
+    const rowStart = Int32Array.of(0, 2, 5, 7);
+    const copy = packedIndices(rowStart);
+    expect(copy).toEqual([0, 2, 5, 7]);
+    rowStart[1] = 3;
+    expect(copy[1]).toBe(2);
   });
 });
 
