@@ -9,7 +9,7 @@ import type { SparseMass } from './sparse-mass.js';
  * Float64Array (Doolittle, row-oriented k-i-j loop; Golub and Van Loan,
  * Matrix Computations, Algorithm 3.4.1). Buffers are allocated once; factor
  * and solve allocate nothing. The factors are kept in plain arrays of
- * doubles, not typed arrays ({@link packedDoubles} says why). Checked against ml-matrix's LuDecomposition in
+ * doubles, not typed arrays (docs/solver.md, "Sixth pass", says why). Checked against ml-matrix's LuDecomposition in
  * test/solver/dense-lu.test.ts; `npm run bench` measures both.
  *
  * @example
