@@ -10,9 +10,9 @@ import type { SparseMass } from './sparse-mass.js';
  * ((alpha - i beta)/h) M - J. Same algorithm as {@link createDenseLu} in
  * complex arithmetic (Golub and Van Loan, Algorithm 3.4.1); it does about half
  * the floating-point work of the real 2n x 2n embedding. The factors are
- * kept in plain arrays of doubles (docs/solver.md, "Sixth pass", says why). Checked against
- * ml-matrix on the real embedding in test/solver/complex-lu.test.ts;
- * `npm run bench` measures both.
+ * kept in plain arrays of doubles (docs/solver.md, "Sixth pass", says
+ * why). Checked against ml-matrix on the real embedding in
+ * test/solver/complex-lu.test.ts; `npm run bench` measures both.
  *
  * @example
  * ```ts

@@ -5,12 +5,13 @@ import { formShifted } from './shifted-matrix.js';
 import type { SparseMass } from './sparse-mass.js';
 
 /**
- * Real LU factorisation with partial pivoting on a flat row-major
- * Float64Array (Doolittle, row-oriented k-i-j loop; Golub and Van Loan,
- * Matrix Computations, Algorithm 3.4.1). Buffers are allocated once; factor
- * and solve allocate nothing. The factors are kept in plain arrays of
- * doubles, not typed arrays (docs/solver.md, "Sixth pass", says why). Checked against ml-matrix's LuDecomposition in
- * test/solver/dense-lu.test.ts; `npm run bench` measures both.
+ * Real LU factorisation with partial pivoting of a row-major Float64Array
+ * (Doolittle, row-oriented k-i-j loop; Golub and Van Loan, Matrix
+ * Computations, Algorithm 3.4.1). Buffers are allocated once; factor and
+ * solve allocate nothing. The factors are kept in plain arrays of doubles,
+ * not typed arrays (docs/solver.md, "Sixth pass", says why). Checked
+ * against ml-matrix's LuDecomposition in test/solver/dense-lu.test.ts;
+ * `npm run bench` measures both.
  *
  * @example
  * ```ts
