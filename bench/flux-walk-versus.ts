@@ -8,6 +8,7 @@
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { fluxWalk } from './flux-walk.js';
+import { cpuMs, median } from './timing.js';
 
 type Api = typeof import('../src/index.js');
 
@@ -23,14 +24,6 @@ function walk(api: Api) {
   return () => api.simulate(net, { stopTime, rtol: 1e-6 });
 }
 
-function cpuMs(fn: () => unknown): number {
-  const c0 = process.cpuUsage();
-  fn();
-  const c = process.cpuUsage(c0);
-  return (c.user + c.system) / 1000;
-}
-
-const median = (a: number[]): number => [...a].sort((x, y) => x - y)[a.length >> 1]!;
 const runs = { here: walk(here), there: walk(there) };
 const stats = { here: runs.here().stats, there: runs.there().stats }; // the first (cold) runs are not timed
 const ms = { here: [] as number[], there: [] as number[] };

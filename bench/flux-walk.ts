@@ -11,6 +11,7 @@
  * usage: tsx bench/flux-walk.ts [warmRuns]
  */
 import { createNetwork, MU0, pulse, simulate, type MaterialLaw } from '../src/index.js';
+import { cpuMs } from './timing.js';
 
 /** The walk's saturating law (invented). */
 export const walkLaw: MaterialLaw = {
@@ -34,13 +35,6 @@ export function fluxWalk(periods = 1000, api: WalkApi = { createNetwork, pulse }
   net.voltageSource('drive', d, net.ground, api.pulse({ low: -12, high: 12, period: 1e-5, duty: 0.52 }));
   const coil = net.winding('coil', { tube: leg, turns: 20, resistance: 0.5, plus: d, minus: net.ground });
   return { net, leg, coil, stopTime: periods * 1e-5 };
-}
-
-function cpuMs(fn: () => unknown): number {
-  const c0 = process.cpuUsage();
-  fn();
-  const c = process.cpuUsage(c0);
-  return (c.user + c.system) / 1000;
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {

@@ -20,7 +20,7 @@ import { compileNetwork } from '../src/formulation/compile-network.js';
 import { NetworkRun } from '../src/simulation/network-run.js';
 import { resolveSolverSettings } from '../src/simulation/solver-settings.js';
 import { flybackConverter, FLYBACK } from '../examples/scenarios/flyback.js';
-import { printTable } from './timing.js';
+import { median, printTable } from './timing.js';
 
 const PERIODS = 300;
 type Junction = 'ideal' | 'exponential';
@@ -61,7 +61,6 @@ function measure(periods: number, repeats: number): Record<Junction, { ms: numbe
       last[junction] = result;
     }
   }
-  const median = (a: number[]): number => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)]!;
   return {
     ideal: { ms: median(times.ideal), result: last.ideal },
     exponential: { ms: median(times.exponential), result: last.exponential },

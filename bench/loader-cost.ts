@@ -19,7 +19,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import ts from 'typescript';
-import { printTable } from './timing.js';
+import { median, printTable } from './timing.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = resolve(here, '..');
@@ -74,8 +74,6 @@ function runOnce(args: string[], cwd: string): Run | undefined {
     return undefined;
   }
 }
-
-const median = (a: number[]): number => [...a].sort((x, y) => x - y)[a.length >> 1] ?? NaN;
 
 /** RADAU5 built from the bench-anchor's sources into a temporary folder, or undefined. */
 function buildRadau5(): string | undefined {

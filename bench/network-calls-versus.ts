@@ -14,6 +14,7 @@ import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { fluxWalk } from './flux-walk.js';
+import { cpuMs, median } from './timing.js';
 
 type Api = typeof import('../src/index.js');
 type Compile = typeof import('../src/formulation/compile-network.js');
@@ -66,14 +67,6 @@ function side({ api, compile }: { api: Api; compile: Compile }): () => number {
   };
 }
 
-function cpuMs(fn: () => unknown): number {
-  const c0 = process.cpuUsage();
-  fn();
-  const c = process.cpuUsage(c0);
-  return (c.user + c.system) / 1000;
-}
-
-const median = (a: number[]): number => [...a].sort((x, y) => x - y)[a.length >> 1]!;
 const runs = { here: side(await load(resolve(import.meta.dirname, '..'))), there: side(await load(resolve(other))) };
 const digest = (x: number): string => createHash('sha256').update(Float64Array.of(x)).digest('hex').slice(0, 16);
 const check = { here: digest(runs.here()), there: digest(runs.there()) }; // the first (cold) rounds are not timed

@@ -12,6 +12,19 @@ export function timeMedian<T>(fn: () => T, repeats: number, warmup = repeats > 1
   return { ms: times[Math.floor(times.length / 2)]!, result: result as T };
 }
 
+/** CPU time (user + system, ms) of one call of fn: the machines are shared, so CPU time, not wall time. */
+export function cpuMs(fn: () => unknown): number {
+  const c0 = process.cpuUsage();
+  fn();
+  const c = process.cpuUsage(c0);
+  return (c.user + c.system) / 1000;
+}
+
+/** The middle value of `a` (the upper one of the two for an even count), NaN for an empty list. */
+export function median(a: readonly number[]): number {
+  return [...a].sort((x, y) => x - y)[a.length >> 1] ?? NaN;
+}
+
 /** Fixed-width table printing. */
 export function printTable(head: string[], rows: (string | number)[][]): void {
   const cells = [head, ...rows.map((r) => r.map((c) => (typeof c === 'number' ? fmt(c) : c)))];
