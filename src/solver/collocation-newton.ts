@@ -163,7 +163,18 @@ export interface NewtonOutcome {
 
 /** @internal @example `const outcome = createNewtonOutcome();` */
 export function createNewtonOutcome(): NewtonOutcome {
-  return { converged: false, iterations: 0, theta: 0, shrink: 1, faccon: 1, nonFinite: undefined, components: [] };
+  return new NewtonOutcomeRecord();
+}
+
+/** A class, not a literal: a literal made once per integrator has its field types widened at its second evaluation (see the normalised problem). */
+class NewtonOutcomeRecord implements NewtonOutcome {
+  converged = false;
+  iterations = 0;
+  theta = 0;
+  shrink = 1;
+  faccon = 1;
+  nonFinite: number[] | undefined = undefined;
+  components: number[] = [];
 }
 
 const NO_COMPONENTS: number[] = [];

@@ -530,7 +530,23 @@ export interface DerivativeWork {
 
 /** @internal */
 export function createDerivativeWork(n: number): DerivativeWork {
-  return { massRows: undefined, ft: new Float64Array(n), a: new Float64Array(n * n), b: new Float64Array(n), lu: createPatternAdaptiveLu(n) };
+  return new DerivativeBuffers(n);
+}
+
+/** A class, not a literal (see {@link createAlgebraicSolver}). */
+class DerivativeBuffers implements DerivativeWork {
+  massRows: Float64Array | undefined = undefined;
+  readonly ft: Float64Array;
+  readonly a: Float64Array;
+  readonly b: Float64Array;
+  readonly lu: RealLinearSolver;
+
+  constructor(n: number) {
+    this.ft = new Float64Array(n);
+    this.a = new Float64Array(n * n);
+    this.b = new Float64Array(n);
+    this.lu = createPatternAdaptiveLu(n);
+  }
 }
 
 /**
@@ -609,17 +625,31 @@ export interface DenseAlgebraicSolver extends AlgebraicSolver {
 
 /** @internal */
 export function createAlgebraicSolver(n: number, k: number): DenseAlgebraicSolver {
-  return {
-    lu: createPatternAdaptiveLu(k),
-    jr: new Float64Array(k * k),
-    jv: new Float64Array(n * k),
-    f: new Float64Array(n),
-    r: new Float64Array(k),
-    dz: new Float64Array(k),
-    dy: new Float64Array(n),
-    factoredBlock: new Float64Array(k * k),
-    factored: false,
-  };
+  return new DenseAlgebraicBuffers(n, k);
+}
+
+/** A class, not a literal: a literal made once per integrator has its field types widened at its second evaluation (docs/solver.md). */
+class DenseAlgebraicBuffers implements DenseAlgebraicSolver {
+  readonly lu: RealLinearSolver;
+  readonly jr: Float64Array;
+  readonly jv: Float64Array;
+  readonly f: Float64Array;
+  readonly r: Float64Array;
+  readonly dz: Float64Array;
+  readonly dy: Float64Array;
+  readonly factoredBlock: Float64Array;
+  factored = false;
+
+  constructor(n: number, k: number) {
+    this.lu = createPatternAdaptiveLu(k);
+    this.jr = new Float64Array(k * k);
+    this.jv = new Float64Array(n * k);
+    this.f = new Float64Array(n);
+    this.r = new Float64Array(k);
+    this.dz = new Float64Array(k);
+    this.dy = new Float64Array(n);
+    this.factoredBlock = new Float64Array(k * k);
+  }
 }
 
 /**

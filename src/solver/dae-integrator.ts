@@ -375,6 +375,15 @@ class IntegratorCalls implements CollocationSystem {
   }
 }
 
+/** Work arrays of the first-step estimate; a class, not a literal (see createNewtonOutcome). */
+class StepEstimateWork {
+  constructor(
+    readonly scale: Float64Array,
+    readonly y1: Float64Array,
+    readonly f1: Float64Array,
+  ) {}
+}
+
 /** The integrator's {@link ConsistencyContext}: f and the dense J as methods, for the reason given at {@link IntegratorCalls}. */
 class IntegratorConsistency implements ConsistencyContext {
   readonly scale: Float64Array;
@@ -465,7 +474,7 @@ class RadauIntegrator implements DaeIntegrator {
   private cheapRestartCap = false;
   /** The step size before the last cheap restart (its cap by the estimate is undone when another restart replaces it). */
   private hBeforeCheapRestart = NaN;
-  private readonly stepWork: { scale: Float64Array; y1: Float64Array; f1: Float64Array };
+  private readonly stepWork: StepEstimateWork;
   /** The last step's polynomial in buffers reused from step to step (meaningful while hasPiece). */
   private readonly piece: { tOld: number; t: number; h: number; readonly yOld: Float64Array; readonly q: Float64Array };
   private hasPiece = false;
@@ -549,7 +558,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.scale = take(n);
     this.ySaved = take(n);
     this.restartSlope = take(n);
-    this.stepWork = { scale: take(n), y1: take(n), f1: take(n) };
+    this.stepWork = new StepEstimateWork(take(n), take(n), take(n));
     const sparse = this.system.sparse;
     if (this.spaces && sparse && this.spaces.k > 0) {
       // The sparse path: W0^T J V0 and the y' system formed on the pattern, factored from values.

@@ -268,7 +268,7 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
 
   const massUsed = compression && mass ? compressedSparseMass(mass, compression) : mass;
   let dense: Float64Array | undefined;
-  return {
+  return new NormalizedProblem({
     n,
     calls,
     rhs: (t, y, out) => calls.rhs(t, y, out),
@@ -302,5 +302,20 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     outputTimes: Float64Array.from(ot),
     linearAlgebra: la,
     iterationPattern: la === 'sparse' ? iterationPattern : undefined,
-  };
+  });
 }
+
+/**
+ * The normalised problem as an instance of a class, not the object literal
+ * it is assembled in: V8 makes a literal evaluated a second time from a
+ * boilerplate and widens the recorded types of its fields that hold objects,
+ * which threw away the integrator's optimised code at the start of a
+ * process's second run (docs/solver.md). A class's fields keep their types.
+ */
+class NormalizedProblem {
+  constructor(fields: NormalizedDae) {
+    Object.assign(this, fields);
+  }
+}
+// The fields are those given to the constructor (declaration merging).
+interface NormalizedProblem extends NormalizedDae {}
