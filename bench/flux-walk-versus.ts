@@ -8,7 +8,7 @@
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { fluxWalk } from './flux-walk.js';
-import { cpuMs, median } from './timing.js';
+import { alternateCpuMs, median } from './timing.js';
 
 type Api = typeof import('../src/index.js');
 
@@ -26,15 +26,5 @@ function walk(api: Api) {
 
 const runs = { here: walk(here), there: walk(there) };
 const stats = { here: runs.here().stats, there: runs.there().stats }; // the first (cold) runs are not timed
-const ms = { here: [] as number[], there: [] as number[] };
-for (let k = 0; k < rounds; k++) {
-  // Alternate which side goes first, so neither always follows the other's garbage.
-  if (k % 2 === 0) {
-    ms.here.push(cpuMs(runs.here));
-    ms.there.push(cpuMs(runs.there));
-  } else {
-    ms.there.push(cpuMs(runs.there));
-    ms.here.push(cpuMs(runs.here));
-  }
-}
+const ms = alternateCpuMs(rounds, runs.here, runs.there);
 console.log(JSON.stringify({ rounds, here_cpu_ms: median(ms.here), other_cpu_ms: median(ms.there), ratio: median(ms.here) / median(ms.there), here: stats.here, other: stats.there }));

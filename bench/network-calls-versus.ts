@@ -14,7 +14,7 @@ import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { fluxWalk } from './flux-walk.js';
-import { cpuMs, median } from './timing.js';
+import { alternateCpuMs, median } from './timing.js';
 
 type Api = typeof import('../src/index.js');
 type Compile = typeof import('../src/formulation/compile-network.js');
@@ -70,16 +70,7 @@ function side({ api, compile }: { api: Api; compile: Compile }): () => number {
 const runs = { here: side(await load(resolve(import.meta.dirname, '..'))), there: side(await load(resolve(other))) };
 const digest = (x: number): string => createHash('sha256').update(Float64Array.of(x)).digest('hex').slice(0, 16);
 const check = { here: digest(runs.here()), there: digest(runs.there()) }; // the first (cold) rounds are not timed
-const ms = { here: [] as number[], there: [] as number[] };
-for (let k = 0; k < rounds; k++) {
-  if (k % 2 === 0) {
-    ms.here.push(cpuMs(runs.here));
-    ms.there.push(cpuMs(runs.there));
-  } else {
-    ms.there.push(cpuMs(runs.there));
-    ms.here.push(cpuMs(runs.here));
-  }
-}
+const ms = alternateCpuMs(rounds, runs.here, runs.there);
 console.log(
   JSON.stringify({ rounds, here_cpu_ms: median(ms.here), other_cpu_ms: median(ms.there), ratio: median(ms.here) / median(ms.there), check }),
 );

@@ -25,6 +25,24 @@ export function median(a: readonly number[]): number {
   return [...a].sort((x, y) => x - y)[a.length >> 1] ?? NaN;
 }
 
+/**
+ * CPU ms of `rounds` calls of each of two runs, alternating which goes first
+ * from round to round, so that neither always follows the other's garbage.
+ */
+export function alternateCpuMs(rounds: number, here: () => unknown, there: () => unknown): { here: number[]; there: number[] } {
+  const ms = { here: [] as number[], there: [] as number[] };
+  for (let k = 0; k < rounds; k++) {
+    if (k % 2 === 0) {
+      ms.here.push(cpuMs(here));
+      ms.there.push(cpuMs(there));
+    } else {
+      ms.there.push(cpuMs(there));
+      ms.here.push(cpuMs(here));
+    }
+  }
+  return ms;
+}
+
 /** Fixed-width table printing. */
 export function printTable(head: string[], rows: (string | number)[][]): void {
   const cells = [head, ...rows.map((r) => r.map((c) => (typeof c === 'number' ? fmt(c) : c)))];
