@@ -409,8 +409,7 @@ class IntegratorConsistency implements ConsistencyContext {
 class RadauIntegrator implements DaeIntegrator {
   private readonly p: NormalizedDae;
   private readonly n: number;
-  /** Sparse copy of M (CSR), or undefined for the identity. */
-  /** M in compressed rows, as plain arrays for M W in every Newton iteration (see packedDoubles). */
+  /** M in compressed rows (CSR), or undefined for the identity; plain arrays, read for M W in every Newton iteration (see packedDoubles). */
   private readonly mRowPtr: number[] | undefined;
   private readonly mCol: number[] | undefined;
   private readonly mVal: number[] | undefined;

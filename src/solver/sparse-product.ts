@@ -75,15 +75,12 @@ export function sparseProduct(a: RowStructure, b: RowStructure): SparseProduct {
   }
   const structure: RowStructure = { rows: a.rows, cols: b.cols, rowStart, col: Int32Array.from(cols) };
   // The triples stay in the plain arrays of small integers they were pushed into (no typed-array detach check).
-  const slot = outSlot;
-  const ae = aEntry;
-  const be = bEntry;
-  const terms = slot.length;
+  const terms = outSlot.length;
   return {
     structure,
     evaluate(av, bv, out) {
       out.fill(0, 0, structure.col.length);
-      for (let t = 0; t < terms; t++) out[slot[t]!] = out[slot[t]!]! + av[ae[t]!]! * bv[be[t]!]!;
+      for (let t = 0; t < terms; t++) out[outSlot[t]!] = out[outSlot[t]!]! + av[aEntry[t]!]! * bv[bEntry[t]!]!;
     },
   };
 }
