@@ -101,10 +101,13 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
   const inputs = new NetworkInputs(d);
 
   // Tube -> loop incidence, with loop indices already offset into y.
-  const tubeLoops = loops.tubeLoops.map((entries) => ({
-    index: Array.from(entries, (en) => layout.loopOffset + en.loop),
-    sign: packedDoublesFrom(entries, (en) => en.sign),
-  }));
+  const tubeLoops = loops.tubeLoops.map(
+    (entries) =>
+      new TubeLoopIncidence(
+        Array.from(entries, (en) => layout.loopOffset + en.loop),
+        packedDoublesFrom(entries, (en) => en.sign),
+      ),
+  );
   const tubes: CompiledTube[] = d.tubes.map((t, b) =>
     tubeKind(t.law).compile(t.law, t, { stateOffset: layout.tubeStates[b]!, loops: tubeLoops[b]! }),
   );
@@ -179,6 +182,20 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     tubeMmf: (b, flux, y) => tubes[b]!.mmf(flux, y),
     tubeEnergy: (b, flux, y) => tubes[b]!.energy(flux, y),
   };
+}
+
+/**
+ * One tube's loop incidence, read by f and J at every call. A class, not a
+ * literal: V8 gives two-field literals that start with `index` one shared
+ * map (the integrator's event records keep a number there, which threw away
+ * the optimised code reading tube loops), and widens the field types of a
+ * literal evaluated again at the next compile.
+ */
+class TubeLoopIncidence implements TubeLoops {
+  constructor(
+    readonly index: readonly number[],
+    readonly sign: readonly number[],
+  ) {}
 }
 
 /**

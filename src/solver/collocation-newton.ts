@@ -170,9 +170,12 @@ export function createNewtonOutcome(): NewtonOutcome {
 class NewtonOutcomeRecord implements NewtonOutcome {
   converged = false;
   iterations = 0;
-  theta = 0;
-  shrink = 1;
-  faccon = 1;
+  // NaN until the first solve writes them (never read before). Started as small integers, the first
+  // non-integer rate made V8 store them as doubles under a new map for the class, which widened the
+  // next integrator's field holding an outcome and threw away its optimised code.
+  theta = NaN;
+  shrink = NaN;
+  faccon = NaN;
   nonFinite: number[] | undefined = undefined;
   components: number[] = [];
 }

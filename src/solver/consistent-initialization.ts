@@ -150,9 +150,20 @@ function combineRows(w: SparseColumns, c: number, a: Float64Array, n: number, ou
   }
 }
 
-/** V0 by rows (row l: pairs column, value at entries[2e], entries[2e + 1]) and the rows W0 touches, made once per spaces. */
-const rowIndexCache = new WeakMap<MassSpaces, { byRow: Int32Array; entries: Float64Array; rows: Int32Array }>();
-function rowIndexOf(spaces: MassSpaces): { byRow: Int32Array; entries: Float64Array; rows: Int32Array } {
+/**
+ * V0 by rows (row l: pairs column, value at entries[2e], entries[2e + 1]) and the rows W0 touches, made once per spaces.
+ * A class, not a literal: V8 widens the field types of a literal evaluated a second time (the next run's
+ * spaces), which threw away algebraicJacobian's optimised code.
+ */
+class RowIndex {
+  constructor(
+    readonly byRow: Int32Array,
+    readonly entries: Float64Array,
+    readonly rows: Int32Array,
+  ) {}
+}
+const rowIndexCache = new WeakMap<MassSpaces, RowIndex>();
+function rowIndexOf(spaces: MassSpaces): RowIndex {
   let c = rowIndexCache.get(spaces);
   if (c) return c;
   const { v0, w0 } = spaces.columns;
@@ -173,7 +184,7 @@ function rowIndexOf(spaces: MassSpaces): { byRow: Int32Array; entries: Float64Ar
   const touched = new Uint8Array(n);
   for (let e = 0; e < w0.index.length; e++) touched[w0.index[e]!] = 1;
   const rows = Int32Array.from({ length: n }, (_, i) => i).filter((i) => touched[i] === 1);
-  c = { byRow, entries, rows };
+  c = new RowIndex(byRow, entries, rows);
   rowIndexCache.set(spaces, c);
   return c;
 }
