@@ -14,11 +14,12 @@
  * usage: tsx bench/loader-cost.ts [rounds]
  */
 import { spawnSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import ts from 'typescript';
+import { buildRadau5 } from './radau5-build.js';
 import { median, printTable } from './timing.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -75,24 +76,14 @@ function runOnce(args: string[], cwd: string): Run | undefined {
   }
 }
 
-/** RADAU5 built from the bench-anchor's sources into a temporary folder, or undefined. */
-function buildRadau5(): string | undefined {
-  const candidates = [process.env.FLUXSTATE_BENCH_ANCHOR ? dirname(process.env.FLUXSTATE_BENCH_ANCHOR) : undefined, resolve(root, '../shared/bench-anchor'), resolve(root, '../../shared/bench-anchor')];
-  const anchor = candidates.find((c): c is string => c !== undefined && existsSync(join(c, 'radau5', 'build.sh')));
-  if (!anchor || spawnSync('sh', ['-c', 'command -v gfortran']).status !== 0) return undefined;
-  const dir = mkdtempSync(join(tmpdir(), 'fluxstate-radau5-'));
-  cpSync(join(anchor, 'radau5'), join(dir, 'radau5'), { recursive: true });
-  const built = spawnSync('sh', [join(dir, 'radau5', 'build.sh')], { encoding: 'utf8' });
-  return built.status === 0 ? join(dir, 'radau5', 'driver') : undefined;
-}
-
 // The bench-anchor driver's problem numbers and the Test Set's tolerances (ROBER's atol six orders below rtol).
 const problems = [['ROBER', 1], ['VDPOL', 2], ['HIRES', 3], ['TRANSAMP', 5]] as const;
 
 export function benchLoaderCost(rounds = 3): void {
   console.log('\n## The TypeScript loader against emitted JavaScript (same solves, alternated processes, warm CPU ms per solve)');
   const emitted = emitJavaScript();
-  const driver = buildRadau5();
+  const built = buildRadau5();
+  const driver = built?.driver;
   const rows: (string | number)[][] = [];
   try {
     for (const [name, id] of problems) {
@@ -127,7 +118,7 @@ export function benchLoaderCost(rounds = 3): void {
     }
   } finally {
     rmSync(emitted, { recursive: true, force: true });
-    if (driver) rmSync(dirname(dirname(driver)), { recursive: true, force: true });
+    built?.remove();
   }
   printTable(['problem', 'steps', 'via tsx ms', 'emitted JS ms', 'tsx / JS', 'JS detached / JS', 'RADAU5 ms', 'tsx / RADAU5', 'JS / RADAU5'], rows);
   console.log(`(${relative(root, here)}/loader-cost.ts; RADAU5 columns are NaN when the bench-anchor or gfortran is not at hand)`);

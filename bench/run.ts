@@ -5,8 +5,9 @@
  * when SciPy is importable, SciPy's solve_ivp (Radau, BDF), and the sweep
  * speedup on worker threads (bench/sweep.ts), first-run against warm cost,
  * memory against steps (bench/memory.ts), the commutations of a flyback with
- * ideal against exponential diodes (bench/flyback-commutation.ts) and the ratios to compiled RADAU5
- * when the bench-anchor yardstick is at hand (bench/anchor.ts). Prints tables;
+ * ideal against exponential diodes (bench/flyback-commutation.ts), the ratios to compiled RADAU5
+ * when the bench-anchor yardstick is at hand (bench/anchor.ts), and the flux walk taken apart
+ * (network layer, differential-algebraic form, solver; bench/flux-walk-anatomy.ts). Prints tables;
  * wall times are medians of a few repeats. Total run time about a minute.
  */
 import { solveDae, type DaeProblem, type SolveDaeOptions } from '../src/index.js';
@@ -23,6 +24,7 @@ import { benchSweep } from './sweep.js';
 import { benchDevices } from './devices.js';
 import { benchLadder } from './ladder.js';
 import { benchLoaderCost } from './loader-cost.js';
+import { benchFluxWalkAnatomy } from './flux-walk-anatomy.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -158,4 +160,5 @@ benchColdWarm();
 benchMemory();
 benchAgainstRadau5();
 benchLoaderCost();
+benchFluxWalkAnatomy();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);
