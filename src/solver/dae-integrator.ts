@@ -19,7 +19,7 @@ import {
 import { createDenseIterationSystem } from './dense-iteration-system.js';
 import { locateSignChange } from './event-locator.js';
 import { nextDown } from './float-neighbours.js';
-import { Float64Chunks } from './float64-chunks.js';
+import { Float64Chunks, type TakeFloat64 } from './float64-chunks.js';
 import { OutsidePatternError, type IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
@@ -27,6 +27,7 @@ import { packedDoublesFrom, packedIndices } from './packed-doubles.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
 import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
+import type { PointSource } from './state-rows.js';
 import { createSparseConsistency, type SparseConsistency } from './sparse-consistency.js';
 import { createSparseIterationSystem } from './sparse-iteration-system.js';
 import { errorQuotient, nextStepSize, type AcceptedStep } from './step-size-controller.js';
@@ -344,8 +345,8 @@ export function linearAlgebraStorage(integ: DaeIntegrator): { jacobian: number; 
   return integ.linearAlgebraStorage();
 }
 
-/** @internal */
-export function createDaeIntegratorFromNormalized(p: NormalizedDae): DaeIntegrator {
+/** @internal The integrator, which also writes solveDae's stored rows in place ({@link PointSource}). */
+export function createDaeIntegratorFromNormalized(p: NormalizedDae): DaeIntegrator & PointSource {
   return new RadauIntegrator(p);
 }
 
@@ -526,7 +527,8 @@ class RadauIntegrator implements DaeIntegrator {
     // for ml-matrix (the flat LUs keep theirs in plain arrays), and about 43 of length n.
     const denseMatrices = p.iterationPattern ? 0 : p.linearAlgebra === 'ml-matrix' ? 4 : 1;
     const chunks = new Float64Chunks(Math.min(denseMatrices * n * n + 44 * n, 1 << 16));
-    const take = (length: number): Float64Array => chunks.take(length);
+    // Bound, not an arrow: under tsx every arrow made per solve is named by a property definition (about half a microsecond).
+    const take: TakeFloat64 = chunks.take.bind(chunks);
     if (p.mass) {
       // M in compressed rows as normalizeDae made it: no n x n array on the sparse path.
       this.mRowPtr = packedIndices(p.mass.rowStart);
@@ -582,13 +584,14 @@ class RadauIntegrator implements DaeIntegrator {
     }
     this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: take(n), q: take(3 * n) };
     this.jac = take(this.system.jacobianSize);
-    this.eventValues = new Float64Array(p.events.length);
-    this.landingEvents = p.events.some((e) => e.terminal === true && e.stepToEvent === true);
+    this.eventValues = take(p.events.length);
+    this.landingEvents = p.events.length > 0 && p.events.some((e) => e.terminal === true && e.stepToEvent === true);
     this.stepStart = {
-      f: new Float64Array(this.landingEvents ? n : 0),
+      f: take(this.landingEvents ? n : 0),
       hAcc: NaN, errAcc: NaN, first: true, cheapRestartUnproven: false, jacValid: false, jacCurrent: false,
     };
-    this.startTime = performance.now();
+    // Read only against a wall-time budget.
+    this.startTime = p.maxWallTimeMs !== Infinity ? performance.now() : 0;
 
     this.tCur = p.t0;
     this.yCur = take(n);
@@ -898,6 +901,13 @@ class RadauIntegrator implements DaeIntegrator {
     return out;
   }
 
+  /** The present time at out[offset] and state after it, by a loop (see {@link PointSource}; not part of the public interface). */
+  readPoint(out: Float64Array, offset: number): void {
+    out[offset] = this.tCur;
+    const y = this.yCur;
+    for (let i = 0; i < this.n; i++) out[offset + 1 + i] = y[i]!;
+  }
+
   interpolate(t: number, out?: Float64Array): Float64Array {
     const res = out ?? new Float64Array(this.n);
     const it = this.hasPiece ? this.piece : undefined;
@@ -1034,8 +1044,8 @@ class RadauIntegrator implements DaeIntegrator {
         }
       }
       this.callRhs(this.tCur, this.yCur, this.fCur);
-      const bad = nonFiniteIndices(this.fCur);
-      if (bad.length) {
+      if (!allFinite(this.fCur)) {
+        const bad = nonFiniteIndices(this.fCur);
         this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${bad.join(', ')}`, bad);
         return;
       }

@@ -43,7 +43,6 @@ class DenseIterationSystem implements IterationSystem {
   private readonly formed: { readonly e1: Float64Array; readonly e2r: Float64Array; readonly e2i: Float64Array } | undefined;
   private readonly fdWork: Float64Array;
   private readonly mass: NormalizedDae['mass'];
-  private readonly jf: NormalizedDae['jacobian'];
 
   constructor(p: NormalizedDae, take: TakeFloat64) {
     const n = p.n;
@@ -59,13 +58,12 @@ class DenseIterationSystem implements IterationSystem {
     }
     this.fdWork = take(n);
     this.mass = p.mass;
-    this.jf = p.jacobian;
     this.jacobianSize = n * n;
-    this.analytic = this.jf !== undefined;
+    this.analytic = p.calls.hasJacobian;
   }
 
   evaluate(t: number, y: Float64Array, f: Float64Array, out: Float64Array): number {
-    if (this.jf) {
+    if (this.analytic) {
       out.fill(0);
       this.p.calls.jacobian(t, y, out);
       return 0;

@@ -67,6 +67,13 @@ function finite(x: unknown): x is number {
   return typeof x === 'number' && Number.isFinite(x);
 }
 
+/** An optional option that must be a finite number > 0. */
+function positive(v: number | undefined, label: string): number | undefined {
+  if (v === undefined) return undefined;
+  if (!finite(v) || v <= 0) bad('bad-option', `${label} = ${v} must be a finite number > 0`, [label]);
+  return v;
+}
+
 function tolerance(value: number | ArrayLike<number> | undefined, dflt: number, n: number, label: 'rtol' | 'atol'): Float64Array {
   const out = new Float64Array(n);
   if (value === undefined) return out.fill(dflt);
@@ -197,9 +204,11 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   });
 
   const index2 = new Uint8Array(n);
+  let hasIndex2 = false;
   for (const k of problem.index2 ?? []) {
     if (!Number.isInteger(k) || k < 0 || k >= n) bad('bad-index2', `index2 entry ${k} is not a component index in 0..${n - 1}`, ['index2']);
     index2[k] = 1;
+    hasIndex2 = true;
   }
 
   const rtol = tolerance(options.rtol, 1e-6, n, 'rtol');
@@ -209,11 +218,6 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     if (rtol[i]! < 1e-15) bad('bad-tolerance', `rtol[${i}] = ${rtol[i]} is below 1e-15, the limit of double precision; raise it`, ['rtol']);
   }
 
-  const positive = (v: number | undefined, label: string): number | undefined => {
-    if (v === undefined) return undefined;
-    if (!finite(v) || v <= 0) bad('bad-option', `${label} = ${v} must be a finite number > 0`, [label]);
-    return v;
-  };
   const initialStep = positive(options.initialStep, 'initialStep');
   const maxStep = positive(options.maxStep, 'maxStep') ?? tEnd - t0;
   const maxSteps = options.maxSteps ?? 1e6;
@@ -266,18 +270,11 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   }
   ot.sort((a, b) => a - b);
 
-  const massUsed = compression && mass ? compressedSparseMass(mass, compression) : mass;
-  let dense: Float64Array | undefined;
   return new NormalizedProblem({
     n,
     calls,
-    rhs: (t, y, out) => calls.rhs(t, y, out),
-    jacobian: calls.hasJacobian ? (t, y, out) => calls.jacobian(t, y, out) : undefined,
-    jacobianEntries: calls.hasJacobianEntries ? (t, y, target) => calls.jacobianEntries(t, y, target) : undefined,
     massCompression: compression,
-    mass: massUsed,
-    denseMass: () => (massUsed ? (dense ??= denseOfSparseMass(massUsed)) : undefined),
-    denseMassMade: () => dense !== undefined,
+    mass: compression && mass ? compressedSparseMass(mass, compression) : mass,
     y0,
     t0,
     tEnd,
@@ -285,7 +282,7 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     events,
     eventNames,
     index2,
-    hasIndex2: index2.some((v) => v === 1),
+    hasIndex2,
     rtol,
     atol,
     atolFollowsRtol: options.atolFollowsRtol ?? options.atol !== undefined,
@@ -305,17 +302,112 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
   });
 }
 
+/** The fields of a {@link NormalizedDae} that are values (its functions are made by the class, on first use). */
+type NormalizedFields = Omit<NormalizedDae, 'rhs' | 'jacobian' | 'jacobianEntries' | 'denseMass' | 'denseMassMade'>;
+
 /**
- * The normalised problem as an instance of a class, not the object literal
- * it is assembled in: V8 makes a literal evaluated a second time from a
- * boilerplate and widens the recorded types of its fields that hold objects,
- * which threw away the integrator's optimised code at the start of a
- * process's second run (docs/solver.md). A class's fields keep their types.
+ * The normalised problem as an instance of a class, not an object literal:
+ * V8 makes a literal evaluated a second time from a boilerplate and widens
+ * the recorded types of its fields that hold objects, which threw away the
+ * integrator's optimised code at the start of a process's second run
+ * (docs/solver.md). A class's fields keep their types. The fields are
+ * copied one by one (Object.assign onto an empty instance grew its property
+ * store field by field, a few microseconds a solve); `declare`d, so that
+ * none is first defined as undefined, which would widen its recorded type
+ * at the first store. f, J and the dense M as functions are made only when
+ * a path asks for them (the dense path with an analytic J never does).
  */
-class NormalizedProblem {
-  constructor(fields: NormalizedDae) {
-    Object.assign(this, fields);
+class NormalizedProblem implements NormalizedDae {
+  declare readonly n: number;
+  declare readonly calls: ProblemCalls;
+  declare readonly massCompression: MassRowCompression | undefined;
+  declare readonly mass: SparseMass | undefined;
+  declare readonly y0: Float64Array;
+  declare readonly t0: number;
+  declare readonly tEnd: number;
+  declare readonly breakpoints: Float64Array;
+  declare readonly events: readonly DaeEvent[];
+  declare readonly eventNames: readonly string[];
+  declare readonly index2: Uint8Array;
+  declare readonly hasIndex2: boolean;
+  declare readonly rtol: Float64Array;
+  declare readonly atol: Float64Array;
+  declare readonly atolFollowsRtol: boolean;
+  declare readonly initialStep: number | undefined;
+  declare readonly maxStep: number;
+  declare readonly maxSteps: number;
+  declare readonly maxWallTimeMs: number;
+  declare readonly signal: AbortSignal | undefined;
+  declare readonly onProgress: ((p: DaeProgress) => void) | undefined;
+  declare readonly progressIntervalMs: number;
+  declare readonly eventTolerance: number | undefined;
+  declare readonly consistentInit: boolean;
+  declare readonly denseOutput: boolean;
+  declare readonly outputTimes: Float64Array;
+  declare readonly linearAlgebra: 'flat' | 'ml-matrix' | 'sparse';
+  declare readonly iterationPattern: SparsePattern | undefined;
+  declare private rhsFunction: RhsFunction | undefined;
+  declare private jacobianFunction: JacobianFunction | undefined;
+  declare private jacobianEntriesFunction: JacobianEntriesFunction | undefined;
+  declare private dense: Float64Array | undefined;
+
+  constructor(f: NormalizedFields) {
+    this.n = f.n;
+    this.calls = f.calls;
+    this.massCompression = f.massCompression;
+    this.mass = f.mass;
+    this.y0 = f.y0;
+    this.t0 = f.t0;
+    this.tEnd = f.tEnd;
+    this.breakpoints = f.breakpoints;
+    this.events = f.events;
+    this.eventNames = f.eventNames;
+    this.index2 = f.index2;
+    this.hasIndex2 = f.hasIndex2;
+    this.rtol = f.rtol;
+    this.atol = f.atol;
+    this.atolFollowsRtol = f.atolFollowsRtol;
+    this.initialStep = f.initialStep;
+    this.maxStep = f.maxStep;
+    this.maxSteps = f.maxSteps;
+    this.maxWallTimeMs = f.maxWallTimeMs;
+    this.signal = f.signal;
+    this.onProgress = f.onProgress;
+    this.progressIntervalMs = f.progressIntervalMs;
+    this.eventTolerance = f.eventTolerance;
+    this.consistentInit = f.consistentInit;
+    this.denseOutput = f.denseOutput;
+    this.outputTimes = f.outputTimes;
+    this.linearAlgebra = f.linearAlgebra;
+    this.iterationPattern = f.iterationPattern;
+    this.rhsFunction = undefined;
+    this.jacobianFunction = undefined;
+    this.jacobianEntriesFunction = undefined;
+    this.dense = undefined;
+  }
+
+  get rhs(): RhsFunction {
+    const calls = this.calls;
+    return (this.rhsFunction ??= (t, y, out) => calls.rhs(t, y, out));
+  }
+
+  get jacobian(): JacobianFunction | undefined {
+    const calls = this.calls;
+    if (!calls.hasJacobian) return undefined;
+    return (this.jacobianFunction ??= (t, y, out) => calls.jacobian(t, y, out));
+  }
+
+  get jacobianEntries(): JacobianEntriesFunction | undefined {
+    const calls = this.calls;
+    if (!calls.hasJacobianEntries) return undefined;
+    return (this.jacobianEntriesFunction ??= (t, y, target) => calls.jacobianEntries(t, y, target));
+  }
+
+  denseMass(): Float64Array | undefined {
+    return this.mass ? (this.dense ??= denseOfSparseMass(this.mass)) : undefined;
+  }
+
+  denseMassMade(): boolean {
+    return this.dense !== undefined;
   }
 }
-// The fields are those given to the constructor (declaration merging).
-interface NormalizedProblem extends NormalizedDae {}

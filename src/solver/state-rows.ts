@@ -51,21 +51,19 @@ export class StateRows {
    * a call that is not inlined is boxed on the heap, once per step.
    */
   push(point: Float64Array): void {
-    const width = this.width;
-    let r = this.count - this.currentStart;
-    if (r >= this.currentRows) {
-      const rows = Math.min(this.maxRows, Math.max(FIRST_ROWS, 2 * this.count));
-      this.current = new Float64Array(rows * width);
-      this.chunks.push(this.current);
-      this.starts.push(this.count);
-      this.currentStart = this.count;
-      this.currentRows = rows;
-      r = 0;
-    }
+    const off = this.appendRow();
     const chunk = this.current;
-    const off = r * width;
-    for (let i = 0; i < width; i++) chunk[off + i] = point[i]!;
-    this.count++;
+    for (let i = 0; i < this.width; i++) chunk[off + i] = point[i]!;
+  }
+
+  /**
+   * Append a row that `source` writes in place (its time, then its state):
+   * one copy of the state per row, where {@link push} copies it twice (into
+   * the point, then into the store).
+   */
+  pushFrom(source: PointSource): void {
+    const off = this.appendRow();
+    source.readPoint(this.current, off);
   }
 
   /** The state of row k as a view of the storage (length n). */
@@ -94,6 +92,22 @@ export class StateRows {
     return out;
   }
 
+  /** Where a new row starts in the current chunk (a new chunk when it is full); the row is counted. */
+  private appendRow(): number {
+    let r = this.count - this.currentStart;
+    if (r >= this.currentRows) {
+      const rows = Math.min(this.maxRows, Math.max(FIRST_ROWS, 2 * this.count));
+      this.current = new Float64Array(rows * this.width);
+      this.chunks.push(this.current);
+      this.starts.push(this.count);
+      this.currentStart = this.count;
+      this.currentRows = rows;
+      r = 0;
+    }
+    this.count++;
+    return r * this.width;
+  }
+
   /** Index of the chunk holding row k (the last chunk starting at or before k). */
   private chunkOf(k: number): number {
     const starts = this.starts;
@@ -106,6 +120,16 @@ export class StateRows {
     }
     return lo;
   }
+}
+
+/**
+ * What writes a row of {@link StateRows} in place: `out[offset]` the time,
+ * `out[offset + 1 .. offset + n]` the state.
+ *
+ * @internal
+ */
+export interface PointSource {
+  readPoint(out: Float64Array, offset: number): void;
 }
 
 /** Rows of the first chunk (fewer when a row is long: a chunk holds at most about 32 KB). */

@@ -15,13 +15,23 @@ import { identityPermutation, packedDoubles, packedDoublesFrom, packedIndices } 
 
 describe('packedDoubles', () => {
   it('holds n entries of +0, as new Float64Array(n) does (the -0 it starts from is not left behind)', () => {
-    for (const n of [0, 1, 2, 7, 100]) {
+    // Both ways of making one: sliced from a template of zeros (up to 4096) and pushed (above).
+    for (const n of [0, 1, 2, 7, 100, 4096, 4097]) {
       const a = packedDoubles(n);
       const reference = new Float64Array(n);
       expect(Array.isArray(a)).toBe(true);
       expect(a.length).toBe(n);
       for (let i = 0; i < n; i++) expect(Object.is(a[i], reference[i])).toBe(true);
     }
+  });
+
+  it('gives each caller an array of its own: what one stores is not in the next one made', () => {
+    const a = packedDoubles(8);
+    a.fill(3.5);
+    const b = packedDoubles(8);
+    expect(b).toEqual(new Array<number>(8).fill(0));
+    b[7] = -2;
+    expect(a[7]).toBe(3.5);
   });
 
   it('takes doubles and integers stored into it and reads them back as stored', () => {
