@@ -2,7 +2,8 @@ import { clonePlain } from '../network/clone-plain.js';
 import type { VoltageSourceDescription } from '../network/description.js';
 import { compileWaveform } from '../waveforms/waveform-spec.js';
 import { describeWaveform } from './describe-waveform.js';
-import type { ElementKind } from './element-kind.js';
+import type { CompiledElement, ElementGroup, ElementKind, InputView } from './element-kind.js';
+import type { StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 
 /**
@@ -28,35 +29,54 @@ export const voltageSourceKind: ElementKind<VoltageSourceDescription> = {
     const q = Array.from(list, (e) => ctx.potential(e.d.minus));
     const b = Array.from(list, (e) => ctx.branchCurrent(e.index));
     const element = Array.from(list, (e) => e.index);
-    return {
-      residual(t, y, inputs, f) {
-        for (let k = 0; k < b.length; k++) {
-          const i = y[b[k]!]!;
-          if (p[k]! >= 0) f[p[k]!]! += i;
-          if (q[k]! >= 0) f[q[k]!]! -= i;
-          f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - inputs.sourceValue(element[k]!, t);
-        }
-      },
-      jacobian(_t, _y, _inputs, J) {
-        for (let k = 0; k < b.length; k++) {
-          J.add(p[k]!, b[k]!, 1);
-          J.add(q[k]!, b[k]!, -1);
-          J.add(b[k]!, p[k]!, 1);
-          J.add(b[k]!, q[k]!, -1);
-        }
-      },
-      mass() {},
-      elements: list.map((e, k) => ({
-        name: e.d.name,
-        index: e.index,
-        role: 'voltage-source' as const,
-        current: (_t: number, y: Float64Array) => y[b[k]!]!,
-        sourcePower: (_t: number, y: Float64Array) => (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * y[b[k]!]!,
-      })),
-    };
+    return new VoltageSourceGroup(p, q, b, element, list.map((e, k) => ({
+      name: e.d.name,
+      index: e.index,
+      role: 'voltage-source' as const,
+      current: (_t: number, y: Float64Array) => y[b[k]!]!,
+      sourcePower: (_t: number, y: Float64Array) => (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * y[b[k]!]!,
+    })));
   },
   listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform, 'V') }],
   waveform: (d) => d.waveform,
   waveformFields: ['waveform'],
   rigidVoltage: () => true,
 };
+
+/**
+ * The compiled voltage sources, f and J as prototype methods: the same
+ * functions in every network compiled, so the network's f calls one target
+ * per kind from run to run (closures per compile were a new target each time).
+ */
+class VoltageSourceGroup implements ElementGroup {
+  constructor(
+    /** Per source: plus and minus potentials (-1: ground), branch current, element index. */
+    private readonly p: readonly number[],
+    private readonly q: readonly number[],
+    private readonly b: readonly number[],
+    private readonly element: readonly number[],
+    readonly elements: readonly CompiledElement[],
+  ) {}
+
+  residual(t: number, y: Float64Array, inputs: InputView, f: Float64Array): void {
+    const { p, q, b, element } = this;
+    for (let k = 0; k < b.length; k++) {
+      const i = y[b[k]!]!;
+      if (p[k]! >= 0) f[p[k]!]! += i;
+      if (q[k]! >= 0) f[q[k]!]! -= i;
+      f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - inputs.sourceValue(element[k]!, t);
+    }
+  }
+
+  jacobian(_t: number, _y: Float64Array, _inputs: InputView, J: StampTarget): void {
+    const { p, q, b } = this;
+    for (let k = 0; k < b.length; k++) {
+      J.add(p[k]!, b[k]!, 1);
+      J.add(q[k]!, b[k]!, -1);
+      J.add(b[k]!, p[k]!, 1);
+      J.add(b[k]!, q[k]!, -1);
+    }
+  }
+
+  mass(): void {}
+}

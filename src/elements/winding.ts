@@ -2,8 +2,9 @@ import { InputError } from '../errors.js';
 import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
 import type { WindingDescription } from '../network/description.js';
 import { packedDoublesFrom } from '../solver/packed-doubles.js';
-import type { ElementKind } from './element-kind.js';
-import { stampBranch } from './stamp-target.js';
+import type { CompiledElement, ElementGroup, ElementKind, InputView } from './element-kind.js';
+import type { TubeLoops } from './tube-kind.js';
+import { stampBranch, type StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 
 /**
@@ -48,33 +49,7 @@ export const windingKind: ElementKind<WindingDescription> = {
       for (let j = 0; j < index.length; j++) s += sign[j]! * y[index[j]!]!;
       return s;
     };
-    return {
-      residual(_t, y, _inputs, f) {
-        for (let k = 0; k < b.length; k++) {
-          const i = y[b[k]!]!;
-          f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - r[k]! * i;
-          if (p[k]! >= 0) f[p[k]!]! -= i;
-          if (q[k]! >= 0) f[q[k]!]! += i;
-          const { index, sign } = loops[k]!;
-          const mmf = sN[k]! * i;
-          for (let j = 0; j < index.length; j++) f[index[j]!]! += sign[j]! * mmf;
-        }
-      },
-      jacobian(_t, _y, _inputs, J) {
-        for (let k = 0; k < b.length; k++) {
-          J.add(b[k]!, b[k]!, -r[k]!);
-          stampBranch(J, p[k]!, q[k]!, b[k]!, 1);
-          const { index, sign } = loops[k]!;
-          for (let j = 0; j < index.length; j++) J.add(index[j]!, b[k]!, sign[j]! * sN[k]!);
-        }
-      },
-      mass(M) {
-        for (let k = 0; k < b.length; k++) {
-          const { index, sign } = loops[k]!;
-          for (let j = 0; j < index.length; j++) M.add(b[k]!, index[j]!, sign[j]! * sN[k]!);
-        }
-      },
-      elements: list.map((e, k) => {
+    return new WindingGroup(p, q, b, r, sN, loops, list.map((e, k) => {
         const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
         const copper = (_t: number, y: Float64Array): number => r[k]! * y[b[k]!]! ** 2;
         return {
@@ -89,8 +64,7 @@ export const windingKind: ElementKind<WindingDescription> = {
             fluxLinkage: (_t: number, y: Float64Array) => sN[k]! * flux(k, y),
           },
         };
-      }),
-    };
+      }));
   },
   listing: (d, network) => [
     { name: 'tube', value: network.tubes[d.tube]!.name },
@@ -101,3 +75,52 @@ export const windingKind: ElementKind<WindingDescription> = {
   rigidVoltage: (d) => d.resistance === 0,
   linkedFlux: (d) => ({ tube: d.tube, turns: d.orientation * d.turns }),
 };
+
+/**
+ * The compiled windings, f, J and M as prototype methods: the same
+ * functions in every network compiled, so the network's f calls one target
+ * per kind from run to run (closures per compile were a new target each time).
+ */
+class WindingGroup implements ElementGroup {
+  constructor(
+    /** Per winding: plus and minus potentials (-1: ground), branch current, resistance, signed turns, loops through its tube. */
+    private readonly p: readonly number[],
+    private readonly q: readonly number[],
+    private readonly b: readonly number[],
+    private readonly r: readonly number[],
+    private readonly sN: readonly number[],
+    private readonly loops: readonly TubeLoops[],
+    readonly elements: readonly CompiledElement[],
+  ) {}
+
+  residual(_t: number, y: Float64Array, _inputs: InputView, f: Float64Array): void {
+    const { p, q, b, r, sN, loops } = this;
+    for (let k = 0; k < b.length; k++) {
+      const i = y[b[k]!]!;
+      f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - r[k]! * i;
+      if (p[k]! >= 0) f[p[k]!]! -= i;
+      if (q[k]! >= 0) f[q[k]!]! += i;
+      const { index, sign } = loops[k]!;
+      const mmf = sN[k]! * i;
+      for (let j = 0; j < index.length; j++) f[index[j]!]! += sign[j]! * mmf;
+    }
+  }
+
+  jacobian(_t: number, _y: Float64Array, _inputs: InputView, J: StampTarget): void {
+    const { p, q, b, r, sN, loops } = this;
+    for (let k = 0; k < b.length; k++) {
+      J.add(b[k]!, b[k]!, -r[k]!);
+      stampBranch(J, p[k]!, q[k]!, b[k]!, 1);
+      const { index, sign } = loops[k]!;
+      for (let j = 0; j < index.length; j++) J.add(index[j]!, b[k]!, sign[j]! * sN[k]!);
+    }
+  }
+
+  mass(M: StampTarget): void {
+    const { b, sN, loops } = this;
+    for (let k = 0; k < b.length; k++) {
+      const { index, sign } = loops[k]!;
+      for (let j = 0; j < index.length; j++) M.add(b[k]!, index[j]!, sign[j]! * sN[k]!);
+    }
+  }
+}

@@ -48,7 +48,8 @@ function finiteWithin(v: Float64Array, bound: number): boolean {
  *
  * Cheap in the common case: when the state y and f(t, y) are finite and
  * moderate (see QUICK_PASS_BOUND) no quantity can be non-finite, and one
- * evaluation of f is all it costs; otherwise every quantity is evaluated
+ * evaluation of f is all it costs (none when the caller hands in f at (t, y),
+ * as a run does at a step's end with the solver's own); otherwise every quantity is evaluated
  * to name the culprit. Quantities a handle does not have (the flux density
  * of a reluctance without an area) are skipped. Must be called with the
  * inputs in force for the state (`compiled.inputs.during`).
@@ -98,15 +99,23 @@ export class FinitenessCheck {
     };
   }
 
-  /** The first non-finite value at (t, y) under the network's inputs in force, or undefined. */
-  check(t: number, y: Float64Array): NonFiniteValue | undefined {
+  /**
+   * The first non-finite value at (t, y) under the network's inputs in force, or undefined.
+   * `rhs`, when given, is f(t, y) under those inputs, evaluated already (the solver's, at a step's end).
+   */
+  check(t: number, y: Float64Array, rhs?: Float64Array): NonFiniteValue | undefined {
     const c = this.c;
     const f = this.f;
     if (finiteWithin(y, QUICK_PASS_BOUND)) {
-      // The inputs in force themselves, not the network's view that forwards to them (the same
-      // values): the elements' residuals then see one kind of inputs from the solver and from here.
-      c.equations.evaluate(t, y, c.inputs.inForce, f);
-      if (finiteWithin(f, QUICK_PASS_BOUND)) return undefined;
+      if (rhs) {
+        if (finiteWithin(rhs, QUICK_PASS_BOUND)) return undefined;
+        f.set(rhs);
+      } else {
+        // The inputs in force themselves, not the network's view that forwards to them (the same
+        // values): the elements' residuals then see one kind of inputs from the solver and from here.
+        c.equations.evaluate(t, y, c.inputs.inForce, f);
+        if (finiteWithin(f, QUICK_PASS_BOUND)) return undefined;
+      }
       this.fresh = true; // f at (t, y) is in hand for the quantities below
     } else {
       this.fresh = false;

@@ -90,7 +90,8 @@ export interface RunSettings extends Omit<ResolvedSolverSettings, 'maxSteps'> {
  * run to run.
  */
 export interface StateCheck {
-  check(t: number, y: Float64Array): NonFiniteValue | undefined;
+  /** `rhs`, when given, is f(t, y) under the inputs in force (the solver's own evaluation at a step's end). */
+  check(t: number, y: Float64Array, rhs?: Float64Array): NonFiniteValue | undefined;
 }
 
 /**
@@ -205,6 +206,8 @@ export class NetworkRun {
   private readonly hand: StepBuffer;
   /** A state about to be checked (and kept, copied into sampleRecord). */
   private readonly scratch: Float64Array;
+  /** f at the state a step ended on, as the integrator evaluated it there (see recordStepEnd). */
+  private readonly endRhs: Float64Array;
   /** A sample interpolated inside a step, about to be projected, checked and kept. */
   private readonly inside: Float64Array;
   /** The sample recorded at the last (re)start, whose index-2 values the next step repairs. */
@@ -242,6 +245,7 @@ export class NetworkRun {
     this.index2 = compiled.index2;
     this.scratch = new Float64Array(compiled.layout.size);
     this.inside = new Float64Array(compiled.layout.size);
+    this.endRhs = new Float64Array(compiled.layout.size);
     this.hand = new StepBuffer(compiled.layout.size);
     this.sampleRecord = new SampleRecord(compiled.layout.size);
     this.stepRecord = new StepRecord(compiled.layout.size, this.sampleRecord);
@@ -496,9 +500,7 @@ export class NetworkRun {
         }
         const endIsSample = nextSample < samples.length && samples[nextSample] === this.t;
         if (endIsSample) nextSample++;
-        if (record.steps || endIsSample) {
-          if (!this.pushChecked(this.t, this.integ.readState(this.scratch), step, kept)) return this.statusCur;
-        } else if (record.interpolants && !this.checked(this.t, this.integ.readState(this.scratch), step, kept)) {
+        if ((record.steps || endIsSample || record.interpolants) && !this.recordStepEnd(record.steps || endIsSample, step, kept)) {
           return this.statusCur;
         }
         this.endState = undefined;
@@ -827,6 +829,20 @@ export class NetworkRun {
     this.sampleRecord.push(t, this.intervals.length - 1, y);
   }
 
+  /**
+   * Check the state the step just taken ended on, and keep it as a sample when `keep`; false when
+   * the check stopped the run. The integrator evaluated f there itself, under the inputs in force
+   * now (the run changes them only between steps), when it accepted the step: the check reads that
+   * evaluation instead of making it again, the same function at the same time, state and inputs.
+   */
+  private recordStepEnd(keep: boolean, step: RecordedStep, kept: { steps: number; samples: number }): boolean {
+    const y = this.integ.readState(this.scratch);
+    const rhs = this.integ.readRhsAtState(this.endRhs) ? this.endRhs : undefined;
+    if (!this.checked(this.t, y, step, kept, rhs)) return false;
+    if (keep) this.pushSample(this.t, y);
+    return true;
+  }
+
   /** Record a sample after the finiteness check; false when the check stopped the run. */
   private pushChecked(t: number, y: Float64Array, step: RecordedStep, kept: { steps: number; samples: number }): boolean {
     if (!this.checked(t, y, step, kept)) return false;
@@ -834,8 +850,8 @@ export class NetworkRun {
     return true;
   }
 
-  /** The finiteness check of a state about to be recorded; on a hit the run stops (false). */
-  private checked(t: number, y: Float64Array, step: RecordedStep, kept: { steps: number; samples: number }): boolean {
+  /** The finiteness check of a state about to be recorded (`rhs`: f there, when known); on a hit the run stops (false). */
+  private checked(t: number, y: Float64Array, step: RecordedStep, kept: { steps: number; samples: number }, rhs?: Float64Array): boolean {
     let hit: NonFiniteValue | undefined;
     for (let i = 0; i < y.length && !hit; i++) {
       if (!Number.isFinite(y[i]!)) hit = { quantity: 'state', name: this.compiled.layout.labels[i] ?? `unknown ${i}`, value: y[i]! };
@@ -848,7 +864,7 @@ export class NetworkRun {
         const before = inputs.inForce;
         inputs.use(this.live);
         try {
-          hit = check.check(t, y);
+          hit = check.check(t, y, rhs);
         } finally {
           inputs.use(before);
         }

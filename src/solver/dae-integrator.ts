@@ -246,6 +246,14 @@ export interface DaeIntegrator {
   copyInterpolantInto(yOld: Float64Array, q: Float64Array): DaeStepInterpolant | undefined;
   /** Copy the present state into `out` (length n) without allocating; returns `out`. */
   readState(out: Float64Array): Float64Array;
+  /**
+   * Copy f(t, y) at the present state into `out` (length n) when the last
+   * `step` evaluated it there (the problem's own f, as given: no dependent
+   * rows recombined) and nothing has moved the state since; returns whether
+   * it did. A caller that needs f at the state a step ended on (a check of
+   * what it records) then evaluates it once, not twice.
+   */
+  readRhsAtState(out: Float64Array): boolean;
 }
 
 /**
@@ -429,6 +437,8 @@ class RadauIntegrator implements DaeIntegrator {
   private tCur: number;
   private yCur: Float64Array;
   private fCur: Float64Array;
+  /** Whether fCur is the problem's own f at (tCur, yCur), evaluated by the last step (see readRhsAtState). */
+  private rhsAtState = false;
   private hCur = 0;
   private hAcc = NaN;
   private errAcc = NaN;
@@ -660,6 +670,7 @@ class RadauIntegrator implements DaeIntegrator {
     if (this.statusCur === 'terminal-event') this.statusCur = this.tCur >= this.p.tEnd ? 'success' : 'running';
     if (this.statusCur !== 'running') return { status: this.statusCur, events: [] } as DaeStepResult;
     if (tStop !== undefined && tStop <= this.tCur) return { status: 'success', events: [] };
+    this.rhsAtState = false;
     try {
       return this.attemptStep(tStop ?? this.p.tEnd);
     } catch (e) {
@@ -687,6 +698,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   restart(y?: ArrayLike<number>, options: RestartOptions = {}): 'running' | DaeStatus {
+    this.rhsAtState = false;
     if (y !== undefined) {
       if (y.length !== this.n) throw new InputError('bad-initial-state', `restart: y has ${y.length} entries, expected ${this.n}`, ['y']);
       for (let i = 0; i < this.n; i++) {
@@ -837,6 +849,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   restore(s: DaeIntegratorSnapshot): void {
+    this.rhsAtState = false;
     if (s.y.length !== this.n || s.f.length !== this.n) {
       throw new InputError('bad-snapshot', `snapshot has ${s.y.length} unknowns; this integrator has ${this.n}`, ['snapshot']);
     }
@@ -906,6 +919,12 @@ class RadauIntegrator implements DaeIntegrator {
     out[offset] = this.tCur;
     const y = this.yCur;
     for (let i = 0; i < this.n; i++) out[offset + 1 + i] = y[i]!;
+  }
+
+  readRhsAtState(out: Float64Array): boolean {
+    if (!this.rhsAtState) return false;
+    out.set(this.fCur);
+    return true;
   }
 
   interpolate(t: number, out?: Float64Array): Float64Array {
@@ -1451,8 +1470,11 @@ class RadauIntegrator implements DaeIntegrator {
     this.extrapolate = true;
     this.slopeStart = false;
     this.cheapRestartUnproven = false;
+    let rhsAtState = false;
     try {
       this.callRhs(tNew, y, this.fCur);
+      // Recombined rows are not the problem's f; a breakpoint's re-initialisation may move y.
+      rhsAtState = !p.massCompression && !onBreakpoint;
     } catch (e) {
       // The step itself is good: keep it; the next step() reports the error.
       if (e instanceof UserCodeError) this.pendingError = e;
@@ -1480,6 +1502,8 @@ class RadauIntegrator implements DaeIntegrator {
       return jumpFrom ? { status: 'terminal-event', events, jumpFrom } : { status: 'terminal-event', events };
     }
     if (jumpFrom) return { status: 'accepted', events, jumpFrom };
+    // Only a step that ends where f was evaluated, with no event located in it, hands f on.
+    if (events.length === 0) this.rhsAtState = rhsAtState;
     return events === NO_EVENTS ? ACCEPTED : { status: 'accepted', events };
   }
 
