@@ -13,7 +13,7 @@ import {
   TI,
 } from './radau-tableau.js';
 import { packedDoubles } from './packed-doubles.js';
-import { keepLargest } from './weighted-norm.js';
+import { ComponentList } from './component-list.js';
 
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
@@ -141,7 +141,7 @@ export interface CollocationStep {
  * @internal
  * @example
  * ```ts
- * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: tNew, faccon }, createNewtonOutcome());
+ * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: tNew, faccon }, createNewtonOutcome(n));
  * if (!outcome.converged) h *= outcome.shrink;
  * ```
  */
@@ -155,15 +155,24 @@ export interface NewtonOutcome {
   shrink: number;
   /** radau5's FACCON after the call: theta/(1 - theta) of the last rate estimate, carried to the next step. */
   faccon: number;
-  /** Components with non-finite f at a stage (failure only). */
-  nonFinite: number[] | undefined;
-  /** Components with the largest increments (failure only). */
-  components: number[];
+  /** Whether the iteration failed on a non-finite f at a stage (its components are then in `nonFinite`). */
+  nonFiniteF: boolean;
+  /**
+   * Components with non-finite f at a stage, ascending: written by such a
+   * failure only, kept until the next (read only if the run finally fails).
+   */
+  readonly nonFinite: ComponentList;
+  /**
+   * Components with the largest increments (or the non-finite ones of an
+   * overflowed increment): written by any other failure only, kept until
+   * the next.
+   */
+  readonly components: ComponentList;
 }
 
-/** @internal @example `const outcome = createNewtonOutcome();` */
-export function createNewtonOutcome(): NewtonOutcome {
-  return new NewtonOutcomeRecord();
+/** @internal @example `const outcome = createNewtonOutcome(n);` (n unknowns) */
+export function createNewtonOutcome(n: number): NewtonOutcome {
+  return new NewtonOutcomeRecord(n);
 }
 
 /** A class, not a literal: a literal made once per integrator has its field types widened at its second evaluation (see the normalised problem). */
@@ -176,20 +185,28 @@ class NewtonOutcomeRecord implements NewtonOutcome {
   theta = NaN;
   shrink = NaN;
   faccon = NaN;
-  nonFinite: number[] | undefined = undefined;
-  components: number[] = [];
+  nonFiniteF = false;
+  readonly nonFinite: ComponentList;
+  readonly components: ComponentList;
+
+  constructor(n: number) {
+    this.nonFinite = new ComponentList(n);
+    this.components = new ComponentList(n);
+  }
 }
 
-const NO_COMPONENTS: number[] = [];
-
-function finish(out: NewtonOutcome, converged: boolean, iterations: number, theta: number, shrink: number, faccon: number, components: number[], nonFinite?: number[]): NewtonOutcome {
+/**
+ * The outcome's fields, every argument given: with a default parameter this no longer fitted
+ * TurboFan's inlining budget of the kernel when a network's f is inlined into it, and its numbers
+ * were boxed on the heap at each call (measured: 16 bytes per Newton iteration of the flux walk).
+ */
+function finish(out: NewtonOutcome, converged: boolean, iterations: number, theta: number, shrink: number, faccon: number, nonFiniteF: boolean): NewtonOutcome {
   out.converged = converged;
   out.iterations = iterations;
   out.theta = theta;
   out.shrink = shrink;
   out.faccon = faccon;
-  out.components = components;
-  out.nonFinite = nonFinite;
+  out.nonFiniteF = nonFiniteF;
   return out;
 }
 
@@ -212,7 +229,7 @@ function finish(out: NewtonOutcome, converged: boolean, iterations: number, thet
  * @internal
  * @example
  * ```ts
- * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: t + h, faccon }, createNewtonOutcome());
+ * const outcome = solveCollocation(sys, work, y, scale, { t, h, tLastStage: t + h, faccon }, createNewtonOutcome(n));
  * ```
  */
 export function solveCollocation(
@@ -299,7 +316,8 @@ export function solveCollocation(
     }
     if (probe !== probe) {
       if (!facconPowered) faccon = faccon ** 0.8;
-      return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, NO_COMPONENTS, nonFiniteStages(fz, n));
+      nonFiniteStages(fz, n, out.nonFinite);
+      return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, true);
     }
     sys.luReal.solve(work.dwReal);
     sys.luComplex.solve(work.dwRe, work.dwIm);
@@ -316,7 +334,8 @@ export function solveCollocation(
       // The increment overflowed: name its non-finite components (or, when every entry is finite
       // and only the sum of squares overflowed, the largest), so a failure can be diagnosed.
       if (!facconPowered) faccon = faccon ** 0.8;
-      return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, overflowedIncrement(dw, n, scale));
+      overflowedIncrement(dw, n, scale, out.components);
+      return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, false);
     }
     if (newt > 1 && newt < nit) {
       const thq = dyno / dynold;
@@ -330,11 +349,13 @@ export function solveCollocation(
           // Cannot converge within nit iterations: shrink h by radau5's estimate.
           const qnewt = Math.max(1e-4, Math.min(20, dyth));
           const shrink = 0.8 * qnewt ** (-1 / (4 + nit - 1 - newt));
-          return finish(out, false, newt, theta, shrink, faccon, worstIncrement(dw, n, scale));
+          worstIncrement(dw, n, scale, out.components);
+          return finish(out, false, newt, theta, shrink, faccon, false);
         }
       } else {
         if (!facconPowered) faccon = faccon ** 0.8;
-        return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, worstIncrement(dw, n, scale));
+        worstIncrement(dw, n, scale, out.components);
+        return finish(out, false, newt, theta, NEWTON_FAILURE_SHRINK, faccon, false);
       }
     }
     dynold = Math.max(dyno, UROUND);
@@ -352,10 +373,11 @@ export function solveCollocation(
       faccon = faccon ** 0.8;
       facconPowered = true;
     }
-    if (facconPowered && faccon * dyno <= fnewt) return finish(out, true, newt, theta, 1, faccon, NO_COMPONENTS);
+    if (facconPowered && faccon * dyno <= fnewt) return finish(out, true, newt, theta, 1, faccon, false);
   }
   if (!facconPowered) faccon = faccon ** 0.8;
-  return finish(out, false, nit, theta, NEWTON_FAILURE_SHRINK, faccon, worstIncrement(dw, n, scale));
+  worstIncrement(dw, n, scale, out.components);
+  return finish(out, false, nit, theta, NEWTON_FAILURE_SHRINK, faccon, false);
 }
 
 /** Relative margin that covers the rounding of the bounds and products below (a few ulp each). */
@@ -400,29 +422,28 @@ export function cannotConverge(faccon: number, dyno: number, theta: number, k: n
   return (faccon * dyno * theta ** k) / fnewt >= 1;
 }
 
-/** Components (mod n) with a non-finite stage value of f, ascending. */
-function nonFiniteStages(fz: Float64Array, n: number): number[] {
-  const bad = new Set<number>();
-  for (let k = 0; k < 3 * n; k++) if (!Number.isFinite(fz[k]!)) bad.add(k % n);
-  return [...bad].sort((a, b) => a - b);
-}
-
-/** Components whose Newton increment is NaN or infinite; the largest ones when all are finite. */
-function overflowedIncrement(dw: Float64Array, n: number, scale: Float64Array): number[] {
-  const bad: number[] = [];
+/** Components with a non-finite stage value of f, ascending, into `out`. */
+function nonFiniteStages(fz: Float64Array, n: number, out: ComponentList): void {
+  out.clear();
   for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(dw[i]!) || !Number.isFinite(dw[n + i]!) || !Number.isFinite(dw[2 * n + i]!)) bad.push(i);
+    if (!Number.isFinite(fz[i]!) || !Number.isFinite(fz[n + i]!) || !Number.isFinite(fz[2 * n + i]!)) out.push(i);
   }
-  return bad.length ? bad : worstIncrement(dw, n, scale);
 }
 
-/** Components with the largest scaled increment over the three stages. */
-function worstIncrement(dw: Float64Array, n: number, scale: Float64Array): number[] {
-  const top: number[] = [];
-  const size: number[] = [];
+/** Components whose Newton increment is NaN or infinite, into `out`; the largest ones when all are finite. */
+function overflowedIncrement(dw: Float64Array, n: number, scale: Float64Array, out: ComponentList): void {
+  out.clear();
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(dw[i]!) || !Number.isFinite(dw[n + i]!) || !Number.isFinite(dw[2 * n + i]!)) out.push(i);
+  }
+  if (out.length === 0) worstIncrement(dw, n, scale, out);
+}
+
+/** Components with the largest scaled increment over the three stages, into `out` (three at most). */
+function worstIncrement(dw: Float64Array, n: number, scale: Float64Array, out: ComponentList): void {
+  out.clear();
   for (let i = 0; i < n; i++) {
     const m = Math.max(Math.abs(dw[i]!), Math.abs(dw[n + i]!), Math.abs(dw[2 * n + i]!));
-    keepLargest(top, size, 3, i, Math.abs(m / scale[i]!));
+    out.keepLargest(3, i, Math.abs(m / scale[i]!));
   }
-  return top;
 }

@@ -1,6 +1,7 @@
 import { InputError } from '../errors.js';
 import { createCollocationWork, createNewtonOutcome, NEWTON_FAILURE_SHRINK, solveCollocation, type CollocationStep, type CollocationSystem, type CollocationWork, type NewtonOutcome } from './collocation-newton.js';
 import { evaluateCollocation } from './collocation-polynomial.js';
+import { ComponentList } from './component-list.js';
 import {
   consistentDerivative,
   consistentDerivativeWith,
@@ -32,14 +33,12 @@ import { createSparseConsistency, type SparseConsistency } from './sparse-consis
 import { createSparseIterationSystem } from './sparse-iteration-system.js';
 import { errorQuotient, nextStepSize, type AcceptedStep } from './step-size-controller.js';
 import type { DaeEventRecord, DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
-import { allFinite, errorScale, largestScaled, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
+import { allFinite, errorScale, largestScaled, largestScaledInto, nonFiniteIndices, weightedRmsNorm } from './weighted-norm.js';
 
 /** The events of a step without events (shared, frozen: steps without events allocate no array). */
 const NO_EVENTS: readonly DaeEventRecord[] = Object.freeze([]);
 /** The outcome of a plain accepted step (shared, frozen: such a step allocates no result). */
 const ACCEPTED: DaeStepResult = Object.freeze({ status: 'accepted', events: NO_EVENTS });
-/** No components to name (shared; never written). */
-const NO_COMPONENTS: number[] = [];
 
 /**
  * When atol does not follow rtol it is mapped as radau5 maps it at this rtol
@@ -516,7 +515,9 @@ class RadauIntegrator implements DaeIntegrator {
   // Work buffers (allocated once).
   private readonly work: CollocationWork;
   private readonly errorWork: ErrorEstimateWork;
-  private readonly newtonOutcome: NewtonOutcome = createNewtonOutcome();
+  private readonly newtonOutcome: NewtonOutcome;
+  /** The largest components of the last rejected step's error (see {@link ComponentList}). */
+  private readonly errorComponents: ComponentList;
   /**
    * The attempt's numbers for the Newton kernel, the error estimate, the start values and the
    * acceptance (rewritten per attempt: numbers passed as arguments are boxed per call).
@@ -565,6 +566,8 @@ class RadauIntegrator implements DaeIntegrator {
     this.luComplex = this.system.luComplex;
     this.work = createCollocationWork(n, take);
     this.errorWork = new ErrorEstimateArrays(n, take);
+    this.newtonOutcome = createNewtonOutcome(n);
+    this.errorComponents = new ComponentList(n);
     this.collocation = new IntegratorCalls(this, n, !p.mass, this.luReal, this.luComplex, this.fnewt, this.statsCur);
     this.scale = take(n);
     this.ySaved = take(n);
@@ -1241,9 +1244,13 @@ class RadauIntegrator implements DaeIntegrator {
     let rejected = false;
     let singularCount = 0;
     let newtonFailCount = 0;
-    let lastNonFinite: number[] | undefined;
-    let lastNewtonComponents: number[] = NO_COMPONENTS;
-    let lastErrorComponents: number[] = NO_COMPONENTS;
+    // What a failure of this step would name: whether the last Newton failure was a non-finite f, and
+    // the components of the last Newton failure and of the last rejection (kept in place, copied on failure).
+    let lastNonFinite = false;
+    const newtonComponents = this.newtonOutcome.components;
+    const errorComponents = this.errorComponents;
+    newtonComponents.clear();
+    errorComponents.clear();
     const hMin = 10 * UROUND * Math.max(Math.abs(t), 1e-10 * (p.tEnd - p.t0));
 
     for (;;) {
@@ -1255,7 +1262,7 @@ class RadauIntegrator implements DaeIntegrator {
         return this.fail('time-budget', `stopped after the wall-time budget of ${p.maxWallTimeMs} ms at t = ${t}`, []);
       }
       let h = Math.min(this.hCur, p.maxStep);
-      if (!(h >= hMin)) return this.failTooSmall(h, t, lastNonFinite, lastErrorComponents.length ? lastErrorComponents : lastNewtonComponents);
+      if (!(h >= hMin)) return this.failTooSmall(h, t, lastNonFinite, errorComponents.length ? errorComponents : newtonComponents);
       // Land exactly on the target (stretching the step a little rather than leaving a sliver).
       // maxStep may be exceeded by round-off (1e-8 relative): steps of exactly maxStep that
       // should add up to a breakpoint would otherwise leave a sliver of a few ulp.
@@ -1306,13 +1313,11 @@ class RadauIntegrator implements DaeIntegrator {
       if (!newton.converged) {
         this.statsCur.newtonFailures++;
         this.luH = NaN;
-        if (newton.nonFinite) {
-          lastNonFinite = newton.nonFinite;
+        lastNonFinite = newton.nonFiniteF;
+        if (lastNonFinite) {
           this.hCur = h * NEWTON_FAILURE_SHRINK;
           continue;
         }
-        lastNonFinite = undefined;
-        lastNewtonComponents = newton.components;
         if (!this.jacCurrent) {
           // Refresh the Jacobian first, keep h.
           this.ensureJacobian();
@@ -1330,10 +1335,11 @@ class RadauIntegrator implements DaeIntegrator {
         }
         if (newtonFailCount >= MAX_NEWTON_FAILURES) {
           this.hCur = h;
+          const components = newtonComponents.toArray();
           return this.fail(
             'newton-failure',
-            `the Newton iteration failed ${newtonFailCount} times in a row at t = ${t} with a fresh Jacobian, last h = ${h.toExponential(3)} (components ${newton.components.join(', ')}); check the Jacobian against finiteDifferenceJacobian, the model's smoothness, or tolerances too tight for round-off`,
-            newton.components,
+            `the Newton iteration failed ${newtonFailCount} times in a row at t = ${t} with a fresh Jacobian, last h = ${h.toExponential(3)} (components ${components.join(', ')}); check the Jacobian against finiteDifferenceJacobian, the model's smoothness, or tolerances too tight for round-off`,
+            components,
           );
         }
         // First step after a (re)start with a contracting Newton predicted too slow: an algebraic unknown
@@ -1341,13 +1347,14 @@ class RadauIntegrator implements DaeIntegrator {
         this.hCur = h * (this.first && newton.theta < 0.5 ? Math.min(newton.shrink, FIRST_STEP_REJECT_SHRINK) : newton.shrink);
         continue;
       }
-      lastNonFinite = undefined;
+      lastNonFinite = false;
 
-      const err = radauErrorEstimate(this.collocation, this.luReal, this.errorWork, at, y, this.fCur, z, scale, this.first || rejected);
+      radauErrorEstimate(this.collocation, this.luReal, this.errorWork, at, y, this.fCur, z, scale, this.first || rejected);
+      const err = at.err;
       if (err >= 1) {
         // Rejected.
         this.statsCur.rejectedSteps++;
-        lastErrorComponents = largestScaled(this.errorWork.err, scale);
+        largestScaledInto(this.errorWork.err, scale, 3, errorComponents);
         rejected = true;
         this.hCur = this.first ? h * FIRST_STEP_REJECT_SHRINK : h / errorQuotient(err, newton.iterations);
         this.luH = NaN;
@@ -1355,18 +1362,18 @@ class RadauIntegrator implements DaeIntegrator {
         continue;
       }
       at.tNew = tNew;
-      at.err = err;
       return this.accept(rejected, newton.iterations, landed && isBreakpoint && tNew === tTarget);
     }
   }
 
   /** Status for a step size below the round-off limit: non-finite f, or step-size underflow naming components. */
-  private failTooSmall(h: number, t: number, lastNonFinite: number[] | undefined, components: number[]): DaeStepResult {
+  private failTooSmall(h: number, t: number, lastNonFinite: boolean, components: ComponentList): DaeStepResult {
     if (lastNonFinite) {
-      return this.fail('non-finite', `f returned NaN or Infinity near t = ${t} in components ${lastNonFinite.join(', ')} for every step tried; check the model near this time`, lastNonFinite);
+      const bad = this.newtonOutcome.nonFinite.toArray();
+      return this.fail('non-finite', `f returned NaN or Infinity near t = ${t} in components ${bad.join(', ')} for every step tried; check the model near this time`, bad);
     }
     // Without an error estimate, name the components that change fastest.
-    const comps = components.length ? components : largestScaled(this.fCur, errorScale(this.yCur, this.rtolT, this.atolT, this.scale));
+    const comps = components.length ? components.toArray() : largestScaled(this.fCur, errorScale(this.yCur, this.rtolT, this.atolT, this.scale));
     return this.fail(
       'step-size-underflow',
       `step size ${h.toExponential(3)} fell below the round-off limit at t = ${t} (components ${comps.join(', ')}); look for a singularity in f (a solution that blows up), an inconsistent or higher-index model, or tolerances too tight`,

@@ -50,30 +50,32 @@ export class ErrorEstimateArrays implements ErrorEstimateWork {
  * real iteration matrix already factored in `luReal`. When `refine` is true
  * (first step, or after a rejection) and ||err|| >= 1, the estimate is
  * recomputed once with f(t, y + err), which filters the stiff components
- * (radau5). Returns ||err|| in the weighted RMS norm, at least 1e-10 and 1e10
- * for a non-finite value; the error vector is left in `work.err`.
+ * (radau5). Writes ||err|| in the weighted RMS norm, at least 1e-10 and 1e10
+ * for a non-finite value, into `at.err`; the error vector is left in `work.err`.
  *
  * Shapes: y, f0 = f(t, y), scale (n); z (3n), stage k at [k n, k n + n).
- * The step's t and h are read from `at` (no boxed numbers per call).
+ * The step's t and h are read from `at`, and the norm written there, not
+ * returned: numbers passed to, or returned from, a call that is not inlined
+ * are boxed on the heap.
  *
  * @internal
  * @example
  * ```ts
- * const err = radauErrorEstimate(sys, luReal, work, at, y, f0, z, scale, first || rejected);
- * if (err >= 1) reject();
+ * radauErrorEstimate(sys, luReal, work, at, y, f0, z, scale, first || rejected);
+ * if (at.err >= 1) reject();
  * ```
  */
 export function radauErrorEstimate(
   sys: Pick<CollocationSystem, 'rhs' | 'multiplyMass'>,
   luReal: RealLinearSolver,
   work: ErrorEstimateWork,
-  at: Pick<CollocationStep, 't' | 'h'>,
+  at: Pick<CollocationStep, 't' | 'h'> & { err: number },
   y: Float64Array,
   f0: Float64Array,
   z: number[],
   scale: Float64Array,
   refine: boolean,
-): number {
+): void {
   const n = y.length;
   const t = at.t;
   const h = at.h;
@@ -94,5 +96,5 @@ export function radauErrorEstimate(
     luReal.solve(errv);
     err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
   }
-  return Number.isFinite(err) ? err : 1e10;
+  at.err = Number.isFinite(err) ? err : 1e10;
 }

@@ -1,3 +1,5 @@
+import { ComponentList } from './component-list.js';
+
 /**
  * The one weighted RMS norm used everywhere in the solver (Hairer and
  * Wanner, Solving ODEs I, sect. II.4, eq. 4.11; radau5):
@@ -26,45 +28,24 @@ export function errorScale(y: Float64Array, rtol: Float64Array, atol: Float64Arr
 }
 
 /**
- * Indices of the `count` entries of |v_i / scale_i| that are largest, largest first.
+ * Indices of the `count` entries of |v_i / scale_i| that are largest, largest first
+ * (ties in index order, NaN and zero left out: {@link ComponentList.keepLargest}).
  *
  * @internal
  */
 export function largestScaled(v: Float64Array, scale: Float64Array | undefined, count = 3): number[] {
-  const top: number[] = [];
-  const size: number[] = [];
-  for (let i = 0; i < v.length; i++) keepLargest(top, size, count, i, Math.abs(v[i]! / (scale ? scale[i]! : 1)));
-  return top;
+  return largestScaledInto(v, scale, count, new ComponentList(count)).toArray();
 }
 
 /**
- * Selection of the `count` largest: insert index i with magnitude a into
- * `top` (indices, largest first; `size` their magnitudes) when it ranks,
- * after every entry at least as large, so ties keep index order as a stable
- * descending sort would (what an earlier version did, sorting every index:
- * this allocates no more than the answer). NaN and zero never rank.
+ * {@link largestScaled} into a list of the caller's (cleared first), which is returned.
  *
  * @internal
  */
-export function keepLargest(top: number[], size: number[], count: number, i: number, a: number): void {
-  if (!(a > 0)) return;
-  let p = top.length;
-  while (p > 0 && size[p - 1]! < a) p--;
-  if (p >= count) return;
-  // Shift the smaller entries down by hand (splice allocates the array of removed entries per call).
-  let q = top.length;
-  if (q < count) {
-    top.push(i);
-    size.push(a);
-  } else {
-    q = count - 1;
-  }
-  for (; q > p; q--) {
-    top[q] = top[q - 1]!;
-    size[q] = size[q - 1]!;
-  }
-  top[p] = i;
-  size[p] = a;
+export function largestScaledInto(v: Float64Array, scale: Float64Array | undefined, count: number, out: ComponentList): ComponentList {
+  out.clear();
+  for (let i = 0; i < v.length; i++) out.keepLargest(count, i, Math.abs(v[i]! / (scale ? scale[i]! : 1)));
+  return out;
 }
 
 /**

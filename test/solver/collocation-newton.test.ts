@@ -41,7 +41,7 @@ describe('solveCollocation (one Radau IIA step as a pure function)', () => {
       const work = createCollocationWork(n);
       work.z.fill(0);
       const y = Float64Array.of(1);
-      const out = solveCollocation(sys, work, y, Float64Array.of(1e-12), { t: 0, h, tLastStage: h, faccon: 1 }, createNewtonOutcome());
+      const out = solveCollocation(sys, work, y, Float64Array.of(1e-12), { t: 0, h, tLastStage: h, faccon: 1 }, createNewtonOutcome(n));
       expect(out.converged).toBe(true);
       // Linear problem, exact Jacobian: one iteration solves it, the second confirms.
       expect(out.iterations).toBeLessThanOrEqual(2);

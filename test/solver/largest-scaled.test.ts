@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { largestScaled } from '../../src/solver/weighted-norm.js';
+import { ComponentList } from '../../src/solver/component-list.js';
+import { largestScaled, largestScaledInto } from '../../src/solver/weighted-norm.js';
 import { Float64Chunks } from '../../src/solver/float64-chunks.js';
 
 /**
@@ -30,6 +31,38 @@ describe('largestScaled', () => {
       }),
       { numRuns: 2000 },
     );
+  });
+});
+
+describe('ComponentList', () => {
+  // The integrator records a failure's components into one list per run, rewritten at every failed
+  // Newton iteration or rejected step: a list reused after any earlier selections must name exactly
+  // what a fresh selection (the stable sort above) names.
+  it('a reused list selects as a stable sort does, whatever it held before', () => {
+    const entry = fc.oneof(fc.double(), fc.constantFrom(0, 1, -1, 2, Infinity, Number.NaN));
+    const vectors = fc.array(fc.array(entry, { minLength: 1, maxLength: 12 }), { minLength: 1, maxLength: 4 });
+    fc.assert(
+      fc.property(vectors, fc.integer({ min: 1, max: 4 }), (vs, count) => {
+        const list = new ComponentList(12);
+        for (const values of vs) {
+          const v = Float64Array.from(values);
+          const scale = new Float64Array(v.length).fill(1);
+          expect(largestScaledInto(v, scale, count, list).toArray()).toEqual(bySort(v, scale, count));
+        }
+      }),
+      { numRuns: 1000 },
+    );
+  });
+
+  it('push appends after clear, and toArray copies', () => {
+    const list = new ComponentList(4);
+    list.push(3);
+    list.push(1);
+    const named = list.toArray();
+    list.clear();
+    list.push(2);
+    expect(named).toEqual([3, 1]);
+    expect(list.toArray()).toEqual([2]);
   });
 });
 
