@@ -422,20 +422,17 @@ export function cannotConverge(faccon: number, dyno: number, theta: number, k: n
   return (faccon * dyno * theta ** k) / fnewt >= 1;
 }
 
-/** Components with a non-finite stage value of f, ascending, into `out`. */
-function nonFiniteStages(fz: Float64Array, n: number, out: ComponentList): void {
+/** Components with a non-finite value at any of the three stages of `v` (3n: f, or a Newton increment), ascending, into `out`. */
+function nonFiniteStages(v: Float64Array, n: number, out: ComponentList): void {
   out.clear();
   for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(fz[i]!) || !Number.isFinite(fz[n + i]!) || !Number.isFinite(fz[2 * n + i]!)) out.push(i);
+    if (!Number.isFinite(v[i]!) || !Number.isFinite(v[n + i]!) || !Number.isFinite(v[2 * n + i]!)) out.push(i);
   }
 }
 
 /** Components whose Newton increment is NaN or infinite, into `out`; the largest ones when all are finite. */
 function overflowedIncrement(dw: Float64Array, n: number, scale: Float64Array, out: ComponentList): void {
-  out.clear();
-  for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(dw[i]!) || !Number.isFinite(dw[n + i]!) || !Number.isFinite(dw[2 * n + i]!)) out.push(i);
-  }
+  nonFiniteStages(dw, n, out);
   if (out.length === 0) worstIncrement(dw, n, scale, out);
 }
 
