@@ -1,6 +1,8 @@
 import { requireFinite, requirePositive } from '../network/argument-checks.js';
 import type { CapacitorDescription } from '../network/description.js';
-import type { ElementKind } from './element-kind.js';
+import { packedDoublesFrom } from '../solver/packed-doubles.js';
+import type { CompiledElement, ElementGroup, ElementKind, InputView, RateReader } from './element-kind.js';
+import type { StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 
 /**
@@ -23,37 +25,26 @@ export const capacitorKind: ElementKind<CapacitorDescription> = {
     return { kind: 'capacitor', name: d.name, plus: d.plus, minus: d.minus, capacitance, initialVoltage };
   },
   compile(list, ctx) {
-    return {
-      residual() {},
-      jacobian() {},
-      mass(M) {
-        for (const { d } of list) {
-          const p = ctx.potential(d.plus);
-          const q = ctx.potential(d.minus);
-          M.add(p, p, d.capacitance);
-          M.add(p, q, -d.capacitance);
-          M.add(q, p, -d.capacitance);
-          M.add(q, q, d.capacitance);
-        }
-      },
-      elements: list.map(({ d, index }) => {
-        const p = ctx.potential(d.plus);
-        const q = ctx.potential(d.minus);
-        const voltage = (y: Float64Array): number => stateValue(y, p) - stateValue(y, q);
-        return {
-          name: d.name,
-          index,
-          role: 'capacitive' as const,
-          // i = C dv/dt, read from the state through M y' = f.
-          current: (t, y, inputs, rates) =>
-            rates.rate(`capacitor:${index}`, (u) => {
-              if (p >= 0) u[p] = d.capacitance;
-              if (q >= 0) u[q] = -d.capacitance;
-            }, t, y, inputs),
-          storedEnergy: (y: Float64Array) => 0.5 * d.capacitance * voltage(y) ** 2,
-        };
-      }),
-    };
+    const p = Array.from(list, (e) => ctx.potential(e.d.plus));
+    const q = Array.from(list, (e) => ctx.potential(e.d.minus));
+    const capacitance = packedDoublesFrom(list, (e) => e.d.capacitance);
+    return new CapacitorGroup(p, q, capacitance, list.map(({ d, index }, k) => {
+      const pk = p[k]!;
+      const qk = q[k]!;
+      const voltage = (y: Float64Array): number => stateValue(y, pk) - stateValue(y, qk);
+      return {
+        name: d.name,
+        index,
+        role: 'capacitive' as const,
+        // i = C dv/dt, read from the state through M y' = f.
+        current: (t: number, y: Float64Array, inputs: InputView, rates: RateReader) =>
+          rates.rate(`capacitor:${index}`, (u) => {
+            if (pk >= 0) u[pk] = d.capacitance;
+            if (qk >= 0) u[qk] = -d.capacitance;
+          }, t, y, inputs),
+        storedEnergy: (y: Float64Array) => 0.5 * d.capacitance * voltage(y) ** 2,
+      };
+    }));
   },
   listing: (d) => [
     { name: 'capacitance', value: d.capacitance, unit: 'F' },
@@ -61,3 +52,33 @@ export const capacitorKind: ElementKind<CapacitorDescription> = {
   ],
   initialVoltage: (d) => d.initialVoltage,
 };
+
+/**
+ * The compiled capacitors: no terms of f or J, the mass matrix as a
+ * prototype method (the same functions in every network compiled; see the
+ * voltage source's group).
+ */
+class CapacitorGroup implements ElementGroup {
+  constructor(
+    /** Per capacitor: plus and minus potentials (-1: ground), capacitance. */
+    private readonly p: readonly number[],
+    private readonly q: readonly number[],
+    private readonly capacitance: readonly number[],
+    readonly elements: readonly CompiledElement[],
+  ) {}
+
+  residual(): void {}
+
+  jacobian(): void {}
+
+  mass(M: StampTarget): void {
+    const { p, q, capacitance } = this;
+    for (let k = 0; k < p.length; k++) {
+      const c = capacitance[k]!;
+      M.add(p[k]!, p[k]!, c);
+      M.add(p[k]!, q[k]!, -c);
+      M.add(q[k]!, p[k]!, -c);
+      M.add(q[k]!, q[k]!, c);
+    }
+  }
+}

@@ -1,7 +1,7 @@
 import { clonePlain } from '../network/clone-plain.js';
 import type { CurrentSourceDescription } from '../network/description.js';
 import { compileWaveform } from '../waveforms/waveform-spec.js';
-import type { ElementKind } from './element-kind.js';
+import type { CompiledElement, ElementGroup, ElementKind, InputView } from './element-kind.js';
 import { stateValue } from './state-value.js';
 import { describeWaveform } from './describe-waveform.js';
 
@@ -28,27 +28,43 @@ export const currentSourceKind: ElementKind<CurrentSourceDescription> = {
     const p = Array.from(list, (e) => ctx.potential(e.d.plus));
     const q = Array.from(list, (e) => ctx.potential(e.d.minus));
     const element = Array.from(list, (e) => e.index);
-    return {
-      residual(t, _y, inputs, f) {
-        for (let k = 0; k < p.length; k++) {
-          const i = inputs.sourceValue(element[k]!, t);
-          if (p[k]! >= 0) f[p[k]!]! += i;
-          if (q[k]! >= 0) f[q[k]!]! -= i;
-        }
-      },
-      jacobian() {},
-      mass() {},
-      elements: list.map((e, k) => ({
-        name: e.d.name,
-        index: e.index,
-        role: 'current-source' as const,
-        current: (t: number, _y: Float64Array, inputs) => inputs.sourceValue(e.index, t),
-        sourcePower: (t: number, y: Float64Array, inputs) =>
-          (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * inputs.sourceValue(e.index, t),
-      })),
-    };
+    return new CurrentSourceGroup(p, q, element, list.map((e, k) => ({
+      name: e.d.name,
+      index: e.index,
+      role: 'current-source' as const,
+      current: (t: number, _y: Float64Array, inputs: InputView) => inputs.sourceValue(e.index, t),
+      sourcePower: (t: number, y: Float64Array, inputs: InputView) =>
+        (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * inputs.sourceValue(e.index, t),
+    })));
   },
   listing: (d) => [{ name: 'waveform', value: describeWaveform(d.waveform, 'A') }],
   waveform: (d) => d.waveform,
   waveformFields: ['waveform'],
 };
+
+/**
+ * The compiled current sources, f as a prototype method: the same function
+ * in every network compiled (see the voltage source's group).
+ */
+class CurrentSourceGroup implements ElementGroup {
+  constructor(
+    /** Per source: plus and minus potentials (-1: ground), element index. */
+    private readonly p: readonly number[],
+    private readonly q: readonly number[],
+    private readonly element: readonly number[],
+    readonly elements: readonly CompiledElement[],
+  ) {}
+
+  residual(t: number, _y: Float64Array, inputs: InputView, f: Float64Array): void {
+    const { p, q, element } = this;
+    for (let k = 0; k < p.length; k++) {
+      const i = inputs.sourceValue(element[k]!, t);
+      if (p[k]! >= 0) f[p[k]!]! += i;
+      if (q[k]! >= 0) f[q[k]!]! -= i;
+    }
+  }
+
+  jacobian(): void {}
+
+  mass(): void {}
+}

@@ -2,8 +2,8 @@ import { InputError } from '../errors.js';
 import { requireNonNegative, requirePositive } from '../network/argument-checks.js';
 import type { DiodeDescription } from '../network/description.js';
 import { packedDoubles, packedDoublesFrom } from '../solver/packed-doubles.js';
-import type { ElementEvent, ElementKind, InputView } from './element-kind.js';
-import { stampConductance } from './stamp-target.js';
+import type { CompiledElement, ElementEvent, ElementGroup, ElementKind, InputView } from './element-kind.js';
+import { stampConductance, type StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 import { capacitorCurrent, stampCapacitance } from './switch.js';
 
@@ -85,94 +85,25 @@ export const diodeKind: ElementKind<DiodeDescription> = {
     const gOff = packedDoublesFrom(list, (e) => e.d.offConductance);
     const is = packedDoublesFrom(list, (e) => e.d.saturationCurrent);
     const nvt = packedDoublesFrom(list, (e) => e.d.emissionCoefficient * e.d.thermalVoltage);
-    const voltage = (k: number, y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
-    /** Current of the exponential junction and its slope di/dv, into `out`. */
-    const slope = packedDoubles(1);
-    const exponentialCurrent = (k: number, v: number, out: number[]): number => {
-      const a = nvt[k]!;
-      const s = is[k]!;
-      const r = ron[k]!;
-      // g(vj) = vj + R Is (exp(vj/a) - 1) - v is convex and increasing: Newton from above the root
-      // converges monotonically (v > 0: both v and a log(1 + v/(R Is)) are above it; v <= 0: 0 is).
-      let vj = v > 0 ? Math.min(v, a * Math.log1p(v / (r * s))) : 0;
-      for (let it = 0; it < JUNCTION_ITERATIONS; it++) {
-        const e = Math.exp(vj / a);
-        const g = vj + r * s * (e - 1) - v;
-        const step = g / (1 + (r * s * e) / a);
-        vj -= step;
-        if (!(Math.abs(step) > 1e-15 * (Math.abs(vj) + a))) break;
-      }
-      const e = Math.exp(vj / a);
-      const gj = (s * e) / a;
-      out[0] = gj / (1 + r * gj) + gOff[k]!;
-      return s * (e - 1) + gOff[k]! * v;
-    };
-    /** Conduction current (no capacitance) of diode k at (y, inputs). */
-    const conduction = (k: number, y: Float64Array, inputs: InputView): number => {
-      const v = voltage(k, y);
-      if (!ideal[k]) return exponentialCurrent(k, v, slope);
-      return inputs.deviceOn(element[k]!) ? (v - vf[k]!) * gOn[k]! : v * gOff[k]!;
-    };
-    /** Margin of the present state of ideal diode k (positive while right), V. */
-    const margin = (k: number, y: Float64Array, inputs: InputView): number => {
-      const v = voltage(k, y) - vf[k]!;
-      return inputs.deviceOn(element[k]!) ? v : -v;
-    };
-    const band = (k: number, y: Float64Array): number =>
-      THRESHOLD_BAND * (Math.abs(stateValue(y, p[k]!)) + Math.abs(stateValue(y, q[k]!)) + vf[k]!) + THRESHOLD_FLOOR;
-    const events: ElementEvent[] = [];
-    list.forEach((e, k) => {
-      if (!ideal[k]) return;
-      events.push({
-        element: e.index,
-        direction: -1,
-        // Crosses zero downwards one band below the threshold: see THRESHOLD_BAND.
-        value: (_t, y, inputs) => margin(k, y, inputs) + 2 * band(k, y),
-        consistent: (_t, y, inputs) => margin(k, y, inputs) >= -band(k, y),
-      });
-    });
-    return {
-      residual(_t, y, inputs, f) {
-        for (let k = 0; k < p.length; k++) {
-          const i = conduction(k, y, inputs);
-          if (p[k]! >= 0) f[p[k]!]! -= i;
-          if (q[k]! >= 0) f[q[k]!]! += i;
-        }
-      },
-      jacobian(_t, y, inputs, J) {
-        for (let k = 0; k < p.length; k++) {
-          let g: number;
-          if (ideal[k]) g = inputs.deviceOn(element[k]!) ? gOn[k]! : gOff[k]!;
-          else {
-            exponentialCurrent(k, voltage(k, y), slope);
-            g = slope[0]!;
-          }
-          stampConductance(J, p[k]!, q[k]!, g);
-        }
-      },
-      mass(M) {
-        list.forEach((e, k) => {
-          if (e.d.capacitance > 0) stampCapacitance(M, p[k]!, q[k]!, e.d.capacitance);
-        });
-      },
-      events,
-      elements: list.map((e, k) => {
-        const c = e.d.capacitance;
-        return {
-          name: e.d.name,
-          index: e.index,
-          role: 'conductive' as const,
-          current: c > 0
-            ? (t, y, inputs, rates) => conduction(k, y, inputs) + capacitorCurrent(rates, `diode:${e.index}`, p[k]!, q[k]!, c, t, y, inputs)
-            : (_t, y, inputs) => conduction(k, y, inputs),
-          // Everything the junction conducts is dissipated (Vf i + Ron i^2 when on, gOff v^2 when off).
-          loss: { category: 'resistors' as const, power: (_t, y, inputs) => voltage(k, y) * conduction(k, y, inputs) },
-          conducting: c > 0 || !ideal[k] ? () => true : (_t, inputs) => inputs.deviceOn(e.index),
-          offConductance: gOff[k]!,
-          ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * voltage(k, y) ** 2 } : {}),
-        };
-      }),
-    };
+    const capacitance = packedDoublesFrom(list, (e) => e.d.capacitance);
+    const group: DiodeGroup = new DiodeGroup(p, q, element, ideal, vf, gOn, ron, gOff, is, nvt, capacitance, list.map((e, k) => {
+      const c = e.d.capacitance;
+      const compiled: CompiledElement = {
+        name: e.d.name,
+        index: e.index,
+        role: 'conductive' as const,
+        current: c > 0
+          ? (t, y, inputs, rates) => group.conduction(k, y, inputs) + capacitorCurrent(rates, `diode:${e.index}`, p[k]!, q[k]!, c, t, y, inputs)
+          : (_t, y, inputs) => group.conduction(k, y, inputs),
+        // Everything the junction conducts is dissipated (Vf i + Ron i^2 when on, gOff v^2 when off).
+        loss: { category: 'resistors' as const, power: (_t, y, inputs) => group.voltage(k, y) * group.conduction(k, y, inputs) },
+        conducting: c > 0 || !ideal[k] ? () => true : (_t, inputs) => inputs.deviceOn(e.index),
+        offConductance: gOff[k]!,
+        ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * group.voltage(k, y) ** 2 } : {}),
+      };
+      return compiled;
+    }));
+    return group;
   },
   listing: (d) => [
     { name: 'junction', value: d.junction },
@@ -195,3 +126,129 @@ export const diodeKind: ElementKind<DiodeDescription> = {
   capsStepBySources: true,
   parallelCapacitance: (d) => d.capacitance,
 };
+
+/**
+ * The compiled diodes, f, J, M and the laws they share as prototype
+ * methods: the same functions in every network compiled (see the voltage
+ * source's group). The ideal diodes' events are instances of
+ * {@link DiodeMarginEvent} for the same reason.
+ */
+class DiodeGroup implements ElementGroup {
+  readonly events: readonly ElementEvent[];
+  /** di/dv of the exponential junction, written by {@link DiodeGroup.exponentialCurrent}. */
+  private readonly slope = packedDoubles(1);
+
+  constructor(
+    /** Per diode: anode and cathode potentials (-1: ground), element index, whether ideal. */
+    private readonly p: readonly number[],
+    private readonly q: readonly number[],
+    private readonly element: readonly number[],
+    private readonly ideal: readonly boolean[],
+    /** Per diode: forward voltage, on conductance and resistance, off conductance, saturation current, n V_T, capacitance. */
+    private readonly vf: readonly number[],
+    private readonly gOn: readonly number[],
+    private readonly ron: readonly number[],
+    private readonly gOff: readonly number[],
+    private readonly is: readonly number[],
+    private readonly nvt: readonly number[],
+    private readonly capacitance: readonly number[],
+    readonly elements: readonly CompiledElement[],
+  ) {
+    const events: ElementEvent[] = [];
+    for (let k = 0; k < p.length; k++) if (ideal[k]) events.push(new DiodeMarginEvent(this, k, element[k]!));
+    this.events = events;
+  }
+
+  /** Voltage from anode to cathode of diode k. */
+  voltage(k: number, y: Float64Array): number {
+    return stateValue(y, this.p[k]!) - stateValue(y, this.q[k]!);
+  }
+
+  /** Current of the exponential junction k at voltage v; its slope di/dv into out[0]. */
+  exponentialCurrent(k: number, v: number, out: number[]): number {
+    const a = this.nvt[k]!;
+    const s = this.is[k]!;
+    const r = this.ron[k]!;
+    // g(vj) = vj + R Is (exp(vj/a) - 1) - v is convex and increasing: Newton from above the root
+    // converges monotonically (v > 0: both v and a log(1 + v/(R Is)) are above it; v <= 0: 0 is).
+    let vj = v > 0 ? Math.min(v, a * Math.log1p(v / (r * s))) : 0;
+    for (let it = 0; it < JUNCTION_ITERATIONS; it++) {
+      const e = Math.exp(vj / a);
+      const g = vj + r * s * (e - 1) - v;
+      const step = g / (1 + (r * s * e) / a);
+      vj -= step;
+      if (!(Math.abs(step) > 1e-15 * (Math.abs(vj) + a))) break;
+    }
+    const e = Math.exp(vj / a);
+    const gj = (s * e) / a;
+    out[0] = gj / (1 + r * gj) + this.gOff[k]!;
+    return s * (e - 1) + this.gOff[k]! * v;
+  }
+
+  /** Conduction current (no capacitance) of diode k at (y, inputs). */
+  conduction(k: number, y: Float64Array, inputs: InputView): number {
+    const v = this.voltage(k, y);
+    if (!this.ideal[k]) return this.exponentialCurrent(k, v, this.slope);
+    return inputs.deviceOn(this.element[k]!) ? (v - this.vf[k]!) * this.gOn[k]! : v * this.gOff[k]!;
+  }
+
+  /** Margin of the present state of ideal diode k (positive while right), V. */
+  margin(k: number, y: Float64Array, inputs: InputView): number {
+    const v = this.voltage(k, y) - this.vf[k]!;
+    return inputs.deviceOn(this.element[k]!) ? v : -v;
+  }
+
+  /** Half-width of the band around diode k's threshold (see THRESHOLD_BAND), V. */
+  band(k: number, y: Float64Array): number {
+    return THRESHOLD_BAND * (Math.abs(stateValue(y, this.p[k]!)) + Math.abs(stateValue(y, this.q[k]!)) + this.vf[k]!) + THRESHOLD_FLOOR;
+  }
+
+  residual(_t: number, y: Float64Array, inputs: InputView, f: Float64Array): void {
+    const { p, q } = this;
+    for (let k = 0; k < p.length; k++) {
+      const i = this.conduction(k, y, inputs);
+      if (p[k]! >= 0) f[p[k]!]! -= i;
+      if (q[k]! >= 0) f[q[k]!]! += i;
+    }
+  }
+
+  jacobian(_t: number, y: Float64Array, inputs: InputView, J: StampTarget): void {
+    const { p, q, ideal, element, gOn, gOff, slope } = this;
+    for (let k = 0; k < p.length; k++) {
+      let g: number;
+      if (ideal[k]) g = inputs.deviceOn(element[k]!) ? gOn[k]! : gOff[k]!;
+      else {
+        this.exponentialCurrent(k, this.voltage(k, y), slope);
+        g = slope[0]!;
+      }
+      stampConductance(J, p[k]!, q[k]!, g);
+    }
+  }
+
+  mass(M: StampTarget): void {
+    const { p, q, capacitance } = this;
+    for (let k = 0; k < p.length; k++) {
+      const c = capacitance[k]!;
+      if (c > 0) stampCapacitance(M, p[k]!, q[k]!, c);
+    }
+  }
+}
+
+/** The event of ideal diode k: its margin crossing zero downwards one band below the threshold (see THRESHOLD_BAND). */
+class DiodeMarginEvent implements ElementEvent {
+  readonly direction = -1 as const;
+
+  constructor(
+    private readonly group: DiodeGroup,
+    private readonly k: number,
+    readonly element: number,
+  ) {}
+
+  value(_t: number, y: Float64Array, inputs: InputView): number {
+    return this.group.margin(this.k, y, inputs) + 2 * this.group.band(this.k, y);
+  }
+
+  consistent(_t: number, y: Float64Array, inputs: InputView): boolean {
+    return this.group.margin(this.k, y, inputs) >= -this.group.band(this.k, y);
+  }
+}

@@ -2,9 +2,11 @@ import { InputError } from '../errors.js';
 import { MU0 } from '../constants.js';
 import { requirePositive } from '../network/argument-checks.js';
 import type { HystereticTubeLaw } from '../network/description.js';
-import { checkJilesAthertonSpec, inverseJilesAtherton } from '../materials/hysteresis/inverse-jiles-atherton.js';
+import { checkJilesAthertonSpec, inverseJilesAtherton, type HystereticMaterial } from '../materials/hysteresis/inverse-jiles-atherton.js';
 import { hysteresisLossRate, magnetisationRate, magnetisationRatePartials } from '../materials/hysteresis/magnetisation-rate.js';
-import type { TubeKind } from './tube-kind.js';
+import type { InputView } from './element-kind.js';
+import type { StampTarget } from './stamp-target.js';
+import type { TubeKind, TubeStateStamps } from './tube-kind.js';
 import { checkTubeMaterial } from './tube-material-check.js';
 
 /**
@@ -73,11 +75,6 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     const volume = length * area;
     const s = ctx.stateOffset;
     const { index, sign } = ctx.loops;
-    const fluxOf = (y: Float64Array): number => {
-      let f = 0;
-      for (let k = 0; k < index.length; k++) f += sign[k]! * y[index[k]!]!;
-      return f;
-    };
     const startB = tube.initialFluxDensity ?? (tube.initialFlux !== undefined ? tube.initialFlux / area : 0);
     const m0 = law.initialMagnetisation ?? startB / MU0;
     const h0 = startB / MU0 - m0;
@@ -105,36 +102,7 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
       stateOffset: s,
       // H in A/m: 1/mu0 per tesla; u = db/dt: a tesla per millisecond.
       stateScales: [1 / MU0, 1e3],
-      states: {
-        residual(_t, y, _inputs, f) {
-          const u = y[s + 1]!;
-          const flux = fluxOf(y);
-          f[s]! += u / MU0 - magnetisationRate(model, flux / area, magnetisation(flux, y), u);
-          f[s + 1]! += u;
-        },
-        jacobian(_t, y, _inputs, J) {
-          const flux = fluxOf(y);
-          const p = magnetisationRatePartials(model, flux / area, magnetisation(flux, y), y[s + 1]!);
-          // Field row f = u/mu0 - R(b, m, u) with m = b/mu0 - H.
-          const dFieldDb = -(p.db + p.dm / MU0);
-          for (let k = 0; k < index.length; k++) {
-            J.add(s, index[k]!, (sign[k]! * dFieldDb) / area);
-            // Loop rows hold -sign * F with F = l H: d/dH = -sign * l.
-            J.add(index[k]!, s, -sign[k]! * length);
-          }
-          J.add(s, s, p.dm);
-          J.add(s, s + 1, 1 / MU0 - p.du);
-          J.add(s + 1, s + 1, 1);
-        },
-        mass(M) {
-          M.add(s, s, 1);
-          for (let k = 0; k < index.length; k++) M.add(s + 1, index[k]!, sign[k]! / area);
-        },
-        initial(y0) {
-          y0[s] = h0;
-          y0[s + 1] = 0;
-        },
-      },
+      states: new HystereticTubeStates(model, length, area, s, index, sign, h0),
     };
   },
   listing: (law) => [
@@ -143,6 +111,71 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     { name: 'material', value: law.material.name ?? 'Jiles-Atherton material' },
   ],
 };
+
+/**
+ * The rows of one hysteretic tube's internal states (H, then u = db/dt) as
+ * prototype methods: the same functions in every network compiled, so the
+ * network's f calls one target for every such tube from run to run
+ * (closures per compile were a new target each time).
+ */
+class HystereticTubeStates implements TubeStateStamps {
+  constructor(
+    private readonly model: HystereticMaterial,
+    private readonly length: number,
+    private readonly area: number,
+    /** Index in y of H (u follows it). */
+    private readonly s: number,
+    /** Loop fluxes through the tube: positions in y and signs. */
+    private readonly index: readonly number[],
+    private readonly sign: readonly number[],
+    /** Initial field strength, A/m. */
+    private readonly h0: number,
+  ) {}
+
+  /** The tube's flux from the loop fluxes. */
+  private flux(y: Float64Array): number {
+    const { index, sign } = this;
+    let f = 0;
+    for (let k = 0; k < index.length; k++) f += sign[k]! * y[index[k]!]!;
+    return f;
+  }
+
+  residual(_t: number, y: Float64Array, _inputs: InputView, f: Float64Array): void {
+    const s = this.s;
+    const area = this.area;
+    const u = y[s + 1]!;
+    const flux = this.flux(y);
+    f[s]! += u / MU0 - magnetisationRate(this.model, flux / area, flux / area / MU0 - y[s]!, u);
+    f[s + 1]! += u;
+  }
+
+  jacobian(_t: number, y: Float64Array, _inputs: InputView, J: StampTarget): void {
+    const { s, area, length, index, sign } = this;
+    const flux = this.flux(y);
+    const p = magnetisationRatePartials(this.model, flux / area, flux / area / MU0 - y[s]!, y[s + 1]!);
+    // Field row f = u/mu0 - R(b, m, u) with m = b/mu0 - H.
+    const dFieldDb = -(p.db + p.dm / MU0);
+    for (let k = 0; k < index.length; k++) {
+      J.add(s, index[k]!, (sign[k]! * dFieldDb) / area);
+      // Loop rows hold -sign * F with F = l H: d/dH = -sign * l.
+      J.add(index[k]!, s, -sign[k]! * length);
+    }
+    J.add(s, s, p.dm);
+    J.add(s, s + 1, 1 / MU0 - p.du);
+    J.add(s + 1, s + 1, 1);
+  }
+
+  mass(M: StampTarget): void {
+    const { s, area, index, sign } = this;
+    M.add(s, s, 1);
+    for (let k = 0; k < index.length; k++) M.add(s + 1, index[k]!, sign[k]! / area);
+  }
+
+  initial(y0: Float64Array): void {
+    y0[this.s] = this.h0;
+    y0[this.s + 1] = 0;
+  }
+}
 
 /**
  * Largest eddy resistance that keeps a hysteretic tube's eddy MMF R_e dphi/dt

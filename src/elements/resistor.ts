@@ -1,8 +1,8 @@
 import { requirePositive } from '../network/argument-checks.js';
 import type { ResistorDescription } from '../network/description.js';
 import { packedDoublesFrom } from '../solver/packed-doubles.js';
-import type { ElementKind } from './element-kind.js';
-import { stampConductance } from './stamp-target.js';
+import type { CompiledElement, ElementGroup, ElementKind, InputView } from './element-kind.js';
+import { stampConductance, type StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 
 /**
@@ -26,29 +26,46 @@ export const resistorKind: ElementKind<ResistorDescription> = {
     const p = Array.from(list, (e) => ctx.potential(e.d.plus));
     const q = Array.from(list, (e) => ctx.potential(e.d.minus));
     const g = packedDoublesFrom(list, (e) => 1 / e.d.resistance);
-    return {
-      residual(_t, y, _inputs, f) {
-        for (let k = 0; k < g.length; k++) {
-          const i = (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * g[k]!;
-          if (p[k]! >= 0) f[p[k]!]! -= i;
-          if (q[k]! >= 0) f[q[k]!]! += i;
-        }
-      },
-      jacobian(_t, _y, _inputs, J) {
-        for (let k = 0; k < g.length; k++) stampConductance(J, p[k]!, q[k]!, g[k]!);
-      },
-      mass() {},
-      elements: list.map((e, k) => {
-        const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
-        return {
-          name: e.d.name,
-          index: e.index,
-          role: 'conductive' as const,
-          current: (_t: number, y: Float64Array) => voltage(y) * g[k]!,
-          loss: { category: 'resistors' as const, power: (_t: number, y: Float64Array) => voltage(y) ** 2 * g[k]! },
-        };
-      }),
-    };
+    return new ResistorGroup(p, q, g, list.map((e, k) => {
+      const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
+      return {
+        name: e.d.name,
+        index: e.index,
+        role: 'conductive' as const,
+        current: (_t: number, y: Float64Array) => voltage(y) * g[k]!,
+        loss: { category: 'resistors' as const, power: (_t: number, y: Float64Array) => voltage(y) ** 2 * g[k]! },
+      };
+    }));
   },
   listing: (d) => [{ name: 'resistance', value: d.resistance, unit: 'ohm' }],
 };
+
+/**
+ * The compiled resistors, f and J as prototype methods: the same functions
+ * in every network compiled (see the voltage source's group).
+ */
+class ResistorGroup implements ElementGroup {
+  constructor(
+    /** Per resistor: plus and minus potentials (-1: ground), conductance. */
+    private readonly p: readonly number[],
+    private readonly q: readonly number[],
+    private readonly g: readonly number[],
+    readonly elements: readonly CompiledElement[],
+  ) {}
+
+  residual(_t: number, y: Float64Array, _inputs: InputView, f: Float64Array): void {
+    const { p, q, g } = this;
+    for (let k = 0; k < g.length; k++) {
+      const i = (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * g[k]!;
+      if (p[k]! >= 0) f[p[k]!]! -= i;
+      if (q[k]! >= 0) f[q[k]!]! += i;
+    }
+  }
+
+  jacobian(_t: number, _y: Float64Array, _inputs: InputView, J: StampTarget): void {
+    const { p, q, g } = this;
+    for (let k = 0; k < g.length; k++) stampConductance(J, p[k]!, q[k]!, g[k]!);
+  }
+
+  mass(): void {}
+}

@@ -5,7 +5,7 @@ import type { SwitchDescription } from '../network/description.js';
 import { compileWaveform } from '../waveforms/waveform-spec.js';
 import { packedDoublesFrom } from '../solver/packed-doubles.js';
 import { describeWaveform } from './describe-waveform.js';
-import type { ElementKind, InputView, RateReader } from './element-kind.js';
+import type { CompiledElement, ElementGroup, ElementKind, InputView, RateReader } from './element-kind.js';
 import { stampConductance, type StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 
@@ -94,43 +94,26 @@ export const switchKind: ElementKind<SwitchDescription> = {
     const gOn = packedDoublesFrom(list, (e) => 1 / e.d.onResistance);
     const gOff = packedDoublesFrom(list, (e) => 1 / e.d.offResistance);
     const element = Array.from(list, (e) => e.index);
-    return {
-      residual(t, y, inputs, f) {
-        for (let k = 0; k < p.length; k++) {
-          const g = inputs.switchClosed(element[k]!, t) ? gOn[k]! : gOff[k]!;
-          const i = (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * g;
-          if (p[k]! >= 0) f[p[k]!]! -= i;
-          if (q[k]! >= 0) f[q[k]!]! += i;
-        }
-      },
-      jacobian(t, _y, inputs, J) {
-        for (let k = 0; k < p.length; k++) stampConductance(J, p[k]!, q[k]!, inputs.switchClosed(element[k]!, t) ? gOn[k]! : gOff[k]!);
-      },
-      mass(M) {
-        list.forEach((e, k) => {
-          const c = e.d.capacitance ?? 0;
-          if (c > 0) stampCapacitance(M, p[k]!, q[k]!, c);
-        });
-      },
-      elements: list.map((e, k) => {
-        const conductance = (t: number, inputs: InputView): number => (inputs.switchClosed(e.index, t) ? gOn[k]! : gOff[k]!);
-        const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
-        const c = e.d.capacitance ?? 0;
-        return {
-          name: e.d.name,
-          index: e.index,
-          role: 'conductive' as const,
-          // Conduction current plus, with a capacitance, its C dv/dt.
-          current: c > 0
-            ? (t, y, inputs, rates) => voltage(y) * conductance(t, inputs) + capacitorCurrent(rates, `switch:${e.index}`, p[k]!, q[k]!, c, t, y, inputs)
-            : (t, y, inputs) => voltage(y) * conductance(t, inputs),
-          loss: { category: 'resistors' as const, power: (t, y, inputs) => voltage(y) ** 2 * conductance(t, inputs) },
-          conducting: c > 0 ? () => true : (t, inputs) => inputs.switchClosed(e.index, t),
-          offConductance: gOff[k]!,
-          ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * voltage(y) ** 2 } : {}),
-        };
-      }),
-    };
+    const capacitance = packedDoublesFrom(list, (e) => e.d.capacitance ?? 0);
+    return new SwitchGroup(p, q, gOn, gOff, element, capacitance, list.map((e, k) => {
+      const conductance = (t: number, inputs: InputView): number => (inputs.switchClosed(e.index, t) ? gOn[k]! : gOff[k]!);
+      const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
+      const c = e.d.capacitance ?? 0;
+      const compiled: CompiledElement = {
+        name: e.d.name,
+        index: e.index,
+        role: 'conductive' as const,
+        // Conduction current plus, with a capacitance, its C dv/dt.
+        current: c > 0
+          ? (t, y, inputs, rates) => voltage(y) * conductance(t, inputs) + capacitorCurrent(rates, `switch:${e.index}`, p[k]!, q[k]!, c, t, y, inputs)
+          : (t, y, inputs) => voltage(y) * conductance(t, inputs),
+        loss: { category: 'resistors' as const, power: (t, y, inputs) => voltage(y) ** 2 * conductance(t, inputs) },
+        conducting: c > 0 ? () => true : (t, inputs) => inputs.switchClosed(e.index, t),
+        offConductance: gOff[k]!,
+        ...(c > 0 ? { storedEnergy: (y: Float64Array) => 0.5 * c * voltage(y) ** 2 } : {}),
+      };
+      return compiled;
+    }));
   },
   listing: (d) => [
     { name: 'on resistance', value: d.onResistance, unit: 'ohm' },
@@ -148,6 +131,46 @@ export const switchKind: ElementKind<SwitchDescription> = {
   waveformFields: ['gate'],
   parallelCapacitance: (d) => d.capacitance ?? 0,
 };
+
+/**
+ * The compiled switches, f, J and M as prototype methods: the same
+ * functions in every network compiled (see the voltage source's group).
+ */
+class SwitchGroup implements ElementGroup {
+  constructor(
+    /** Per switch: plus and minus potentials (-1: ground), closed and open conductances, element index, capacitance (0: none). */
+    private readonly p: readonly number[],
+    private readonly q: readonly number[],
+    private readonly gOn: readonly number[],
+    private readonly gOff: readonly number[],
+    private readonly element: readonly number[],
+    private readonly capacitance: readonly number[],
+    readonly elements: readonly CompiledElement[],
+  ) {}
+
+  residual(t: number, y: Float64Array, inputs: InputView, f: Float64Array): void {
+    const { p, q, gOn, gOff, element } = this;
+    for (let k = 0; k < p.length; k++) {
+      const g = inputs.switchClosed(element[k]!, t) ? gOn[k]! : gOff[k]!;
+      const i = (stateValue(y, p[k]!) - stateValue(y, q[k]!)) * g;
+      if (p[k]! >= 0) f[p[k]!]! -= i;
+      if (q[k]! >= 0) f[q[k]!]! += i;
+    }
+  }
+
+  jacobian(t: number, _y: Float64Array, inputs: InputView, J: StampTarget): void {
+    const { p, q, gOn, gOff, element } = this;
+    for (let k = 0; k < p.length; k++) stampConductance(J, p[k]!, q[k]!, inputs.switchClosed(element[k]!, t) ? gOn[k]! : gOff[k]!);
+  }
+
+  mass(M: StampTarget): void {
+    const { p, q, capacitance } = this;
+    for (let k = 0; k < p.length; k++) {
+      const c = capacitance[k]!;
+      if (c > 0) stampCapacitance(M, p[k]!, q[k]!, c);
+    }
+  }
+}
 
 /**
  * Turn a builder schedule (states at times) into toggle times: entries
