@@ -247,9 +247,11 @@ export interface DaeIntegrator {
   readState(out: Float64Array): Float64Array;
   /**
    * Copy f(t, y) at the present state into `out` (length n) when the last
-   * `step` evaluated it there (the problem's own f, as given: no dependent
-   * rows recombined) and nothing has moved the state since; returns whether
-   * it did. A caller that needs f at the state a step ended on (a check of
+   * `step` evaluated it there and nothing has moved the state since (no
+   * restart, restore, breakpoint re-initialisation or event in the step);
+   * returns whether it did. It is the problem's own f, as given: where
+   * dependent rows of M are recombined, the step kept a copy from before
+   * the recombination. A caller that needs f at the state a step ended on (a check of
    * what it records) then evaluates it once, not twice.
    */
   readRhsAtState(out: Float64Array): boolean;
@@ -436,8 +438,10 @@ class RadauIntegrator implements DaeIntegrator {
   private tCur: number;
   private yCur: Float64Array;
   private fCur: Float64Array;
-  /** Whether fCur is the problem's own f at (tCur, yCur), evaluated by the last step (see readRhsAtState). */
+  /** Whether the problem's own f at (tCur, yCur) was evaluated by the last step (see readRhsAtState). */
   private rhsAtState = false;
+  /** The problem's own f at a step's end where dependent rows of M are recombined (fCur holds them recombined); empty otherwise. */
+  private readonly rhsOwn: Float64Array;
   private hCur = 0;
   private hAcc = NaN;
   private errAcc = NaN;
@@ -610,6 +614,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.yCur = take(n);
     this.yCur.set(p.y0);
     this.fCur = take(n);
+    this.rhsOwn = take(p.massCompression ? n : 0);
     this.initialise(true);
   }
 
@@ -926,7 +931,7 @@ class RadauIntegrator implements DaeIntegrator {
 
   readRhsAtState(out: Float64Array): boolean {
     if (!this.rhsAtState) return false;
-    out.set(this.fCur);
+    out.set(this.p.massCompression ? this.rhsOwn : this.fCur);
     return true;
   }
 
@@ -965,6 +970,16 @@ class RadauIntegrator implements DaeIntegrator {
     this.statsCur.rhsEvaluations++;
     try {
       this.p.calls.rhs(t, y, out);
+    } catch (e) {
+      throw new UserCodeError(e, 'f', t);
+    }
+  }
+
+  /** {@link callRhs} into fCur at a step's end, keeping the problem's own f in rhsOwn where rows are recombined. */
+  private callRhsAtStepEnd(t: number, y: Float64Array): void {
+    this.statsCur.rhsEvaluations++;
+    try {
+      this.p.calls.rhsKeepingOwn(t, y, this.fCur, this.rhsOwn);
     } catch (e) {
       throw new UserCodeError(e, 'f', t);
     }
@@ -1479,9 +1494,9 @@ class RadauIntegrator implements DaeIntegrator {
     this.cheapRestartUnproven = false;
     let rhsAtState = false;
     try {
-      this.callRhs(tNew, y, this.fCur);
-      // Recombined rows are not the problem's f; a breakpoint's re-initialisation may move y.
-      rhsAtState = !p.massCompression && !onBreakpoint;
+      this.callRhsAtStepEnd(tNew, y);
+      // A breakpoint's re-initialisation may move y. (Recombined rows are not the problem's f: rhsOwn keeps it.)
+      rhsAtState = !onBreakpoint;
     } catch (e) {
       // The step itself is good: keep it; the next step() reports the error.
       if (e instanceof UserCodeError) this.pendingError = e;

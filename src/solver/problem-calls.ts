@@ -56,6 +56,19 @@ export class ProblemCalls {
     if (this.compression) recombineRhsRows(out, this.compression);
   }
 
+  /**
+   * f recombined into `out`, as {@link rhs}; where rows are recombined, the
+   * problem's own f (before recombination) into `own` as well: one copy, for
+   * a caller that hands f at a step's end on (`DaeIntegrator.readRhsAtState`).
+   */
+  rhsKeepingOwn(t: number, y: Float64Array, out: Float64Array, own: Float64Array): void {
+    this.problem.rhs(t, y, out);
+    if (this.compression) {
+      own.set(out);
+      recombineRhsRows(out, this.compression);
+    }
+  }
+
   /** The dense J (row-major n x n, `out` zero-filled by the caller), recombined. Only when {@link hasJacobian}. */
   jacobian(t: number, y: Float64Array, out: Float64Array): void {
     const problem = this.problem;
