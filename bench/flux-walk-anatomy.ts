@@ -144,7 +144,7 @@ export function benchFluxWalkAnatomy(rounds = 15): void {
  * accepted step, one per call at each of the 2000 edges; the rare extra f of
  * a rejected first step is not told apart, so this is an upper bound).
  */
-function runRadau5(): { cpuMs: number; steps: number; newtonPerStep: number; f: number; jacobians: number; flux: number } | undefined {
+export function runRadau5(): { cpuMs: number; steps: number; newtonPerStep: number; f: number; jacobians: number; flux: number } | undefined {
   const built = buildRadau5();
   if (!built) return undefined;
   try {

@@ -19,6 +19,8 @@ type AirGapLaw = Extract<TubeLaw, { kind: 'air-gap' }>;
 export const airGapKind: TubeKind<AirGapLaw> = {
   kind: 'air-gap',
   noun: 'air gap',
+  /** Linear: MMF = reluctance x flux. */
+  nonAffineUnknowns: () => [],
   allowsEddy: false,
   check(law, owner, name) {
     const length = requirePositive(law.length, `${owner} length`, name, 'm');

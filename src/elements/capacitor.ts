@@ -17,6 +17,8 @@ import { stateValue } from './state-value.js';
 export const capacitorKind: ElementKind<CapacitorDescription> = {
   kind: 'capacitor',
   noun: 'capacitor',
+  /** Affine: its terms are linear in the unknowns with coefficients fixed over an input interval. */
+  nonAffineUnknowns: () => [],
   role: 'capacitive',
   branchCurrent: false,
   check(d, ctx) {

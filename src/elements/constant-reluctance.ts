@@ -17,6 +17,8 @@ type ReluctanceLaw = Extract<TubeLaw, { kind: 'reluctance' }>;
 export const constantReluctanceKind: TubeKind<ReluctanceLaw> = {
   kind: 'reluctance',
   noun: 'reluctance',
+  /** Linear: MMF = reluctance x flux. */
+  nonAffineUnknowns: () => [],
   allowsEddy: false,
   check(law, owner, name) {
     const reluctance = requirePositive(law.reluctance, `${owner} value`, name, 'A/Wb');

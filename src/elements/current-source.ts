@@ -17,6 +17,8 @@ import { describeWaveform } from './describe-waveform.js';
 export const currentSourceKind: ElementKind<CurrentSourceDescription> = {
   kind: 'current-source',
   noun: 'current source',
+  /** Affine: its terms are linear in the unknowns with coefficients fixed over an input interval. */
+  nonAffineUnknowns: () => [],
   role: 'current-source',
   branchCurrent: false,
   openTerminalCode: 'open-terminal',

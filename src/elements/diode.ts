@@ -46,6 +46,8 @@ const JUNCTION_ITERATIONS = 100;
 export const diodeKind: ElementKind<DiodeDescription> = {
   kind: 'diode',
   noun: 'diode',
+  /** Its junction law (or the on/off state it changes by itself) acts on its terminal potentials. */
+  nonAffineUnknowns: (d, ctx) => [ctx.potential(d.plus), ctx.potential(d.minus)].filter((i) => i >= 0),
   role: 'conductive',
   branchCurrent: false,
   check(d, ctx) {

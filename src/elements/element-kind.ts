@@ -296,6 +296,17 @@ export interface ElementKind<D extends ElementDescription = ElementDescription> 
    * memory); their positions come from {@link StampContext.internalStates}.
    */
   internalStates?(d: D): readonly string[];
+  /**
+   * The unknowns this element's terms of f enter other than affinely, for
+   * the reduced formulation (`formulation: 'reduced'`, which eliminates the
+   * algebraic unknowns inside f): the element's terms must be a(t, y_S) + B y
+   * with S the unknowns listed and B fixed over an input interval (an
+   * unlisted unknown multiplies no unknown). An empty list declares the
+   * element affine (a resistor, a source, a switch: its conductance is fixed
+   * between breakpoints). A kind without this method declares nothing, and a
+   * network holding it is refused in reduced form (the safe default).
+   */
+  nonAffineUnknowns?(d: D, ctx: StampContext): readonly number[];
 }
 
 /**

@@ -46,6 +46,8 @@ import { checkTubeMaterial } from './tube-material-check.js';
 export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
   kind: 'hysteretic',
   noun: 'flux tube',
+  /** The hysteresis model acts on the loop fluxes through it and on its own two states. */
+  nonAffineUnknowns: (_law, _tube, ctx) => [...ctx.loops.index, ctx.stateOffset, ctx.stateOffset + 1],
   allowsEddy: true,
   check(law, owner, name) {
     const length = requirePositive(law.length, `${owner} length`, name, 'm');

@@ -17,6 +17,8 @@ import { stateValue } from './state-value.js';
 export const inductorKind: ElementKind<InductorDescription> = {
   kind: 'inductor',
   noun: 'inductor',
+  /** Affine: its terms are linear in the unknowns with coefficients fixed over an input interval. */
+  nonAffineUnknowns: () => [],
   role: 'inductive',
   branchCurrent: true,
   openTerminalCode: 'open-terminal',

@@ -21,6 +21,8 @@ type MaterialTubeLaw = Extract<TubeLaw, { kind: 'material' }>;
 export const materialTubeKind: TubeKind<MaterialTubeLaw> = {
   kind: 'material',
   noun: 'flux tube',
+  /** Its law H(B) acts on the loop fluxes through it. */
+  nonAffineUnknowns: (_law, _tube, ctx) => ctx.loops.index,
   allowsEddy: true,
   check(law, owner, name) {
     const length = requirePositive(law.length, `${owner} length`, name, 'm');

@@ -16,6 +16,8 @@ import { stateValue } from './state-value.js';
 export const resistorKind: ElementKind<ResistorDescription> = {
   kind: 'resistor',
   noun: 'resistor',
+  /** Affine: its terms are linear in the unknowns with coefficients fixed over an input interval. */
+  nonAffineUnknowns: () => [],
   role: 'conductive',
   branchCurrent: false,
   check(d, ctx) {

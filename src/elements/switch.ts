@@ -55,6 +55,8 @@ export function capacitorCurrent(rates: RateReader, key: string, p: number, q: n
 export const switchKind: ElementKind<SwitchDescription> = {
   kind: 'switch',
   noun: 'switch',
+  /** Affine: its conductance is fixed over an input interval (switching instants are breakpoints). */
+  nonAffineUnknowns: () => [],
   role: 'conductive',
   branchCurrent: false,
   check(d, ctx) {

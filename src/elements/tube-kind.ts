@@ -131,4 +131,12 @@ export interface TubeKind<L extends TubeLaw = TubeLaw> {
   internalStates?(law: L, tube: TubeDescription): readonly string[];
   compile(law: L, tube: TubeDescription, ctx: TubeCompileContext): CompiledTube;
   listing(law: L): ListingParameter[];
+  /**
+   * The unknowns the tube's MMF drop (and its own states' equations) enter
+   * other than affinely, as `ElementKind.nonAffineUnknowns` says for
+   * elements: a saturating law, the loop fluxes through the tube. An empty
+   * list declares the tube linear; a kind without this method makes the
+   * reduced formulation refuse the network.
+   */
+  nonAffineUnknowns?(law: L, tube: TubeDescription, ctx: TubeCompileContext): readonly number[];
 }

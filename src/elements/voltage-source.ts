@@ -18,6 +18,8 @@ import { stateValue } from './state-value.js';
 export const voltageSourceKind: ElementKind<VoltageSourceDescription> = {
   kind: 'voltage-source',
   noun: 'voltage source',
+  /** Affine: v+ - v- = V(t), the waveform entering as a term of t alone. */
+  nonAffineUnknowns: () => [],
   role: 'voltage-source',
   branchCurrent: true,
   check(d, ctx) {

@@ -21,6 +21,8 @@ import { stateValue } from './state-value.js';
 export const windingKind: ElementKind<WindingDescription> = {
   kind: 'winding',
   noun: 'winding',
+  /** Affine: its terms are linear in the unknowns with coefficients fixed over an input interval. */
+  nonAffineUnknowns: () => [],
   role: 'inductive',
   branchCurrent: true,
   openTerminalCode: 'open-winding',

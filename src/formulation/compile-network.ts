@@ -12,6 +12,7 @@ import { checkTopology } from './topology-checks.js';
 import { findIndexTwoUnknowns } from './index-analysis.js';
 import { checkFluxRatesDetermined } from './flux-rate-check.js';
 import { initialState } from './initial-state.js';
+import { nonAffineUnknowns, type NonAffineUnknowns } from './affine-declarations.js';
 import { algebraicJacobian, massSpaces } from '../solver/consistent-initialization.js';
 import { createPatternAdaptiveLu } from '../solver/sparse-adaptive-lu.js';
 import { denseOfSparseMass, sparseMassOfEntries, type SparseMass } from '../solver/sparse-mass.js';
@@ -77,6 +78,8 @@ export interface CompiledNetwork {
   tubeMmf(b: number, flux: number, y: Float64Array): number;
   /** Stored magnetic energy of tube b at flux phi and state y, J. */
   tubeEnergy(b: number, flux: number, y: Float64Array): number;
+  /** What the elements and tubes declare about entering unknowns other than affinely (for the reduced formulation). */
+  nonAffineUnknowns(): NonAffineUnknowns;
 }
 
 /**
@@ -181,6 +184,7 @@ export function compileNetwork(description: NetworkDescription): CompiledNetwork
     tubeFlux: (y, b) => equations.fluxOf(y, b),
     tubeMmf: (b, flux, y) => tubes[b]!.mmf(flux, y),
     tubeEnergy: (b, flux, y) => tubes[b]!.energy(flux, y),
+    nonAffineUnknowns: () => nonAffineUnknowns(d, ctx, layout.tubeStates, tubeLoops),
   };
 }
 

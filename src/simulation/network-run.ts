@@ -17,6 +17,7 @@ import { freewheelCheck, type CutInductiveCurrent } from './device-freewheel.js'
 import { deviceStepCap } from './device-step-cap.js';
 import { smoothJunctionCrossing, type SmoothJunctionCrossing } from './device-knee-jump.js';
 import { elementKind } from '../elements/registry.js';
+import { createReducedNetworkIntegrator } from './reduced-network.js';
 
 /**
  * One change of a device's own state (an ideal diode turning on or off),
@@ -321,30 +322,30 @@ export class NetworkRun {
     this.trialStates = [...this.schedule.deviceStates];
     // Diodes fed by a sine: a step must not jump over a conduction window (see deviceStepCap).
     const maxStep = settings.maxStep ?? deviceStepCap(compiled.description);
-    this.integ = createDaeIntegrator(
-      // The run's own inputs in force, read from the run at each call: nothing a reader does to the network's can reach it.
-      new NetworkDae(compiled.equations, this, {
-        size: compiled.layout.size,
-        // M by its stamps: the set-up reads only its non-zeros.
-        massEntries: compiled.massEntries,
-        jacobianPattern: compiled.jacobianPattern,
-        y0: settings.initialState ?? compiled.y0,
-        t0: settings.t0,
-        tEnd: settings.horizon,
-        index2: compiled.index2,
-        events,
-      }),
-      {
-        rtol: settings.rtol,
-        atol: settings.atol,
-        ...(settings.atolFollowsRtol !== undefined ? { atolFollowsRtol: settings.atolFollowsRtol } : {}),
-        ...(maxStep !== undefined ? { maxStep } : {}),
-        ...(settings.initialStep !== undefined ? { initialStep: settings.initialStep } : {}),
-        ...(settings.maxSteps !== undefined ? { maxSteps: settings.maxSteps } : {}),
-        ...(settings.maxWallTimeMs !== undefined ? { maxWallTimeMs: settings.maxWallTimeMs } : {}),
-        ...(settings.signal ? { signal: settings.signal } : {}),
-      },
-    );
+    // The run's own inputs in force, read from the run at each call: nothing a reader does to the network's can reach it.
+    const dae = new NetworkDae(compiled.equations, this, {
+      size: compiled.layout.size,
+      // M by its stamps: the set-up reads only its non-zeros.
+      massEntries: compiled.massEntries,
+      jacobianPattern: compiled.jacobianPattern,
+      y0: settings.initialState ?? compiled.y0,
+      t0: settings.t0,
+      tEnd: settings.horizon,
+      index2: compiled.index2,
+      events,
+    });
+    const solverOptions = {
+      rtol: settings.rtol,
+      atol: settings.atol,
+      ...(settings.atolFollowsRtol !== undefined ? { atolFollowsRtol: settings.atolFollowsRtol } : {}),
+      ...(maxStep !== undefined ? { maxStep } : {}),
+      ...(settings.initialStep !== undefined ? { initialStep: settings.initialStep } : {}),
+      ...(settings.maxSteps !== undefined ? { maxSteps: settings.maxSteps } : {}),
+      ...(settings.maxWallTimeMs !== undefined ? { maxWallTimeMs: settings.maxWallTimeMs } : {}),
+      ...(settings.signal ? { signal: settings.signal } : {}),
+    };
+    // Reduced form: the algebraic unknowns eliminated inside f (refused, with the reason, where unsound).
+    this.integ = settings.formulation === 'reduced' ? createReducedNetworkIntegrator(compiled, dae, solverOptions) : createDaeIntegrator(dae, solverOptions);
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     // The integrator initialised at t0 with the inputs of no interval yet; redo it on the right side.
     this.startInterval(settings.t0);

@@ -49,6 +49,22 @@ export interface SolverSettings {
   readonly maxWallTimeMs?: number;
   /** Cancels the run; what was computed is kept (status `'aborted'`). */
   readonly signal?: AbortSignal;
+  /**
+   * How the network's equations reach the integrator. `'full'` (default):
+   * every unknown, as the DAE M y' = f(t, y). `'reduced'`: the algebraic
+   * unknowns (node potentials, branch currents without a derivative, loop
+   * fluxes through linear tubes only) are solved inside f from the
+   * differential ones, so Newton and the error control act on the
+   * differential unknowns alone (atol of an algebraic unknown then has no
+   * effect). Sound only where f enters every algebraic unknown affinely with
+   * coefficients fixed between breakpoints, as the elements declare: a
+   * network with an ideal diode, an index-2 unknown, or a saturating or
+   * hysteretic tube on a loop no winding drives is refused (InputError
+   * `not-reducible`, naming the element). Results differ from `'full'` at the
+   * tolerance level; on small saturating networks it takes fewer Newton
+   * iterations per step (docs/solver.md, "Eighth pass").
+   */
+  readonly formulation?: 'full' | 'reduced';
 }
 
 /**
@@ -69,6 +85,8 @@ export interface ResolvedSolverSettings {
   readonly maxSteps: number;
   readonly maxWallTimeMs?: number;
   readonly signal?: AbortSignal;
+  /** `'reduced'`: algebraic unknowns eliminated inside f (see {@link SolverSettings.formulation}); absent: the full DAE. */
+  readonly formulation?: 'full' | 'reduced';
   /**
    * Whether the absolute tolerances follow rtol through radau5's map
    * (atol' = rtol'/rtol atol, looser as rtol tightens): only when the user
@@ -113,6 +131,7 @@ export function checkSolverSettings(o: SolverSettings, where: string): void {
   positive(option, 'maxSteps', o.maxSteps, 1, '>= 1');
   positive(option, 'maxWallTimeMs', o.maxWallTimeMs);
   if (o.signal !== undefined && !(typeof o.signal === 'object' && o.signal !== null && 'aborted' in o.signal)) option('signal must be an AbortSignal');
+  if (o.formulation !== undefined && o.formulation !== 'full' && o.formulation !== 'reduced') option(`formulation ${JSON.stringify(o.formulation)} must be 'full' or 'reduced'`);
 }
 
 /**
@@ -140,6 +159,7 @@ export function resolveSolverSettings(
     ...(o.initialStep !== undefined ? { initialStep: o.initialStep } : {}),
     ...(o.maxWallTimeMs !== undefined ? { maxWallTimeMs: o.maxWallTimeMs } : {}),
     ...(o.signal !== undefined ? { signal: o.signal } : {}),
+    ...(o.formulation === 'reduced' ? { formulation: o.formulation } : {}),
   };
 }
 

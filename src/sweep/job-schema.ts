@@ -76,6 +76,7 @@ const simulateOptions = z.strictObject({
   sampling: z.optional(sampling),
   maxSteps: optNum,
   maxWallTimeMs: optNum,
+  formulation: z.optional(z.enum(['full', 'reduced'])),
 });
 
 const count = z.int().check(z.nonnegative());

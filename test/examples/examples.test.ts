@@ -129,6 +129,9 @@ const EXAMPLES: Readonly<Record<string, Expectation>> = {
   'solver-transamp.ts': { lines: [/^status: success/m, /largest relative deviation from the Test Set reference/] },
   'long-run-samples.ts': { lines: [/^streamed: status success, \d+ solver steps, \d+ samples kept$/m, /^samples identical to keeping every step: true; energy audit/m] },
   'sanity-checks.ts': { lines: [/^unit slip: status success, peak \|B\| \d\.\d+e-\d T$/m, /^  warning: tube "wound leg": magnetic path length 150 m/m, /^as meant: 0 warnings$/m, /^after the run: tube "wound leg": \|B\| reaches \d+\.\d+ T/m] },
+  'reduced-formulation.ts': {
+    lines: [/^full +0\.\d{4} +\d+\.\d{4} +\d+ +\d\.\d{2}$/m, /^reduced +0\.\d{4} +\d+\.\d{4} +\d+ +\d\.\d{2}$/m, /^refused \(not-reducible\): .*diode "rectifier"/m, /^Caution/m],
+  },
   'stepper-set-points.ts': {
     lines: [/^supply energy from the record (0\.5487[0-9]{2}) J, closed form \1 J$/m, /^Engineering estimate/m],
   },

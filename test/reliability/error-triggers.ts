@@ -57,6 +57,11 @@ export const TRIGGERS: Readonly<Record<string, () => unknown>> = {
     stepper.setSource(supply, 1); // 0 A -> 1 A crosses 0.5 A; each answer crosses it back
     return stepper.advanceTo(1e-3);
   },
+  'not-reducible': () => {
+    const { net, a } = base();
+    net.diode('d', a, net.node('k'));
+    return simulate(net, { stopTime: 1e-3, formulation: 'reduced' });
+  },
   'non-positive-value': () => {
     const { net, a } = base();
     return net.resistor('r', a, net.ground, 0);
