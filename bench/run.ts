@@ -7,7 +7,8 @@
  * memory against steps (bench/memory.ts), the commutations of a flyback with
  * ideal against exponential diodes (bench/flyback-commutation.ts), the ratios to compiled RADAU5
  * when the bench-anchor yardstick is at hand (bench/anchor.ts), and the flux walk taken apart
- * (network layer, differential-algebraic form, solver; bench/flux-walk-anatomy.ts). Prints tables;
+ * (network layer, differential-algebraic form, solver; bench/flux-walk-anatomy.ts), and the
+ * flux walk in the full against the reduced formulation (bench/flux-walk-reduced.ts). Prints tables;
  * wall times are medians of a few repeats. Total run time about a minute.
  */
 import { solveDae, type DaeProblem, type SolveDaeOptions } from '../src/index.js';
@@ -25,6 +26,7 @@ import { benchDevices } from './devices.js';
 import { benchLadder } from './ladder.js';
 import { benchLoaderCost } from './loader-cost.js';
 import { benchFluxWalkAnatomy } from './flux-walk-anatomy.js';
+import { benchFluxWalkReduced } from './flux-walk-reduced.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -161,4 +163,5 @@ benchMemory();
 benchAgainstRadau5();
 benchLoaderCost();
 benchFluxWalkAnatomy();
+benchFluxWalkReduced();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);
