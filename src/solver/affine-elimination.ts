@@ -128,6 +128,8 @@ export class AffineElimination implements DaeProblem {
   private readonly nd: number;
   private readonly na: number;
   private stale = true;
+  /** Whether P and Q hold the maps of the algebraic columns in jacA (false until formed, and while a factorisation failed). */
+  private formed = false;
   private readonly lu: DenseLu;
   private readonly massLu: DenseLu;
   private readonly jac: Float64Array;
@@ -211,6 +213,15 @@ export class AffineElimination implements DaeProblem {
     this.formedT = t;
     for (let j = 0; j < nd; j++) this.formedD[j] = yD[j]!;
     const a = split.algebraic;
+    // P and Q depend on df/dy only through its algebraic columns (T and M_DD are fixed): where a
+    // restart changed only source values, those columns are the same bits and P, Q stand as formed.
+    let unchanged = this.formed;
+    for (let i = 0; i < n && unchanged; i++) for (let k = 0; k < na && unchanged; k++) unchanged = this.jacA[i * na + k] === jac[i * n + a[k]!];
+    if (unchanged) {
+      this.stale = false;
+      return;
+    }
+    this.formed = false;
     for (let i = 0; i < n; i++) for (let k = 0; k < na; k++) this.jacA[i * na + k] = jac[i * n + a[k]!]!;
     if (split.compression) recombineJacobianRows(jac, n, split.compression);
     for (let r = 0; r < na; r++) for (let k = 0; k < na; k++) this.g[r * na + k] = jac[split.algebraicRows[r]! * n + a[k]!]!;
@@ -236,6 +247,7 @@ export class AffineElimination implements DaeProblem {
       if (nd > 0) this.massLu.solve(colD);
       for (let r = 0; r < nd; r++) p[r * n + j] = colD[r]!;
     }
+    this.formed = true;
     this.stale = false;
   }
 
