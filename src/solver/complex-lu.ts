@@ -1,7 +1,6 @@
 import { equilibrateComplex } from './dense-equilibration.js';
-import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
+import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type ComplexLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
-import { formShifted, scaledMass } from './shifted-matrix.js';
 import type { SparseMass } from './sparse-mass.js';
 
 /**
@@ -41,7 +40,12 @@ export class ComplexLu implements ComplexLinearSolver {
   private readonly colScale: number[];
   private readonly tr: number[];
   private readonly ti: number[];
+  /** |pivot|^2 of each row of U (re^2 + im^2), computed by the elimination and read by every solve. */
+  private readonly pivotNorm: number[];
   private readonly tol: number;
+  /** The shift of the matrix being factored by factorShifted. */
+  private shiftRe = NaN;
+  private shiftIm = NaN;
 
   constructor(readonly size: number) {
     const n = size;
@@ -52,6 +56,7 @@ export class ComplexLu implements ComplexLinearSolver {
     this.colScale = packedDoubles(n);
     this.tr = packedDoubles(n);
     this.ti = packedDoubles(n);
+    this.pivotNorm = packedDoubles(n);
     this.tol = PIVOT_RELATIVE_TOLERANCE * n;
   }
 
@@ -69,16 +74,50 @@ export class ComplexLu implements ComplexLinearSolver {
 
   /**
    * Factor (shiftRe + i shiftIm) M - J (M the identity when `mass` is undefined) without
-   * matrices of their own: formed, equilibrated and scaled in the factor's storage, with the
-   * same operations as {@link factor} of the formed matrix (the same factors and result, bit
-   * for bit), and no separate pass to form them and copy them in.
+   * matrices of their own: each row is formed in the factor's storage and at once scanned for its
+   * equilibration scale, with the same operations as {@link factor} of the formed matrix (the
+   * same factors and result, bit for bit), and no separate passes to form them and read them
+   * back.
    */
   factorShifted(jac: Float64Array, shiftRe: number, shiftIm: number, mass: SparseMass | undefined): number {
-    const { size: n, ar, ai, rowScale, colScale } = this;
-    formShifted(n, jac, shiftRe, mass, ar);
-    scaledMass(n, shiftIm, mass, ai);
-    const nonFinite = equilibrateComplex(n, ar, ai, rowScale, colScale);
-    if (nonFinite >= 0) return nonFinite;
+    this.shiftRe = shiftRe;
+    this.shiftIm = shiftIm;
+    return this.factorHeldShift(jac, mass);
+  }
+
+  /** {@link factorShifted} with the shifts in fields (see the real LU's). */
+  private factorHeldShift(jac: Float64Array, mass: SparseMass | undefined): number {
+    const { size: n, ar, ai, rowScale, colScale, shiftRe, shiftIm } = this;
+    for (let j = 0; j < n; j++) colScale[j] = 0;
+    for (let i = 0; i < n; i++) {
+      const row = i * n;
+      for (let j = 0; j < n; j++) {
+        ar[row + j] = -jac[row + j]!;
+        ai[row + j] = 0;
+      }
+      if (mass) {
+        const { rowStart, col, value } = mass;
+        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
+          const idx = row + col[k]!;
+          ar[idx] = ar[idx]! + shiftRe * value[k]!;
+          ai[idx] = shiftIm * value[k]!;
+        }
+      } else {
+        ar[row + i] = ar[row + i]! + shiftRe;
+        ai[row + i] = shiftIm;
+      }
+      // The row's part of equilibrateComplex (see the real LU's factorShifted).
+      let m = 0;
+      for (let j = 0; j < n; j++) {
+        const v = Math.abs(ar[row + j]!) + Math.abs(ai[row + j]!);
+        if (!Number.isFinite(v)) return j;
+        if (v > m) m = v;
+      }
+      const r = powerOfTwoInverse(m);
+      rowScale[i] = r;
+      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * (Math.abs(ar[row + j]!) + Math.abs(ai[row + j]!)));
+    }
+    for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
     return this.scaleAndEliminate();
   }
 
@@ -100,7 +139,7 @@ export class ComplexLu implements ComplexLinearSolver {
 
   /** Gaussian elimination with partial pivoting of the equilibrated matrix in (ar, ai) (perm the identity on entry). */
   private eliminate(): number {
-    const { size: n, ar, ai, perm, tol } = this;
+    const { size: n, ar, ai, perm, pivotNorm, tol } = this;
     for (let k = 0; k < n; k++) {
       let p = k;
       let pmax = Math.abs(ar[k * n + k]!) + Math.abs(ai[k * n + k]!);
@@ -132,6 +171,7 @@ export class ComplexLu implements ComplexLinearSolver {
       if (!(mod > tol) || !Number.isFinite(mod)) return k;
       // 1/pivot
       const d = pr * pr + pi * pi;
+      pivotNorm[k] = d;
       const ir = pr / d;
       const ii = -pi / d;
       for (let i = k + 1; i < n; i++) {
@@ -155,7 +195,7 @@ export class ComplexLu implements ComplexLinearSolver {
   }
 
   solve(bRe: Float64Array, bIm: Float64Array): void {
-    const { size: n, ar, ai, perm, rowScale, colScale, tr, ti } = this;
+    const { size: n, ar, ai, perm, rowScale, colScale, tr, ti, pivotNorm } = this;
     // Forward with the permuted, row-scaled b read as it goes; backward writing each scaled x_i once final.
     for (let i = 0; i < n; i++) {
       const p = perm[i]!;
@@ -184,7 +224,7 @@ export class ComplexLu implements ComplexLinearSolver {
       }
       const pr = ar[ri + i]!;
       const pi = ai[ri + i]!;
-      const d = pr * pr + pi * pi;
+      const d = pivotNorm[i]!;
       const xr = (sr * pr + si * pi) / d;
       const xi = (si * pr - sr * pi) / d;
       tr[i] = xr;

@@ -996,7 +996,7 @@ class RadauIntegrator implements DaeIntegrator {
       throw new UserCodeError(e, this.system.analytic ? 'the Jacobian' : 'f (finite-difference Jacobian)', t);
     }
     const rows = this.system.nonFiniteRows(out);
-    if (rows.length > 0) throw new NonFiniteJacobian(rows, t);
+    if (rows.length > 0) throw new NonFiniteJacobian([...rows], t);
   }
 
   /** {@link callJacobian} into a dense row-major n x n `out` (for the consistent initialisation). */
@@ -1473,8 +1473,16 @@ class RadauIntegrator implements DaeIntegrator {
     // Dense output coefficients Q = Z^T P, before z is reused (into the reused piece buffers).
     const piece = this.piece;
     const q = piece.q;
-    for (let k = 0; k < 3; k++) {
-      for (let i = 0; i < n; i++) q[k * n + i] = z[i]! * P[k]! + z[n + i]! * P[3 + k]! + z[2 * n + i]! * P[6 + k]!;
+    // P's entries as locals and the three powers in one pass: the imported array read inside the
+    // loop was loaded and checked per entry.
+    const p0 = P[0]!, p1 = P[1]!, p2 = P[2]!, p3 = P[3]!, p4 = P[4]!, p5 = P[5]!, p6 = P[6]!, p7 = P[7]!, p8 = P[8]!;
+    for (let i = 0; i < n; i++) {
+      const z1 = z[i]!;
+      const z2 = z[n + i]!;
+      const z3 = z[2 * n + i]!;
+      q[i] = z1 * p0 + z2 * p3 + z3 * p6;
+      q[n + i] = z1 * p1 + z2 * p4 + z3 * p7;
+      q[2 * n + i] = z1 * p2 + z2 * p5 + z3 * p8;
     }
     const yOld = piece.yOld;
     for (let i = 0; i < n; i++) {

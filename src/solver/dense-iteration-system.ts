@@ -2,7 +2,7 @@ import { ComplexLu } from './complex-lu.js';
 import { DenseLu } from './dense-lu.js';
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
 import { ownFloat64, type TakeFloat64 } from './float64-chunks.js';
-import type { IterationSystem } from './iteration-system.js';
+import { NO_ROWS, type IterationSystem } from './iteration-system.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { createEmbeddedComplexLu, createMlMatrixLu } from './ml-matrix-lu.js';
 import type { NormalizedDae } from './normalize-problem.js';
@@ -71,7 +71,7 @@ class DenseIterationSystem implements IterationSystem {
     return finiteDifferenceJacobian(this.p.rhs, t, y, f, out, this.fdWork);
   }
 
-  nonFiniteRows(jac: Float64Array): number[] {
+  nonFiniteRows(jac: Float64Array): readonly number[] {
     const n = this.n;
     for (let k = 0; k < n * n; k++) {
       if (!Number.isFinite(jac[k]!)) {
@@ -80,7 +80,7 @@ class DenseIterationSystem implements IterationSystem {
         return [...rows];
       }
     }
-    return [];
+    return NO_ROWS;
   }
 
   factor(J: Float64Array, fac1: number, alphn: number, betan: number): number {

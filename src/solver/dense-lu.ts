@@ -1,7 +1,6 @@
 import { equilibrateReal } from './dense-equilibration.js';
-import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
+import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
-import { formShifted } from './shifted-matrix.js';
 import type { SparseMass } from './sparse-mass.js';
 
 /**
@@ -40,6 +39,8 @@ export class DenseLu implements RealLinearSolver {
   private readonly colScale: number[];
   private readonly tmp: number[];
   private readonly tol: number;
+  /** The shift of the matrix being factored by factorShifted. */
+  private shift = NaN;
 
   constructor(readonly size: number) {
     const n = size;
@@ -63,15 +64,44 @@ export class DenseLu implements RealLinearSolver {
 
   /**
    * Factor shift M - J (M the identity when `mass` is undefined) without a matrix of its own:
-   * it is formed, equilibrated and scaled in the factor's storage, with the same operations as
-   * {@link factor} of the formed matrix (the same factors and result, bit for bit), and no
-   * separate pass to form it and copy it in (a third of a small factorisation's time).
+   * each row is formed in the factor's storage and at once scanned for its equilibration scale,
+   * with the same operations as {@link factor} of the formed matrix (the same factors and result,
+   * bit for bit), and no separate passes to form it, copy it in and read it back.
    */
   factorShifted(jac: Float64Array, shift: number, mass: SparseMass | undefined): number {
-    const { size: n, lu, rowScale, colScale } = this;
-    formShifted(n, jac, shift, mass, lu);
-    const nonFinite = equilibrateReal(n, lu, rowScale, colScale);
-    if (nonFinite >= 0) return nonFinite;
+    this.shift = shift;
+    return this.factorHeldShift(jac, mass);
+  }
+
+  /** {@link factorShifted} with the shift in a field: a number passed to a call that is not inlined is boxed on the heap. */
+  private factorHeldShift(jac: Float64Array, mass: SparseMass | undefined): number {
+    const { size: n, lu, rowScale, colScale, shift } = this;
+    for (let j = 0; j < n; j++) colScale[j] = 0;
+    for (let i = 0; i < n; i++) {
+      const row = i * n;
+      for (let j = 0; j < n; j++) lu[row + j] = -jac[row + j]!;
+      if (mass) {
+        const { rowStart, col, value } = mass;
+        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
+          const idx = row + col[k]!;
+          lu[idx] = lu[idx]! + shift * value[k]!;
+        }
+      } else {
+        lu[row + i] = lu[row + i]! + shift;
+      }
+      // The row's part of equilibrateReal: the first non-finite entry in row order, the row's
+      // scale, and the column maxima so far (the rows below are not read by it).
+      let m = 0;
+      for (let j = 0; j < n; j++) {
+        const v = Math.abs(lu[row + j]!);
+        if (!Number.isFinite(v)) return j;
+        if (v > m) m = v;
+      }
+      const r = powerOfTwoInverse(m);
+      rowScale[i] = r;
+      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * Math.abs(lu[row + j]!));
+    }
+    for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
     return this.scaleAndEliminate();
   }
 

@@ -2,6 +2,15 @@ import type { SparsePattern } from './sparse-pattern.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 
 /**
+ * The empty answer of {@link IterationSystem.nonFiniteRows}, shared: a new empty array per
+ * Jacobian evaluation was garbage whenever the check was not inlined into its caller.
+ *
+ * @internal
+ * @example `if (system.nonFiniteRows(jac) !== NO_ROWS) fail();`
+ */
+export const NO_ROWS: readonly number[] = Object.freeze([]);
+
+/**
  * The linear algebra of one integrator behind one seam: where the Jacobian
  * J is held, how it is evaluated, and how the iteration matrices of Radau
  * IIA, (gamma/h) M - J (real) and ((alpha + i beta)/h) M - J (complex), are
@@ -35,8 +44,8 @@ export interface IterationSystem {
    * Throws {@link OutsidePatternError} for an entry the pattern does not hold.
    */
   evaluate(t: number, y: Float64Array, f: Float64Array, out: Float64Array): number;
-  /** Rows of J (in `jac`) holding NaN or Infinity, ascending; empty when all are finite. */
-  nonFiniteRows(jac: Float64Array): number[];
+  /** Rows of J (in `jac`) holding NaN or Infinity, ascending; {@link NO_ROWS} when all are finite. */
+  nonFiniteRows(jac: Float64Array): readonly number[];
   /**
    * Form (fac1 M - J) and ((alphn + i betan) M - J) from `jac` and factor
    * them. Returns -1, or the column of the first bad pivot (real system first).

@@ -16,7 +16,7 @@ import { weightedRmsNorm } from './weighted-norm.js';
 export interface ErrorEstimateWork {
   /** The error vector (out): the components behind a rejection are read from it. */
   readonly err: Float64Array;
-  /** M (e . Z)/h. */
+  /** M (e . Z)/h (not written when M is the identity: (e . Z)/h is read instead). */
   readonly mz: number[];
   /** (e . Z)/h. */
   readonly ez: number[];
@@ -66,7 +66,7 @@ export class ErrorEstimateArrays implements ErrorEstimateWork {
  * ```
  */
 export function radauErrorEstimate(
-  sys: Pick<CollocationSystem, 'rhs' | 'multiplyMass'>,
+  sys: Pick<CollocationSystem, 'rhs' | 'multiplyMass' | 'identityMass'>,
   luReal: RealLinearSolver,
   work: ErrorEstimateWork,
   at: Pick<CollocationStep, 't' | 'h'> & { err: number },
@@ -84,15 +84,20 @@ export function radauErrorEstimate(
   const hee2 = E2 / h;
   const hee3 = E3 / h;
   for (let i = 0; i < n; i++) ez[i] = hee1 * z[i]! + hee2 * z[n + i]! + hee3 * z[2 * n + i]!;
-  sys.multiplyMass(ez, 0, mz);
-  for (let i = 0; i < n; i++) errv[i] = f0[i]! + mz[i]!;
+  // M (e . Z)/h: (e . Z)/h itself when M is the identity (read in place, not copied).
+  let me = ez;
+  if (sys.identityMass !== true) {
+    sys.multiplyMass(ez, 0, mz);
+    me = mz;
+  }
+  for (let i = 0; i < n; i++) errv[i] = f0[i]! + me[i]!;
   luReal.solve(errv);
   let err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
   if (err >= 1 && refine) {
     const { ys, fy } = work;
     for (let i = 0; i < n; i++) ys[i] = y[i]! + errv[i]!;
     sys.rhs(t, ys, fy);
-    for (let i = 0; i < n; i++) errv[i] = fy[i]! + mz[i]!;
+    for (let i = 0; i < n; i++) errv[i] = fy[i]! + me[i]!;
     luReal.solve(errv);
     err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
   }

@@ -2,12 +2,12 @@ import type { SparseMass } from './sparse-mass.js';
 
 /**
  * out = shift M - J, row-major n x n (M the identity when `mass` is
- * undefined): the real part of a Radau iteration matrix. `out` may be the
- * storage a factorisation then works in (a plain array: the flat LUs'), or
- * a Float64Array (the ml-matrix path's formed matrices).
+ * undefined): the real part of a Radau iteration matrix, for the ml-matrix
+ * path's formed matrices (the flat LUs form theirs row by row in their own
+ * storage, with the same operations: `DenseLu.factorShifted`).
  *
  * @internal
- * @example `formShifted(n, jac, gamma / h, p.mass, lu)`
+ * @example `formShifted(n, jac, gamma / h, p.mass, e1)`
  */
 export function formShifted(n: number, jac: Float64Array, shift: number, mass: SparseMass | undefined, out: number[] | Float64Array): void {
   for (let k = 0; k < n * n; k++) out[k] = -jac[k]!;

@@ -1,5 +1,5 @@
 import { finiteDifferenceJacobian } from './finite-difference-jacobian.js';
-import { OutsidePatternError, type IterationSystem } from './iteration-system.js';
+import { NO_ROWS, OutsidePatternError, type IterationSystem } from './iteration-system.js';
 import type { NormalizedDae } from './normalize-problem.js';
 import { createSparseComplexLu } from './sparse-complex-lu.js';
 import { createSparseLu } from './sparse-lu.js';
@@ -148,16 +148,16 @@ export function createSparseIterationSystem(p: NormalizedDae): IterationSystem {
       return evaluations;
     },
     nonFiniteRows(jac) {
-      const rows: number[] = [];
+      let rows: number[] | undefined;
       for (let i = 0; i < n; i++) {
         for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
           if (!Number.isFinite(jac[e]!)) {
-            rows.push(i);
+            (rows ??= []).push(i);
             break;
           }
         }
       }
-      return rows;
+      return rows ?? NO_ROWS;
     },
     factor(J, fac1, alphn, betan) {
       for (let e = 0; e < nnz; e++) {

@@ -117,4 +117,28 @@ describe('iteration matrices formed in the factors', () => {
       { numRuns: 300 },
     );
   });
+
+  it('a non-finite entry of J: the same column returned as factor() of the formed matrices, real and complex', () => {
+    // The formed rows are scanned as they are formed: the first non-finite entry in row order
+    // must be the one equilibration of the whole formed matrix finds.
+    fc.assert(
+      fc.property(
+        cases,
+        fc.array(fc.tuple(fc.nat(), fc.constantFrom(Number.NaN, Infinity, -Infinity)), { minLength: 1, maxLength: 3 }),
+        ([n, j, diagM, , identity], bad) => {
+          const J = Float64Array.from(j);
+          for (const [k, v] of bad) J[k % (n * n)] = v;
+          const massDense = identity ? undefined : Float64Array.from({ length: n * n }, (_, k) => (k % (n + 1) === 0 ? diagM[k / (n + 1)]! : 0));
+          const mass: SparseMass | undefined = massDense && sparseMassOfDense(massDense, n);
+          const real = new DenseLu(n).factorShifted(J, 40, mass);
+          expect(real).toBe(new DenseLu(n).factor(formed(J, n, 40, massDense)));
+          expect(real).toBeGreaterThanOrEqual(0);
+          const complex = new ComplexLu(n).factorShifted(J, 30, -35, mass);
+          expect(complex).toBe(new ComplexLu(n).factor(formed(J, n, 30, massDense), formedImaginary(n, -35, massDense)));
+          expect(complex).toBeGreaterThanOrEqual(0);
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
 });
