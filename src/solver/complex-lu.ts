@@ -1,5 +1,5 @@
-import { equilibrateComplex } from './dense-equilibration.js';
-import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type ComplexLinearSolver } from './linear-solver.js';
+import { equilibrateComplex, equilibrateComplexRow, finishColumnScales } from './dense-equilibration.js';
+import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import type { SparseMass } from './sparse-mass.js';
 
@@ -107,17 +107,10 @@ export class ComplexLu implements ComplexLinearSolver {
         ai[row + i] = shiftIm;
       }
       // The row's part of equilibrateComplex (see the real LU's factorShifted).
-      let m = 0;
-      for (let j = 0; j < n; j++) {
-        const v = Math.abs(ar[row + j]!) + Math.abs(ai[row + j]!);
-        if (!Number.isFinite(v)) return j;
-        if (v > m) m = v;
-      }
-      const r = powerOfTwoInverse(m);
-      rowScale[i] = r;
-      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * (Math.abs(ar[row + j]!) + Math.abs(ai[row + j]!)));
+      const bad = equilibrateComplexRow(n, i, ar, ai, rowScale, colScale);
+      if (bad >= 0) return bad;
     }
-    for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
+    finishColumnScales(n, colScale);
     return this.scaleAndEliminate();
   }
 

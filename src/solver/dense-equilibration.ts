@@ -22,21 +22,52 @@ export function equilibrateReal(n: number, a: number[], rowScale: number[], colS
   // keeps a NaN from an infinite scale times 0, as the column pass by definition does).
   for (let j = 0; j < n; j++) colScale[j] = 0;
   for (let i = 0; i < n; i++) {
-    const row = i * n;
-    let m = 0;
-    for (let j = 0; j < n; j++) {
-      const v = Math.abs(a[row + j]!);
-      if (!Number.isFinite(v)) return j;
-      if (v > m) m = v;
-    }
-    const r = powerOfTwoInverse(m);
-    rowScale[i] = r;
-    for (let j = 0; j < n; j++) {
-      colScale[j] = Math.max(colScale[j]!, r * Math.abs(a[row + j]!));
-    }
+    const bad = equilibrateRealRow(n, i, a, rowScale, colScale);
+    if (bad >= 0) return bad;
   }
-  for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
+  finishColumnScales(n, colScale);
   return -1;
+}
+
+/**
+ * Row i's part of {@link equilibrateReal}: its scale, and the column maxima
+ * so far (colScale zeroed before row 0). The factorisations that form the
+ * matrix row by row call it while the row is at hand. Returns the column of
+ * the row's first non-finite entry, or -1.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * for (let i = 0; i < n; i++) if (equilibrateRealRow(n, i, a, rowScale, colScale) >= 0) break;
+ * ```
+ */
+export function equilibrateRealRow(n: number, i: number, a: number[], rowScale: number[], colScale: number[]): number {
+  const row = i * n;
+  let m = 0;
+  for (let j = 0; j < n; j++) {
+    const v = Math.abs(a[row + j]!);
+    if (!Number.isFinite(v)) return j;
+    if (v > m) m = v;
+  }
+  const r = powerOfTwoInverse(m);
+  rowScale[i] = r;
+  for (let j = 0; j < n; j++) {
+    colScale[j] = Math.max(colScale[j]!, r * Math.abs(a[row + j]!));
+  }
+  return -1;
+}
+
+/**
+ * The column scales from the column maxima the row passes collected.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * finishColumnScales(n, colScale);
+ * ```
+ */
+export function finishColumnScales(n: number, colScale: number[]): void {
+  for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
 }
 
 /**
@@ -52,19 +83,34 @@ export function equilibrateReal(n: number, a: number[], rowScale: number[], colS
 export function equilibrateComplex(n: number, re: number[], im: number[], rowScale: number[], colScale: number[]): number {
   for (let j = 0; j < n; j++) colScale[j] = 0;
   for (let i = 0; i < n; i++) {
-    const row = i * n;
-    let m = 0;
-    for (let j = 0; j < n; j++) {
-      const v = Math.abs(re[row + j]!) + Math.abs(im[row + j]!);
-      if (!Number.isFinite(v)) return j;
-      if (v > m) m = v;
-    }
-    const r = powerOfTwoInverse(m);
-    rowScale[i] = r;
-    for (let j = 0; j < n; j++) {
-      colScale[j] = Math.max(colScale[j]!, r * (Math.abs(re[row + j]!) + Math.abs(im[row + j]!)));
-    }
+    const bad = equilibrateComplexRow(n, i, re, im, rowScale, colScale);
+    if (bad >= 0) return bad;
   }
-  for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
+  finishColumnScales(n, colScale);
+  return -1;
+}
+
+/**
+ * Row i's part of {@link equilibrateComplex} (see {@link equilibrateRealRow}).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * for (let i = 0; i < n; i++) if (equilibrateComplexRow(n, i, re, im, rowScale, colScale) >= 0) break;
+ * ```
+ */
+export function equilibrateComplexRow(n: number, i: number, re: number[], im: number[], rowScale: number[], colScale: number[]): number {
+  const row = i * n;
+  let m = 0;
+  for (let j = 0; j < n; j++) {
+    const v = Math.abs(re[row + j]!) + Math.abs(im[row + j]!);
+    if (!Number.isFinite(v)) return j;
+    if (v > m) m = v;
+  }
+  const r = powerOfTwoInverse(m);
+  rowScale[i] = r;
+  for (let j = 0; j < n; j++) {
+    colScale[j] = Math.max(colScale[j]!, r * (Math.abs(re[row + j]!) + Math.abs(im[row + j]!)));
+  }
   return -1;
 }

@@ -1,5 +1,5 @@
-import { equilibrateReal } from './dense-equilibration.js';
-import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } from './linear-solver.js';
+import { equilibrateReal, equilibrateRealRow, finishColumnScales } from './dense-equilibration.js';
+import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import type { SparseMass } from './sparse-mass.js';
 
@@ -89,19 +89,11 @@ export class DenseLu implements RealLinearSolver {
       } else {
         lu[row + i] = lu[row + i]! + shift;
       }
-      // The row's part of equilibrateReal: the first non-finite entry in row order, the row's
-      // scale, and the column maxima so far (the rows below are not read by it).
-      let m = 0;
-      for (let j = 0; j < n; j++) {
-        const v = Math.abs(lu[row + j]!);
-        if (!Number.isFinite(v)) return j;
-        if (v > m) m = v;
-      }
-      const r = powerOfTwoInverse(m);
-      rowScale[i] = r;
-      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * Math.abs(lu[row + j]!));
+      // The row's part of equilibrateReal while the row is at hand (the rows below are not read by it).
+      const bad = equilibrateRealRow(n, i, lu, rowScale, colScale);
+      if (bad >= 0) return bad;
     }
-    for (let j = 0; j < n; j++) colScale[j] = powerOfTwoInverse(colScale[j]!);
+    finishColumnScales(n, colScale);
     return this.scaleAndEliminate();
   }
 
