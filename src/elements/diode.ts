@@ -46,8 +46,12 @@ const JUNCTION_ITERATIONS = 100;
 export const diodeKind: ElementKind<DiodeDescription> = {
   kind: 'diode',
   noun: 'diode',
-  /** Its junction law (or the on/off state it changes by itself) acts on its terminal potentials. */
-  nonAffineUnknowns: (d, ctx) => [ctx.potential(d.plus), ctx.potential(d.minus)].filter((i) => i >= 0),
+  /**
+   * The exponential law acts on its terminal potentials other than affinely. An ideal junction is
+   * affine within an input interval (gOn or gOff, held, with a fixed offset); its commutations are
+   * events, each followed by a restart that forms f's maps again.
+   */
+  nonAffineUnknowns: (d, ctx) => (d.junction === 'ideal' ? [] : [ctx.potential(d.plus), ctx.potential(d.minus)].filter((i) => i >= 0)),
   role: 'conductive',
   branchCurrent: false,
   check(d, ctx) {

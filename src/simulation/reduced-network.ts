@@ -27,9 +27,11 @@ function nameOf(owner: string): string {
  * checks that make eliminating its algebraic unknowns inside f sound (and
  * affordable: at most 1000 unknowns, as the elimination is dense):
  * every element and tube declares how it enters the unknowns, none enters
- * an algebraic unknown other than affinely, no device changes its own state
- * (an ideal diode's events), no unknown is of index 2, and M's differential
- * block is square and nonsingular (after dependent rows are recombined).
+ * an algebraic unknown other than affinely, no unknown is of index 2, M's
+ * differential block is square and nonsingular (after dependent rows are
+ * recombined) and not empty. A device that changes its own state (an ideal
+ * diode) is affine within each interval and declares so: each commutation
+ * is an event and a restart, where the maps are formed again.
  * Throws InputError `not-reducible` naming what stands in the way.
  *
  * @internal
@@ -41,11 +43,6 @@ function nameOf(owner: string): string {
 export function reducedPartition(c: CompiledNetwork): AffinePartition {
   if (c.layout.size > MAX_REDUCED_SIZE) {
     throw refuse(`the network has ${c.layout.size} unknowns, more than the ${MAX_REDUCED_SIZE} the reduction takes (it works on dense n x n matrices)`, []);
-  }
-  const names = c.description.elements.map((e) => e.name);
-  if (c.events.length > 0) {
-    const devices = c.events.map((e) => names[e.element]!);
-    throw refuse(`${devices.map((d) => `diode "${d}"`).join(', ')} changes its state by itself, and each change changes f's form`, devices);
   }
   const declared = c.nonAffineUnknowns();
   if (declared.undeclared.length > 0) {
@@ -59,6 +56,10 @@ export function reducedPartition(c: CompiledNetwork): AffinePartition {
     const unknowns = [...split.unknowns];
     const owners = [...new Set(unknowns.flatMap((i) => c.layout.owners[i] ?? []))];
     throw refuse(`${split.reason}: ${unknowns.map((i) => c.layout.labels[i]).join('; ')}`, owners);
+  }
+  if (split.differential.length === 0) {
+    // Nothing left to integrate: the inner integrator would have no unknown at all.
+    throw refuse('no unknown has a derivative (no winding, inductor, capacitor or eddy term), so nothing is left to integrate', []);
   }
   for (const i of split.algebraic) {
     const owner = declared.byUnknown.get(i);
