@@ -1,6 +1,7 @@
 import { requireFinite, requirePositive } from '../network/argument-checks.js';
 import type { CapacitorDescription } from '../network/description.js';
 import { packedDoublesFrom } from '../solver/packed-doubles.js';
+import { capacitorCurrent, stampCapacitance } from './capacitance-stamps.js';
 import type { CompiledElement, ElementGroup, ElementKind, InputView, RateReader } from './element-kind.js';
 import type { StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
@@ -40,10 +41,7 @@ export const capacitorKind: ElementKind<CapacitorDescription> = {
         role: 'capacitive' as const,
         // i = C dv/dt, read from the state through M y' = f.
         current: (t: number, y: Float64Array, inputs: InputView, rates: RateReader) =>
-          rates.rate(`capacitor:${index}`, (u) => {
-            if (pk >= 0) u[pk] = d.capacitance;
-            if (qk >= 0) u[qk] = -d.capacitance;
-          }, t, y, inputs),
+          capacitorCurrent(rates, `capacitor:${index}`, pk, qk, d.capacitance, t, y, inputs),
         storedEnergy: (y: Float64Array) => 0.5 * d.capacitance * voltage(y) ** 2,
       };
     }));
@@ -75,12 +73,6 @@ class CapacitorGroup implements ElementGroup {
 
   mass(M: StampTarget): void {
     const { p, q, capacitance } = this;
-    for (let k = 0; k < p.length; k++) {
-      const c = capacitance[k]!;
-      M.add(p[k]!, p[k]!, c);
-      M.add(p[k]!, q[k]!, -c);
-      M.add(q[k]!, p[k]!, -c);
-      M.add(q[k]!, q[k]!, c);
-    }
+    for (let k = 0; k < p.length; k++) stampCapacitance(M, p[k]!, q[k]!, capacitance[k]!);
   }
 }

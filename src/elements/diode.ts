@@ -5,7 +5,7 @@ import { packedDoubles, packedDoublesFrom } from '../solver/packed-doubles.js';
 import type { CompiledElement, ElementEvent, ElementGroup, ElementKind, InputView } from './element-kind.js';
 import { stampConductance, type StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
-import { capacitorCurrent, stampCapacitance } from './switch.js';
+import { capacitorCurrent, stampCapacitance } from './capacitance-stamps.js';
 
 /**
  * Relative width of the band around an ideal diode's threshold inside which
