@@ -16,12 +16,6 @@ function refuse(message: string, elements: readonly string[]): InputError {
   return new InputError('not-reducible', `formulation 'reduced': ${message}; ${FIX}`, elements);
 }
 
-/** The name inside an owner as messages give it (`flux tube "leg"` -> `leg`). */
-function nameOf(owner: string): string {
-  const m = /"([^"]*)"$/.exec(owner);
-  return m ? m[1]! : owner;
-}
-
 /**
  * The split of a compiled network for the reduced formulation, after the
  * checks that make eliminating its algebraic unknowns inside f sound (and
@@ -46,7 +40,7 @@ export function reducedPartition(c: CompiledNetwork): AffinePartition {
   }
   const declared = c.nonAffineUnknowns();
   if (declared.undeclared.length > 0) {
-    throw refuse(`${declared.undeclared.join(', ')} does not declare which unknowns it enters other than affinely`, declared.undeclared.map(nameOf));
+    throw refuse(`${declared.undeclared.map((o) => o.label).join(', ')} does not declare which unknowns it enters other than affinely`, declared.undeclared.map((o) => o.name));
   }
   if (c.index2.length > 0) {
     throw refuse(`${c.layout.labels[c.index2[0]!]} is of index 2 (a current that a current source forces through a winding)`, c.layout.owners[c.index2[0]!] ?? []);
@@ -65,8 +59,8 @@ export function reducedPartition(c: CompiledNetwork): AffinePartition {
     const owner = declared.byUnknown.get(i);
     if (owner !== undefined) {
       throw refuse(
-        `${owner} enters the ${c.layout.labels[i]} other than affinely, and that unknown is algebraic (no winding, inductor, capacitor or eddy term gives it a derivative), so it cannot be eliminated inside f`,
-        [nameOf(owner)],
+        `${owner.label} enters the ${c.layout.labels[i]} other than affinely, and that unknown is algebraic (no winding, inductor, capacitor or eddy term gives it a derivative), so it cannot be eliminated inside f`,
+        [owner.name],
       );
     }
   }
