@@ -80,7 +80,7 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     const startB = tube.initialFluxDensity ?? (tube.initialFlux !== undefined ? tube.initialFlux / area : 0);
     const m0 = law.initialMagnetisation ?? startB / MU0;
     const h0 = startB / MU0 - m0;
-    const magnetisation = (flux: number, y: Float64Array): number => flux / area / MU0 - y[s]!;
+    const magnetisation = (flux: number, y: Float64Array): number => magnetisationOf(flux, area, y[s]!);
     return {
       name: tube.name,
       law: undefined,
@@ -113,6 +113,11 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     { name: 'material', value: law.material.name ?? 'Jiles-Atherton material' },
   ],
 };
+
+/** Magnetisation M = B/mu0 - H of a tube of cross-section `area` carrying `flux` at field strength h, A/m. */
+function magnetisationOf(flux: number, area: number, h: number): number {
+  return flux / area / MU0 - h;
+}
 
 /**
  * The rows of one hysteretic tube's internal states (H, then u = db/dt) as
@@ -147,14 +152,14 @@ class HystereticTubeStates implements TubeStateStamps {
     const area = this.area;
     const u = y[s + 1]!;
     const flux = this.flux(y);
-    f[s]! += u / MU0 - magnetisationRate(this.model, flux / area, flux / area / MU0 - y[s]!, u);
+    f[s]! += u / MU0 - magnetisationRate(this.model, flux / area, magnetisationOf(flux, area, y[s]!), u);
     f[s + 1]! += u;
   }
 
   jacobian(_t: number, y: Float64Array, _inputs: InputView, J: StampTarget): void {
     const { s, area, length, index, sign } = this;
     const flux = this.flux(y);
-    const p = magnetisationRatePartials(this.model, flux / area, flux / area / MU0 - y[s]!, y[s + 1]!);
+    const p = magnetisationRatePartials(this.model, flux / area, magnetisationOf(flux, area, y[s]!), y[s + 1]!);
     // Field row f = u/mu0 - R(b, m, u) with m = b/mu0 - H.
     const dFieldDb = -(p.db + p.dm / MU0);
     for (let k = 0; k < index.length; k++) {
