@@ -426,6 +426,9 @@ export class SimulationResult {
     const steps = this.steps;
     const y = new Float64Array(this.compiled.layout.size);
     const step = new StepBuffer(this.compiled.layout.size);
+    // The step last loaded (a record that never changes): calls in time order read one step many times,
+    // and loading a reduced run's step solves its algebraic unknowns at two nodes.
+    let loaded = -1;
     return (t) => {
       if (steps.length === 0 || !(t >= steps.tOld(0) && t <= steps.t(steps.length - 1))) {
         throw new InputError('outside-result', `evaluator: t = ${t} s lies outside the simulated span`, []);
@@ -438,7 +441,10 @@ export class SimulationResult {
         if (steps.tOld(mid) <= t) lo = mid;
         else hi = mid - 1;
       }
-      steps.load(lo, step);
+      if (lo !== loaded) {
+        steps.load(lo, step);
+        loaded = lo;
+      }
       // The inputs recorded for the step's interval, for this call only: a live run goes on with its own.
       return this.compiled.inputs.during(this.intervals[step.interval]!, () => {
         evaluateRecordedStep(step, t, this.compiled.index2, y);

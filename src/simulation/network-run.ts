@@ -18,6 +18,8 @@ import { deviceStepCap } from './device-step-cap.js';
 import { smoothJunctionCrossing, type SmoothJunctionCrossing } from './device-knee-jump.js';
 import { elementKind } from '../elements/registry.js';
 import { createReducedNetworkIntegrator } from './reduced-network.js';
+import { DeferredInnerNodes, type DeferredInputs } from './deferred-inner-nodes.js';
+import type { ReducedDaeIntegrator } from '../solver/reduced-integrator.js';
 
 /**
  * One change of a device's own state (an ideal diode turning on or off),
@@ -163,6 +165,12 @@ export interface RecordOptions {
 export class NetworkRun {
   readonly compiled: CompiledNetwork;
   private readonly integ: DaeIntegrator;
+  /** The same integrator in the reduced formulation (undefined in the full one). */
+  private readonly reduced: ReducedDaeIntegrator | undefined;
+  /** The inputs and expansion map the reduced integrator's last step was taken with (see recordStep). */
+  private deferredInputs: DeferredInputs | undefined;
+  /** Whether the step in hand is in the deferred form (see ReducedDaeIntegrator.copyInterpolantInto). */
+  private handDeferred = false;
   private readonly index2: readonly number[];
   /** The inputs in force over each input interval, in time order (immutable values; steps and samples refer to them by index). */
   readonly intervals = emptyObjectArray<InputsInForce>();
@@ -249,7 +257,6 @@ export class NetworkRun {
     this.endRhs = new Float64Array(compiled.layout.size);
     this.hand = new StepBuffer(compiled.layout.size);
     this.sampleRecord = new SampleRecord(compiled.layout.size);
-    this.stepRecord = new StepRecord(compiled.layout.size, this.sampleRecord);
     this.horizon = settings.horizon;
     this.span = settings.horizon - settings.t0;
     this.check = settings.check;
@@ -345,7 +352,11 @@ export class NetworkRun {
       ...(settings.signal ? { signal: settings.signal } : {}),
     };
     // Reduced form: the algebraic unknowns eliminated inside f (refused, with the reason, where unsound).
-    this.integ = settings.formulation === 'reduced' ? createReducedNetworkIntegrator(compiled, dae, solverOptions) : createDaeIntegrator(dae, solverOptions);
+    this.reduced = settings.formulation === 'reduced' ? createReducedNetworkIntegrator(compiled, dae, solverOptions) : undefined;
+    this.integ = this.reduced ?? createDaeIntegrator(dae, solverOptions);
+    // Reduced: steps are kept with their algebraic inner nodes left out, filled in when read.
+    const completion = this.reduced ? new DeferredInnerNodes(compiled.equations, this.reduced.split) : undefined;
+    this.stepRecord = new StepRecord(compiled.layout.size, this.sampleRecord, undefined, undefined, completion);
     for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
     // The integrator initialised at t0 with the inputs of no interval yet; redo it on the right side.
     this.startInterval(settings.t0);
@@ -489,6 +500,11 @@ export class NetworkRun {
         // Samples inside the step first (time order), then the step's end.
         while (nextSample < samples.length && samples[nextSample]! < this.t) {
           const ts = samples[nextSample]!;
+          if (this.handDeferred) {
+            // Inputs and map as the step was taken with (nothing changed since).
+            this.reduced!.completeInside(step);
+            this.handDeferred = false;
+          }
           const y = evaluateRecordedStep(step, ts, this.index2, this.inside);
           // An input that throws here (a user function failing exactly at a sampling instant) ends the run as 'rhs-error'.
           try {
@@ -769,7 +785,10 @@ export class NetworkRun {
   /** Take the step just accepted into the step in hand and keep a copy of it; returns the step in hand. */
   private recordStep(record: RecordOptions): RecordedStep {
     // The integrator copies its start state and polynomial into the step in hand.
-    const it = this.integ.copyInterpolantInto(this.hand.yOld, this.hand.q)!;
+    // The reduced formulation's algebraic inner nodes (an evaluation of f each) are left for a reader.
+    const reduced = this.index2.length === 0 ? this.reduced : undefined;
+    const it = reduced ? reduced.copyInterpolantInto(this.hand.yOld, this.hand.q, true)! : this.integ.copyInterpolantInto(this.hand.yOld, this.hand.q)!;
+    this.handDeferred = reduced !== undefined;
     const steps = this.stepRecord;
     const last = steps.length - 1;
     const first = last < 0 || steps.t(last) !== it.tOld || steps.interval(last) !== this.intervals.length - 1;
@@ -795,8 +814,16 @@ export class NetworkRun {
       steps.truncate(0);
     }
     // The step starts where the last sample was taken (its end, or the restart): named, not copied.
-    steps.push(step, this.lastSampleEqualTo(step.tOld, step.yOld));
+    steps.push(step, this.lastSampleEqualTo(step.tOld, step.yOld), reduced ? this.inputsOfStep(reduced) : undefined);
     return step;
+  }
+
+  /** The inputs and map the reduced integrator's last step was taken with: one object while neither changes. */
+  private inputsOfStep(reduced: ReducedDaeIntegrator): DeferredInputs {
+    const last = this.deferredInputs;
+    if (last && last.inputs === this.live && last.map === reduced.expansionMap) return last;
+    this.deferredInputs = { inputs: this.live, map: reduced.expansionMap };
+    return this.deferredInputs;
   }
 
   /**

@@ -1,8 +1,7 @@
 import { InputError } from '../errors.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
 import { affinePartition, SingularAlgebraicBlock, type AffinePartition } from '../solver/affine-elimination.js';
-import type { DaeIntegrator } from '../solver/dae-integrator.js';
-import { createReducedIntegrator } from '../solver/reduced-integrator.js';
+import { createReducedIntegrator, type ReducedDaeIntegrator } from '../solver/reduced-integrator.js';
 import type { SolveDaeOptions } from '../solver/types.js';
 import type { NetworkDae } from './network-dae.js';
 
@@ -78,7 +77,7 @@ export function reducedPartition(c: CompiledNetwork): AffinePartition {
  * const integ = createReducedNetworkIntegrator(compiled, dae, { rtol: 1e-6 });
  * ```
  */
-export function createReducedNetworkIntegrator(c: CompiledNetwork, dae: NetworkDae, options: SolveDaeOptions): DaeIntegrator {
+export function createReducedNetworkIntegrator(c: CompiledNetwork, dae: NetworkDae, options: SolveDaeOptions): ReducedDaeIntegrator {
   const split = reducedPartition(c);
   try {
     return createReducedIntegrator(dae, split, options);

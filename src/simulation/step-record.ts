@@ -1,4 +1,5 @@
 import { Float64Rows } from './float64-rows.js';
+import type { DeferredInnerNodes, DeferredInputs } from './deferred-inner-nodes.js';
 import type { RecordedStep } from './recorded-step.js';
 import type { SampleRecord } from './sample-record.js';
 
@@ -10,7 +11,9 @@ const INTERVAL = 3;
 const FIRST = 4;
 /** Where the start state is: sample s for s >= 0, else row -1 - s of the step record's own start states. */
 const START = 5;
-const Q = 6;
+/** The index of the step's DeferredInputs when it was kept in the deferred form (see push), else -1. */
+const DEFERRED = 6;
+const Q = 7;
 
 /**
  * A step's interpolant in arrays of its own, refilled in place: the run's
@@ -71,6 +74,10 @@ export class StepRecord {
     private readonly samples: SampleRecord,
     rows?: Float64Rows,
     starts?: Float64Rows,
+    /** What completes a step kept in the deferred form when it is loaded (see push). */
+    private readonly completion?: DeferredInnerNodes,
+    /** The inputs and maps of the deferred steps, in step order. */
+    private readonly deferred: DeferredInputs[] = [],
   ) {
     this.rows = rows ?? new Float64Rows(Q + 3 * size);
     this.starts = starts ?? new Float64Rows(size);
@@ -90,8 +97,11 @@ export class StepRecord {
    * Keep a copy of a step. `startSample` is the index of a sample of the
    * record whose state is the step's start state bit for bit (it must stay
    * so: not a sample rewritten later), or -1 to keep a copy of the start state.
+   * `deferred`: the step's algebraic coefficients are in the reduced
+   * formulation's deferred form (see InnerNodes), completed under these
+   * inputs and map at each load (the record needs its completion then).
    */
-  push(step: RecordedStep, startSample: number): void {
+  push(step: RecordedStep, startSample: number, deferred?: DeferredInputs): void {
     const k = this.rows.pushZeros();
     const block = this.rows.writable(k);
     const o = this.rows.offsetOf(k);
@@ -100,6 +110,12 @@ export class StepRecord {
     block[o + H] = step.h;
     block[o + INTERVAL] = step.interval;
     block[o + FIRST] = step.firstAfterStart ? 1 : 0;
+    if (deferred) {
+      if (this.deferred[this.deferred.length - 1] !== deferred) this.deferred.push(deferred);
+      block[o + DEFERRED] = this.deferred.length - 1;
+    } else {
+      block[o + DEFERRED] = -1;
+    }
     const n = this.size;
     const q = step.q;
     for (let i = 0; i < 3 * n; i++) block[o + Q + i] = q[i]!;
@@ -144,6 +160,8 @@ export class StepRecord {
     if (start >= 0) this.samples.state(start, into.yOld);
     else this.starts.copyOut(-1 - start, 0, n, into.yOld);
     this.rows.copyOut(k, Q, 3 * n, into.q);
+    const deferred = block[o + DEFERRED]!;
+    if (deferred >= 0) this.completion!.complete(into, this.deferred[deferred]!);
     return into;
   }
 
@@ -165,6 +183,16 @@ export class StepRecord {
       }
     }
     this.starts.truncate(starts);
+    // The deferred steps' inputs likewise: a streamed run holds those of its last step only.
+    let deferred = 0;
+    for (let k = Math.max(0, count) - 1; k >= 0 && this.deferred.length > 0; k--) {
+      const index = this.rows.get(k, DEFERRED);
+      if (index >= 0) {
+        deferred = index + 1;
+        break;
+      }
+    }
+    this.deferred.length = deferred;
     this.rows.truncate(count);
   }
 
@@ -174,6 +202,6 @@ export class StepRecord {
    * this record's samples taken at the same time.
    */
   snapshot(samples: SampleRecord): StepRecord {
-    return new StepRecord(this.size, samples, this.rows.snapshot(), this.starts.snapshot());
+    return new StepRecord(this.size, samples, this.rows.snapshot(), this.starts.snapshot(), this.completion, this.deferred.slice());
   }
 }

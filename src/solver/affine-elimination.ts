@@ -85,6 +85,29 @@ export class SingularAlgebraicBlock extends Error {
   }
 }
 
+/**
+ * The full state from y_D and f = f(t, y_D, 0) into `out` (returned): y_D
+ * in place, y_A = Q f with Q from {@link AffineElimination.expansionMap}.
+ * One function for the integrator's expansions and those made later from a
+ * kept step, so that both give the same bits.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * expandFromRhs(split, elimination.expansionMap, yD, f, new Float64Array(split.n));
+ * ```
+ */
+export function expandFromRhs(split: AffinePartition, q: Float64Array, yD: ArrayLike<number>, f: Float64Array, out: Float64Array): Float64Array {
+  const { n, differential: d, algebraic: a } = split;
+  for (let j = 0; j < d.length; j++) out[d[j]!] = yD[j]!;
+  for (let r = 0; r < a.length; r++) {
+    let s = 0;
+    for (let j = 0; j < n; j++) s += q[r * n + j]! * f[j]!;
+    out[a[r]!] = s;
+  }
+  return out;
+}
+
 /** Evaluations kept: a step reads its end again after its start and its two inner nodes (measured: with three, one miss per input interval). */
 const KEPT_EXPANSIONS = 5;
 
@@ -141,8 +164,8 @@ export class AffineElimination implements DaeProblem {
   private readonly jacA: Float64Array;
   /** y_D' = P f(y_D, 0) (nD x n). */
   private readonly p: Float64Array;
-  /** y_A = Q f(y_D, 0) (nA x n). */
-  private readonly q: Float64Array;
+  /** y_A = Q f(y_D, 0) (nA x n): a new array at each formation, never changed after (kept steps name it, see expansionMap). */
+  private q: Float64Array;
   private readonly g: Float64Array;
   private readonly y: Float64Array;
   private readonly colA: Float64Array;
@@ -153,6 +176,8 @@ export class AffineElimination implements DaeProblem {
   private readonly keptD: Float64Array[];
   private readonly keptF: Float64Array[];
   private nextKept = 0;
+  /** The slot of the last evaluation. */
+  private lastKept = 0;
 
   constructor(
     private readonly full: DaeProblem & { readonly jacobian: NonNullable<DaeProblem['jacobian']> },
@@ -203,7 +228,7 @@ export class AffineElimination implements DaeProblem {
 
   /** Form P and Q from df/dy at (y_D, 0); throws {@link SingularAlgebraicBlock}. */
   factorAt(t: number, yD: ArrayLike<number>): void {
-    const { n, na, nd, split, jac, p, q, colA, colD } = this;
+    const { n, na, nd, split, jac, p, colA, colD } = this;
     this.jacobianEvaluations++;
     this.fillState(yD);
     jac.fill(0);
@@ -222,6 +247,8 @@ export class AffineElimination implements DaeProblem {
       return;
     }
     this.formed = false;
+    const q = new Float64Array(na * n);
+    this.q = q;
     for (let i = 0; i < n; i++) for (let k = 0; k < na; k++) this.jacA[i * na + k] = jac[i * n + a[k]!]!;
     if (split.compression) recombineJacobianRows(jac, n, split.compression);
     for (let r = 0; r < na; r++) for (let k = 0; k < na; k++) this.g[r * na + k] = jac[split.algebraicRows[r]! * n + a[k]!]!;
@@ -292,26 +319,38 @@ export class AffineElimination implements DaeProblem {
    */
   expand(t: number, yD: ArrayLike<number>, out: Float64Array, rhs?: Float64Array): Float64Array {
     if (this.stale) this.factorAt(t, yD);
-    const { n, na, q, split } = this;
-    const k = this.kept(t, yD);
-    const f = k < 0 ? this.evaluate(t, yD) : this.keptF[k]!;
-    const d = split.differential;
-    const a = split.algebraic;
-    for (let j = 0; j < this.nd; j++) out[d[j]!] = yD[j]!;
-    for (let r = 0; r < na; r++) {
-      let s = 0;
-      for (let j = 0; j < n; j++) s += q[r * n + j]! * f[j]!;
-      out[a[r]!] = s;
+    let k = this.kept(t, yD);
+    if (k < 0) {
+      this.evaluate(t, yD);
+      k = this.lastKept;
     }
-    if (rhs) {
-      // f at the expanded state, exact for f affine in y_A: the algebraic rows vanish to round-off.
-      for (let i = 0; i < n; i++) {
-        let s = f[i]!;
-        for (let r = 0; r < na; r++) s += this.jacA[i * na + r]! * out[a[r]!]!;
-        rhs[i] = s;
-      }
-    }
+    expandFromRhs(this.split, this.q, yD, this.keptF[k]!, out);
+    if (rhs) this.rhsAtExpanded(k, out, rhs);
     return out;
+  }
+
+  /**
+   * f at a state expanded from kept evaluation k (see {@link AffineElimination.kept}) into `rhs`:
+   * exact for f affine in y_A, f(y_D, 0) + (df/dy_A) y_A; the algebraic rows vanish to round-off.
+   */
+  rhsAtExpanded(k: number, state: Float64Array, rhs: Float64Array): void {
+    const { n, na } = this;
+    const a = this.split.algebraic;
+    const f = this.keptF[k]!;
+    for (let i = 0; i < n; i++) {
+      let s = f[i]!;
+      for (let r = 0; r < na; r++) s += this.jacA[i * na + r]! * state[a[r]!]!;
+      rhs[i] = s;
+    }
+  }
+
+  /**
+   * Q, the map from f(y_D, 0) to y_A in force: an array of its own per
+   * formation, never changed after, so a step kept with it can be expanded
+   * later (see {@link expandFromRhs}).
+   */
+  get expansionMap(): Float64Array {
+    return this.q;
   }
 
   /** The index of a kept evaluation at exactly (t, y_D), else -1. */
@@ -331,11 +370,14 @@ export class AffineElimination implements DaeProblem {
     this.fillState(yD);
     this.evaluations++;
     const slot = this.nextKept;
+    this.lastKept = slot;
     this.nextKept = (slot + 1) % KEPT_EXPANSIONS;
     const f = this.keptF[slot]!;
     this.full.rhs(t, this.y, f);
     this.keptT[slot] = t;
-    this.keptD[slot]!.set(yD);
+    // A loop, not set(): for a few unknowns the builtin's call costs more than the stores.
+    const kept = this.keptD[slot]!;
+    for (let j = 0; j < this.nd; j++) kept[j] = yD[j]!;
     return f;
   }
 

@@ -54,8 +54,88 @@ export function createReducedIntegrator(
   problem: DaeProblem & { readonly jacobian: NonNullable<DaeProblem['jacobian']> },
   split: AffinePartition,
   options: SolveDaeOptions,
-): DaeIntegrator {
+): ReducedDaeIntegrator {
   return new ReducedIntegrator(problem, split, options);
+}
+
+/**
+ * The reduced integrator as its run sees it: the split, the expansion map
+ * in force, and interpolants whose algebraic part is filled in on demand.
+ *
+ * @internal
+ */
+export interface ReducedDaeIntegrator extends DaeIntegrator {
+  readonly split: AffinePartition;
+  /** Q in force (see {@link AffineElimination.expansionMap}): what a step kept in the deferred form is completed with. */
+  readonly expansionMap: Float64Array;
+  /** With `deferInside`, the algebraic coefficients in the deferred form (see {@link InnerNodes}). */
+  copyInterpolantInto(yOld: Float64Array, q: Float64Array, deferInside?: boolean): DaeStepInterpolant | undefined;
+  /** Complete a step copied in the deferred form with the integrator's own expansion (inputs and Q unchanged since the copy). */
+  completeInside(step: DaeStepInterpolant): void;
+}
+
+/**
+ * The algebraic unknowns' coefficients of a step in the deferred form
+ * filled in: the cubic through the start and the three collocation nodes,
+ * each node's algebraic values solved from the differential polynomial
+ * there. In the deferred form, coefficient row 0 of an algebraic unknown
+ * holds its value at the end node (the integrator has it without a new
+ * evaluation) and rows 1 and 2 are NaN, so a reader that skips completion
+ * reads NaN. The two inner nodes cost an evaluation of f each: `expand`
+ * (the integrator's own, or one with the step's inputs and Q, see
+ * expandFromRhs) gives the same bits either way.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const nodes = new InnerNodes(split);
+ * nodes.complete(step, (t, yD, out) => { elimination.expand(t, yD, out); });
+ * ```
+ */
+export class InnerNodes {
+  private readonly nodeD: Float64Array;
+  private readonly node0: Float64Array;
+  private readonly node1: Float64Array;
+
+  constructor(private readonly split: AffinePartition) {
+    this.nodeD = new Float64Array(split.differential.length);
+    this.node0 = new Float64Array(split.n);
+    this.node1 = new Float64Array(split.n);
+  }
+
+  complete(step: { readonly tOld: number; readonly h: number; readonly yOld: Float64Array; readonly q: Float64Array }, expand: (t: number, yD: Float64Array, out: Float64Array) => void): void {
+    const { n, algebraic: a } = this.split;
+    if (a.length === 0) return;
+    // The order the integrator's eager copy evaluated them in (node c2, then c1).
+    this.expandNode(step, 1, this.node1, expand);
+    this.expandNode(step, 0, this.node0, expand);
+    const { yOld, q } = step;
+    for (const i of a) {
+      const y0 = yOld[i]!;
+      const d1 = this.node0[i]! - y0;
+      const d2 = this.node1[i]! - y0;
+      const d3 = q[i]! - y0;
+      for (let k = 0; k < 3; k++) q[k * n + i] = NODE_INVERSE[k * 3]! * d1 + NODE_INVERSE[k * 3 + 1]! * d2 + NODE_INVERSE[k * 3 + 2]! * d3;
+    }
+  }
+
+  /** The full state at collocation node m of the step, from its polynomial in y_D. */
+  private expandNode(
+    step: { readonly tOld: number; readonly h: number; readonly yOld: Float64Array; readonly q: Float64Array },
+    m: number,
+    out: Float64Array,
+    expand: (t: number, yD: Float64Array, out: Float64Array) => void,
+  ): void {
+    const { n, differential: d } = this.split;
+    const { yOld, q } = step;
+    const nodeD = this.nodeD;
+    const s = NODES[m]!;
+    for (let j = 0; j < d.length; j++) {
+      const i = d[j]!;
+      nodeD[j] = yOld[i]! + s * (q[i]! + s * (q[n + i]! + s * q[2 * n + i]!));
+    }
+    expand(step.tOld + s * step.h, nodeD, out);
+  }
 }
 
 /** Components at the given indices. */
@@ -63,7 +143,7 @@ function pick(v: ArrayLike<number>, at: Int32Array): Float64Array {
   return Float64Array.from(at, (i) => v[i]!);
 }
 
-class ReducedIntegrator implements DaeIntegrator {
+class ReducedIntegrator implements ReducedDaeIntegrator {
   private readonly elim: AffineElimination;
   private readonly inner: DaeIntegrator;
   private readonly n: number;
@@ -73,16 +153,22 @@ class ReducedIntegrator implements DaeIntegrator {
   private readonly pieceQ: Float64Array;
   private readonly nodeD: Float64Array;
   private readonly start: Float64Array;
-  private readonly node: Float64Array[];
+  /** The full state at the last step's end node. */
+  private readonly end: Float64Array;
   private readonly scratchYOld: Float64Array;
   private readonly scratchQ: Float64Array;
+  /** The expanded state readRhsAtState computes on the way. */
+  private readonly stateAtEnd: Float64Array;
   /** The full state at the end of the last step whose polynomial was handed over (the next step's start). */
   private endValid = false;
+  private readonly innerNodes: InnerNodes;
+  /** The integrator's own expansion (counted, from kept evaluations where it can), for innerNodes. */
+  private readonly expandHere: (t: number, yD: Float64Array, out: Float64Array) => void;
   private endT = NaN;
   private readonly endD: Float64Array;
   private readonly endY: Float64Array;
 
-  constructor(problem: DaeProblem & { readonly jacobian: NonNullable<DaeProblem['jacobian']> }, private readonly split: AffinePartition, options: SolveDaeOptions) {
+  constructor(problem: DaeProblem & { readonly jacobian: NonNullable<DaeProblem['jacobian']> }, readonly split: AffinePartition, options: SolveDaeOptions) {
     this.n = split.n;
     this.nd = split.differential.length;
     this.elim = new AffineElimination(problem, split);
@@ -102,15 +188,24 @@ class ReducedIntegrator implements DaeIntegrator {
     this.pieceQ = new Float64Array(3 * this.nd);
     this.nodeD = new Float64Array(this.nd);
     this.start = new Float64Array(this.n);
-    this.node = [0, 1, 2].map(() => new Float64Array(this.n));
+    this.end = new Float64Array(this.n);
     this.scratchYOld = new Float64Array(this.n);
     this.scratchQ = new Float64Array(3 * this.n);
+    this.stateAtEnd = new Float64Array(this.n);
+    this.innerNodes = new InnerNodes(split);
+    this.expandHere = (t, yD, out) => {
+      this.elim.expand(t, yD, out);
+    };
     this.endD = new Float64Array(this.nd);
     this.endY = new Float64Array(this.n);
   }
 
   get t(): number {
     return this.inner.t;
+  }
+
+  get expansionMap(): Float64Array {
+    return this.elim.expansionMap;
   }
 
   get y(): Float64Array {
@@ -220,10 +315,16 @@ class ReducedIntegrator implements DaeIntegrator {
     return this.copyInterpolantInto(yOld, q);
   }
 
-  copyInterpolantInto(yOld: Float64Array, q: Float64Array): DaeStepInterpolant | undefined {
+  /**
+   * The last step's interpolant; with `deferInside`, the algebraic unknowns'
+   * coefficients are left in the deferred form (see {@link InnerNodes}):
+   * their two inner nodes, an evaluation of f each, are computed only when
+   * asked for, by {@link ReducedDaeIntegrator.completeInside} or from a kept step.
+   */
+  copyInterpolantInto(yOld: Float64Array, q: Float64Array, deferInside = false): DaeStepInterpolant | undefined {
     const it = this.inner.copyInterpolantInto(this.pieceY, this.pieceQ);
     if (!it) return undefined;
-    const { n, nd, pieceY, pieceQ, nodeD } = this;
+    const { n, nd, pieceY, pieceQ } = this;
     const { differential: d, algebraic: a } = this.split;
     for (let j = 0; j < nd; j++) {
       yOld[d[j]!] = pieceY[j]!;
@@ -237,43 +338,60 @@ class ReducedIntegrator implements DaeIntegrator {
       if (same) this.start.set(this.endY);
       else this.elim.expand(it.tOld, pieceY, this.start);
       // Then the end: the integrator evaluated f there last, so its expansion is usually kept.
-      let nextStartKept = false;
-      for (let m = 2; m >= 0; m--) {
-        const s = NODES[m]!;
-        const tm = it.tOld + s * it.h;
-        if (m === 2 && this.inner.t === it.t && Math.abs(tm - it.t) <= 1e-12 * Math.abs(it.t)) {
-          // The step's end: the integrator's own state, kept as the next step's start.
-          this.elim.expand(this.inner.t, this.inner.readState(this.endD), this.node[m]!);
-          this.endY.set(this.node[m]!);
-          this.endT = it.t;
-          nextStartKept = true;
-        } else {
-          for (let j = 0; j < nd; j++) nodeD[j] = pieceY[j]! + s * (pieceQ[j]! + s * (pieceQ[nd + j]! + s * pieceQ[2 * nd + j]!));
-          this.elim.expand(tm, nodeD, this.node[m]!);
-        }
+      const end = this.end;
+      const tEnd = it.tOld + it.h;
+      if (this.inner.t === it.t && Math.abs(tEnd - it.t) <= 1e-12 * Math.abs(it.t)) {
+        // The step's end: the integrator's own state, kept as the next step's start.
+        this.elim.expand(this.inner.t, this.inner.readState(this.endD), end);
+        this.endY.set(end);
+        this.endT = it.t;
+        this.endValid = true;
+      } else {
+        // The polynomial at s = 1 (the node's own time and value, as for the inner nodes).
+        const { nodeD } = this;
+        const s = NODES[2];
+        for (let j = 0; j < nd; j++) nodeD[j] = pieceY[j]! + s * (pieceQ[j]! + s * (pieceQ[nd + j]! + s * pieceQ[2 * nd + j]!));
+        this.elim.expand(tEnd, nodeD, end);
+        this.endValid = false;
       }
-      this.endValid = nextStartKept;
       for (const i of a) {
-        const y0 = this.start[i]!;
-        yOld[i] = y0;
-        const d1 = this.node[0]![i]! - y0;
-        const d2 = this.node[1]![i]! - y0;
-        const d3 = this.node[2]![i]! - y0;
-        for (let k = 0; k < 3; k++) q[k * n + i] = NODE_INVERSE[k * 3]! * d1 + NODE_INVERSE[k * 3 + 1]! * d2 + NODE_INVERSE[k * 3 + 2]! * d3;
+        yOld[i] = this.start[i]!;
+        q[i] = end[i]!;
+        q[n + i] = NaN;
+        q[2 * n + i] = NaN;
       }
+      const step = { tOld: it.tOld, t: it.t, h: it.h, yOld, q };
+      if (!deferInside) this.innerNodes.complete(step, this.expandHere);
+      return step;
     }
     return { tOld: it.tOld, t: it.t, h: it.h, yOld, q };
   }
 
+  completeInside(step: DaeStepInterpolant): void {
+    this.innerNodes.complete(step, this.expandHere);
+  }
+
   readState(out: Float64Array): Float64Array {
-    return this.elim.expand(this.inner.t, this.inner.readState(this.yD), out);
+    const yD = this.inner.readState(this.yD);
+    if (!this.isKeptEnd(yD)) return this.elim.expand(this.inner.t, yD, out);
+    out.set(this.endY);
+    return out;
+  }
+
+  /** Whether the present state (y_D given) is the step end expanded when its polynomial was copied (endY: the same numbers). */
+  private isKeptEnd(yD: Float64Array): boolean {
+    let same = this.endValid && this.endT === this.inner.t;
+    for (let j = 0; j < this.nd && same; j++) same = this.endD[j] === yD[j];
+    return same;
   }
 
   /** f at the present state when the integrator's last evaluation was there (the expansion kept it). */
   readRhsAtState(out: Float64Array): boolean {
     const yD = this.inner.readState(this.yD);
-    if (this.elim.kept(this.inner.t, yD) < 0) return false;
-    this.elim.expand(this.inner.t, yD, this.start, out);
+    const k = this.elim.kept(this.inner.t, yD);
+    if (k < 0) return false;
+    const state = this.isKeptEnd(yD) ? this.endY : this.elim.expand(this.inner.t, yD, this.stateAtEnd);
+    this.elim.rhsAtExpanded(k, state, out);
     return true;
   }
 }
