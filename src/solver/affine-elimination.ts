@@ -1,4 +1,5 @@
 import { DenseLu } from './dense-lu.js';
+import type { DependentError } from './dependent-error.js';
 import { compressedMass, massRowCompression, recombineJacobianRows, recombineRhsRows, type MassRowCompression } from './mass-row-compression.js';
 import type { DaeEvent, DaeProblem } from './types.js';
 
@@ -137,12 +138,15 @@ const KEPT_EXPANSIONS = 5;
  * const y = reduced.expand(t, yD, new Float64Array(split.n));
  * ```
  */
-export class AffineElimination implements DaeProblem {
+export class AffineElimination implements DaeProblem, DependentError {
   readonly size: number;
   readonly y0: Float64Array;
   readonly t0: number;
   readonly tEnd: number;
   readonly events?: readonly DaeEvent[];
+  /** The algebraic unknowns, whose error the integrator's estimate takes through {@link AffineElimination.measure}. */
+  readonly count: number;
+  squares = 0;
   /** Evaluations of the full f so far (the reduced f's and the expansions'). */
   evaluations = 0;
   /** Evaluations of the full df/dy (to form P and Q at a restart, and for reduced Jacobians elsewhere). */
@@ -172,6 +176,12 @@ export class AffineElimination implements DaeProblem {
   private readonly colD: Float64Array;
   private readonly eventY: Float64Array;
   private readonly unit: Float64Array;
+  /** y_A at a step's start, and the start shifted by the error estimate (scratch of {@link AffineElimination.measure}). */
+  private readonly startA: Float64Array;
+  private readonly shifted: Float64Array;
+  /** radau5's mapped tolerances of the algebraic unknowns (rtol', atol'); atol' = Infinity, so no share, until set. */
+  private readonly rtolA: Float64Array;
+  private readonly atolA: Float64Array;
   private readonly keptT = new Float64Array(KEPT_EXPANSIONS).fill(NaN);
   private readonly keptD: Float64Array[];
   private readonly keptF: Float64Array[];
@@ -190,6 +200,11 @@ export class AffineElimination implements DaeProblem {
     this.nd = nd;
     this.na = na;
     this.size = nd;
+    this.count = na;
+    this.startA = new Float64Array(na);
+    this.shifted = new Float64Array(nd);
+    this.rtolA = new Float64Array(na);
+    this.atolA = new Float64Array(na).fill(Infinity);
     this.massLu = new DenseLu(Math.max(nd, 1));
     if (nd > 0) this.massLu.factor(split.reducedMass);
     this.y0 = Float64Array.from(split.differential, (i) => full.y0[i]!);
@@ -311,6 +326,48 @@ export class AffineElimination implements DaeProblem {
         out[r * nd + c] = s;
       }
     }
+  }
+
+  /**
+   * Watch the algebraic unknowns in the error estimate with these mapped
+   * tolerances (rtol', atol' per algebraic unknown, in the order of
+   * `split.algebraic`).
+   */
+  watchAlgebraic(rtolMapped: ArrayLike<number>, atolMapped: ArrayLike<number>): void {
+    this.rtolA.set(rtolMapped);
+    this.atolA.set(atolMapped);
+  }
+
+  /**
+   * The algebraic unknowns' share of the error norm for the differential
+   * estimate err of the step from (t, y_D): e_A = y_A(y_D + err) - y_A(y_D),
+   * the change err makes in the solved unknowns (to first order the full
+   * problem's e_A = -J_AA^-1 J_AD e_D, but at the step, where a Jacobian
+   * kept from the interval's start can be far off in a saturating core),
+   * each scaled by atol' + rtol' |y_A(y_D)| as the state is at the step's
+   * start (radau5's SCAL). One evaluation of f, two when f at (t, y_D) is
+   * no longer kept. See {@link DependentError}.
+   */
+  measure(at: { readonly t: number }, yD: Float64Array, err: Float64Array): void {
+    const { n, na, nd, q, rtolA, atolA, startA, shifted } = this;
+    const t = at.t;
+    const k = this.kept(t, yD);
+    const f0 = k < 0 ? this.evaluate(t, yD) : this.keptF[k]!;
+    for (let r = 0; r < na; r++) {
+      let s = 0;
+      for (let j = 0; j < n; j++) s += q[r * n + j]! * f0[j]!;
+      startA[r] = s;
+    }
+    for (let j = 0; j < nd; j++) shifted[j] = yD[j]! + err[j]!;
+    const f1 = this.evaluate(t, shifted);
+    let sum = 0;
+    for (let r = 0; r < na; r++) {
+      let s = 0;
+      for (let j = 0; j < n; j++) s += q[r * n + j]! * f1[j]!;
+      const x = (s - startA[r]!) / (atolA[r]! + rtolA[r]! * Math.abs(startA[r]!));
+      sum += x * x;
+    }
+    this.squares = sum;
   }
 
   /**

@@ -26,6 +26,8 @@ import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
 import { normalizeDae, type NormalizedDae } from './normalize-problem.js';
 import { packedDoublesFrom, packedIndices } from './packed-doubles.js';
 import { C1, C2, JACOBIAN_RATE_THRESHOLD, MAX_SINGULAR_RETRIES, MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL, P } from './radau-tableau.js';
+import { mapRadauTolerances } from './radau-tolerances.js';
+import type { DependentError } from './dependent-error.js';
 import { ErrorEstimateArrays, radauErrorEstimate, type ErrorEstimateWork } from './radau-error-estimate.js';
 import { firstIndexAbove } from './sorted-search.js';
 import type { PointSource } from './state-rows.js';
@@ -39,14 +41,6 @@ import { allFinite, errorScale, largestScaled, largestScaledInto, nonFiniteIndic
 const NO_EVENTS: readonly DaeEventRecord[] = Object.freeze([]);
 /** The outcome of a plain accepted step (shared, frozen: such a step allocates no result). */
 const ACCEPTED: DaeStepResult = Object.freeze({ status: 'accepted', events: NO_EVENTS });
-
-/**
- * When atol does not follow rtol it is mapped as radau5 maps it at this rtol
- * (the default): atol' = 0.1 (1e-6)^(2/3) atol / 1e-6 = 10 atol, written in
- * the same operations, so that runs at the default rtol are bit for bit unchanged.
- */
-const REFERENCE_RTOL = 1e-6;
-const REFERENCE_RTOL_MAPPED = 0.1 * REFERENCE_RTOL ** (2 / 3);
 
 /** Unit round-off (radau5's UROUND). */
 const UROUND = Number.EPSILON / 2;
@@ -337,6 +331,21 @@ export function createDaeIntegrator(problem: DaeProblem, options: SolveDaeOption
 }
 
 /**
+ * {@link createDaeIntegrator} whose error estimate also takes unknowns that
+ * follow from the state (the reduced formulation's algebraic unknowns; see
+ * {@link DependentError}).
+ *
+ * @internal
+ * @example
+ * ```ts
+ * const inner = createDaeIntegratorWithDependents(reducedProblem, { rtol: 1e-6 }, elimination);
+ * ```
+ */
+export function createDaeIntegratorWithDependents(problem: DaeProblem, options: SolveDaeOptions, dependent: DependentError): DaeIntegrator {
+  return new RadauIntegrator(normalizeDae(problem, options), dependent);
+}
+
+/**
  * The numbers (Float64 and Int32 entries) an integrator's linear algebra
  * holds, by part: the Jacobian and its scratch copies, the iteration
  * matrices, the LU factors and work, the consistent initialisation's
@@ -374,6 +383,7 @@ class IntegratorCalls implements CollocationSystem {
     readonly luComplex: ComplexLinearSolver,
     readonly fnewt: number,
     readonly stats: SolverStats,
+    readonly dependentError: DependentError | undefined,
   ) {}
 
   rhs(t: number, y: Float64Array, out: Float64Array): void {
@@ -533,7 +543,7 @@ class RadauIntegrator implements DaeIntegrator {
   private readonly collocation: IntegratorCalls;
   private readonly scale: Float64Array;
 
-  constructor(p: NormalizedDae) {
+  constructor(p: NormalizedDae, dependent?: DependentError) {
     this.p = p;
     const n = p.n;
     this.n = n;
@@ -551,18 +561,10 @@ class RadauIntegrator implements DaeIntegrator {
       this.mVal = packedDoublesFrom(p.mass.value);
       this.spaces = massSpaces(p.mass, n);
     }
-    // radau5 tolerance map (Hairer's code, on entry): rtol' = 0.1 rtol^(2/3), atol' = rtol' atol / rtol;
-    // or, with atolFollowsRtol false, atol' = 10 atol (the same map at rtol = 1e-6) at every rtol.
+    // radau5's tolerance map on entry (mapRadauTolerances).
     this.rtolT = take(n);
     this.atolT = take(n);
-    let rmin = Infinity;
-    for (let i = 0; i < n; i++) {
-      const r = p.rtol[i]!;
-      const rt = 0.1 * r ** (2 / 3);
-      this.rtolT[i] = rt;
-      this.atolT[i] = p.atolFollowsRtol ? (rt * p.atol[i]!) / r : (REFERENCE_RTOL_MAPPED * p.atol[i]!) / REFERENCE_RTOL;
-      rmin = Math.min(rmin, rt);
-    }
+    const rmin = mapRadauTolerances(p.rtol, p.atol, p.atolFollowsRtol, this.rtolT, this.atolT);
     // radau5: FNEWT = max(10 uround / rtol', min(0.03, rtol'^0.5)).
     this.fnewt = Math.max((10 * UROUND) / rmin, Math.min(0.03, Math.sqrt(rmin)));
     this.system = p.iterationPattern ? createSparseIterationSystem(p) : createDenseIterationSystem(p, take);
@@ -572,7 +574,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.errorWork = new ErrorEstimateArrays(n, take);
     this.newtonOutcome = createNewtonOutcome(n);
     this.errorComponents = new ComponentList(n);
-    this.collocation = new IntegratorCalls(this, n, !p.mass, this.luReal, this.luComplex, this.fnewt, this.statsCur);
+    this.collocation = new IntegratorCalls(this, n, !p.mass, this.luReal, this.luComplex, this.fnewt, this.statsCur, dependent);
     this.scale = take(n);
     this.ySaved = take(n);
     this.restartSlope = take(n);

@@ -67,6 +67,11 @@ function finite(x: unknown): x is number {
   return typeof x === 'number' && Number.isFinite(x);
 }
 
+/** The solver's default tolerances (SolveDaeOptions). */
+export const DEFAULT_RTOL = 1e-6;
+/** See {@link DEFAULT_RTOL}. */
+export const DEFAULT_ATOL = 1e-9;
+
 /** An optional option that must be a finite number > 0. */
 function positive(v: number | undefined, label: string): number | undefined {
   if (v === undefined) return undefined;
@@ -74,7 +79,18 @@ function positive(v: number | undefined, label: string): number | undefined {
   return v;
 }
 
-function tolerance(value: number | ArrayLike<number> | undefined, dflt: number, n: number, label: 'rtol' | 'atol'): Float64Array {
+/**
+ * A tolerance option as one value per unknown: `dflt` when absent, a scalar
+ * spread, an array checked (length n, finite, >= 0); throws a
+ * `bad-tolerance` InputError otherwise.
+ *
+ * @internal
+ * @example
+ * ```ts
+ * toleranceArray(1e-6, 1e-6, 3, 'rtol'); // [1e-6, 1e-6, 1e-6]
+ * ```
+ */
+export function toleranceArray(value: number | ArrayLike<number> | undefined, dflt: number, n: number, label: 'rtol' | 'atol'): Float64Array {
   const out = new Float64Array(n);
   if (value === undefined) return out.fill(dflt);
   if (typeof value === 'number') {
@@ -211,8 +227,8 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     hasIndex2 = true;
   }
 
-  const rtol = tolerance(options.rtol, 1e-6, n, 'rtol');
-  const atol = tolerance(options.atol, 1e-9, n, 'atol');
+  const rtol = toleranceArray(options.rtol, DEFAULT_RTOL, n, 'rtol');
+  const atol = toleranceArray(options.atol, DEFAULT_ATOL, n, 'atol');
   for (let i = 0; i < n; i++) {
     // radau5 requires rtol > 10 uround; its tolerance map rtol -> 0.1 rtol^(2/3) needs rtol > 0.
     if (rtol[i]! < 1e-15) bad('bad-tolerance', `rtol[${i}] = ${rtol[i]} is below 1e-15, the limit of double precision; raise it`, ['rtol']);

@@ -1,4 +1,5 @@
 import type { CollocationStep, CollocationSystem } from './collocation-newton.js';
+import { stepErrorNorm, type DependentError } from './dependent-error.js';
 import type { RealLinearSolver } from './linear-solver.js';
 import { packedDoubles } from './packed-doubles.js';
 import { E1, E2, E3 } from './radau-tableau.js';
@@ -52,6 +53,8 @@ export class ErrorEstimateArrays implements ErrorEstimateWork {
  * recomputed once with f(t, y + err), which filters the stiff components
  * (radau5). Writes ||err|| in the weighted RMS norm, at least 1e-10 and 1e10
  * for a non-finite value, into `at.err`; the error vector is left in `work.err`.
+ * With `sys.dependentError` the norm also takes the unknowns that follow
+ * from the state (see {@link DependentError}).
  *
  * Shapes: y, f0 = f(t, y), scale (n); z (3n), stage k at [k n, k n + n).
  * The step's t and h are read from `at`, and the norm written there, not
@@ -66,7 +69,7 @@ export class ErrorEstimateArrays implements ErrorEstimateWork {
  * ```
  */
 export function radauErrorEstimate(
-  sys: Pick<CollocationSystem, 'rhs' | 'multiplyMass' | 'identityMass'>,
+  sys: Pick<CollocationSystem, 'rhs' | 'multiplyMass' | 'identityMass'> & { readonly dependentError?: DependentError | undefined },
   luReal: RealLinearSolver,
   work: ErrorEstimateWork,
   at: Pick<CollocationStep, 't' | 'h'> & { err: number },
@@ -92,14 +95,15 @@ export function radauErrorEstimate(
   }
   for (let i = 0; i < n; i++) errv[i] = f0[i]! + me[i]!;
   luReal.solve(errv);
-  let err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
+  const dependent = sys.dependentError;
+  let err = Math.max(dependent === undefined ? weightedRmsNorm(errv, scale) : stepErrorNorm(at, y, errv, scale, dependent), 1e-10);
   if (err >= 1 && refine) {
     const { ys, fy } = work;
     for (let i = 0; i < n; i++) ys[i] = y[i]! + errv[i]!;
     sys.rhs(t, ys, fy);
     for (let i = 0; i < n; i++) errv[i] = fy[i]! + me[i]!;
     luReal.solve(errv);
-    err = Math.max(weightedRmsNorm(errv, scale), 1e-10);
+    err = Math.max(dependent === undefined ? weightedRmsNorm(errv, scale) : stepErrorNorm(at, y, errv, scale, dependent), 1e-10);
   }
   at.err = Number.isFinite(err) ? err : 1e10;
 }

@@ -1,7 +1,10 @@
 import { AffineElimination, type AffinePartition } from './affine-elimination.js';
+import type { DependentError } from './dependent-error.js';
 import { evaluateCollocation } from './collocation-polynomial.js';
-import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot, type DaeStepInterpolant, type DaeStepResult, type RestartOptions } from './dae-integrator.js';
+import { createDaeIntegratorWithDependents, type DaeIntegrator, type DaeIntegratorSnapshot, type DaeStepInterpolant, type DaeStepResult, type RestartOptions } from './dae-integrator.js';
+import { DEFAULT_ATOL, DEFAULT_RTOL, toleranceArray } from './normalize-problem.js';
 import { C1, C2 } from './radau-tableau.js';
+import { mapRadauTolerances } from './radau-tolerances.js';
 import type { DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 
 /** The collocation nodes of Radau IIA (order 5): c1, c2, c3 = 1. */
@@ -34,8 +37,10 @@ const NODE_INVERSE = (() => {
  * A Radau IIA integrator on the reduced problem M_DD y_D' = f_red(t, y_D)
  * (see {@link AffineElimination}), seen from outside as one on the full
  * problem: every state it hands over (y, readState, events, snapshots, dense
- * output) is expanded to all n unknowns. Error control and Newton act on
- * y_D only. The dense output of an algebraic unknown is the cubic through
+ * output) is expanded to all n unknowns. Newton acts on y_D only; the error
+ * estimate takes the algebraic unknowns too, through dy_A/dy_D (see
+ * {@link DependentError}), so that their tolerances hold as in the full
+ * problem. The dense output of an algebraic unknown is the cubic through
  * its values at the step's start and at the three collocation nodes, each
  * solved from the differential unknowns there: the form the full path's
  * collocation polynomial has.
@@ -178,11 +183,19 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
     const perUnknown = (v: number | ArrayLike<number> | undefined): number | Float64Array | undefined => (v === undefined || typeof v === 'number' ? v : pick(v, d));
     const rtol = perUnknown(options.rtol);
     const atol = perUnknown(options.atol);
-    this.inner = createDaeIntegrator(this.elim, {
+    this.inner = createDaeIntegratorWithDependents(this.elim, {
       ...options,
       ...(rtol !== undefined ? { rtol } : {}),
       ...(atol !== undefined ? { atol } : {}),
-    });
+    }, this.elim);
+    // The algebraic unknowns' tolerances, mapped as the integrator maps the differential ones.
+    const a = split.algebraic;
+    const rtolA = pick(toleranceArray(options.rtol, DEFAULT_RTOL, this.n, 'rtol'), a);
+    const atolA = pick(toleranceArray(options.atol, DEFAULT_ATOL, this.n, 'atol'), a);
+    const rtolMapped = new Float64Array(a.length);
+    const atolMapped = new Float64Array(a.length);
+    mapRadauTolerances(rtolA, atolA, options.atolFollowsRtol ?? options.atol !== undefined, rtolMapped, atolMapped);
+    this.elim.watchAlgebraic(rtolMapped, atolMapped);
     this.yD = new Float64Array(this.nd);
     this.pieceY = new Float64Array(this.nd);
     this.pieceQ = new Float64Array(3 * this.nd);
