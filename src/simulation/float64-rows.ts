@@ -71,7 +71,8 @@ export class Float64Rows {
 
   /** First row of block b. */
   private blockStart(b: number): number {
-    if (b <= MAX_DOUBLINGS) return this.firstRows * (2 ** b - 1);
+    // A shift, not 2 ** b: the power is a call of the math library, per row read or written (b is small here).
+    if (b <= MAX_DOUBLINGS) return this.firstRows * ((1 << b) - 1);
     return this.cappedStart + (b - MAX_DOUBLINGS) * this.cappedRows;
   }
 
@@ -114,7 +115,8 @@ export class Float64Rows {
 
   /** Entry j of row k. */
   get(k: number, j: number): number {
-    return this.blockOf(k)[this.offsetOf(k) + j]!;
+    const b = this.blockIndex(k);
+    return this.blocks[b]![(k - this.blockStart(b)) * this.width + j]!;
   }
 
   /** Set entry j of row k. */

@@ -1,6 +1,6 @@
 import { InputError } from '../errors.js';
 import type { CompiledNetwork } from '../formulation/compile-network.js';
-import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot } from '../solver/dae-integrator.js';
+import { createDaeIntegrator, type DaeIntegrator, type DaeIntegratorSnapshot, type RestartOptions } from '../solver/dae-integrator.js';
 import type { DaeEvent, DaeEventRecord, DaeFailure, DaeStatus, SolverStats } from '../solver/types.js';
 import { evaluateRecordedStep, stageExtrapolation, type RecordedStep } from './recorded-step.js';
 import { SampleRecord } from './sample-record.js';
@@ -37,6 +37,10 @@ export interface DeviceChange {
   /** The new state. */
   readonly on: boolean;
 }
+
+/** The integrator's restart options at an input jump and at a device's own event (one object each, not one per edge). */
+const RESTART_AT_JUMP: RestartOptions = { capStepByEstimate: true };
+const RESTART_AT_EVENT: RestartOptions = { capStepByEstimate: false };
 
 /** First step after a knee jump, as a fraction of the jump (see NetworkRun.crossKnee). */
 const FIRST_STEP_AFTER_JUMP = 0.25;
@@ -615,14 +619,15 @@ export class NetworkRun {
     // A device's own event changes no input: the state is continuous and the step the controller
     // proposed still suits it (a fresh estimate from y' would see the stiff modes a commutation
     // excites and start from steps of 1e-18 s, costing some 25 steps per event to grow back).
-    this.statusCur = this.integ.restart(undefined, { capStepByEstimate: !fromEvent });
+    this.statusCur = this.integ.restart(undefined, fromEvent ? RESTART_AT_EVENT : RESTART_AT_JUMP);
     if (this.statusCur === 'running' && this.restartsFromSettled && this.settledValid && this.farFromSettled()) {
       // The cheap restart's simplified Newton (a Jacobian taken before the jump) can land on a wrong
       // point when a smooth junction swings from blocking to conducting; the settled state was solved
       // with a fresh Jacobian at every iteration: start from it (full re-initialisation, rare).
-      this.statusCur = this.integ.restart(this.settled, { capStepByEstimate: !fromEvent });
+      this.statusCur = this.integ.restart(this.settled, fromEvent ? RESTART_AT_EVENT : RESTART_AT_JUMP);
     }
-    for (const i of this.integ.adjustedAtStart) this.adjusted.add(i);
+    const adjusted = this.integ.adjustedAtStart;
+    for (let k = 0; k < adjusted.length; k++) this.adjusted.add(adjusted[k]!);
     this.restartPending = true;
     return this.statusCur;
   }
@@ -735,7 +740,7 @@ export class NetworkRun {
     const s = this.integ.snapshot();
     const h = Math.min(edge - landed.t, FIRST_STEP_AFTER_JUMP * (landed.t - t));
     this.integ.restore({ ...s, t: landed.t, y: landed.y, h, interpolant: undefined, first: true, extrapolate: false });
-    return this.integ.restart(landed.y, { capStepByEstimate: true }) === 'running';
+    return this.integ.restart(landed.y, RESTART_AT_JUMP) === 'running';
   }
 
   /** Whether the integrator's restarted state is far (1000 tolerances) from the settled one. */

@@ -4,6 +4,7 @@ import { createPatternAdaptiveLu } from './sparse-adaptive-lu.js';
 import { denseOfSparseMass, sparseMassOfDense, type SparseMass } from './sparse-mass.js';
 import type { RealLinearSolver } from './linear-solver.js';
 import { largestScaled, nonFiniteIndices, roundingFlooredNorm } from './weighted-norm.js';
+import { copyEntries, zeroEntries } from './small-array-copy.js';
 
 /**
  * Null spaces of a constant mass matrix: the right null space V0 (directions
@@ -127,7 +128,7 @@ export function columnsTransposeTimes(w: SparseColumns, x: Float64Array, out: Fl
 
 /** out = V z for sparse columns V (@internal). */
 export function columnsTimes(v: SparseColumns, z: Float64Array, out: Float64Array): void {
-  out.fill(0);
+  zeroEntries(out);
   const { k, start, index, value } = v;
   for (let j = 0; j < k; j++) {
     const zj = z[j]!;
@@ -142,7 +143,7 @@ export function columnsTimes(v: SparseColumns, z: Float64Array, out: Float64Arra
  */
 function combineRows(w: SparseColumns, c: number, a: Float64Array, n: number, out: Float64Array, row: number): void {
   const base = row * n;
-  out.fill(0, base, base + n);
+  zeroEntries(out, base, base + n);
   for (let e = w.start[c]!; e < w.start[c + 1]!; e++) {
     const coefficient = w.value[e]!;
     const src = w.index[e]! * n;
@@ -203,9 +204,10 @@ export function algebraicJacobian(spaces: MassSpaces, jac: Float64Array, out: Fl
   const { v0, w0 } = spaces.columns;
   // work = J V0 (n x k), only in the rows W0 combines; J read row by row (contiguous), V0 by its rows.
   const { byRow, entries, rows } = rowIndexOf(spaces);
-  for (const i of rows) {
+  for (let r = 0; r < rows.length; r++) {
+    const i = rows[r]!;
     const base = i * k;
-    work.fill(0, base, base + k);
+    zeroEntries(work, base, base + k);
     const rowJ = i * n;
     for (let l = 0; l < n; l++) {
       const a = jac[rowJ + l]!;
@@ -216,7 +218,7 @@ export function algebraicJacobian(spaces: MassSpaces, jac: Float64Array, out: Fl
       }
     }
   }
-  out.fill(0, 0, k * k);
+  zeroEntries(out, 0, k * k);
   for (let a = 0; a < k; a++) {
     for (let e = w0.start[a]!; e < w0.start[a + 1]!; e++) {
       const w = w0.value[e]!;
@@ -589,7 +591,7 @@ export function consistentDerivativeWith(
     work.massRows = massRows;
   }
   columnsTransposeTimes(u1, f, b);
-  a.set(massRows);
+  copyEntries(massRows, a);
   for (let c = 0; c < k; c++) {
     const row = rank + c;
     let s = 0;
@@ -686,7 +688,7 @@ export function factorAlgebraic(spaces: MassSpaces, jac: Float64Array, solver: D
     }
     if (same) return true;
   }
-  held.set(block); // copied before the LU reads it (an LU may scale its input)
+  copyEntries(block, held); // copied before the LU reads it (an LU may scale its input)
   solver.factored = solver.lu.factor(block) < 0;
   return solver.factored;
 }

@@ -17,6 +17,7 @@ import {
   type DerivativeWork,
   type MassSpaces,
 } from './consistent-initialization.js';
+import { copyEntries } from './small-array-copy.js';
 import { createDenseIterationSystem } from './dense-iteration-system.js';
 import { locateSignChange } from './event-locator.js';
 import { nextDown } from './float-neighbours.js';
@@ -368,6 +369,9 @@ export function createDaeIntegratorFromNormalized(p: NormalizedDae): DaeIntegrat
   return new RadauIntegrator(p);
 }
 
+/** No unknown adjusted at a (re)start: one frozen list, not a new empty array per cheap restart. */
+const NONE_ADJUSTED: readonly number[] = Object.freeze([]);
+
 /**
  * The integrator's f (counted and guarded) and M v as methods of one class, for the
  * collocation kernel and the error estimate. Their call sites (`sys.rhs`, `sys.multiplyMass`)
@@ -520,7 +524,7 @@ class RadauIntegrator implements DaeIntegrator {
   private landing: EventLanding | undefined;
   private readonly statsCur: SolverStats = emptyStats();
   private statusCur: 'running' | DaeStatus = 'running';
-  private adjustedCur: readonly number[] = [];
+  private adjustedCur: readonly number[] = NONE_ADJUSTED;
   private messageCur = '';
   private failureCur: DaeFailure | undefined;
   private pendingError: UserCodeError | undefined;
@@ -765,7 +769,7 @@ class RadauIntegrator implements DaeIntegrator {
     const p = this.p;
     const y = this.yCur;
     const t = this.tCur;
-    this.ySaved.set(y);
+    copyEntries(y, this.ySaved);
     try {
       this.callRhs(t, y, this.fCur);
       if (!allFinite(this.fCur)) return this.undoCheapRestart();
@@ -785,10 +789,10 @@ class RadauIntegrator implements DaeIntegrator {
           this.algebraicVersion = this.jacVersion;
         }
         const ctx = this.consistencyContext();
-        solver.f.set(this.fCur);
+        copyEntries(this.fCur, solver.f);
         const outcome = resolveAlgebraic(ctx, t, y, solver);
         if (outcome === 'failed') return this.undoCheapRestart();
-        if (outcome === 'current') this.fCur.set(solver.f);
+        if (outcome === 'current') copyEntries(solver.f, this.fCur);
         else this.callRhs(t, y, this.fCur);
         if (!allFinite(this.fCur)) return this.undoCheapRestart();
         for (let i = 0; i < this.n && !moved; i++) moved = y[i] !== this.ySaved[i];
@@ -805,7 +809,7 @@ class RadauIntegrator implements DaeIntegrator {
       } else if (!p.mass) {
         yp = this.fCur;
       }
-      this.adjustedCur = [];
+      this.adjustedCur = NONE_ADJUSTED;
       this.first = true;
       this.extrapolate = false;
       this.hAcc = NaN;
@@ -815,7 +819,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.jacCurrent = !moved;
       if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur), true, secondDerivative));
       this.slopeStart = yp !== undefined;
-      if (yp) this.restartSlope.set(yp);
+      if (yp) copyEntries(yp, this.restartSlope);
       this.evaluateEventsAt(t, y, this.eventValues);
       if (t >= p.tEnd) this.statusCur = 'success';
       return true;
@@ -829,7 +833,7 @@ class RadauIntegrator implements DaeIntegrator {
   }
 
   private undoCheapRestart(): false {
-    this.yCur.set(this.ySaved);
+    copyEntries(this.ySaved, this.yCur);
     return false;
   }
 
@@ -914,13 +918,13 @@ class RadauIntegrator implements DaeIntegrator {
   copyInterpolantInto(yOld: Float64Array, q: Float64Array): DaeStepInterpolant | undefined {
     if (!this.hasPiece) return undefined;
     const p = this.piece;
-    yOld.set(p.yOld);
-    q.set(p.q);
+    copyEntries(p.yOld, yOld);
+    copyEntries(p.q, q);
     return { tOld: p.tOld, t: p.t, h: p.h, yOld, q };
   }
 
   readState(out: Float64Array): Float64Array {
-    out.set(this.yCur);
+    copyEntries(this.yCur, out);
     return out;
   }
 
@@ -933,7 +937,7 @@ class RadauIntegrator implements DaeIntegrator {
 
   readRhsAtState(out: Float64Array): boolean {
     if (!this.rhsAtState) return false;
-    out.set(this.p.massCompression ? this.rhsOwn : this.fCur);
+    copyEntries(this.p.massCompression ? this.rhsOwn : this.fCur, out);
     return true;
   }
 
@@ -1199,7 +1203,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.jacValid = true;
     this.jacCurrent = true;
     if (same) return;
-    J.set(fresh);
+    copyEntries(fresh, J);
     this.jacVersion++;
     this.luH = NaN;
   }
