@@ -179,6 +179,10 @@ export class AffineElimination implements DaeProblem, DependentError {
   /** y_A at a step's start, and the start shifted by the error estimate (scratch of {@link AffineElimination.measure}). */
   private readonly startA: Float64Array;
   private readonly shifted: Float64Array;
+  /** The last expansion's point (t, y_D) and its y_A (read by {@link AffineElimination.measure}; t NaN after a restart). */
+  private expandedT = NaN;
+  private readonly expandedD: Float64Array;
+  private readonly expandedA: Float64Array;
   /** radau5's mapped tolerances of the algebraic unknowns (rtol', atol'); atol' = Infinity, so no share, until set. */
   private readonly rtolA: Float64Array;
   private readonly atolA: Float64Array;
@@ -202,6 +206,8 @@ export class AffineElimination implements DaeProblem, DependentError {
     this.size = nd;
     this.count = na;
     this.startA = new Float64Array(na);
+    this.expandedD = new Float64Array(nd);
+    this.expandedA = new Float64Array(na);
     this.shifted = new Float64Array(nd);
     this.rtolA = new Float64Array(na);
     this.atolA = new Float64Array(na).fill(Infinity);
@@ -237,6 +243,7 @@ export class AffineElimination implements DaeProblem, DependentError {
    */
   restart(): void {
     this.keptT.fill(NaN);
+    this.expandedT = NaN;
     this.formedT = NaN;
     this.stale = true;
   }
@@ -345,18 +352,25 @@ export class AffineElimination implements DaeProblem, DependentError {
    * problem's e_A = -J_AA^-1 J_AD e_D, but at the step, where a Jacobian
    * kept from the interval's start can be far off in a saturating core),
    * each scaled by atol' + rtol' |y_A(y_D)| as the state is at the step's
-   * start (radau5's SCAL). One evaluation of f, two when f at (t, y_D) is
-   * no longer kept. See {@link DependentError}.
+   * start (radau5's SCAL). One evaluation of f; y_A at the start is the
+   * last expansion's (the previous step's end) or a kept evaluation's, and
+   * costs a second one only when neither is at hand. See {@link DependentError}.
    */
   measure(at: { readonly t: number }, yD: Float64Array, err: Float64Array): void {
     const { n, na, nd, q, rtolA, atolA, startA, shifted } = this;
     const t = at.t;
-    const k = this.kept(t, yD);
-    const f0 = k < 0 ? this.evaluate(t, yD) : this.keptF[k]!;
-    for (let r = 0; r < na; r++) {
-      let s = 0;
-      for (let j = 0; j < n; j++) s += q[r * n + j]! * f0[j]!;
-      startA[r] = s;
+    let expanded = t === this.expandedT;
+    for (let j = 0; j < nd && expanded; j++) expanded = this.expandedD[j] === yD[j];
+    if (expanded) {
+      for (let r = 0; r < na; r++) startA[r] = this.expandedA[r]!;
+    } else {
+      const k = this.kept(t, yD);
+      const f0 = k < 0 ? this.evaluate(t, yD) : this.keptF[k]!;
+      for (let r = 0; r < na; r++) {
+        let s = 0;
+        for (let j = 0; j < n; j++) s += q[r * n + j]! * f0[j]!;
+        startA[r] = s;
+      }
     }
     for (let j = 0; j < nd; j++) shifted[j] = yD[j]! + err[j]!;
     const f1 = this.evaluate(t, shifted);
@@ -383,6 +397,12 @@ export class AffineElimination implements DaeProblem, DependentError {
     }
     expandFromRhs(this.split, this.q, yD, this.keptF[k]!, out);
     if (rhs) this.rhsAtExpanded(k, out, rhs);
+    // Kept for the next step's error measure: a step's end, expanded when the step is copied, is the next one's start.
+    const { nd, na, expandedD, expandedA } = this;
+    const a = this.split.algebraic;
+    this.expandedT = t;
+    for (let j = 0; j < nd; j++) expandedD[j] = yD[j]!;
+    for (let r = 0; r < na; r++) expandedA[r] = out[a[r]!]!;
     return out;
   }
 
