@@ -1,5 +1,5 @@
 import { equilibrateComplex, equilibrateComplexRow, finishColumnScales } from './dense-equilibration.js';
-import { PIVOT_RELATIVE_TOLERANCE, type ComplexLinearSolver } from './linear-solver.js';
+import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type ComplexLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import type { SparseMass } from './sparse-mass.js';
 
@@ -85,9 +85,43 @@ export class ComplexLu implements ComplexLinearSolver {
     return this.factorHeldShift(jac, mass);
   }
 
-  /** {@link factorShifted} with the shifts in fields (see the real LU's). */
+  /**
+   * {@link factorShifted} with the shifts in fields (see the real LU's). With M the identity each
+   * row is formed and scanned in one pass, as in the real LU.
+   */
   private factorHeldShift(jac: Float64Array, mass: SparseMass | undefined): number {
+    if (mass) {
+      const bad = this.formShiftedWithMass(jac, mass);
+      if (bad >= 0) return bad;
+      finishColumnScales(this.size, this.colScale);
+      return this.scaleAndEliminate();
+    }
     const { size: n, ar, ai, rowScale, colScale, shiftRe, shiftIm } = this;
+    for (let j = 0; j < n; j++) colScale[j] = 0;
+    for (let i = 0; i < n; i++) {
+      const row = i * n;
+      let m = 0;
+      for (let j = 0; j < n; j++) {
+        const vr = j === i ? -jac[row + j]! + shiftRe : -jac[row + j]!;
+        const vi = j === i ? shiftIm : 0;
+        ar[row + j] = vr;
+        ai[row + j] = vi;
+        const a = Math.abs(vr) + Math.abs(vi);
+        if (!Number.isFinite(a)) return j;
+        if (a > m) m = a;
+      }
+      const r = powerOfTwoInverse(m);
+      rowScale[i] = r;
+      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * (Math.abs(ar[row + j]!) + Math.abs(ai[row + j]!)));
+    }
+    finishColumnScales(n, colScale);
+    return this.scaleAndEliminate();
+  }
+
+  /** {@link factorHeldShift}'s forming for a shift times M in compressed rows: each row formed, then equilibrateComplexRow while it is at hand. */
+  private formShiftedWithMass(jac: Float64Array, mass: SparseMass): number {
+    const { size: n, ar, ai, rowScale, colScale, shiftRe, shiftIm } = this;
+    const { rowStart, col, value } = mass;
     for (let j = 0; j < n; j++) colScale[j] = 0;
     for (let i = 0; i < n; i++) {
       const row = i * n;
@@ -95,45 +129,103 @@ export class ComplexLu implements ComplexLinearSolver {
         ar[row + j] = -jac[row + j]!;
         ai[row + j] = 0;
       }
-      if (mass) {
-        const { rowStart, col, value } = mass;
-        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
-          const idx = row + col[k]!;
-          ar[idx] = ar[idx]! + shiftRe * value[k]!;
-          ai[idx] = shiftIm * value[k]!;
-        }
-      } else {
-        ar[row + i] = ar[row + i]! + shiftRe;
-        ai[row + i] = shiftIm;
+      for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
+        const idx = row + col[k]!;
+        ar[idx] = ar[idx]! + shiftRe * value[k]!;
+        ai[idx] = shiftIm * value[k]!;
       }
-      // The row's part of equilibrateComplex (see the real LU's factorShifted).
       const bad = equilibrateComplexRow(n, i, ar, ai, rowScale, colScale);
       if (bad >= 0) return bad;
     }
-    finishColumnScales(n, colScale);
-    return this.scaleAndEliminate();
+    return -1;
   }
 
-  /** The matrix in (ar, ai) equilibrated in place, then the elimination. */
+  /**
+   * The matrix in (ar, ai) equilibrated in place and eliminated, the scaling folded into the first
+   * elimination step as in the real LU (the same numbers, bit for bit, one sweep less).
+   */
   private scaleAndEliminate(): number {
-    const { size: n, ar, ai, perm, rowScale, colScale } = this;
+    const { size: n, ar, ai, perm, pivotNorm, rowScale, colScale, tol } = this;
+    if (n === 0) return -1;
+    // Column 0 scaled, and its pivot searched as eliminate does.
+    const c0 = colScale[0]!;
     for (let i = 0; i < n; i++) {
       perm[i] = i;
-      const row = i * n;
-      const r = rowScale[i]!;
-      for (let j = 0; j < n; j++) {
-        const c = r * colScale[j]!;
-        ar[row + j] = c * ar[row + j]!;
-        ai[row + j] = c * ai[row + j]!;
+      const c = rowScale[i]! * c0;
+      ar[i * n] = c * ar[i * n]!;
+      ai[i * n] = c * ai[i * n]!;
+    }
+    let p = 0;
+    let pmax = Math.abs(ar[0]!) + Math.abs(ai[0]!);
+    for (let i = 1; i < n; i++) {
+      const v = Math.abs(ar[i * n]!) + Math.abs(ai[i * n]!);
+      if (v > pmax) {
+        pmax = v;
+        p = i;
       }
     }
-    return this.eliminate();
+    if (p !== 0) {
+      const rp = p * n;
+      for (let j = 0; j < n; j++) {
+        let t = ar[rp + j]!;
+        ar[rp + j] = ar[j]!;
+        ar[j] = t;
+        t = ai[rp + j]!;
+        ai[rp + j] = ai[j]!;
+        ai[j] = t;
+      }
+      perm[p] = 0;
+      perm[0] = p;
+    }
+    // The pivot row scaled with its own row's scale.
+    const r0 = rowScale[p]!;
+    for (let j = 1; j < n; j++) {
+      const c = r0 * colScale[j]!;
+      ar[j] = c * ar[j]!;
+      ai[j] = c * ai[j]!;
+    }
+    const pr = ar[0]!;
+    const pi = ai[0]!;
+    const mod = Math.abs(pr) + Math.abs(pi);
+    if (!(mod > tol) || !Number.isFinite(mod)) return 0;
+    const d = pr * pr + pi * pi;
+    pivotNorm[0] = d;
+    const ir = pr / d;
+    const ii = -pi / d;
+    for (let i = 1; i < n; i++) {
+      const ri = i * n;
+      const r = rowScale[perm[i]!]!;
+      const xr = ar[ri]!;
+      const xi = ai[ri]!;
+      if (xr === 0 && xi === 0) {
+        for (let j = 1; j < n; j++) {
+          const c = r * colScale[j]!;
+          ar[ri + j] = c * ar[ri + j]!;
+          ai[ri + j] = c * ai[ri + j]!;
+        }
+        continue;
+      }
+      const lr = xr * ir - xi * ii;
+      const li = xr * ii + xi * ir;
+      ar[ri] = lr;
+      ai[ri] = li;
+      for (let j = 1; j < n; j++) {
+        const c = r * colScale[j]!;
+        const vr = c * ar[ri + j]!;
+        const vi = c * ai[ri + j]!;
+        const ur = ar[j]!;
+        const ui = ai[j]!;
+        ar[ri + j] = vr - (lr * ur - li * ui);
+        ai[ri + j] = vi - (lr * ui + li * ur);
+      }
+    }
+    return this.eliminate(1);
   }
 
-  /** Gaussian elimination with partial pivoting of the equilibrated matrix in (ar, ai) (perm the identity on entry). */
-  private eliminate(): number {
+  /** Gaussian elimination with partial pivoting of the equilibrated matrix in (ar, ai), from column `from` on (the columns before done). */
+  private eliminate(from: number): number {
     const { size: n, ar, ai, perm, pivotNorm, tol } = this;
-    for (let k = 0; k < n; k++) {
+    for (let k = from; k < n; k++) {
       let p = k;
       let pmax = Math.abs(ar[k * n + k]!) + Math.abs(ai[k * n + k]!);
       for (let i = k + 1; i < n; i++) {

@@ -1171,8 +1171,13 @@ class RadauIntegrator implements DaeIntegrator {
     }
   }
 
-  /** Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J. Returns the bad pivot (real system first) or -1. */
-  private factorIterationMatrices(h: number): number {
+  /**
+   * Build and factor (gamma/h) M - J and ((alpha - i beta)/h) M - J for the step size h of
+   * `attempt` (read from there: a number passed to a call that is not inlined is boxed on the heap).
+   * Returns the bad pivot (real system first) or -1.
+   */
+  private factorIterationMatrices(): number {
+    const h = this.attempt.h;
     this.statsCur.luFactorizations++;
     return this.system.factor(this.jac, MU_REAL / h, MU_COMPLEX_RE / h, MU_COMPLEX_IM / h);
   }
@@ -1297,7 +1302,8 @@ class RadauIntegrator implements DaeIntegrator {
       if (h !== this.luH) {
         // The LU is rebuilt for a new h; the Jacobian is refreshed only when it is missing.
         if (!this.jacValid) this.ensureJacobian();
-        const pivot = this.factorIterationMatrices(h);
+        this.attempt.h = h;
+        const pivot = this.factorIterationMatrices();
         if (pivot >= 0) {
           singularCount++;
           if (singularCount >= MAX_SINGULAR_RETRIES) {

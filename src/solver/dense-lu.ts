@@ -1,5 +1,5 @@
 import { equilibrateReal, equilibrateRealRow, finishColumnScales } from './dense-equilibration.js';
-import { PIVOT_RELATIVE_TOLERANCE, type RealLinearSolver } from './linear-solver.js';
+import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import type { SparseMass } from './sparse-mass.js';
 
@@ -73,46 +73,114 @@ export class DenseLu implements RealLinearSolver {
     return this.factorHeldShift(jac, mass);
   }
 
-  /** {@link factorShifted} with the shift in a field: a number passed to a call that is not inlined is boxed on the heap. */
+  /**
+   * {@link factorShifted} with the shift in a field (a number passed to a call that is not inlined
+   * is boxed on the heap). With M the identity each row is formed and its largest entry found in
+   * one pass (the same entries, the same first non-finite column as equilibrateRealRow), then its
+   * column maxima.
+   */
   private factorHeldShift(jac: Float64Array, mass: SparseMass | undefined): number {
+    if (mass) {
+      const bad = this.formShiftedWithMass(jac, mass);
+      if (bad >= 0) return bad;
+      finishColumnScales(this.size, this.colScale);
+      return this.scaleAndEliminate();
+    }
     const { size: n, lu, rowScale, colScale, shift } = this;
     for (let j = 0; j < n; j++) colScale[j] = 0;
     for (let i = 0; i < n; i++) {
       const row = i * n;
-      for (let j = 0; j < n; j++) lu[row + j] = -jac[row + j]!;
-      if (mass) {
-        const { rowStart, col, value } = mass;
-        for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
-          const idx = row + col[k]!;
-          lu[idx] = lu[idx]! + shift * value[k]!;
-        }
-      } else {
-        lu[row + i] = lu[row + i]! + shift;
+      let m = 0;
+      for (let j = 0; j < n; j++) {
+        const v = j === i ? -jac[row + j]! + shift : -jac[row + j]!;
+        lu[row + j] = v;
+        const a = Math.abs(v);
+        if (!Number.isFinite(a)) return j;
+        if (a > m) m = a;
       }
-      // The row's part of equilibrateReal while the row is at hand (the rows below are not read by it).
-      const bad = equilibrateRealRow(n, i, lu, rowScale, colScale);
-      if (bad >= 0) return bad;
+      const r = powerOfTwoInverse(m);
+      rowScale[i] = r;
+      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * Math.abs(lu[row + j]!));
     }
     finishColumnScales(n, colScale);
     return this.scaleAndEliminate();
   }
 
-  /** The matrix in `lu` equilibrated in place, then the elimination. */
-  private scaleAndEliminate(): number {
-    const { size: n, lu, perm, rowScale, colScale } = this;
+  /** {@link factorHeldShift}'s forming for shift M - J with M in compressed rows: each row formed, then equilibrateRealRow while it is at hand. */
+  private formShiftedWithMass(jac: Float64Array, mass: SparseMass): number {
+    const { size: n, lu, rowScale, colScale, shift } = this;
+    const { rowStart, col, value } = mass;
+    for (let j = 0; j < n; j++) colScale[j] = 0;
     for (let i = 0; i < n; i++) {
-      perm[i] = i;
       const row = i * n;
-      const r = rowScale[i]!;
-      for (let j = 0; j < n; j++) lu[row + j] = r * lu[row + j]! * colScale[j]!;
+      for (let j = 0; j < n; j++) lu[row + j] = -jac[row + j]!;
+      for (let k = rowStart[i]!; k < rowStart[i + 1]!; k++) {
+        const idx = row + col[k]!;
+        lu[idx] = lu[idx]! + shift * value[k]!;
+      }
+      // The row's part of equilibrateReal (the rows below are not read by it).
+      const bad = equilibrateRealRow(n, i, lu, rowScale, colScale);
+      if (bad >= 0) return bad;
     }
-    return this.eliminate();
+    return -1;
   }
 
-  /** Gaussian elimination with partial pivoting of the equilibrated matrix in `lu` (perm the identity on entry). */
-  private eliminate(): number {
+  /**
+   * The matrix in `lu` equilibrated in place and eliminated, the scaling folded into the first
+   * elimination step: each entry is scaled (r_i a_ij c_j, as a pass of its own would) just before
+   * that step first reads it, so the matrix is swept once less (the same numbers, bit for bit).
+   */
+  private scaleAndEliminate(): number {
+    const { size: n, lu, perm, rowScale, colScale, tol } = this;
+    if (n === 0) return -1;
+    // Column 0 scaled, and its pivot searched as eliminate does.
+    const c0 = colScale[0]!;
+    for (let i = 0; i < n; i++) {
+      perm[i] = i;
+      lu[i * n] = rowScale[i]! * lu[i * n]! * c0;
+    }
+    let p = 0;
+    let pmax = Math.abs(lu[0]!);
+    for (let i = 1; i < n; i++) {
+      const v = Math.abs(lu[i * n]!);
+      if (v > pmax) {
+        pmax = v;
+        p = i;
+      }
+    }
+    if (p !== 0) {
+      const rp = p * n;
+      for (let j = 0; j < n; j++) {
+        const t = lu[rp + j]!;
+        lu[rp + j] = lu[j]!;
+        lu[j] = t;
+      }
+      perm[p] = 0;
+      perm[0] = p;
+    }
+    // The pivot row scaled (with its own row's scale: rows are swapped whole, scales stay with perm).
+    const r0 = rowScale[p]!;
+    for (let j = 1; j < n; j++) lu[j] = r0 * lu[j]! * colScale[j]!;
+    if (!(pmax > tol) || !Number.isFinite(pmax)) return 0;
+    const pivot = lu[0]!;
+    for (let i = 1; i < n; i++) {
+      const ri = i * n;
+      const r = rowScale[perm[i]!]!;
+      const l = lu[ri]! / pivot;
+      lu[ri] = l;
+      if (l !== 0) {
+        for (let j = 1; j < n; j++) lu[ri + j] = r * lu[ri + j]! * colScale[j]! - l * lu[j]!;
+      } else {
+        for (let j = 1; j < n; j++) lu[ri + j] = r * lu[ri + j]! * colScale[j]!;
+      }
+    }
+    return this.eliminate(1);
+  }
+
+  /** Gaussian elimination with partial pivoting of the equilibrated matrix in `lu`, from column `from` on (the columns before done). */
+  private eliminate(from: number): number {
     const { size: n, lu, perm, tol } = this;
-    for (let k = 0; k < n; k++) {
+    for (let k = from; k < n; k++) {
       let p = k;
       let pmax = Math.abs(lu[k * n + k]!);
       for (let i = k + 1; i < n; i++) {

@@ -6,8 +6,12 @@ import { KEEP_STEP_HIGH, KEEP_STEP_LOW, MAX_STEP_RATIO, MIN_STEP_RATIO, NEWTON_M
  * bounded to [1/MAX_STEP_RATIO, 1/MIN_STEP_RATIO].
  */
 
+/** Bounds of a quotient h / hNew. */
+const QUOT_LOW = 1 / MAX_STEP_RATIO;
+const QUOT_HIGH = 1 / MIN_STEP_RATIO;
+
 function bounded(quot: number): number {
-  return Math.max(1 / MAX_STEP_RATIO, Math.min(1 / MIN_STEP_RATIO, quot));
+  return Math.max(QUOT_LOW, Math.min(QUOT_HIGH, quot));
 }
 
 /**
@@ -22,8 +26,7 @@ function bounded(quot: number): number {
  * ```
  */
 export function errorQuotient(err: number, newtonIterations: number): number {
-  const cfac = SAFETY * (1 + 2 * NEWTON_MAX_ITERATIONS);
-  const fac = Math.min(SAFETY, cfac / (newtonIterations + 2 * NEWTON_MAX_ITERATIONS));
+  const fac = safetyFactor(newtonIterations);
   return bounded(err ** 0.25 / fac);
 }
 
@@ -94,7 +97,11 @@ export interface AcceptedStep {
  * radau5's next step size after an accepted step (into `s.hNext`): the
  * proposal h / max({@link errorQuotient}, {@link predictiveQuotient}) capped
  * by maxStep and, after a rejection, by h; then {@link stepAfterAccept}.
- * When {@link surelyKeepsStep} says h is kept, h without the powers.
+ * Both quotients are first taken with fourth roots by square roots (a few
+ * ulp from the powers): when the screen of {@link surelyKeepsStep} says h
+ * is kept, h without the powers; otherwise only the power of the quotient
+ * that is surely the larger is taken (the maximum is that quotient, exactly),
+ * both when the two lie too close to tell.
  *
  * @internal
  * @example
@@ -105,14 +112,36 @@ export interface AcceptedStep {
  */
 export function nextStepSize(s: AcceptedStep): void {
   const h = s.h;
-  if (!s.recomputeJacobian && surelyKeepsStep(s)) {
+  const err = s.err;
+  const hAcc = s.hAcc;
+  const errAcc = s.errAcc;
+  const fac = safetyFactor(s.newtonIterations);
+  const history = !Number.isNaN(hAcc);
+  // The bounds of `bounded` written out here and below: a number passed to (or returned from) a call
+  // that is not inlined is boxed on the heap, and not every call site here was inlined.
+  const rootErr = Math.max(QUOT_LOW, Math.min(QUOT_HIGH, Math.sqrt(Math.sqrt(err)) / fac));
+  const rootGus = history ? Math.max(QUOT_LOW, Math.min(QUOT_HIGH, ((hAcc / h) * Math.sqrt(Math.sqrt((err * err) / errAcc))) / SAFETY)) : 0;
+  if (!s.recomputeJacobian && keepsStepAt(s, Math.max(rootErr, rootGus))) {
     s.hNext = h;
     return;
   }
-  let hNew = h / predictiveQuotient(errorQuotient(s.err, s.newtonIterations), h, s.err, s.hAcc, s.errAcc);
+  // The quotients of errorQuotient and predictiveQuotient, the same expressions; the power of one
+  // that is surely the smaller is not taken.
+  const errSurelyLarger = !history || rootErr > rootGus * (1 + KEEP_MARGIN);
+  const gusSurelyLarger = history && rootGus > rootErr * (1 + KEEP_MARGIN);
+  const qErr = gusSurelyLarger ? 0 : Math.max(QUOT_LOW, Math.min(QUOT_HIGH, err ** 0.25 / fac));
+  const qGus = errSurelyLarger ? 0 : Math.max(QUOT_LOW, Math.min(QUOT_HIGH, ((hAcc / h) * (err * err / errAcc) ** 0.25) / SAFETY));
+  const quot = errSurelyLarger ? qErr : gusSurelyLarger ? qGus : Math.max(qErr, qGus);
+  let hNew = h / quot;
   hNew = Math.min(hNew, s.maxStep);
   if (s.rejected) hNew = Math.min(hNew, h);
   s.hNext = stepAfterAccept(h, hNew, s.recomputeJacobian);
+}
+
+/** radau5's safety factor FAC, lowered when Newton needed many iterations (see {@link errorQuotient}). */
+function safetyFactor(newtonIterations: number): number {
+  const cfac = SAFETY * (1 + 2 * NEWTON_MAX_ITERATIONS);
+  return Math.min(SAFETY, cfac / (newtonIterations + 2 * NEWTON_MAX_ITERATIONS));
 }
 
 /** Relative margin around the keep band: far above the few ulp between a fourth root by square roots and by the power. */
@@ -137,11 +166,16 @@ const KEEP_MARGIN = 1e-12;
  * ```
  */
 export function surelyKeepsStep(s: Omit<AcceptedStep, 'recomputeJacobian' | 'hNext'>): boolean {
-  const { h, err, hAcc, errAcc, maxStep, rejected } = s;
-  const cfac = SAFETY * (1 + 2 * NEWTON_MAX_ITERATIONS);
-  const fac = Math.min(SAFETY, cfac / (s.newtonIterations + 2 * NEWTON_MAX_ITERATIONS));
+  const { h, err, hAcc, errAcc } = s;
+  const fac = safetyFactor(s.newtonIterations);
   let quot = bounded(Math.sqrt(Math.sqrt(err)) / fac);
   if (!Number.isNaN(hAcc)) quot = Math.max(quot, bounded(((hAcc / h) * Math.sqrt(Math.sqrt((err * err) / errAcc))) / SAFETY));
+  return keepsStepAt(s, quot);
+}
+
+/** The band test of {@link surelyKeepsStep} for its quotient by square roots. */
+function keepsStepAt(s: Omit<AcceptedStep, 'recomputeJacobian' | 'hNext'>, quot: number): boolean {
+  const { h, maxStep, rejected } = s;
   const lowest = capped(h, h / (quot * (1 + KEEP_MARGIN)), maxStep, rejected);
   const highest = capped(h, h / (quot * (1 - KEEP_MARGIN)), maxStep, rejected);
   if (lowest === highest) {
