@@ -54,6 +54,10 @@ export function createProjector(
   const scale = new Float64Array(n);
   const f = new Float64Array(n);
   const dy = new Float64Array(n);
+  /** The interpolated state, put back when the projection fails (a scratch, not a copy per call). */
+  const start = new Float64Array(n);
+  const atolOf = typeof atol === 'number' ? undefined : atol;
+  const atolAll = typeof atol === 'number' ? atol : 0;
   /** J, made on first use: a run that never projects holds no n x n array here. */
   let jac: Float64Array | undefined;
   let lu: ReturnType<typeof createDenseLu> | undefined;
@@ -109,10 +113,10 @@ export function createProjector(
       z = new Float64Array(k);
     }
     if (k === 0) return;
-    for (let i = 0; i < n; i++) scale[i] = (typeof atol === 'number' ? atol : atol[i]!) + rtol * Math.abs(y[i]!);
+    for (let i = 0; i < n; i++) scale[i] = (atolOf === undefined ? atolAll : atolOf[i]!) + rtol * Math.abs(y[i]!);
     if (singular) return full(t, y);
     const s = spaces;
-    const start = Float64Array.from(y);
+    for (let i = 0; i < n; i++) start[i] = y[i]!;
     let previous = Infinity;
     for (let iter = 0; iter < MAX_SIMPLIFIED; iter++) {
       if (!luValid && !refresh(t, y)) {
