@@ -8,7 +8,8 @@
  * ideal against exponential diodes (bench/flyback-commutation.ts), the ratios to compiled RADAU5
  * when the bench-anchor yardstick is at hand (bench/anchor.ts), and the flux walk taken apart
  * (network layer, differential-algebraic form, solver; bench/flux-walk-anatomy.ts), and the
- * flux walk in the full against the reduced formulation (bench/flux-walk-reduced.ts). Prints tables;
+ * flux walk in the full against the reduced formulation (bench/flux-walk-reduced.ts), and both
+ * formulations' work against accuracy on an energisation (bench/formulation-accuracy.ts). Prints tables;
  * wall times are medians of a few repeats. Total run time about a minute.
  */
 import { solveDae, type DaeProblem, type SolveDaeOptions } from '../src/index.js';
@@ -27,6 +28,7 @@ import { benchLadder } from './ladder.js';
 import { benchLoaderCost } from './loader-cost.js';
 import { benchFluxWalkAnatomy } from './flux-walk-anatomy.js';
 import { benchFluxWalkReduced } from './flux-walk-reduced.js';
+import { benchFormulationAccuracy } from './formulation-accuracy.js';
 import { printTable, timeMedian } from './timing.js';
 
 /** odex step budget: beyond this it is reported as exceeded (it is not built for stiff problems). */
@@ -164,4 +166,5 @@ benchAgainstRadau5();
 benchLoaderCost();
 benchFluxWalkAnatomy();
 benchFluxWalkReduced();
+benchFormulationAccuracy();
 console.log(`\nTotal bench time ${((performance.now() - started) / 1000).toFixed(1)} s`);
