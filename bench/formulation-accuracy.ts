@@ -10,52 +10,19 @@
  * alternated runs in one process. Scenario of our own (demo data).
  * usage: tsx bench/formulation-accuracy.ts [rounds]
  */
-import { compileMaterial, createNetwork, demoMaterials, simulate, sine } from '../src/index.js';
-import { Solver } from '../test/support/odex.js';
+import { energisationReference, energise as energiseOnce } from '../test/support/energisation.js';
 import { alternateCpuMs, median, printTable } from './timing.js';
 
-const steelSpec = demoMaterials.grainOrientedSteel;
-const steel = compileMaterial(steelSpec);
-const [N, R, area, lLeg, lRest, Vm, fHz] = [462, 3, 1.6e-3, 0.2, 0.3, 325, 50];
-const stopTime = 0.1;
-const times = Array.from({ length: 1000 }, (_, k) => ((k + 1) * stopTime) / 1000);
-const currentOf = (phi: number): number => ((lLeg + lRest) * steel.fieldStrength(phi / area)) / N;
-
-/** The winding current at `times` from odex. */
-function reference(): number[] {
-  const odex = new Solver(1);
-  odex.absoluteTolerance = 1e-16;
-  odex.relativeTolerance = 1e-12;
-  const f = (t: number, y: number[]): number[] => [(Vm * Math.sin(2 * Math.PI * fHz * t) - R * currentOf(y[0]!)) / N];
-  const out: number[] = [];
-  let phi = 0;
-  let t0 = 0;
-  for (const t of times) {
-    phi = odex.solve(f, t0, [phi], t).y[0]!;
-    out.push(currentOf(phi));
-    t0 = t;
-  }
-  return out;
-}
-
-/** One run of the energisation; returns the winding current at `times` and the run's counts. */
-function energise(formulation: 'full' | 'reduced', rtol: number): { current: Float64Array; steps: number; f: number } {
-  const net = createNetwork('energisation at a voltage zero');
-  const m1 = net.magneticNode('m1');
-  const m2 = net.magneticNode('m2');
-  const leg = net.fluxTube('leg', { from: m1, to: m2, length: lLeg, area, material: steelSpec });
-  net.fluxTube('rest', { from: m2, to: m1, length: lRest, area, material: steelSpec });
-  const a = net.node('a');
-  net.voltageSource('mains', a, net.ground, sine({ amplitude: Vm, frequency: fHz }));
-  const coil = net.winding('coil', { tube: leg, turns: N, resistance: R, plus: a, minus: net.ground });
-  const r = simulate(net, { stopTime, rtol, formulation, sampling: { times } });
-  if (r.status !== 'success') throw new Error(`${formulation} at rtol ${rtol}: ${r.status} ${r.message}`);
-  return { current: Float64Array.from(r.current(coil)), steps: r.stats.acceptedSteps, f: r.stats.rhsEvaluations };
+/** One run of the energisation (test/support/energisation.ts); throws on a failed run. */
+function energise(formulation: 'full' | 'reduced', rtol: number): ReturnType<typeof energiseOnce> {
+  const run = energiseOnce(formulation, rtol);
+  if (run.status !== 'success') throw new Error(`${formulation} at rtol ${rtol}: ${run.status}`);
+  return run;
 }
 
 /** Prints, per rtol, each formulation's error against odex, its counts and its CPU time. */
 export function benchFormulationAccuracy(rounds = 9): void {
-  const ref = reference();
+  const ref = energisationReference();
   const peak = Math.max(...ref.map(Math.abs));
   const rows: (string | number)[][] = [];
   // Warm-up at every tolerance first, so the first one timed does not carry the compilation.
