@@ -290,6 +290,29 @@ class UserCodeError extends Error {
   }
 }
 
+/**
+ * A {@link DependentError} whose measure, which evaluates the caller's f at
+ * a shifted state, maps a throw to {@link UserCodeError} as every other
+ * evaluation of f does, so it ends the run as 'rhs-error'.
+ */
+class GuardedDependentError implements DependentError {
+  readonly count: number;
+  squares = 0;
+
+  constructor(private readonly inner: DependentError) {
+    this.count = inner.count;
+  }
+
+  measure(at: { readonly t: number }, y: Float64Array, err: Float64Array): void {
+    try {
+      this.inner.measure(at, y, err);
+    } catch (e) {
+      throw new UserCodeError(e, 'f (the error estimate of the eliminated unknowns)', at.t);
+    }
+    this.squares = this.inner.squares;
+  }
+}
+
 function emptyStats(): SolverStats {
   return {
     acceptedSteps: 0,
@@ -578,7 +601,7 @@ class RadauIntegrator implements DaeIntegrator {
     this.errorWork = new ErrorEstimateArrays(n, take);
     this.newtonOutcome = createNewtonOutcome(n);
     this.errorComponents = new ComponentList(n);
-    this.collocation = new IntegratorCalls(this, n, !p.mass, this.luReal, this.luComplex, this.fnewt, this.statsCur, dependent);
+    this.collocation = new IntegratorCalls(this, n, !p.mass, this.luReal, this.luComplex, this.fnewt, this.statsCur, dependent ? new GuardedDependentError(dependent) : undefined);
     this.scale = take(n);
     this.ySaved = take(n);
     this.restartSlope = take(n);
