@@ -19,8 +19,8 @@ class FixedShare implements DependentError {
   }
 }
 
-// Prothero-Robinson: y' = -50 (y - cos t) - sin t, y(0) = 1, exact y = cos t (Hairer and Wanner II,
-// sect. IV.15, the stiff test equation; common practice).
+// Prothero-Robinson: y' = -50 (y - cos t) - sin t, y(0) = 1, exact y = cos t (Prothero and Robinson, Math. Comp. 28, 1974;
+// the stiff test equation; from memory).
 const problem: DaeProblem = {
   size: 1,
   y0: [1],
@@ -36,7 +36,7 @@ const problem: DaeProblem = {
 
 describe('the error norm with unknowns that follow from the state (DependentError)', () => {
   it('is the RMS of the scaled errors over the state and the dependent unknowns together', () => {
-    // Weighted RMS norm, Hairer and Wanner II, sect. IV.8 (eq. 8.21): sqrt(sum (e_i / sc_i)^2 / n).
+    // Weighted RMS norm, Hairer and Wanner II, sect. IV.8 (from memory): sqrt(sum (e_i / sc_i)^2 / n).
     const err = Float64Array.of(3e-6, -4e-6);
     const scale = Float64Array.of(1e-6, 2e-6);
     const share = new FixedShare(3, 7);
