@@ -179,6 +179,13 @@ export class AffineElimination implements DaeProblem, DependentError {
   /** y_A at a step's start, and the start shifted by the error estimate (scratch of {@link AffineElimination.measure}). */
   private readonly startA: Float64Array;
   private readonly shifted: Float64Array;
+  /** dy_A/dy_D = Q J[:, D] (nA x nD), formed with each reduced Jacobian. */
+  private readonly sensitivity: Float64Array;
+  private sensitivityFormed = false;
+  /** The scales of the algebraic unknowns at a step's start, atol' + rtol' |y_A|, and the start they belong to. */
+  private readonly startScale: Float64Array;
+  private startScaleT = NaN;
+  private readonly startScaleD: Float64Array;
   /** The last expansion's point (t, y_D) and its y_A (read by {@link AffineElimination.measure}; t NaN after a restart). */
   private expandedT = NaN;
   private readonly expandedD: Float64Array;
@@ -207,6 +214,9 @@ export class AffineElimination implements DaeProblem, DependentError {
     this.count = na;
     this.startA = new Float64Array(na);
     this.expandedD = new Float64Array(nd);
+    this.sensitivity = new Float64Array(na * nd);
+    this.startScale = new Float64Array(na);
+    this.startScaleD = new Float64Array(nd);
     this.expandedA = new Float64Array(na);
     this.shifted = new Float64Array(nd);
     this.rtolA = new Float64Array(na);
@@ -244,6 +254,7 @@ export class AffineElimination implements DaeProblem, DependentError {
   restart(): void {
     this.keptT.fill(NaN);
     this.expandedT = NaN;
+    this.startScaleT = NaN;
     this.formedT = NaN;
     this.stale = true;
   }
@@ -333,6 +344,17 @@ export class AffineElimination implements DaeProblem, DependentError {
         out[r * nd + c] = s;
       }
     }
+    // y_A = Q f(y_D, 0), so dy_A/dy_D = Q J[:, D]: frozen with the reduced Jacobian, as the Newton
+    // iteration freezes it (read by measureIncrement).
+    const { na, q, sensitivity } = this;
+    for (let r = 0; r < na; r++) {
+      for (let c = 0; c < nd; c++) {
+        let s = 0;
+        for (let j = 0; j < n; j++) s += q[r * n + j]! * jac[j * n + d[c]!]!;
+        sensitivity[r * nd + c] = s;
+      }
+    }
+    this.sensitivityFormed = true;
   }
 
   /**
@@ -357,8 +379,57 @@ export class AffineElimination implements DaeProblem, DependentError {
    * costs a second one only when neither is at hand. See {@link DependentError}.
    */
   measure(at: { readonly t: number }, yD: Float64Array, err: Float64Array): void {
-    const { n, na, nd, q, rtolA, atolA, startA, shifted } = this;
+    const { n, na, nd, q, startA, startScale, shifted } = this;
     const t = at.t;
+    this.scaleAtStart(t, yD);
+    for (let j = 0; j < nd; j++) shifted[j] = yD[j]! + err[j]!;
+    const f1 = this.evaluate(t, shifted);
+    let sum = 0;
+    for (let r = 0; r < na; r++) {
+      let s = 0;
+      for (let j = 0; j < n; j++) s += q[r * n + j]! * f1[j]!;
+      const x = (s - startA[r]!) / startScale[r]!;
+      sum += x * x;
+    }
+    this.squares = sum;
+  }
+
+  /**
+   * The algebraic unknowns' share of the Newton increment's norm: each of
+   * the three transformed stage increments taken through dy_A/dy_D (frozen
+   * with the reduced Jacobian) and scaled as at the step's start. See
+   * {@link DependentError.measureIncrement}.
+   */
+  measureIncrement(at: { readonly t: number }, yD: Float64Array, dw: Float64Array): void {
+    const { na, nd, sensitivity, startScale } = this;
+    if (!this.sensitivityFormed || na === 0) {
+      this.squares = 0;
+      return;
+    }
+    this.scaleAtStart(at.t, yD);
+    let sum = 0;
+    for (let k = 0; k < 3; k++) {
+      const o = k * nd;
+      for (let r = 0; r < na; r++) {
+        let e = 0;
+        for (let c = 0; c < nd; c++) e += sensitivity[r * nd + c]! * dw[o + c]!;
+        const x = e / startScale[r]!;
+        sum += x * x;
+      }
+    }
+    this.squares = sum;
+  }
+
+  /**
+   * y_A at a step's start (t, y_D) into startA, and the scales atol' +
+   * rtol' |y_A| into startScale, once per start: from the last expansion
+   * (the previous step's end), a kept evaluation, or an evaluation of f.
+   */
+  private scaleAtStart(t: number, yD: Float64Array): void {
+    const { n, na, nd, q, rtolA, atolA, startA, startScale } = this;
+    let same = t === this.startScaleT;
+    for (let j = 0; j < nd && same; j++) same = this.startScaleD[j] === yD[j];
+    if (same) return;
     let expanded = t === this.expandedT;
     for (let j = 0; j < nd && expanded; j++) expanded = this.expandedD[j] === yD[j];
     if (expanded) {
@@ -372,16 +443,9 @@ export class AffineElimination implements DaeProblem, DependentError {
         startA[r] = s;
       }
     }
-    for (let j = 0; j < nd; j++) shifted[j] = yD[j]! + err[j]!;
-    const f1 = this.evaluate(t, shifted);
-    let sum = 0;
-    for (let r = 0; r < na; r++) {
-      let s = 0;
-      for (let j = 0; j < n; j++) s += q[r * n + j]! * f1[j]!;
-      const x = (s - startA[r]!) / (atolA[r]! + rtolA[r]! * Math.abs(startA[r]!));
-      sum += x * x;
-    }
-    this.squares = sum;
+    for (let r = 0; r < na; r++) startScale[r] = atolA[r]! + rtolA[r]! * Math.abs(startA[r]!);
+    this.startScaleT = t;
+    for (let j = 0; j < nd; j++) this.startScaleD[j] = yD[j]!;
   }
 
   /**

@@ -1,5 +1,6 @@
 import { float64View, ownFloat64, type TakeFloat64 } from './float64-chunks.js';
 import type { ComplexLinearSolver, RealLinearSolver } from './linear-solver.js';
+import type { DependentError } from './dependent-error.js';
 import {
   C1,
   C2,
@@ -46,6 +47,8 @@ export interface CollocationSystem {
   readonly fnewt: number;
   /** Newton iterations are counted here. */
   readonly stats: { newtonIterations: number };
+  /** Unknowns that follow from the state, taken into the increment's norm too (see {@link DependentError}). */
+  readonly dependentError?: DependentError | undefined;
 }
 
 /**
@@ -329,7 +332,14 @@ export function solveCollocation(
         sum += r * r;
       }
     }
-    const dyno = Math.sqrt(sum / (3 * n));
+    let count = 3 * n;
+    const dependent = sys.dependentError;
+    if (dependent !== undefined) {
+      dependent.measureIncrement(at, y, dw);
+      sum += dependent.squares;
+      count = 3 * (n + dependent.count);
+    }
+    const dyno = Math.sqrt(sum / count);
     if (!Number.isFinite(dyno)) {
       // The increment overflowed: name its non-finite components (or, when every entry is finite
       // and only the sum of squares overflowed, the largest), so a failure can be diagnosed.

@@ -311,6 +311,15 @@ class GuardedDependentError implements DependentError {
     }
     this.squares = this.inner.squares;
   }
+
+  measureIncrement(at: { readonly t: number }, y: Float64Array, dw: Float64Array): void {
+    try {
+      this.inner.measureIncrement(at, y, dw);
+    } catch (e) {
+      throw new UserCodeError(e, 'f (the error estimate of the eliminated unknowns)', at.t);
+    }
+    this.squares = this.inner.squares;
+  }
 }
 
 function emptyStats(): SolverStats {

@@ -26,6 +26,15 @@ export interface DependentError {
    * is boxed on the heap.
    */
   measure(at: { readonly t: number }, y: Float64Array, err: Float64Array): void;
+  /**
+   * The same sum for a Newton increment of the step from (`at.t`, `y`):
+   * `dw` holds the increments of the three transformed stages (3 x n, stage
+   * k at [k n, k n + n)), each taken through the linearised map of the
+   * state to the dependent unknowns (the Jacobian's, frozen as the Newton
+   * iteration freezes it), so that the iteration converges on them as the
+   * full problem's does. Written to {@link DependentError.squares}.
+   */
+  measureIncrement(at: { readonly t: number }, y: Float64Array, dw: Float64Array): void;
   /** The last {@link DependentError.measure}'s sum. */
   readonly squares: number;
 }

@@ -17,6 +17,11 @@ class FixedShare implements DependentError {
     this.calls++;
     this.squares = this.sum;
   }
+
+  /** No share in the Newton increment: the iteration stops as it does without dependents. */
+  measureIncrement(): void {
+    this.squares = 0;
+  }
 }
 
 // Prothero-Robinson: y' = -50 (y - cos t) - sin t, y(0) = 1, exact y = cos t (Prothero and Robinson, Math. Comp. 28, 1974;
@@ -72,6 +77,7 @@ describe('the error norm with unknowns that follow from the state (DependentErro
       measure: () => {
         throw new Error('law undefined here');
       },
+      measureIncrement: () => {},
     };
     const integ = createDaeIntegratorWithDependents(problem, { rtol: 1e-6 }, throwing);
     const r = integ.step();
