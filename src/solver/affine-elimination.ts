@@ -1,5 +1,6 @@
 import { DenseLu } from './dense-lu.js';
 import type { DependentError } from './dependent-error.js';
+import { samePoint } from './same-point.js';
 import { compressedMass, massRowCompression, recombineJacobianRows, recombineRhsRows, type MassRowCompression } from './mass-row-compression.js';
 import type { DaeEvent, DaeProblem } from './types.js';
 
@@ -101,12 +102,27 @@ export class SingularAlgebraicBlock extends Error {
 export function expandFromRhs(split: AffinePartition, q: Float64Array, yD: ArrayLike<number>, f: Float64Array, out: Float64Array): Float64Array {
   const { n, differential: d, algebraic: a } = split;
   for (let j = 0; j < d.length; j++) out[d[j]!] = yD[j]!;
-  for (let r = 0; r < a.length; r++) {
-    let s = 0;
-    for (let j = 0; j < n; j++) s += q[r * n + j]! * f[j]!;
-    out[a[r]!] = s;
-  }
+  for (let r = 0; r < a.length; r++) out[a[r]!] = rowTimes(q, r, n, f);
   return out;
+}
+
+/** Row r of the row-major map m (rows of length n) times v: the one product P f, Q f are made of. */
+function rowTimes(m: Float64Array, r: number, n: number, v: ArrayLike<number>): number {
+  let s = 0;
+  for (let j = 0; j < n; j++) s += m[r * n + j]! * v[j]!;
+  return s;
+}
+
+/** out (rows x d.length) = m J[:, d], m row-major with rows of length n, J n x n: the reduced Jacobian P J[:, D] and dy_A/dy_D = Q J[:, D]. */
+function timesColumns(m: Float64Array, rows: number, n: number, jac: Float64Array, d: Int32Array, out: Float64Array): void {
+  const nd = d.length;
+  for (let r = 0; r < rows; r++) {
+    for (let c = 0; c < nd; c++) {
+      let s = 0;
+      for (let j = 0; j < n; j++) s += m[r * n + j]! * jac[j * n + d[c]!]!;
+      out[r * nd + c] = s;
+    }
+  }
 }
 
 /** Evaluations kept: a step reads its end again after its start and its two inner nodes (measured: with three, one miss per input interval). */
@@ -315,20 +331,14 @@ export class AffineElimination implements DaeProblem, DependentError {
     if (this.stale) this.factorAt(t, yD);
     const { n, nd, p } = this;
     const f = this.evaluate(t, yD);
-    for (let r = 0; r < nd; r++) {
-      let s = 0;
-      for (let j = 0; j < n; j++) s += p[r * n + j]! * f[j]!;
-      out[r] = s;
-    }
+    for (let r = 0; r < nd; r++) out[r] = rowTimes(p, r, n, f);
   }
 
   jacobian(t: number, yD: Float64Array, out: Float64Array): void {
     if (this.stale) this.factorAt(t, yD);
     const { n, nd, p } = this;
     let jac = this.jac;
-    let same = t === this.formedT;
-    for (let j = 0; j < nd && same; j++) same = this.formedD[j] === yD[j];
-    if (same) {
+    if (samePoint(t, yD, this.formedT, this.formedD, nd)) {
       jac = this.formedJac;
     } else {
       this.jacobianEvaluations++;
@@ -336,24 +346,10 @@ export class AffineElimination implements DaeProblem, DependentError {
       jac.fill(0);
       this.full.jacobian(t, this.y, jac);
     }
-    const d = this.split.differential;
-    for (let r = 0; r < nd; r++) {
-      for (let c = 0; c < nd; c++) {
-        let s = 0;
-        for (let j = 0; j < n; j++) s += p[r * n + j]! * jac[j * n + d[c]!]!;
-        out[r * nd + c] = s;
-      }
-    }
+    timesColumns(p, nd, n, jac, this.split.differential, out);
     // y_A = Q f(y_D, 0), so dy_A/dy_D = Q J[:, D]: frozen with the reduced Jacobian, as the Newton
     // iteration freezes it (read by measureIncrement).
-    const { na, q, sensitivity } = this;
-    for (let r = 0; r < na; r++) {
-      for (let c = 0; c < nd; c++) {
-        let s = 0;
-        for (let j = 0; j < n; j++) s += q[r * n + j]! * jac[j * n + d[c]!]!;
-        sensitivity[r * nd + c] = s;
-      }
-    }
+    timesColumns(this.q, this.na, n, jac, this.split.differential, this.sensitivity);
     this.sensitivityFormed = true;
   }
 
@@ -386,9 +382,7 @@ export class AffineElimination implements DaeProblem, DependentError {
     const f1 = this.evaluate(t, shifted);
     let sum = 0;
     for (let r = 0; r < na; r++) {
-      let s = 0;
-      for (let j = 0; j < n; j++) s += q[r * n + j]! * f1[j]!;
-      const x = (s - startA[r]!) / startScale[r]!;
+      const x = (rowTimes(q, r, n, f1) - startA[r]!) / startScale[r]!;
       sum += x * x;
     }
     this.squares = sum;
@@ -427,21 +421,13 @@ export class AffineElimination implements DaeProblem, DependentError {
    */
   private scaleAtStart(t: number, yD: Float64Array): void {
     const { n, na, nd, q, rtolA, atolA, startA, startScale } = this;
-    let same = t === this.startScaleT;
-    for (let j = 0; j < nd && same; j++) same = this.startScaleD[j] === yD[j];
-    if (same) return;
-    let expanded = t === this.expandedT;
-    for (let j = 0; j < nd && expanded; j++) expanded = this.expandedD[j] === yD[j];
-    if (expanded) {
+    if (samePoint(t, yD, this.startScaleT, this.startScaleD, nd)) return;
+    if (samePoint(t, yD, this.expandedT, this.expandedD, nd)) {
       for (let r = 0; r < na; r++) startA[r] = this.expandedA[r]!;
     } else {
       const k = this.kept(t, yD);
       const f0 = k < 0 ? this.evaluate(t, yD) : this.keptF[k]!;
-      for (let r = 0; r < na; r++) {
-        let s = 0;
-        for (let j = 0; j < n; j++) s += q[r * n + j]! * f0[j]!;
-        startA[r] = s;
-      }
+      for (let r = 0; r < na; r++) startA[r] = rowTimes(q, r, n, f0);
     }
     for (let r = 0; r < na; r++) startScale[r] = atolA[r]! + rtolA[r]! * Math.abs(startA[r]!);
     this.startScaleT = t;
@@ -496,13 +482,7 @@ export class AffineElimination implements DaeProblem, DependentError {
 
   /** The index of a kept evaluation at exactly (t, y_D), else -1. */
   kept(t: number, yD: ArrayLike<number>): number {
-    for (let k = 0; k < KEPT_EXPANSIONS; k++) {
-      if (this.keptT[k] !== t) continue;
-      const d = this.keptD[k]!;
-      let same = true;
-      for (let j = 0; j < this.nd && same; j++) same = d[j] === yD[j];
-      if (same) return k;
-    }
+    for (let k = 0; k < KEPT_EXPANSIONS; k++) if (samePoint(t, yD, this.keptT[k]!, this.keptD[k]!, this.nd)) return k;
     return -1;
   }
 

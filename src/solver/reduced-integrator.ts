@@ -5,6 +5,7 @@ import { createDaeIntegratorWithDependents, type DaeIntegrator, type DaeIntegrat
 import { DEFAULT_ATOL, DEFAULT_RTOL, toleranceArray } from './normalize-problem.js';
 import { C1, C2 } from './radau-tableau.js';
 import { mapRadauTolerances } from './radau-tolerances.js';
+import { samePoint } from './same-point.js';
 import type { DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 
 /** The collocation nodes of Radau IIA (order 5): c1, c2, c3 = 1. */
@@ -37,10 +38,10 @@ const NODE_INVERSE = (() => {
  * A Radau IIA integrator on the reduced problem M_DD y_D' = f_red(t, y_D)
  * (see {@link AffineElimination}), seen from outside as one on the full
  * problem: every state it hands over (y, readState, events, snapshots, dense
- * output) is expanded to all n unknowns. Newton acts on y_D only; the error
- * estimate takes the algebraic unknowns too, through dy_A/dy_D (see
- * {@link DependentError}), so that their tolerances hold as in the full
- * problem. The dense output of an algebraic unknown is the cubic through
+ * output) is expanded to all n unknowns. Newton iterates on y_D only; its
+ * stopping test and the error estimate take the algebraic unknowns too,
+ * through dy_A/dy_D (see {@link DependentError}), so that their tolerances
+ * hold as in the full problem. The dense output of an algebraic unknown is the cubic through
  * its values at the step's start and at the three collocation nodes, each
  * solved from the differential unknowns there: the form the full path's
  * collocation polynomial has.
@@ -346,8 +347,7 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
     if (a.length > 0) {
       // The start: the previous step's end under the same inputs, kept from that step (read before
       // the end below replaces it; an evaluation here leaves the integrator's last, at the end, kept).
-      let same = this.endValid && this.endT === it.tOld;
-      for (let j = 0; j < nd && same; j++) same = this.endD[j] === pieceY[j];
+      const same = this.endValid && samePoint(it.tOld, pieceY, this.endT, this.endD, nd);
       if (same) this.start.set(this.endY);
       else this.elim.expand(it.tOld, pieceY, this.start);
       // Then the end: the integrator evaluated f there last, so its expansion is usually kept.
@@ -393,9 +393,7 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
 
   /** Whether the present state (y_D given) is the step end expanded when its polynomial was copied (endY: the same numbers). */
   private isKeptEnd(yD: Float64Array): boolean {
-    let same = this.endValid && this.endT === this.inner.t;
-    for (let j = 0; j < this.nd && same; j++) same = this.endD[j] === yD[j];
-    return same;
+    return this.endValid && samePoint(this.inner.t, yD, this.endT, this.endD, this.nd);
   }
 
   /** f at the present state when the integrator's last evaluation was there (the expansion kept it). */
