@@ -1,3 +1,5 @@
+import { weightedSquares } from './weighted-norm.js';
+
 /**
  * Unknowns outside an integrator's state whose values follow from it: the
  * algebraic unknowns the reduced formulation solves inside f. Their share
@@ -51,12 +53,7 @@ export interface DependentError {
  * ```
  */
 export function stepErrorNorm(at: { readonly t: number }, y: Float64Array, err: Float64Array, scale: Float64Array, dependent: DependentError): number {
-  const n = err.length;
-  let s = 0;
-  for (let i = 0; i < n; i++) {
-    const r = err[i]! / scale[i]!;
-    s += r * r;
-  }
+  const s = weightedSquares(err, scale);
   dependent.measure(at, y, err);
-  return Math.sqrt((s + dependent.squares) / (n + dependent.count));
+  return Math.sqrt((s + dependent.squares) / (err.length + dependent.count));
 }

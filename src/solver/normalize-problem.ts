@@ -72,6 +72,16 @@ export const DEFAULT_RTOL = 1e-6;
 /** See {@link DEFAULT_RTOL}. */
 export const DEFAULT_ATOL = 1e-9;
 
+/**
+ * Whether atol is mapped with rtol (radau5's map) or taken at its value for
+ * rtol = 1e-6: as asked, else mapped exactly when atol is given.
+ *
+ * @internal
+ */
+export function atolFollowsRtol(options: SolveDaeOptions): boolean {
+  return options.atolFollowsRtol ?? options.atol !== undefined;
+}
+
 /** An optional option that must be a finite number > 0. */
 function positive(v: number | undefined, label: string): number | undefined {
   if (v === undefined) return undefined;
@@ -301,7 +311,7 @@ export function normalizeDae(problem: DaeProblem, options: SolveDaeOptions = {})
     hasIndex2,
     rtol,
     atol,
-    atolFollowsRtol: options.atolFollowsRtol ?? options.atol !== undefined,
+    atolFollowsRtol: atolFollowsRtol(options),
     initialStep,
     maxStep,
     maxSteps,

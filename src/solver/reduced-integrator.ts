@@ -2,7 +2,7 @@ import { AffineElimination, type AffinePartition } from './affine-elimination.js
 import type { DependentError } from './dependent-error.js';
 import { evaluateCollocation } from './collocation-polynomial.js';
 import { createDaeIntegratorWithDependents, type DaeIntegrator, type DaeIntegratorSnapshot, type DaeStepInterpolant, type DaeStepResult, type RestartOptions } from './dae-integrator.js';
-import { DEFAULT_ATOL, DEFAULT_RTOL, toleranceArray } from './normalize-problem.js';
+import { atolFollowsRtol, DEFAULT_ATOL, DEFAULT_RTOL, toleranceArray } from './normalize-problem.js';
 import { C1, C2 } from './radau-tableau.js';
 import { mapRadauTolerances } from './radau-tolerances.js';
 import { samePoint } from './same-point.js';
@@ -195,7 +195,7 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
     const atolA = pick(toleranceArray(options.atol, DEFAULT_ATOL, this.n, 'atol'), a);
     const rtolMapped = new Float64Array(a.length);
     const atolMapped = new Float64Array(a.length);
-    mapRadauTolerances(rtolA, atolA, options.atolFollowsRtol ?? options.atol !== undefined, rtolMapped, atolMapped);
+    mapRadauTolerances(rtolA, atolA, atolFollowsRtol(options), rtolMapped, atolMapped);
     this.elim.watchAlgebraic(rtolMapped, atolMapped);
     this.yD = new Float64Array(this.nd);
     this.pieceY = new Float64Array(this.nd);

@@ -8,13 +8,22 @@ import { ComponentList } from './component-list.js';
  * @internal
  */
 export function weightedRmsNorm(v: Float64Array, scale: Float64Array): number {
-  const n = v.length;
+  return Math.sqrt(weightedSquares(v, scale) / v.length);
+}
+
+/**
+ * sum_i (v_i / scale_i)^2, the sum under {@link weightedRmsNorm} (also the
+ * state's part of a norm that takes dependent unknowns, see dependent-error.ts).
+ *
+ * @internal
+ */
+export function weightedSquares(v: Float64Array, scale: Float64Array): number {
   let s = 0;
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < v.length; i++) {
     const r = v[i]! / scale[i]!;
     s += r * r;
   }
-  return Math.sqrt(s / n);
+  return s;
 }
 
 /**
