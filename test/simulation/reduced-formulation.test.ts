@@ -1,19 +1,9 @@
 import { describe, expect, it } from 'vitest';
+import { errorOf } from '../support/thrown-error.js';
 import { Solver } from '../support/odex.js';
 import { angleJob } from '../sweep/rl-network.js';
 import { parseSweepJob, runSweepCase } from '../../src/sweep/index.js';
-import { constant, createNetwork, createStepper, FluxstateError, pulse, simulate, sine, MU0, type MaterialLaw } from '../../src/index.js';
-
-/** The code of the error `fn` throws (undefined when it does not throw). */
-function errorOf(fn: () => unknown): FluxstateError | undefined {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof FluxstateError) return e;
-    throw e;
-  }
-  return undefined;
-}
+import { constant, createNetwork, createStepper, pulse, simulate, sine, MU0, type MaterialLaw } from '../../src/index.js';
 
 /** A saturating law of our own (the flux walk's, bench/flux-walk.ts): H(B) = B/(mu0 2000) + 2 sinh(B/0.04). */
 const walkLaw: MaterialLaw = {

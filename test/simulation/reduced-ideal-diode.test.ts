@@ -6,20 +6,10 @@
  * for the tests.
  */
 import { describe, expect, it } from 'vitest';
-import { constant, createNetwork, createStepper, FluxstateError, pulse, simulate, sine, type NetworkBuilder } from '../../src/index.js';
+import { errorOf } from '../support/thrown-error.js';
+import { constant, createNetwork, createStepper, pulse, simulate, sine, type NetworkBuilder } from '../../src/index.js';
 import { acceptNetwork } from '../../src/simulation/accept-network.js';
 import { NetworkRun } from '../../src/simulation/network-run.js';
-
-/** The code of the error `fn` throws (undefined when it does not throw). */
-function errorOf(fn: () => unknown): FluxstateError | undefined {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof FluxstateError) return e;
-    throw e;
-  }
-  return undefined;
-}
 
 /** Both formulations' runs of a network to `horizon`, with their commutations. */
 function bothRuns(net: NetworkBuilder, horizon: number, rtol: number) {
