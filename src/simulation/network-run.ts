@@ -790,8 +790,9 @@ export class NetworkRun {
   /** Take the step just accepted into the step in hand and keep a copy of it; returns the step in hand. */
   private recordStep(record: RecordOptions): RecordedStep {
     // The integrator copies its start state and polynomial into the step in hand.
-    // The reduced formulation's algebraic inner nodes (an evaluation of f each) are left for a reader.
-    const reduced = this.index2.length === 0 ? this.reduced : undefined;
+    // The reduced formulation's algebraic inner nodes (an evaluation of f each) are left for a reader
+    // (it refuses index-2 unknowns, so no stage extrapolation below reads them).
+    const reduced = this.reduced;
     const it = reduced ? reduced.copyInterpolantInto(this.hand.yOld, this.hand.q, true)! : this.integ.copyInterpolantInto(this.hand.yOld, this.hand.q)!;
     this.handDeferred = reduced !== undefined;
     const steps = this.stepRecord;
