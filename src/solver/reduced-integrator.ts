@@ -6,6 +6,7 @@ import { atolFollowsRtol, DEFAULT_ATOL, DEFAULT_RTOL, toleranceArray } from './n
 import { C1, C2 } from './radau-tableau.js';
 import { mapRadauTolerances } from './radau-tolerances.js';
 import { samePoint } from './same-point.js';
+import { copyEntries } from './small-array-copy.js';
 import type { DaeFailure, DaeProblem, DaeStatus, SolveDaeOptions, SolverStats } from './types.js';
 
 /** The collocation nodes of Radau IIA (order 5): c1, c2, c3 = 1. */
@@ -348,7 +349,8 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
       // The start: the previous step's end under the same inputs, kept from that step (read before
       // the end below replaces it; an evaluation here leaves the integrator's last, at the end, kept).
       const same = this.endValid && samePoint(it.tOld, pieceY, this.endT, this.endD, nd);
-      if (same) this.start.set(this.endY);
+      // Element copies, not set(): for a few unknowns the builtin's call costs more than the copy (once per step).
+      if (same) copyEntries(this.endY, this.start);
       else this.elim.expand(it.tOld, pieceY, this.start);
       // Then the end: the integrator evaluated f there last, so its expansion is usually kept.
       const end = this.end;
@@ -356,7 +358,7 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
       if (this.inner.t === it.t && Math.abs(tEnd - it.t) <= 1e-12 * Math.abs(it.t)) {
         // The step's end: the integrator's own state, kept as the next step's start.
         this.elim.expand(this.inner.t, this.inner.readState(this.endD), end);
-        this.endY.set(end);
+        copyEntries(end, this.endY);
         this.endT = it.t;
         this.endValid = true;
       } else {
@@ -367,7 +369,8 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
         this.elim.expand(tEnd, nodeD, end);
         this.endValid = false;
       }
-      for (const i of a) {
+      for (let j = 0; j < a.length; j++) {
+        const i = a[j]!;
         yOld[i] = this.start[i]!;
         q[i] = end[i]!;
         q[n + i] = NaN;
@@ -387,7 +390,7 @@ class ReducedIntegrator implements ReducedDaeIntegrator {
   readState(out: Float64Array): Float64Array {
     const yD = this.inner.readState(this.yD);
     if (!this.isKeptEnd(yD)) return this.elim.expand(this.inner.t, yD, out);
-    out.set(this.endY);
+    copyEntries(this.endY, out);
     return out;
   }
 
