@@ -50,10 +50,7 @@ export class NetworkEquations {
 
   /** Flux of tube b in the state y, Wb. */
   fluxOf(y: Float64Array, b: number): number {
-    const { index, sign } = this.tubeLoops[b]!;
-    let s = 0;
-    for (let k = 0; k < index.length; k++) s += sign[k]! * y[index[k]!]!;
-    return s;
+    return loopFlux(this.tubeLoops[b]!, y);
   }
 
   /** f(t, y) into out, with the inputs in force given explicitly. */
@@ -67,13 +64,12 @@ export class NetworkEquations {
     for (let b = 0; b < this.tubeCount; b++) {
       const term = terms[b]!;
       // The tube's loops read once, for its flux and for its MMF's scatter.
-      const { index, sign } = tubeLoops[b]!;
+      const loops = tubeLoops[b]!;
+      const { index, sign } = loops;
       const m = index.length;
       let F: number;
       if (term.group < 0 || term.first) {
-        // The flux as fluxOf sums it (same order, same bits).
-        let flux = 0;
-        for (let k = 0; k < m; k++) flux += sign[k]! * y[index[k]!]!;
+        const flux = loopFlux(loops, y);
         if (term.group < 0) F = tubes[b]!.mmf(flux, y);
         // The material tube's own l H(phi / A), with H read once for its series.
         else F = term.length * (lawValues[term.group] = term.law!.fieldStrength(flux / term.area));
@@ -91,12 +87,12 @@ export class NetworkEquations {
     for (let b = 0; b < this.tubeCount; b++) {
       const term = terms[b]!;
       // The tube's loops read once, for its flux and for its stamps (as in evaluate).
-      const { index, sign } = tubeLoops[b]!;
+      const loops = tubeLoops[b]!;
+      const { index, sign } = loops;
       const m = index.length;
       let dF: number;
       if (term.group < 0 || term.first) {
-        let flux = 0;
-        for (let k = 0; k < m; k++) flux += sign[k]! * y[index[k]!]!;
+        const flux = loopFlux(loops, y);
         if (term.group < 0) dF = tubes[b]!.mmfSlope(flux, y);
         else dF = (term.length / term.area) * (slopeValues[term.group] = term.law!.fieldSlope(flux / term.area));
       } else dF = (term.length / term.area) * slopeValues[term.group]!;
@@ -107,4 +103,12 @@ export class NetworkEquations {
     for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.jacobian(t, y, inp, J);
     for (let k = 0; k < groups.length; k++) groups[k]!.jacobian(t, y, inp, J);
   }
+}
+
+/** A tube's flux: the signed sum of its loops' fluxes (in the loops' order, so every caller gets the same bits). */
+function loopFlux(loops: TubeLoops, y: Float64Array): number {
+  const { index, sign } = loops;
+  let s = 0;
+  for (let k = 0; k < index.length; k++) s += sign[k]! * y[index[k]!]!;
+  return s;
 }
