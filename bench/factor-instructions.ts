@@ -19,7 +19,7 @@
  * (compilation on the main thread, the same optimisation points every run)
  * and one buffer is detached first, as under tsx (docs/solver.md, "Sixth
  * pass", on the detach check). Needs valgrind; prints a note and stops
- * without it. Not part of `npm run bench` (about a minute per row).
+ * without it. Not part of `npm run bench` (about three minutes per size).
  * usage: tsx bench/factor-instructions.ts
  */
 import { spawnSync } from 'node:child_process';
@@ -86,8 +86,11 @@ function runChild(variant: Variant, n: number, count: number): void {
     return;
   }
   if (variant === 'forming') {
-    // The elimination replaced by a no-op on this instance: what remains is the forming and the scales.
-    (DenseLu.prototype as unknown as { scaleAndEliminate: () => number }).scaleAndEliminate = () => -1;
+    // The elimination replaced by a no-op: what remains is the forming and the scales. Checked first,
+    // so that a renamed method fails here instead of counting the whole factorisation as the forming.
+    const proto = DenseLu.prototype as unknown as { scaleAndEliminate?: () => number };
+    if (typeof proto.scaleAndEliminate !== 'function') throw new Error('DenseLu has no scaleAndEliminate: update bench/factor-instructions.ts');
+    proto.scaleAndEliminate = () => -1;
   }
   const lu = new DenseLu(n);
   for (let k = 0; k < count; k++) lu.factorShifted(jac, SHIFT + k * 1e-9, undefined);
@@ -102,7 +105,8 @@ function instructions(variant: Variant, n: number, count: number): number | unde
     { encoding: 'utf8' },
   );
   const m = /Collected\s*:\s*(\d+)/.exec(run.stderr ?? '');
-  return m ? Number(m[1]) : undefined;
+  // A child that failed (a throw above) is no count, whatever valgrind collected before it ended.
+  return m && run.status === 0 ? Number(m[1]) : undefined;
 }
 
 function main(): void {
