@@ -161,6 +161,8 @@ class RowIndex {
     readonly byRow: Int32Array,
     readonly entries: Float64Array,
     readonly rows: Int32Array,
+    /** The positions in J (row-major n x n) that W0^T J V0 reads: the rows W0 touches times the rows of V0 that hold a non-zero. */
+    readonly support: Int32Array,
   ) {}
 }
 const rowIndexCache = new WeakMap<MassSpaces, RowIndex>();
@@ -185,7 +187,11 @@ function rowIndexOf(spaces: MassSpaces): RowIndex {
   const touched = new Uint8Array(n);
   for (let e = 0; e < w0.index.length; e++) touched[w0.index[e]!] = 1;
   const rows = Int32Array.from({ length: n }, (_, i) => i).filter((i) => touched[i] === 1);
-  c = new RowIndex(byRow, entries, rows);
+  const support: number[] = [];
+  for (let r = 0; r < rows.length; r++) {
+    for (let l = 0; l < n; l++) if (byRow[l]! < byRow[l + 1]!) support.push(rows[r]! * n + l);
+  }
+  c = new RowIndex(byRow, entries, rows, Int32Array.from(support));
   rowIndexCache.set(spaces, c);
   return c;
 }
@@ -539,6 +545,9 @@ export interface DerivativeWork {
   readonly a: Float64Array;
   readonly b: Float64Array;
   readonly lu: RealLinearSolver;
+  /** The version of J the system in `lu` was formed from (NaN: none), and whether it was singular. */
+  factoredVersion: number;
+  singular: boolean;
 }
 
 /** @internal */
@@ -553,6 +562,8 @@ class DerivativeBuffers implements DerivativeWork {
   readonly a: Float64Array;
   readonly b: Float64Array;
   readonly lu: RealLinearSolver;
+  factoredVersion = NaN;
+  singular = false;
 
   constructor(n: number) {
     this.ft = new Float64Array(n);
@@ -566,6 +577,10 @@ class DerivativeBuffers implements DerivativeWork {
  * {@link consistentDerivative} with f = f(t, y) and a Jacobian given (for a
  * restart: the kept one, good enough for a step-size estimate) and buffers
  * from `work`; allocates nothing. The result lives in `work.b`.
+ * `jacVersion`, when given, names the contents of `jac` (the same number
+ * for the same entries): the system is formed and factored only when it
+ * differs from the one factored last (M is constant, so the same J gives
+ * the same system and the same factors).
  *
  * @internal
  */
@@ -578,33 +593,45 @@ export function consistentDerivativeWith(
   f: Float64Array,
   jac: Float64Array,
   work: DerivativeWork,
+  jacVersion = NaN,
 ): Float64Array | undefined {
   const { n, spaces } = ctx;
   const { k, rank } = spaces;
   const { w0, u1 } = spaces.columns;
-  const { ft, a, b } = work;
+  const { ft, b } = work;
   ctx.rhs(t + dt, y, ft);
+  if (!(work.factoredVersion === jacVersion)) {
+    work.singular = work.lu.factor(derivativeSystem(work, mass, jac, spaces)) >= 0;
+    work.factoredVersion = jacVersion;
+  }
+  columnsTransposeTimes(u1, f, b);
+  for (let c = 0; c < k; c++) {
+    let s = 0;
+    for (let e = w0.start[c]!; e < w0.start[c + 1]!; e++) {
+      const i = w0.index[e]!;
+      s += w0.value[e]! * (ft[i]! - f[i]!) / dt;
+    }
+    b[rank + c] = -s;
+  }
+  if (work.singular) return undefined;
+  work.lu.solve(b);
+  return b;
+}
+
+/** The system of {@link consistentDerivativeWith} in `work.a`: the rows U1^T M over the rows W0^T J. */
+function derivativeSystem(work: DerivativeWork, mass: Float64Array, jac: Float64Array, spaces: MassSpaces): Float64Array {
+  const { n, k, rank } = spaces;
+  const { w0, u1 } = spaces.columns;
+  const a = work.a;
   let massRows = work.massRows;
   if (!massRows) {
     massRows = new Float64Array(rank * n);
     for (let r = 0; r < rank; r++) combineRows(u1, r, mass, n, massRows, r);
     work.massRows = massRows;
   }
-  columnsTransposeTimes(u1, f, b);
   copyEntries(massRows, a);
-  for (let c = 0; c < k; c++) {
-    const row = rank + c;
-    let s = 0;
-    for (let e = w0.start[c]!; e < w0.start[c + 1]!; e++) {
-      const i = w0.index[e]!;
-      s += w0.value[e]! * (ft[i]! - f[i]!) / dt;
-    }
-    b[row] = -s;
-    combineRows(w0, c, jac, n, a, row);
-  }
-  if (work.lu.factor(a) >= 0) return undefined;
-  work.lu.solve(b);
-  return b;
+  for (let c = 0; c < k; c++) combineRows(w0, c, jac, n, a, rank + c);
+  return a;
 }
 
 /**
@@ -633,6 +660,8 @@ export interface AlgebraicSolver {
 export interface DenseAlgebraicSolver extends AlgebraicSolver {
   /** W0^T J V0 as last factored (meaningful while `factored`). */
   readonly factoredBlock: Float64Array;
+  /** The entries of J that block was formed from, at the positions of its support (meaningful while `factored`). */
+  readonly factoredSupport: Float64Array;
   factored: boolean;
 }
 
@@ -651,6 +680,7 @@ class DenseAlgebraicBuffers implements DenseAlgebraicSolver {
   readonly dz: Float64Array;
   readonly dy: Float64Array;
   readonly factoredBlock: Float64Array;
+  readonly factoredSupport: Float64Array;
   factored = false;
 
   constructor(n: number, k: number) {
@@ -662,6 +692,7 @@ class DenseAlgebraicBuffers implements DenseAlgebraicSolver {
     this.dz = new Float64Array(k);
     this.dy = new Float64Array(n);
     this.factoredBlock = new Float64Array(k * k);
+    this.factoredSupport = new Float64Array(n * n);
   }
 }
 
@@ -672,11 +703,19 @@ class DenseAlgebraicBuffers implements DenseAlgebraicSolver {
  * kept (the same matrix factored again gives the same factors): a Jacobian
  * that changed only in its differential columns, such as a saturating
  * core's dH/dB as the flux moves, leaves the algebraic block as it was.
+ * That case is found before the block is formed: when the entries of J the
+ * block reads (its support) equal those it was last formed from.
  *
  * @internal
  */
 export function factorAlgebraic(spaces: MassSpaces, jac: Float64Array, solver: DenseAlgebraicSolver): boolean {
+  const { support } = rowIndexOf(spaces);
+  const heldSupport = solver.factoredSupport;
+  // The block is a fixed sum of products of these entries: equal entries give the same block, so J
+  // that moved only elsewhere (a saturating core's dH/dB in a differential column) is not multiplied out.
+  if (solver.factored && sameAt(jac, support, heldSupport)) return true;
   const block = algebraicJacobian(spaces, jac, solver.jr, solver.jv);
+  for (let s = 0; s < support.length; s++) heldSupport[s] = jac[support[s]!]!;
   const held = solver.factoredBlock;
   if (solver.factored) {
     let same = true;
@@ -691,6 +730,12 @@ export function factorAlgebraic(spaces: MassSpaces, jac: Float64Array, solver: D
   copyEntries(block, held); // copied before the LU reads it (an LU may scale its input)
   solver.factored = solver.lu.factor(block) < 0;
   return solver.factored;
+}
+
+/** Whether jac[positions[s]] equals held[s] for every s (=== : 0 and -0 alike, which the block's products treat alike). */
+function sameAt(jac: Float64Array, positions: Int32Array, held: Float64Array): boolean {
+  for (let s = 0; s < positions.length; s++) if (jac[positions[s]!] !== held[s]) return false;
+  return true;
 }
 
 /**

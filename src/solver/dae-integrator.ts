@@ -834,7 +834,7 @@ class RadauIntegrator implements DaeIntegrator {
             yp = this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac);
           } else {
             const work = this.derivativeWork!;
-            yp = consistentDerivativeWith(ctx, p.denseMass()!, t, dt, y, this.fCur, this.denseJacobian(), work);
+            yp = consistentDerivativeWith(ctx, p.denseMass()!, t, dt, y, this.fCur, this.denseJacobian(), work, this.jacVersion);
             if (yp) secondDerivative = linearisedSecondDerivative(this.denseJacobian(), yp, work.ft, this.fCur, dt, this.stepWork.f1);
           }
         }
@@ -1240,7 +1240,9 @@ class RadauIntegrator implements DaeIntegrator {
     this.jacValid = true;
     this.jacCurrent = true;
     if (same) return;
-    copyEntries(fresh, J);
+    // The fresh one becomes the held one by exchanging the two arrays (no copy; nothing else keeps either).
+    this.jac = fresh;
+    this.jacScratch = J;
     this.jacVersion++;
     this.luH = NaN;
   }
