@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { compileNetwork } from '../../src/formulation/compile-network.js';
 import { createNetwork, MU0, pulse, type MaterialLaw } from '../../src/index.js';
 
-// f and df/dy take a tube that lies in one magnetic loop (every tube of a core with one window) without
-// entering a loop over its loops, and clear f four entries a pass. Checked here bit for bit against the
+// f takes a tube that lies in one magnetic loop (every tube of a core with one window) without
+// entering a loop over its loops, and clears itself four entries a pass. Checked here bit for bit against the
 // plain reading written out in the test: a tube's flux as the signed sum of its loops' fluxes started
 // from 0 (mesh analysis of a magnetic circuit, e.g. Hayt and Buck, Engineering Electromagnetics,
 // sect. 9.8; common practice), its drop -sign F added into each loop row in tube order, then the
