@@ -63,10 +63,14 @@ class VoltageSourceGroup implements ElementGroup {
   residual(t: number, y: Float64Array, inputs: InputView, f: Float64Array): void {
     const { p, q, b, element } = this;
     for (let k = 0; k < b.length; k++) {
-      const i = y[b[k]!]!;
-      if (p[k]! >= 0) f[p[k]!]! += i;
-      if (q[k]! >= 0) f[q[k]!]! -= i;
-      f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - inputs.sourceValue(element[k]!, t);
+      // Each position read once: a store into f between two reads of p[k] made the second a new read.
+      const pk = p[k]!;
+      const qk = q[k]!;
+      const bk = b[k]!;
+      const i = y[bk]!;
+      if (pk >= 0) f[pk]! += i;
+      if (qk >= 0) f[qk]! -= i;
+      f[bk]! += stateValue(y, pk) - stateValue(y, qk) - inputs.sourceValue(element[k]!, t);
     }
   }
 

@@ -98,13 +98,19 @@ class WindingGroup implements ElementGroup {
   residual(_t: number, y: Float64Array, _inputs: InputView, f: Float64Array): void {
     const { p, q, b, r, sN, loops } = this;
     for (let k = 0; k < b.length; k++) {
-      const i = y[b[k]!]!;
-      f[b[k]!]! += stateValue(y, p[k]!) - stateValue(y, q[k]!) - r[k]! * i;
-      if (p[k]! >= 0) f[p[k]!]! -= i;
-      if (q[k]! >= 0) f[q[k]!]! += i;
+      // Each position read once: a store into f between two reads of p[k] made the second a new read.
+      const pk = p[k]!;
+      const qk = q[k]!;
+      const bk = b[k]!;
+      const i = y[bk]!;
+      f[bk]! += stateValue(y, pk) - stateValue(y, qk) - r[k]! * i;
+      if (pk >= 0) f[pk]! -= i;
+      if (qk >= 0) f[qk]! += i;
       const { index, sign } = loops[k]!;
       const mmf = sN[k]! * i;
-      for (let j = 0; j < index.length; j++) f[index[j]!]! += sign[j]! * mmf;
+      // A tube in one loop without a loop's back edge (as in the network's own tube loop).
+      if (index.length === 1) f[index[0]!]! += sign[0]! * mmf;
+      else for (let j = 0; j < index.length; j++) f[index[j]!]! += sign[j]! * mmf;
     }
   }
 

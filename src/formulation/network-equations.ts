@@ -55,26 +55,38 @@ export class NetworkEquations {
 
   /** f(t, y) into out, with the inputs in force given explicitly. */
   evaluate(t: number, y: Float64Array, inp: InputView, out: Float64Array): void {
-    const { terms, tubes, tubeLoops, lawValues, tubeStates, groups } = this;
+    const { terms, tubes, tubeLoops, lawValues, tubeStates, groups, tubeCount } = this;
     // A loop, not fill(): for a few unknowns the builtin's call costs more than the stores. The
     // length read once: read at each pass it cost a third of the loop (measured, 4 unknowns).
     const n = out.length;
-    for (let i = 0; i < n; i++) out[i] = 0;
+    // Four stores a pass: each pass's back edge checks for interrupts and then reads out's map and
+    // length again (about 20 instructions a pass, counted).
+    let i = 0;
+    for (; i + 3 < n; i += 4) {
+      out[i] = 0;
+      out[i + 1] = 0;
+      out[i + 2] = 0;
+      out[i + 3] = 0;
+    }
+    for (; i < n; i++) out[i] = 0;
     // Magnetic loops: -sum_b B_lb F_b(phi_b); windings add their MMFs.
-    for (let b = 0; b < this.tubeCount; b++) {
+    for (let b = 0; b < tubeCount; b++) {
       const term = terms[b]!;
       // The tube's loops read once, for its flux and for its MMF's scatter.
       const loops = tubeLoops[b]!;
       const { index, sign } = loops;
       const m = index.length;
       let F: number;
-      if (term.group < 0 || term.first) {
+      // `=== true`: one comparison, where V8 tested the field's truth generically (string, number, bigint).
+      if (term.group < 0 || term.first === true) {
         const flux = loopFlux(loops, y);
         if (term.group < 0) F = tubes[b]!.mmf(flux, y);
         // The material tube's own l H(phi / A), with H read once for its series.
         else F = term.length * (lawValues[term.group] = term.law!.fieldStrength(flux / term.area));
       } else F = term.length * lawValues[term.group]!;
-      for (let k = 0; k < m; k++) out[index[k]!]! -= sign[k]! * F;
+      // A tube in one loop (every tube of a core with one window) without a loop's back edge.
+      if (m === 1) out[index[0]!]! -= sign[0]! * F;
+      else for (let k = 0; k < m; k++) out[index[k]!]! -= sign[k]! * F;
     }
     // Indexed loops: this runs at every stage of every Newton iteration.
     for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.residual(t, y, inp, out);
@@ -83,15 +95,16 @@ export class NetworkEquations {
 
   /** df/dy added into a stamp target (zero-filled by the caller), with the inputs given explicitly. */
   stampJacobian(t: number, y: Float64Array, inp: InputView, J: StampTarget): void {
-    const { terms, tubes, tubeLoops, slopeValues, tubeStates, groups } = this;
-    for (let b = 0; b < this.tubeCount; b++) {
+    const { terms, tubes, tubeLoops, slopeValues, tubeStates, groups, tubeCount } = this;
+    for (let b = 0; b < tubeCount; b++) {
       const term = terms[b]!;
       // The tube's loops read once, for its flux and for its stamps (as in evaluate).
       const loops = tubeLoops[b]!;
       const { index, sign } = loops;
       const m = index.length;
       let dF: number;
-      if (term.group < 0 || term.first) {
+      // `=== true`: one comparison, where V8 tested the field's truth generically (string, number, bigint).
+      if (term.group < 0 || term.first === true) {
         const flux = loopFlux(loops, y);
         if (term.group < 0) dF = tubes[b]!.mmfSlope(flux, y);
         else dF = (term.length / term.area) * (slopeValues[term.group] = term.law!.fieldSlope(flux / term.area));
@@ -109,6 +122,8 @@ export class NetworkEquations {
 function loopFlux(loops: TubeLoops, y: Float64Array): number {
   const { index, sign } = loops;
   let s = 0;
+  // One loop without a loop's back edge; 0 + x as the loop adds it (+0 for x = -0).
+  if (index.length === 1) return s + sign[0]! * y[index[0]!]!;
   for (let k = 0; k < index.length; k++) s += sign[k]! * y[index[k]!]!;
   return s;
 }

@@ -474,21 +474,25 @@ export class NetworkRun {
         this.compiled.inputs.use(this.live);
       }
       const edge = Math.min(this.live.end, tStop);
-      while (this.t < edge) {
+      // The present time read once per step (a read of the integrator's time out of line makes a number each time).
+      let now = this.t;
+      while (now < edge) {
         // Exact samples: the solver stops at the next one that is a step away (closer ones are interpolated).
         let k = nextSample;
-        while (record.exact && k < samples.length && samples[k]! - this.t <= timeTolerance(samples[k]!)) k++;
+        while (record.exact && k < samples.length && samples[k]! - now <= timeTolerance(samples[k]!)) k++;
         const sample = record.exact && k < samples.length ? samples[k]! : Infinity;
         const target = edge - sample <= timeTolerance(edge) ? edge : Math.min(edge, sample);
         const r = this.integ.step(target);
         if (r.status !== 'accepted' && r.status !== 'terminal-event') {
           if (this.crossKnee(edge)) {
             this.recordStart(record);
+            now = this.t;
             continue;
           }
           this.statusCur = this.integ.status;
           return this.statusCur;
         }
+        now = this.t;
         this.junctions?.stepped();
         let commutation = false;
         for (let k = 0; k < r.events.length; k++) {
@@ -502,7 +506,7 @@ export class NetworkRun {
         kept.steps = this.stepRecord.length;
         kept.samples = this.sampleRecord.length;
         // Samples inside the step first (time order), then the step's end.
-        while (nextSample < samples.length && samples[nextSample]! < this.t) {
+        while (nextSample < samples.length && samples[nextSample]! < now) {
           const ts = samples[nextSample]!;
           if (this.handDeferred) {
             // Inputs and map as the step was taken with (nothing changed since).
@@ -519,13 +523,13 @@ export class NetworkRun {
           if (!this.pushChecked(ts, y, step, kept)) return this.statusCur;
           nextSample++;
         }
-        const endIsSample = nextSample < samples.length && samples[nextSample] === this.t;
+        const endIsSample = nextSample < samples.length && samples[nextSample] === now;
         if (endIsSample) nextSample++;
-        if ((record.steps || endIsSample || record.interpolants) && !this.recordStepEnd(record.steps || endIsSample, step, kept)) {
+        if ((record.steps || endIsSample || record.interpolants) && !this.recordStepEnd(record.steps || endIsSample, step, kept, now)) {
           return this.statusCur;
         }
         this.endState = undefined;
-        record.onStep?.(this.t);
+        record.onStep?.(now);
         if (commutation) {
           // A device's own event ended the step: flip it as the trial, settle every device, restart here.
           const last = r.events[r.events.length - 1]!;
@@ -869,11 +873,11 @@ export class NetworkRun {
    * now (the run changes them only between steps), when it accepted the step: the check reads that
    * evaluation instead of making it again, the same function at the same time, state and inputs.
    */
-  private recordStepEnd(keep: boolean, step: RecordedStep, kept: { steps: number; samples: number }): boolean {
+  private recordStepEnd(keep: boolean, step: RecordedStep, kept: { steps: number; samples: number }, t: number): boolean {
     const y = this.integ.readState(this.scratch);
     const rhs = this.integ.readRhsAtState(this.endRhs) ? this.endRhs : undefined;
-    if (!this.checked(this.t, y, step, kept, rhs)) return false;
-    if (keep) this.pushSample(this.t, y);
+    if (!this.checked(t, y, step, kept, rhs)) return false;
+    if (keep) this.pushSample(t, y);
     return true;
   }
 
