@@ -1,4 +1,10 @@
-import { equilibrateComplex, equilibrateComplexRow, finishColumnScales } from './dense-equilibration.js';
+import {
+  collectComplexColumnMaxima,
+  equilibrateComplex,
+  equilibrateComplexRow,
+  finishColumnScales,
+  firstNonFiniteComplexColumn,
+} from './dense-equilibration.js';
 import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type ComplexLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import type { SparseMass } from './sparse-mass.js';
@@ -87,7 +93,9 @@ export class ComplexLu implements ComplexLinearSolver {
 
   /**
    * {@link factorShifted} with the shifts in fields (see the real LU's). With M the identity each
-   * row is formed and scanned in one pass, as in the real LU.
+   * row is formed and scanned in one pass with the diagonal out of the loop and one finiteness
+   * probe per row, as in the real LU. Off the diagonal the imaginary part is 0, so |re| + |im| is
+   * |re| there exactly (x + 0 is x for every x >= +0, NaN and Infinity included) and is not summed.
    */
   private factorHeldShift(jac: Float64Array, mass: SparseMass | undefined): number {
     if (mass) {
@@ -97,22 +105,57 @@ export class ComplexLu implements ComplexLinearSolver {
       return this.scaleAndEliminate();
     }
     const { size: n, ar, ai, rowScale, colScale, shiftRe, shiftIm } = this;
+    const absShiftIm = Math.abs(shiftIm);
     for (let j = 0; j < n; j++) colScale[j] = 0;
     for (let i = 0; i < n; i++) {
       const row = i * n;
+      const diagonal = row + i;
+      const end = row + n;
       let m = 0;
-      for (let j = 0; j < n; j++) {
-        const vr = j === i ? -jac[row + j]! + shiftRe : -jac[row + j]!;
-        const vi = j === i ? shiftIm : 0;
-        ar[row + j] = vr;
-        ai[row + j] = vi;
-        const a = Math.abs(vr) + Math.abs(vi);
-        if (!Number.isFinite(a)) return j;
+      let probe = 0;
+      for (let k = row; k < diagonal; k++) {
+        const v = -jac[k]!;
+        ar[k] = v;
+        ai[k] = 0;
+        const a = Math.abs(v);
+        probe += a;
         if (a > m) m = a;
+      }
+      const d = -jac[diagonal]! + shiftRe;
+      ar[diagonal] = d;
+      ai[diagonal] = shiftIm;
+      const ad = Math.abs(d) + absShiftIm;
+      probe += ad;
+      if (ad > m) m = ad;
+      for (let k = diagonal + 1; k < end; k++) {
+        const v = -jac[k]!;
+        ar[k] = v;
+        ai[k] = 0;
+        const a = Math.abs(v);
+        probe += a;
+        if (a > m) m = a;
+      }
+      if (!(probe < Infinity)) {
+        const bad = firstNonFiniteComplexColumn(n, i, ar, ai);
+        if (bad >= 0) return bad;
       }
       const r = powerOfTwoInverse(m);
       rowScale[i] = r;
-      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * (Math.abs(ar[row + j]!) + Math.abs(ai[row + j]!)));
+      if (r !== Infinity) {
+        // The column maxima as collectComplexColumnMaxima takes them (compare and store), with |im| = 0 off the diagonal.
+        for (let k = row; k < diagonal; k++) {
+          const x = r * Math.abs(ar[k]!);
+          if (x > colScale[k - row]!) colScale[k - row] = x;
+        }
+        const x = r * ad;
+        if (x > colScale[i]!) colScale[i] = x;
+        for (let k = diagonal + 1; k < end; k++) {
+          const x = r * Math.abs(ar[k]!);
+          if (x > colScale[k - row]!) colScale[k - row] = x;
+        }
+      } else {
+        collectComplexColumnMaxima(n, i, ar, ai, r, colScale);
+      }
     }
     finishColumnScales(n, colScale);
     return this.scaleAndEliminate();

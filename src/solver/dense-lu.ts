@@ -1,4 +1,4 @@
-import { equilibrateReal, equilibrateRealRow, finishColumnScales } from './dense-equilibration.js';
+import { collectColumnMaxima, equilibrateReal, equilibrateRealRow, finishColumnScales, firstNonFiniteColumn } from './dense-equilibration.js';
 import { PIVOT_RELATIVE_TOLERANCE, powerOfTwoInverse, type RealLinearSolver } from './linear-solver.js';
 import { identityPermutation, packedDoubles } from './packed-doubles.js';
 import type { SparseMass } from './sparse-mass.js';
@@ -76,8 +76,11 @@ export class DenseLu implements RealLinearSolver {
   /**
    * {@link factorShifted} with the shift in a field (a number passed to a call that is not inlined
    * is boxed on the heap). With M the identity each row is formed and its largest entry found in
-   * one pass (the same entries, the same first non-finite column as equilibrateRealRow), then its
-   * column maxima.
+   * one pass, the diagonal taken out of the loop (the same entries, -J + shift computed as before),
+   * then its column maxima. One finiteness probe per row, not a test per entry: the sum of the
+   * row's |entries| is finite when every entry is (they are non-negative, so no Infinity - Infinity
+   * can hide one, and a NaN stays NaN); when it is not, the row is read again for the first
+   * non-finite column (none when the sum only overflowed), the same column as a test per entry.
    */
   private factorHeldShift(jac: Float64Array, mass: SparseMass | undefined): number {
     if (mass) {
@@ -90,17 +93,36 @@ export class DenseLu implements RealLinearSolver {
     for (let j = 0; j < n; j++) colScale[j] = 0;
     for (let i = 0; i < n; i++) {
       const row = i * n;
+      const diagonal = row + i;
+      const end = row + n;
       let m = 0;
-      for (let j = 0; j < n; j++) {
-        const v = j === i ? -jac[row + j]! + shift : -jac[row + j]!;
-        lu[row + j] = v;
+      let probe = 0;
+      for (let k = row; k < diagonal; k++) {
+        const v = -jac[k]!;
+        lu[k] = v;
         const a = Math.abs(v);
-        if (!Number.isFinite(a)) return j;
+        probe += a;
         if (a > m) m = a;
+      }
+      const d = -jac[diagonal]! + shift;
+      lu[diagonal] = d;
+      const ad = Math.abs(d);
+      probe += ad;
+      if (ad > m) m = ad;
+      for (let k = diagonal + 1; k < end; k++) {
+        const v = -jac[k]!;
+        lu[k] = v;
+        const a = Math.abs(v);
+        probe += a;
+        if (a > m) m = a;
+      }
+      if (!(probe < Infinity)) {
+        const bad = firstNonFiniteColumn(n, i, lu);
+        if (bad >= 0) return bad;
       }
       const r = powerOfTwoInverse(m);
       rowScale[i] = r;
-      for (let j = 0; j < n; j++) colScale[j] = Math.max(colScale[j]!, r * Math.abs(lu[row + j]!));
+      collectColumnMaxima(n, i, lu, r, colScale);
     }
     finishColumnScales(n, colScale);
     return this.scaleAndEliminate();
