@@ -6,7 +6,8 @@ import { checkJilesAthertonSpec, inverseJilesAtherton, type HystereticMaterial }
 import { hysteresisLossRate, magnetisationRate, magnetisationRatePartials } from '../materials/hysteresis/magnetisation-rate.js';
 import type { InputView } from './element-kind.js';
 import type { StampTarget } from './stamp-target.js';
-import type { TubeKind, TubeStateStamps } from './tube-kind.js';
+import type { TubeKind, TubeLoops, TubeStateStamps } from './tube-kind.js';
+import { loopFlux } from './loop-flux.js';
 import { checkTubeMaterial } from './tube-material-check.js';
 
 /**
@@ -76,7 +77,6 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
     const { length, area } = law;
     const volume = length * area;
     const s = ctx.stateOffset;
-    const { index, sign } = ctx.loops;
     const startB = tube.initialFluxDensity ?? (tube.initialFlux !== undefined ? tube.initialFlux / area : 0);
     const m0 = law.initialMagnetisation ?? startB / MU0;
     const h0 = startB / MU0 - m0;
@@ -104,7 +104,7 @@ export const hystereticTubeKind: TubeKind<HystereticTubeLaw> = {
       stateOffset: s,
       // H in A/m: 1/mu0 per tesla; u = db/dt: a tesla per millisecond.
       stateScales: [1 / MU0, 1e3],
-      states: new HystereticTubeStates(model, length, area, s, index, sign, h0),
+      states: new HystereticTubeStates(model, length, area, s, ctx.loops, h0),
     };
   },
   listing: (law) => [
@@ -133,32 +133,24 @@ class HystereticTubeStates implements TubeStateStamps {
     /** Index in y of H (u follows it). */
     private readonly s: number,
     /** Loop fluxes through the tube: positions in y and signs. */
-    private readonly index: readonly number[],
-    private readonly sign: readonly number[],
+    private readonly loops: TubeLoops,
     /** Initial field strength, A/m. */
     private readonly h0: number,
   ) {}
-
-  /** The tube's flux from the loop fluxes. */
-  private flux(y: Float64Array): number {
-    const { index, sign } = this;
-    let f = 0;
-    for (let k = 0; k < index.length; k++) f += sign[k]! * y[index[k]!]!;
-    return f;
-  }
 
   residual(_t: number, y: Float64Array, _inputs: InputView, f: Float64Array): void {
     const s = this.s;
     const area = this.area;
     const u = y[s + 1]!;
-    const flux = this.flux(y);
+    const flux = loopFlux(this.loops, y);
     f[s]! += u / MU0 - magnetisationRate(this.model, flux / area, magnetisationOf(flux, area, y[s]!), u);
     f[s + 1]! += u;
   }
 
   jacobian(_t: number, y: Float64Array, _inputs: InputView, J: StampTarget): void {
-    const { s, area, length, index, sign } = this;
-    const flux = this.flux(y);
+    const { s, area, length } = this;
+    const { index, sign } = this.loops;
+    const flux = loopFlux(this.loops, y);
     const p = magnetisationRatePartials(this.model, flux / area, magnetisationOf(flux, area, y[s]!), y[s + 1]!);
     // Field row f = u/mu0 - R(b, m, u) with m = b/mu0 - H.
     const dFieldDb = -(p.db + p.dm / MU0);
@@ -173,7 +165,8 @@ class HystereticTubeStates implements TubeStateStamps {
   }
 
   mass(M: StampTarget): void {
-    const { s, area, index, sign } = this;
+    const { s, area } = this;
+    const { index, sign } = this.loops;
     M.add(s, s, 1);
     for (let k = 0; k < index.length; k++) M.add(s + 1, index[k]!, sign[k]! / area);
   }

@@ -4,6 +4,7 @@ import type { WindingDescription } from '../network/description.js';
 import { packedDoublesFrom } from '../solver/packed-doubles.js';
 import type { CompiledElement, ElementGroup, ElementKind, InputView } from './element-kind.js';
 import type { TubeLoops } from './tube-kind.js';
+import { loopFlux } from './loop-flux.js';
 import { stampBranch, type StampTarget } from './stamp-target.js';
 import { stateValue } from './state-value.js';
 
@@ -45,12 +46,7 @@ export const windingKind: ElementKind<WindingDescription> = {
     const r = packedDoublesFrom(list, (e) => e.d.resistance);
     const sN = packedDoublesFrom(list, (e) => e.d.orientation * e.d.turns);
     const loops = list.map((e) => ctx.tubeLoops(e.d.tube));
-    const flux = (k: number, y: Float64Array): number => {
-      const { index, sign } = loops[k]!;
-      let s = 0;
-      for (let j = 0; j < index.length; j++) s += sign[j]! * y[index[j]!]!;
-      return s;
-    };
+    const flux = (k: number, y: Float64Array): number => loopFlux(loops[k]!, y);
     return new WindingGroup(p, q, b, r, sN, loops, list.map((e, k) => {
         const voltage = (y: Float64Array): number => stateValue(y, p[k]!) - stateValue(y, q[k]!);
         const copper = (_t: number, y: Float64Array): number => r[k]! * y[b[k]!]! ** 2;

@@ -1,6 +1,7 @@
 import type { ElementGroup, InputView } from '../elements/element-kind.js';
 import type { StampTarget } from '../elements/stamp-target.js';
 import type { CompiledTube, TubeLoops, TubeStateStamps } from '../elements/tube-kind.js';
+import { loopFlux } from '../elements/loop-flux.js';
 import type { MaterialLaw } from '../materials/material-law.js';
 import { packedDoubles } from '../solver/packed-doubles.js';
 
@@ -116,14 +117,4 @@ export class NetworkEquations {
     for (let k = 0; k < tubeStates.length; k++) tubeStates[k]!.jacobian(t, y, inp, J);
     for (let k = 0; k < groups.length; k++) groups[k]!.jacobian(t, y, inp, J);
   }
-}
-
-/** A tube's flux: the signed sum of its loops' fluxes (in the loops' order, so every caller gets the same bits). */
-function loopFlux(loops: TubeLoops, y: Float64Array): number {
-  const { index, sign } = loops;
-  let s = 0;
-  // One loop without a loop's back edge; 0 + x as the loop adds it (+0 for x = -0).
-  if (index.length === 1) return s + sign[0]! * y[index[0]!]!;
-  for (let k = 0; k < index.length; k++) s += sign[k]! * y[index[k]!]!;
-  return s;
 }
