@@ -77,14 +77,19 @@ export class SampleRecord {
     return this.rows.copyOut(k, STATE, this.size, out);
   }
 
-  /** Whether sample k's state is y bit for bit (signed zeros told apart). */
+  /**
+   * Whether sample k's state is y bit for bit (signed zeros told apart by their reciprocals). The
+   * reciprocals are compared for every entry, not only for zeros: zeros are mostly met at a run's
+   * start only, where a branch of their own would have no type feedback when V8 optimises the steps'
+   * code, and the next run's start would throw that code away (docs/solver.md).
+   */
   stateEquals(k: number, y: Float64Array): boolean {
     const data = this.rows.blockOf(k);
     const o = this.rows.offsetOf(k) + STATE;
     for (let i = 0; i < this.size; i++) {
       const a = data[o + i]!;
       const b = y[i]!;
-      if (a !== b || (a === 0 && 1 / a !== 1 / b)) return false;
+      if (a !== b || 1 / a !== 1 / b) return false;
     }
     return true;
   }

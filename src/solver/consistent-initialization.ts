@@ -530,17 +530,18 @@ export function consistentDerivative(
   const jac = new Float64Array(n * n);
   ctx.rhs(t, y, f);
   ctx.jacobian(t, y, f, jac);
-  return consistentDerivativeWith(ctx, mass, t, dt, y, f, jac, createDerivativeWork(n));
+  return consistentDerivativeWith(ctx, t, dt, y, f, jac, createDerivativeWork(ctx.spaces, mass));
 }
 
 /**
- * Buffers of {@link consistentDerivativeWith}, allocated once.
+ * Buffers of {@link consistentDerivativeWith}, allocated once, with the
+ * rows U1^T M of its system formed once (M is constant).
  *
  * @internal
  */
 export interface DerivativeWork {
-  /** U1^T M (rank x n), filled on first use (M is constant). */
-  massRows: Float64Array | undefined;
+  /** U1^T M (rank x n). */
+  readonly massRows: Float64Array;
   readonly ft: Float64Array;
   readonly a: Float64Array;
   readonly b: Float64Array;
@@ -550,14 +551,21 @@ export interface DerivativeWork {
   singular: boolean;
 }
 
-/** @internal */
-export function createDerivativeWork(n: number): DerivativeWork {
-  return new DerivativeBuffers(n);
+/**
+ * The buffers for the mass spaces `spaces` of the n x n mass matrix `mass`
+ * (row-major), U1^T M formed here rather than on first use: a branch taken
+ * only by a run's first restart has no type feedback when V8 optimises the
+ * restart path, so the next run would throw that code away (docs/solver.md).
+ *
+ * @internal
+ */
+export function createDerivativeWork(spaces: MassSpaces, mass: Float64Array): DerivativeWork {
+  return new DerivativeBuffers(spaces, mass);
 }
 
 /** A class, not a literal (see {@link createAlgebraicSolver}). */
 class DerivativeBuffers implements DerivativeWork {
-  massRows: Float64Array | undefined = undefined;
+  readonly massRows: Float64Array;
   readonly ft: Float64Array;
   readonly a: Float64Array;
   readonly b: Float64Array;
@@ -565,7 +573,10 @@ class DerivativeBuffers implements DerivativeWork {
   factoredVersion = NaN;
   singular = false;
 
-  constructor(n: number) {
+  constructor(spaces: MassSpaces, mass: Float64Array) {
+    const { n, rank } = spaces;
+    this.massRows = new Float64Array(rank * n);
+    for (let r = 0; r < rank; r++) combineRows(spaces.columns.u1, r, mass, n, this.massRows, r);
     this.ft = new Float64Array(n);
     this.a = new Float64Array(n * n);
     this.b = new Float64Array(n);
@@ -576,7 +587,8 @@ class DerivativeBuffers implements DerivativeWork {
 /**
  * {@link consistentDerivative} with f = f(t, y) and a Jacobian given (for a
  * restart: the kept one, good enough for a step-size estimate) and buffers
- * from `work`; allocates nothing. The result lives in `work.b`.
+ * from `work` (made for ctx's mass matrix); allocates nothing. The result
+ * lives in `work.b`.
  * `jacVersion`, when given, names the contents of `jac` (the same number
  * for the same entries): the system is formed and factored only when it
  * differs from the one factored last (M is constant, so the same J gives
@@ -586,7 +598,6 @@ class DerivativeBuffers implements DerivativeWork {
  */
 export function consistentDerivativeWith(
   ctx: ConsistencyContext,
-  mass: Float64Array,
   t: number,
   dt: number,
   y: Float64Array,
@@ -601,7 +612,7 @@ export function consistentDerivativeWith(
   const { ft, b } = work;
   ctx.rhs(t + dt, y, ft);
   if (!(work.factoredVersion === jacVersion)) {
-    work.singular = work.lu.factor(derivativeSystem(work, mass, jac, spaces)) >= 0;
+    work.singular = work.lu.factor(derivativeSystem(work, jac, spaces)) >= 0;
     work.factoredVersion = jacVersion;
   }
   columnsTransposeTimes(u1, f, b);
@@ -619,17 +630,11 @@ export function consistentDerivativeWith(
 }
 
 /** The system of {@link consistentDerivativeWith} in `work.a`: the rows U1^T M over the rows W0^T J. */
-function derivativeSystem(work: DerivativeWork, mass: Float64Array, jac: Float64Array, spaces: MassSpaces): Float64Array {
+function derivativeSystem(work: DerivativeWork, jac: Float64Array, spaces: MassSpaces): Float64Array {
   const { n, k, rank } = spaces;
-  const { w0, u1 } = spaces.columns;
+  const { w0 } = spaces.columns;
   const a = work.a;
-  let massRows = work.massRows;
-  if (!massRows) {
-    massRows = new Float64Array(rank * n);
-    for (let r = 0; r < rank; r++) combineRows(u1, r, mass, n, massRows, r);
-    work.massRows = massRows;
-  }
-  copyEntries(massRows, a);
+  copyEntries(work.massRows, a);
   for (let c = 0; c < k; c++) combineRows(w0, c, jac, n, a, rank + c);
   return a;
 }

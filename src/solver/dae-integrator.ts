@@ -499,8 +499,12 @@ class RadauIntegrator implements DaeIntegrator {
   private jac: Float64Array;
   /** J as a dense array for the consistent initialisation, when the system's storage is sparse (made on first use). */
   private jacDense: Float64Array | undefined;
-  /** A fresh Jacobian at a cheap restart, compared with the held one before it replaces it. */
-  private jacScratch: Float64Array | undefined;
+  /**
+   * A fresh Jacobian at a cheap restart, compared with the held one before it replaces it. Made with
+   * J, not at the first restart: a branch taken only there has no type feedback when V8 optimises the
+   * restart path, and the next run's first restart would throw that code away (docs/solver.md).
+   */
+  private jacScratch: Float64Array;
   private jacValid = false;
   private jacCurrent = false;
   private luH = NaN;
@@ -584,9 +588,10 @@ class RadauIntegrator implements DaeIntegrator {
     const n = p.n;
     this.n = n;
     // The work arrays as views into one chunk (a typed array of its own costs an ArrayBuffer each, and
-    // a short solve's set-up was mostly those): on the dense path J, and the three iteration matrices
-    // for ml-matrix (the flat LUs keep theirs in plain arrays), and about 43 of length n.
-    const denseMatrices = p.iterationPattern ? 0 : p.linearAlgebra === 'ml-matrix' ? 4 : 1;
+    // a short solve's set-up was mostly those): on the dense path J and its restart scratch, and the
+    // three iteration matrices for ml-matrix (the flat LUs keep theirs in plain arrays), and about 43
+    // of length n.
+    const denseMatrices = p.iterationPattern ? 0 : p.linearAlgebra === 'ml-matrix' ? 5 : 2;
     const chunks = new Float64Chunks(Math.min(denseMatrices * n * n + 44 * n, 1 << 16));
     // Bound, not an arrow: under tsx every arrow made per solve is named by a property definition (about half a microsecond).
     const take: TakeFloat64 = chunks.take.bind(chunks);
@@ -635,10 +640,12 @@ class RadauIntegrator implements DaeIntegrator {
       this.consistency = new IntegratorConsistency(this, n, this.spaces, undefined);
       this.denseAlgebraic = createAlgebraicSolver(n, this.spaces.k);
       this.algebraic = this.denseAlgebraic;
-      this.derivativeWork = createDerivativeWork(n);
+      // Read by the cheap restart's step estimate only (M made dense here, not at a run's first restart).
+      if (this.spaces.k > 0 && p.consistentInit) this.derivativeWork = createDerivativeWork(this.spaces, p.denseMass()!);
     }
     this.piece = { tOld: NaN, t: NaN, h: NaN, yOld: take(n), q: take(3 * n) };
     this.jac = take(this.system.jacobianSize);
+    this.jacScratch = take(this.system.jacobianSize);
     this.eventValues = take(p.events.length);
     this.landingEvents = p.events.length > 0 && p.events.some((e) => e.terminal === true && e.stepToEvent === true);
     this.stepStart = {
@@ -663,7 +670,7 @@ class RadauIntegrator implements DaeIntegrator {
     const s = this.system.storage();
     const p = this.p;
     return {
-      jacobian: s.jacobian + this.jac.length + (this.jacScratch?.length ?? 0) + (this.consistencyJac?.length ?? 0),
+      jacobian: s.jacobian + this.jac.length + this.jacScratch.length + (this.consistencyJac?.length ?? 0),
       iterationMatrices: s.iterationMatrices,
       factors: s.factors,
       consistency: this.sparseConsistency?.held ?? (this.derivativeWork ? this.derivativeWork.a.length : 0),
@@ -834,7 +841,7 @@ class RadauIntegrator implements DaeIntegrator {
             yp = this.sparseConsistency.derivative(ctx, t, dt, y, this.fCur, this.jac);
           } else {
             const work = this.derivativeWork!;
-            yp = consistentDerivativeWith(ctx, p.denseMass()!, t, dt, y, this.fCur, this.denseJacobian(), work, this.jacVersion);
+            yp = consistentDerivativeWith(ctx, t, dt, y, this.fCur, this.denseJacobian(), work, this.jacVersion);
             if (yp) secondDerivative = linearisedSecondDerivative(this.denseJacobian(), yp, work.ft, this.fCur, dt, this.stepWork.f1);
           }
         }
@@ -849,7 +856,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.faccon = 1;
       // J was evaluated at (t, y) with the new inputs: current unless the re-solve moved y since.
       this.jacCurrent = !moved;
-      if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur), true, secondDerivative));
+      if (capByEstimate) this.hCur = Math.min(this.hCur, this.restartStepSize(yp ?? (p.mass ? undefined : this.fCur), secondDerivative));
       this.slopeStart = yp !== undefined;
       if (yp) copyEntries(yp, this.restartSlope);
       this.evaluateEventsAt(t, y, this.eventValues);
@@ -1043,7 +1050,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.callJacobian(t, y, f, out);
       return;
     }
-    const values = (this.jacScratch ??= new Float64Array(this.jac.length));
+    const values = this.jacScratch;
     this.callJacobian(t, y, f, values);
     this.system.toDense(values, out);
   }
@@ -1124,8 +1131,8 @@ class RadauIntegrator implements DaeIntegrator {
         this.fail('non-finite', `f returned NaN or Infinity at t = ${this.tCur} in components ${bad.join(', ')}`, bad);
         return;
       }
-      if (fresh) this.hCur = this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur));
-      else if (capByEstimate) this.hCur = Math.min(this.hCur, this.initialStepSize(yp ?? (p.mass ? undefined : this.fCur), true));
+      if (fresh) this.hCur = this.startingStepSize(yp ?? (p.mass ? undefined : this.fCur), false);
+      else if (capByEstimate) this.hCur = Math.min(this.hCur, this.startingStepSize(yp ?? (p.mass ? undefined : this.fCur), true));
       this.evaluateEventsAt(this.tCur, this.yCur, this.eventValues);
       if (this.tCur >= p.tEnd) this.statusCur = 'success';
     } catch (e) {
@@ -1152,12 +1159,12 @@ class RadauIntegrator implements DaeIntegrator {
   /**
    * Initial step (Hairer, Norsett and Wanner, Solving ODEs I, sect. II.4,
    * "starting step size"; the form used by SciPy's select_initial_step) from
-   * y' at t0: f for an ODE, the consistent derivative for a DAE. The second
-   * derivative's size comes from a trial f at t0 + h0, y0 + h0 y', or, when
-   * `secondDerivative` is given, from that vector (J y' + df/dt, the trial's
-   * difference quotient to first order in h0).
+   * y' at t0: f for an ODE, the consistent derivative for a DAE, with the
+   * second derivative's size from a trial f at t0 + h0, y0 + h0 y'. The
+   * user's initial step instead, unless `ignoreGiven`. For a run's start and
+   * a full re-initialisation; a cheap restart has {@link restartStepSize}.
    */
-  private initialStepSize(yp: Float64Array | undefined, ignoreGiven = false, secondDerivative?: Float64Array): number {
+  private startingStepSize(yp: Float64Array | undefined, ignoreGiven: boolean): number {
     const p = this.p;
     const span = p.tEnd - p.t0;
     const cap = Math.min(p.maxStep, span);
@@ -1168,28 +1175,40 @@ class RadauIntegrator implements DaeIntegrator {
       return Math.min(Math.max(p.initialStep, floor), cap);
     }
     if (!yp) return Math.min(1e-6 * span, cap);
+    const scale = errorScale(this.yCur, p.rtol, p.atol, this.stepWork.scale);
+    const d1 = weightedRmsNorm(yp, scale);
+    const h0 = firstStepGuess(weightedRmsNorm(this.yCur, scale), d1, span, cap);
+    return stepFromDerivatives(h0, d1, this.trialSecondDerivative(h0, yp, scale), span, cap);
+  }
+
+  /**
+   * {@link startingStepSize} at a cheap restart (the user's initial step
+   * ignored), the second derivative's size from `secondDerivative` when
+   * given (J y' + df/dt, the trial's difference quotient to first order in
+   * h0). Apart from the run's start: a branch taken only at the start would
+   * have no type feedback when V8 optimises the restarts, and each later
+   * run's start would throw that code away (docs/solver.md).
+   */
+  private restartStepSize(yp: Float64Array | undefined, secondDerivative: Float64Array | undefined): number {
+    const p = this.p;
+    const span = p.tEnd - p.t0;
+    const cap = Math.min(p.maxStep, span);
+    if (!yp) return Math.min(1e-6 * span, cap);
+    const scale = errorScale(this.yCur, p.rtol, p.atol, this.stepWork.scale);
+    const d1 = weightedRmsNorm(yp, scale);
+    const h0 = firstStepGuess(weightedRmsNorm(this.yCur, scale), d1, span, cap);
+    const d2 = secondDerivative ? weightedRmsNorm(secondDerivative, scale) : this.trialSecondDerivative(h0, yp, scale);
+    return stepFromDerivatives(h0, d1, d2, span, cap);
+  }
+
+  /** The second derivative's weighted size from a trial f at t + h0, y + h0 y'. */
+  private trialSecondDerivative(h0: number, yp: Float64Array, scale: Float64Array): number {
     const n = this.n;
     const { y1, f1 } = this.stepWork;
-    const scale = errorScale(this.yCur, p.rtol, p.atol, this.stepWork.scale);
-    const d0 = weightedRmsNorm(this.yCur, scale);
-    const d1 = weightedRmsNorm(yp, scale);
-    let h0 = d0 < 1e-5 || d1 < 1e-5 ? 1e-6 * span : (0.01 * d0) / d1;
-    h0 = Math.min(h0, cap);
-    let d2: number;
-    if (secondDerivative) {
-      d2 = weightedRmsNorm(secondDerivative, scale);
-    } else {
-      for (let i = 0; i < n; i++) y1[i] = this.yCur[i]! + h0 * yp[i]!;
-      this.callRhs(this.tCur + h0, y1, f1);
-      for (let i = 0; i < n; i++) f1[i] = f1[i]! - this.fCur[i]!;
-      d2 = weightedRmsNorm(f1, scale) / h0;
-    }
-    let h1: number;
-    if (!Number.isFinite(d2)) h1 = h0 * 1e-3;
-    else if (d1 <= 1e-15 && d2 <= 1e-15) h1 = Math.max(1e-6 * span, h0 * 1e-3);
-    else h1 = (0.01 / Math.max(d1, d2)) ** (1 / 6);
-    const h = Math.min(100 * h0, h1, cap);
-    return h > 0 && Number.isFinite(h) ? h : Math.min(1e-6 * span, cap);
+    for (let i = 0; i < n; i++) y1[i] = this.yCur[i]! + h0 * yp[i]!;
+    this.callRhs(this.tCur + h0, y1, f1);
+    for (let i = 0; i < n; i++) f1[i] = f1[i]! - this.fCur[i]!;
+    return weightedRmsNorm(f1, scale) / h0;
   }
 
   private evaluateEventsAt(t: number, y: Float64Array, out: Float64Array): void {
@@ -1226,7 +1245,7 @@ class RadauIntegrator implements DaeIntegrator {
       this.ensureJacobian();
       return;
     }
-    const fresh = (this.jacScratch ??= new Float64Array(this.jac.length));
+    const fresh = this.jacScratch;
     this.jacValid = false;
     this.callJacobian(this.tCur, this.yCur, this.fCur, fresh);
     const J = this.jac;
@@ -1827,4 +1846,20 @@ function linearisedSecondDerivative(jac: Float64Array, yp: Float64Array, fAhead:
     out[i] = s;
   }
   return out;
+}
+
+/** The starting step's first guess from the weighted sizes of y (d0) and y' (d1) (Solving ODEs I, sect. II.4, step a-b). */
+function firstStepGuess(d0: number, d1: number, span: number, cap: number): number {
+  const h0 = d0 < 1e-5 || d1 < 1e-5 ? 1e-6 * span : (0.01 * d0) / d1;
+  return Math.min(h0, cap);
+}
+
+/** The starting step from the first guess h0 and the weighted sizes of y' (d1) and y'' (d2) (Solving ODEs I, sect. II.4, step c-f). */
+function stepFromDerivatives(h0: number, d1: number, d2: number, span: number, cap: number): number {
+  let h1: number;
+  if (!Number.isFinite(d2)) h1 = h0 * 1e-3;
+  else if (d1 <= 1e-15 && d2 <= 1e-15) h1 = Math.max(1e-6 * span, h0 * 1e-3);
+  else h1 = (0.01 / Math.max(d1, d2)) ** (1 / 6);
+  const h = Math.min(100 * h0, h1, cap);
+  return h > 0 && Number.isFinite(h) ? h : Math.min(1e-6 * span, cap);
 }

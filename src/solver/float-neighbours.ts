@@ -12,6 +12,13 @@ const words = new Uint32Array(bits.buffer);
 /** Index of the low 32-bit word of a double in `words` (0 on little-endian machines). */
 const LOW = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1 ? 0 : 1;
 const HIGH = 1 - LOW;
+/**
+ * The smallest positive double (Number.MIN_VALUE) as a module constant: the x = 0 branch runs only at a
+ * run's start, and a property read there has no type feedback when V8 optimises a caller made hot by
+ * the restarts, so the next run's start would throw that optimised code away (docs/solver.md).
+ */
+const SMALLEST_SUBNORMAL = 5e-324;
+const NEGATIVE_SMALLEST_SUBNORMAL = -5e-324;
 
 /** The double of next larger magnitude after x (x finite, non-zero, or -Infinity). */
 function awayFromZero(x: number): number {
@@ -48,7 +55,7 @@ function towardZero(x: number): number {
  */
 export function nextUp(x: number): number {
   if (x !== x || x === Infinity) return x;
-  if (x === 0) return Number.MIN_VALUE;
+  if (x === 0) return SMALLEST_SUBNORMAL;
   return x > 0 ? awayFromZero(x) : towardZero(x);
 }
 
@@ -62,6 +69,6 @@ export function nextUp(x: number): number {
  */
 export function nextDown(x: number): number {
   if (x !== x || x === -Infinity) return x;
-  if (x === 0) return -Number.MIN_VALUE;
+  if (x === 0) return NEGATIVE_SMALLEST_SUBNORMAL;
   return x > 0 ? towardZero(x) : awayFromZero(x);
 }

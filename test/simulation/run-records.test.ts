@@ -101,6 +101,28 @@ describe('Float64Rows (rows of numbers in blocks that double)', () => {
   });
 });
 
+describe('SampleRecord.stateEquals (bit for bit)', () => {
+  // IEEE 754-2019: +0 and -0 compare equal (sect. 5.11) but 1/+0 = +Infinity and 1/-0 = -Infinity
+  // (sect. 7.3, division by zero), NaN is unequal to everything (sect. 5.11): a state is "the same"
+  // only when every entry has the same bits, signed zeros told apart.
+  const record = new SampleRecord(4);
+  record.push(0, 0, Float64Array.of(0, -0, Infinity, 2.5e-300));
+  it('holds for the same bits, zeros, signed zeros and infinities included', () => {
+    expect(record.stateEquals(0, Float64Array.of(0, -0, Infinity, 2.5e-300))).toBe(true);
+  });
+  it('fails on a zero of the other sign, in either entry', () => {
+    expect(record.stateEquals(0, Float64Array.of(-0, -0, Infinity, 2.5e-300))).toBe(false);
+    expect(record.stateEquals(0, Float64Array.of(0, 0, Infinity, 2.5e-300))).toBe(false);
+  });
+  it('fails on another value, an infinity of the other sign, and NaN', () => {
+    expect(record.stateEquals(0, Float64Array.of(0, -0, Infinity, 2.5000000000000003e-300))).toBe(false);
+    expect(record.stateEquals(0, Float64Array.of(0, -0, -Infinity, 2.5e-300))).toBe(false);
+    const withNaN = new SampleRecord(1);
+    withNaN.push(0, 0, Float64Array.of(NaN));
+    expect(withNaN.stateEquals(0, Float64Array.of(NaN))).toBe(false);
+  });
+});
+
 describe('a run records its samples and steps as rows', () => {
   const stop = 5 * TAU;
   const { run, coil, compiled, solverStates } = recordedRun(stop);

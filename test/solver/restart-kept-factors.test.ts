@@ -148,7 +148,7 @@ describe('consistentDerivativeWith: the system is factored again only for anothe
     const ctx = winding(() => u);
     const mass = Float64Array.of(1, 0, 0, 0, 0, 0, 0, 0, 0);
     const jac = new Float64Array(9);
-    const kept = createDerivativeWork(3);
+    const kept = createDerivativeWork(ctx.spaces, mass);
     const count = counted(kept);
     const dt = 1e-12;
     let version = 0;
@@ -160,9 +160,9 @@ describe('consistentDerivativeWith: the system is factored again only for anothe
       ctx.jacAt(y, jac);
       if (changed) version++;
       const before = count.factors();
-      const yp = Float64Array.from(consistentDerivativeWith(ctx, mass, 0, dt, y, f, jac, kept, version)!);
+      const yp = Float64Array.from(consistentDerivativeWith(ctx, 0, dt, y, f, jac, kept, version)!);
       expect(count.factors() - before).toBe(changed ? 1 : 0);
-      const fresh = consistentDerivativeWith(ctx, mass, 0, dt, y, f, jac, createDerivativeWork(3))!;
+      const fresh = consistentDerivativeWith(ctx, 0, dt, y, f, jac, createDerivativeWork(ctx.spaces, mass))!;
       expect(Array.from(yp)).toEqual(Array.from(fresh));
       // The constraints differentiated (u held, so v' = 0): phi' = v - R i, N i' = (l / A) H'(phi / A) phi'.
       const phiDot = y[1]! - R * y[2]!;
@@ -182,14 +182,14 @@ describe('consistentDerivativeWith: the system is factored again only for anothe
     const f = new Float64Array(3);
     ctx.rhs(0, y, f);
     ctx.jacAt(y, jac);
-    const work = createDerivativeWork(3);
+    const work = createDerivativeWork(ctx.spaces, mass);
     const count = counted(work);
-    consistentDerivativeWith(ctx, mass, 0, 1e-12, y, f, jac, work);
-    consistentDerivativeWith(ctx, mass, 0, 1e-12, y, f, jac, work);
+    consistentDerivativeWith(ctx, 0, 1e-12, y, f, jac, work);
+    consistentDerivativeWith(ctx, 0, 1e-12, y, f, jac, work);
     expect(count.factors()).toBe(2);
     jac[8] = 0; // no turns: i' is not determined
-    expect(consistentDerivativeWith(ctx, mass, 0, 1e-12, y, f, jac, work, 7)).toBeUndefined();
-    expect(consistentDerivativeWith(ctx, mass, 0, 1e-12, y, f, jac, work, 7)).toBeUndefined();
+    expect(consistentDerivativeWith(ctx, 0, 1e-12, y, f, jac, work, 7)).toBeUndefined();
+    expect(consistentDerivativeWith(ctx, 0, 1e-12, y, f, jac, work, 7)).toBeUndefined();
     expect(count.factors()).toBe(3);
   });
 });
