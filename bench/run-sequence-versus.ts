@@ -7,7 +7,7 @@
  */
 import { execFileSync } from 'node:child_process';
 import { resolve } from 'node:path';
-import { median, printTable } from './timing.js';
+import { alternate, median, printTable } from './timing.js';
 
 const other = process.argv[2];
 if (!other) throw new Error('usage: tsx bench/run-sequence-versus.ts <other checkout> [processes] [runs]');
@@ -22,16 +22,8 @@ function sequence(root: string): number[] {
   return (JSON.parse(out.trim().split('\n').pop()!) as { cpu_ms: number[] }).cpu_ms;
 }
 
-const ms = { here: [] as number[][], other: [] as number[][] };
-for (let k = 0; k < processes; k++) {
-  if (k % 2 === 0) {
-    ms.here.push(sequence(here));
-    ms.other.push(sequence(other));
-  } else {
-    ms.other.push(sequence(other));
-    ms.here.push(sequence(here));
-  }
-}
+const runsOf = alternate(processes, () => sequence(here), () => sequence(other));
+const ms = { here: runsOf.here, other: runsOf.there };
 const rows: (string | number)[][] = [];
 for (let r = 0; r < runs; r++) {
   const h = median(ms.here.map((s) => s[r]!));
@@ -41,6 +33,6 @@ for (let r = 0; r < runs; r++) {
 const settled = (s: number[]): number => median(s.slice(3));
 const hw = median(ms.here.map(settled));
 const ow = median(ms.other.map(settled));
-rows.push(['runs 3 on', hw, ow, hw / ow]);
+if (runs > 3) rows.push(['runs 3 on', hw, ow, hw / ow]);
 console.log(`flux walk, CPU ms per run, medians of ${processes} processes each (alternated)`);
 printTable(['', 'this', 'other', 'this/other'], rows);

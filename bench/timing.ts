@@ -30,17 +30,22 @@ export function median(a: readonly number[]): number {
  * from round to round, so that neither always follows the other's garbage.
  */
 export function alternateCpuMs(rounds: number, here: () => unknown, there: () => unknown): { here: number[]; there: number[] } {
-  const ms = { here: [] as number[], there: [] as number[] };
+  return alternate(rounds, () => cpuMs(here), () => cpuMs(there));
+}
+
+/** `rounds` results of each of two measurements, alternating which goes first from round to round. */
+export function alternate<T>(rounds: number, here: () => T, there: () => T): { here: T[]; there: T[] } {
+  const out = { here: [] as T[], there: [] as T[] };
   for (let k = 0; k < rounds; k++) {
     if (k % 2 === 0) {
-      ms.here.push(cpuMs(here));
-      ms.there.push(cpuMs(there));
+      out.here.push(here());
+      out.there.push(there());
     } else {
-      ms.there.push(cpuMs(there));
-      ms.here.push(cpuMs(here));
+      out.there.push(there());
+      out.here.push(here());
     }
   }
-  return ms;
+  return out;
 }
 
 /** Fixed-width table printing. */
