@@ -540,9 +540,8 @@ export function consistentDerivative(
  * @internal
  */
 export interface DerivativeWork {
-  /** U1^T M (rank x n). */
-  readonly massRows: Float64Array;
   readonly ft: Float64Array;
+  /** The system (n x n): rows U1^T M (written once, with the work) over rows W0^T J (written per J). */
   readonly a: Float64Array;
   readonly b: Float64Array;
   readonly lu: RealLinearSolver;
@@ -565,7 +564,6 @@ export function createDerivativeWork(spaces: MassSpaces, mass: Float64Array): De
 
 /** A class, not a literal (see {@link createAlgebraicSolver}). */
 class DerivativeBuffers implements DerivativeWork {
-  readonly massRows: Float64Array;
   readonly ft: Float64Array;
   readonly a: Float64Array;
   readonly b: Float64Array;
@@ -575,10 +573,10 @@ class DerivativeBuffers implements DerivativeWork {
 
   constructor(spaces: MassSpaces, mass: Float64Array) {
     const { n, rank } = spaces;
-    this.massRows = new Float64Array(rank * n);
-    for (let r = 0; r < rank; r++) combineRows(spaces.columns.u1, r, mass, n, this.massRows, r);
     this.ft = new Float64Array(n);
     this.a = new Float64Array(n * n);
+    // The top rows stay as written here: the LU factors a without changing it (RealLinearSolver.factor).
+    for (let r = 0; r < rank; r++) combineRows(spaces.columns.u1, r, mass, n, this.a, r);
     this.b = new Float64Array(n);
     this.lu = createPatternAdaptiveLu(n);
   }
@@ -629,12 +627,11 @@ export function consistentDerivativeWith(
   return b;
 }
 
-/** The system of {@link consistentDerivativeWith} in `work.a`: the rows U1^T M over the rows W0^T J. */
+/** The system of {@link consistentDerivativeWith} in `work.a`: its rows W0^T J below the rows U1^T M made with the work. */
 function derivativeSystem(work: DerivativeWork, jac: Float64Array, spaces: MassSpaces): Float64Array {
   const { n, k, rank } = spaces;
   const { w0 } = spaces.columns;
   const a = work.a;
-  copyEntries(work.massRows, a);
   for (let c = 0; c < k; c++) combineRows(w0, c, jac, n, a, rank + c);
   return a;
 }
