@@ -6,7 +6,8 @@
  * speedup on worker threads (bench/sweep.ts), first-run against warm cost,
  * memory against steps (bench/memory.ts), the commutations of a flyback with
  * ideal against exponential diodes (bench/flyback-commutation.ts), the ratios to compiled RADAU5
- * when the bench-anchor yardstick is at hand (bench/anchor.ts), and the flux walk taken apart
+ * when the bench-anchor yardstick is at hand (bench/anchor.ts), a small solve's kernels against the
+ * rest of the solver (bench/kernel-share.ts), and the flux walk taken apart
  * (network layer, differential-algebraic form, solver; bench/flux-walk-anatomy.ts), and the
  * flux walk in the full against the reduced formulation (bench/flux-walk-reduced.ts), and both
  * formulations' work against accuracy on an energisation (bench/formulation-accuracy.ts). Prints tables;
@@ -25,6 +26,7 @@ import { benchRestarts, benchSparseSwitch } from './solver-paths.js';
 import { benchSweep } from './sweep.js';
 import { benchDevices } from './devices.js';
 import { benchLadder } from './ladder.js';
+import { benchKernelShare } from './kernel-share.js';
 import { benchLoaderCost } from './loader-cost.js';
 import { benchFluxWalkAnatomy } from './flux-walk-anatomy.js';
 import { benchFluxWalkReduced } from './flux-walk-reduced.js';
@@ -164,6 +166,7 @@ benchColdWarm();
 benchMemory();
 benchAgainstRadau5();
 benchLoaderCost();
+benchKernelShare();
 benchFluxWalkAnatomy();
 benchFluxWalkReduced();
 benchFormulationAccuracy();
