@@ -10,10 +10,9 @@
  * `luFactorizations`) and the real and the complex solve (one of each per
  * Newton iteration). The per-call costs are taken in tight loops over
  * states spread along the solution (the solves with their right-hand side
- * filled afresh), so the kernels' share is a lower bound
- * (in the solve they run between other code, with colder caches and
- * branch history). The error estimate's solves (one real solve a step) are
- * left in the rest. Rounds alternate the kernels and the whole solves so
+ * filled afresh), so the kernels' share is a lower bound: in the solve they
+ * run between other code, with colder caches and branch history. The error
+ * estimate's solves (one real solve a step) are left in the rest. Rounds alternate the kernels and the whole solves so
  * that both see the same load. RADAU5 is the bench-anchor's driver (built
  * with gfortran when the anchor is beside the checkout) with the same
  * tolerances and initial step; its columns are NaN otherwise.
