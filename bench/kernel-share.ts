@@ -27,9 +27,10 @@ import { createDaeIntegrator, solveDae, type DaeProblem, type SolveDaeOptions } 
 import { ComplexLu } from '../src/solver/complex-lu.js';
 import { DenseLu } from '../src/solver/dense-lu.js';
 import { MU_COMPLEX_IM, MU_COMPLEX_RE, MU_REAL } from '../src/solver/radau-tableau.js';
-import { sparseMassOfDense, type SparseMass } from '../src/solver/sparse-mass.js';
-import { hires, robertsonOde, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
-import { buildRadau5 } from './radau5-build.js';
+import { normalizeDae } from '../src/solver/normalize-problem.js';
+import type { SparseMass } from '../src/solver/sparse-mass.js';
+import { hires, robertsonOde, testSetAtol, transistorAmplifier, vanDerPol, type TestProblem } from './problems.js';
+import { buildRadau5, radau5DriverCpuMs } from './radau5-build.js';
 import { cpuMs, median, printTable } from './timing.js';
 
 /** The bench-anchor driver's problem numbers. */
@@ -43,18 +44,6 @@ const PROBLEMS: readonly (readonly [string, number, () => TestProblem])[] = [
 const CALLS = 20000;
 /** States along the solution the kernels are called at. */
 const STATES = 16;
-
-/** The problem's constant mass matrix in the solver's compressed rows, or undefined for the identity. */
-function massOf(problem: DaeProblem): SparseMass | undefined {
-  const given = problem.mass;
-  if (given === undefined) return undefined;
-  const n = problem.size;
-  const dense = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) dense[i * n + j] = given instanceof Float64Array ? given[i * n + j]! : (given as readonly (readonly number[])[])[i]![j]!;
-  }
-  return sparseMassOfDense(dense, n);
-}
 
 /** Microseconds per call of each kernel, one timed block each. */
 type KernelTimes = { f: number; jacobian: number; realFactor: number; complexFactor: number; realSolve: number; complexSolve: number };
@@ -109,17 +98,6 @@ function kernelBlock(problem: DaeProblem, states: readonly Float64Array[], h: nu
   };
 }
 
-/** RADAU5's median CPU ms per solve from the bench-anchor's driver, NaN when it is not at hand or fails. */
-function radau5Ms(driver: string | undefined, id: number, rtol: number, atol: number, h0: number): number {
-  if (!driver) return NaN;
-  const r = spawnSync(driver, [String(id), String(rtol), String(atol), String(h0), '1'], { encoding: 'utf8' });
-  try {
-    return 1000 * (JSON.parse(r.stdout.replace(/\s+/g, '')) as { median_cpu_s: number }).median_cpu_s;
-  } catch {
-    return NaN;
-  }
-}
-
 /** One problem's figures (ms per solve), measured in this process. */
 interface Share {
   name: string;
@@ -138,8 +116,7 @@ function measureProblem(name: string, rounds: number): Share {
   const make = PROBLEMS.find((p) => p[0] === name)![2];
   const { problem } = make();
   const rtol = 1e-6;
-  const atol = name === 'ROBER' ? rtol * 1e-6 : rtol;
-  const options: SolveDaeOptions = { rtol, atol, denseOutput: false };
+  const options: SolveDaeOptions = { rtol, atol: testSetAtol(name, rtol), denseOutput: false };
   // Warm-up as the bench-anchor's: 1.5 s of CPU or 200 solves, whichever comes first.
   let sol = solveDae(problem, options);
   for (let k = 0, spent = 0; spent < 1500 && k < 200; k++) spent += cpuMs(() => (sol = solveDae(problem, options)));
@@ -150,7 +127,8 @@ function measureProblem(name: string, rounds: number): Share {
   const rowsOfY = sol.y;
   const states = Array.from({ length: STATES }, (_, k) => Float64Array.from(rowsOfY[Math.floor((k * (rowsOfY.length - 1)) / (STATES - 1))]!));
   const h = (sol.tReached - problem.t0) / stats.acceptedSteps;
-  const mass = massOf(problem);
+  // The mass matrix as the solver factors with it (an identity dropped, dependent rows recombined).
+  const mass = normalizeDae(problem, options).mass;
   const blocks: KernelTimes[] = [];
   const wholes: number[] = [];
   for (let r = 0; r < rounds; r++) {
@@ -189,8 +167,7 @@ export function benchKernelShare(rounds = 9): void {
         continue;
       }
       const rtol = 1e-6;
-      const atol = name === 'ROBER' ? rtol * 1e-6 : rtol;
-      const r5 = radau5Ms(built?.driver, id, rtol, atol, s.h0);
+      const r5 = radau5DriverCpuMs(built?.driver, id, rtol, testSetAtol(name, rtol), s.h0);
       const kernels = s.fj + s.factor + s.solves;
       rows.push([name, s.n, s.steps, s.whole, s.fj, s.factor, s.solves, kernels / s.whole, r5, s.whole / r5, kernels / r5, (s.whole - kernels) / r5]);
     }

@@ -19,7 +19,8 @@ import { tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import ts from 'typescript';
-import { buildRadau5 } from './radau5-build.js';
+import { testSetAtol } from './problems.js';
+import { buildRadau5, radau5DriverCpuMs } from './radau5-build.js';
 import { median, printTable } from './timing.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -76,7 +77,7 @@ function runOnce(args: string[], cwd: string): Run | undefined {
   }
 }
 
-// The bench-anchor driver's problem numbers and the Test Set's tolerances (ROBER's atol six orders below rtol).
+// The bench-anchor driver's problem numbers.
 const problems = [['ROBER', 1], ['VDPOL', 2], ['HIRES', 3], ['TRANSAMP', 5]] as const;
 
 export function benchLoaderCost(rounds = 3): void {
@@ -88,7 +89,6 @@ export function benchLoaderCost(rounds = 3): void {
   try {
     for (const [name, id] of problems) {
       const rtol = 1e-6;
-      const atol = name === 'ROBER' ? rtol * 1e-6 : rtol;
       const viaTsx: number[] = [];
       const emittedJs: number[] = [];
       const detached: number[] = [];
@@ -102,15 +102,7 @@ export function benchLoaderCost(rounds = 3): void {
         if (c) detached.push(c.warm_cpu_ms);
         last = b ?? a;
       }
-      let radau5 = NaN;
-      if (driver && last) {
-        const r = spawnSync(driver, [String(id), String(rtol), String(atol), String(last.h0), '1'], { encoding: 'utf8' });
-        try {
-          radau5 = 1000 * (JSON.parse(r.stdout.replace(/\s+/g, '')) as { median_cpu_s: number }).median_cpu_s;
-        } catch {
-          radau5 = NaN;
-        }
-      }
+      const radau5 = last ? radau5DriverCpuMs(driver, id, rtol, testSetAtol(name, rtol), last.h0) : NaN;
       const t = median(viaTsx);
       const e = median(emittedJs);
       const d = median(detached);

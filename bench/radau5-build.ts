@@ -35,3 +35,18 @@ export function buildRadau5(): BuiltRadau5 | undefined {
   }
   return { driver: join(dir, 'radau5', 'driver'), fluxwalk: join(dir, 'radau5', 'fluxwalk'), remove };
 }
+
+/**
+ * RADAU5's median CPU ms per solve of the Test Set problem `id` (the driver's numbering: 1 ROBER,
+ * 2 VDPOL, 3 HIRES, 4 RINGMOD, 5 TRANSAMP) with the given tolerances and initial step, repeated
+ * for a second; NaN when the driver is not at hand or its output cannot be read.
+ */
+export function radau5DriverCpuMs(driver: string | undefined, id: number, rtol: number, atol: number, h0: number): number {
+  if (!driver) return NaN;
+  const r = spawnSync(driver, [String(id), String(rtol), String(atol), String(h0), '1'], { encoding: 'utf8' });
+  try {
+    return 1000 * (JSON.parse(r.stdout.replace(/\s+/g, '')) as { median_cpu_s: number }).median_cpu_s;
+  } catch {
+    return NaN;
+  }
+}
